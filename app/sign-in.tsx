@@ -1,0 +1,5 @@
+import { SignInScreen } from '@/components/SignInScreen';
+
+export default function SignIn() {
+  return <SignInScreen />;
+}

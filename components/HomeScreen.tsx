@@ -1,0 +1,45 @@
+import { Redirect } from 'expo-router';
+import { Text } from 'react-native';
+
+import { Button } from './forms';
+import { homeHrefFor } from './hrefs';
+import { Content, Screen } from './layout';
+import { Notice } from './Notice';
+import { isSignedOut, useMeQuery, useSignOutMutation } from './queries';
+import { Splash } from './Splash';
+import { type } from './theme';
+
+/** The front door: the first shop's overview when signed in, else the sign-in page. */
+export function HomeScreen() {
+  const me = useMeQuery();
+  const signOut = useSignOutMutation();
+
+  if (me.isPending) return <Splash />;
+  if (isSignedOut(me.error)) return <Redirect href="/sign-in" />;
+  if (me.isError) {
+    return (
+      <Screen>
+        <Content>
+          <Notice title="Drybench cannot load right now" testID="home-error">
+            <Text style={type.body}>{me.error.message}</Text>
+            <Button label="Try again" variant="quiet" onPress={() => void me.refetch()} />
+          </Notice>
+        </Content>
+      </Screen>
+    );
+  }
+  if (me.data.shops.length > 0) return <Redirect href={homeHrefFor(me.data.shops)} />;
+  return (
+    <Screen>
+      <Content>
+        <Notice title="No shop yet" testID="no-shop">
+          <Text style={type.body}>
+            You are signed in as {me.data.user.email} but belong to no shop. Ask a shop owner to add
+            you.
+          </Text>
+          <Button label="Sign out" variant="quiet" onPress={() => signOut.mutate()} />
+        </Notice>
+      </Content>
+    </Screen>
+  );
+}

@@ -1,0 +1,44 @@
+import { useRouter } from 'expo-router';
+import { StyleSheet, Text, View } from 'react-native';
+
+import { Button } from './forms';
+import { Content } from './layout';
+import { LiveMark } from './LiveMark';
+import { useSignOutMutation } from './queries';
+import { colors, space, type } from './theme';
+
+/** The bar across the top of a shop's pages: its name, the live mark and signing out. */
+export function ShopHeader({ shopName }: { shopName: string }) {
+  const router = useRouter();
+  const signOut = useSignOutMutation();
+  return (
+    <View style={styles.bar} accessibilityRole="header">
+      <Content style={styles.row}>
+        <View style={styles.titleBlock}>
+          <Text style={type.title} numberOfLines={1} testID="shop-name">
+            {shopName}
+          </Text>
+          <LiveMark />
+        </View>
+        <Button
+          label="Sign out"
+          variant="quiet"
+          testID="sign-out"
+          disabled={signOut.isPending}
+          onPress={() => signOut.mutate(undefined, { onSettled: () => router.replace('/sign-in') })}
+        />
+      </Content>
+    </View>
+  );
+}
+
+const styles = StyleSheet.create({
+  bar: {
+    backgroundColor: colors.paper,
+    borderBottomWidth: 1,
+    borderBottomColor: colors.border,
+    paddingVertical: space.md,
+  },
+  row: { flexDirection: 'row', alignItems: 'center', gap: space.md },
+  titleBlock: { flex: 1, gap: 2 },
+});

@@ -1,0 +1,151 @@
+import { Link } from 'expo-router';
+import type { ReactNode } from 'react';
+import { Pressable, StyleSheet, Text, View } from 'react-native';
+
+import type { Zone } from '@/components/queries';
+
+import { Flash } from './Flash';
+import { formatLastSeen, formatMargin, formatPercent, formatTemperature } from './format';
+import { LevelMark } from './LevelMark';
+import { MarginBar } from './MarginBar';
+import { colors, levelColors, levelWords, radius, space, tabular, type } from './theme';
+import { useNow } from './useNow';
+
+interface ZoneCardProps {
+  zone: Zone;
+  /** The shop's IANA zone, for times older than a few hours. */
+  timeZone: string;
+  /** When given, the whole card is a link (the zone list). */
+  href?: string;
+  /** Marks the zone shown beside the list on a wide screen. */
+  selected?: boolean;
+}
+
+/** One zone at a glance: level, dew margin (largest), the readings behind it, last seen. */
+export function ZoneCard({ zone, timeZone, href, selected = false }: ZoneCardProps) {
+  const latest = zone.latest;
+  const level = latest?.level ?? 'unknown';
+  const body = (
+    <View style={styles.inner}>
+      <View style={[styles.rule, { backgroundColor: levelColors[level] }]} />
+      <View style={styles.top}>
+        <Text style={[type.heading, styles.name]} numberOfLines={2} testID="zone-name">
+          {zone.name}
+        </Text>
+        <LevelMark level={level} testID="zone-level" />
+      </View>
+
+      <Flash value={latest?.margin} style={styles.hero}>
+        <Text style={[type.hero, tabular]} testID="zone-margin">
+          {formatMargin(latest?.margin)}
+        </Text>
+        <Text style={type.small}>dew margin</Text>
+      </Flash>
+
+      <MarginBar marginK={latest?.margin ?? null} wetK={zone.wetK} cautionK={zone.cautionK} />
+
+      <View style={styles.grid}>
+        <Value label="Dew point" testID="zone-dewpoint" value={latest?.dewPoint}>
+          {formatTemperature(latest?.dewPoint)}
+        </Value>
+        <Value
+          label={latest?.surfaceSource === 'estimate' ? 'Surface (est.)' : 'Surface'}
+          testID="zone-surface"
+          value={latest?.surface}
+        >
+          {formatTemperature(latest?.surface)}
+        </Value>
+        <Value label="Air" testID="zone-air" value={latest?.air}>
+          {formatTemperature(latest?.air)}
+        </Value>
+        <Value label="RH" testID="zone-rh" value={latest?.rh}>
+          {formatPercent(latest?.rh)}
+        </Value>
+        <Value label="Wood EMC" testID="zone-emc" value={latest?.emc}>
+          {formatPercent(latest?.emc, 1)}
+        </Value>
+      </View>
+
+      <LastSeen at={latest?.at ?? null} timeZone={timeZone} />
+    </View>
+  );
+
+  const cardStyle = [styles.card, selected && styles.selected];
+  const linkLabel = `${zone.name}: ${levelWords[level]}, dew margin ${formatMargin(latest?.margin)}`;
+  if (!href) {
+    return (
+      <View style={cardStyle} testID="zone-card">
+        {body}
+      </View>
+    );
+  }
+  return (
+    <Link href={href} asChild>
+      <Pressable
+        style={({ pressed }) => [cardStyle, pressed && styles.pressed]}
+        testID="zone-card"
+        accessibilityRole="link"
+        accessibilityLabel={linkLabel}
+        aria-label={linkLabel}
+        aria-current={selected ? 'page' : undefined}
+      >
+        {body}
+      </Pressable>
+    </Link>
+  );
+}
+
+interface ValueProps {
+  label: string;
+  testID: string;
+  value: number | null | undefined;
+  children: ReactNode;
+}
+
+function Value({ label, testID, value, children }: ValueProps) {
+  return (
+    <View style={styles.cell}>
+      <Text style={type.small}>{label}</Text>
+      <Flash value={value} style={styles.valueFlash}>
+        <Text style={[type.body, tabular, styles.value]} testID={testID}>
+          {children}
+        </Text>
+      </Flash>
+    </View>
+  );
+}
+
+function LastSeen({ at, timeZone }: { at: string | null; timeZone: string }) {
+  const now = useNow();
+  return (
+    <Text style={type.small} testID="zone-last-seen">
+      {at ? `Last reading ${formatLastSeen(at, now, timeZone)}` : 'No readings yet'}
+    </Text>
+  );
+}
+
+const styles = StyleSheet.create({
+  card: {
+    backgroundColor: colors.card,
+    borderColor: colors.border,
+    borderWidth: 1,
+    borderRadius: radius.card,
+    overflow: 'hidden',
+  },
+  selected: { borderColor: colors.iron },
+  pressed: { opacity: 0.85 },
+  inner: {
+    paddingVertical: space.lg,
+    paddingLeft: space.lg + 6,
+    paddingRight: space.lg,
+    gap: space.md,
+  },
+  rule: { position: 'absolute', left: 0, top: 0, bottom: 0, width: 5 },
+  top: { flexDirection: 'row', alignItems: 'flex-start', gap: space.md },
+  name: { flex: 1 },
+  hero: { alignSelf: 'flex-start', paddingHorizontal: space.xs, marginLeft: -space.xs },
+  grid: { flexDirection: 'row', flexWrap: 'wrap', rowGap: space.sm },
+  cell: { width: '50%', gap: 2 },
+  valueFlash: { alignSelf: 'flex-start', paddingHorizontal: 2, marginLeft: -2 },
+  value: { fontSize: 15 },
+});

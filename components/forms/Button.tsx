@@ -1,0 +1,59 @@
+import { Pressable, StyleSheet, Text } from 'react-native';
+
+import { colors, fonts, radius, space } from '@/components/theme';
+
+interface ButtonProps {
+  label: string;
+  onPress: () => void;
+  disabled?: boolean;
+  /** `primary` is filled ink; `quiet` is an outlined button for secondary actions. */
+  variant?: 'primary' | 'quiet';
+  testID?: string;
+}
+
+export function Button({
+  label,
+  onPress,
+  disabled = false,
+  variant = 'primary',
+  testID,
+}: ButtonProps) {
+  const primary = variant === 'primary';
+  return (
+    <Pressable
+      accessibilityRole="button"
+      accessibilityState={{ disabled }}
+      aria-disabled={disabled}
+      disabled={disabled}
+      onPress={onPress}
+      testID={testID}
+      style={({ pressed, hovered }) => [
+        styles.button,
+        primary ? styles.primary : styles.quiet,
+        (pressed || hovered) && !disabled && (primary ? styles.primaryActive : styles.quietActive),
+        disabled && styles.disabled,
+      ]}
+    >
+      <Text style={[styles.label, primary ? styles.primaryLabel : styles.quietLabel]}>{label}</Text>
+    </Pressable>
+  );
+}
+
+const styles = StyleSheet.create({
+  button: {
+    minHeight: 44,
+    paddingHorizontal: space.lg,
+    borderRadius: radius.control,
+    borderWidth: 1,
+    alignItems: 'center',
+    justifyContent: 'center',
+  },
+  primary: { backgroundColor: colors.ink, borderColor: colors.ink },
+  primaryActive: { backgroundColor: colors.iron, borderColor: colors.iron },
+  quiet: { backgroundColor: 'transparent', borderColor: colors.border },
+  quietActive: { backgroundColor: colors.card, borderColor: colors.iron },
+  disabled: { opacity: 0.55 },
+  label: { fontFamily: fonts.medium, fontSize: 14 },
+  primaryLabel: { color: colors.card },
+  quietLabel: { color: colors.ink },
+});

@@ -1,0 +1,2 @@
+export { Button } from './Button';
+export { TextField } from './TextField';

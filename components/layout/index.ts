@@ -1,0 +1,11 @@
+export {
+  BREAKPOINTS,
+  CONTENT_MAX_WIDTH,
+  FORM_MAX_WIDTH,
+  LIST_COLUMN_WIDTH,
+  getBreakpoints,
+  useBreakpoints,
+  type Breakpoints,
+} from './breakpoints';
+export { Content } from './Content';
+export { Screen } from './Screen';

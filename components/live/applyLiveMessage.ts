@@ -1,0 +1,36 @@
+/**
+ * Live messages change server state only through the query cache and its key factories; the
+ * live client keeps no copy of its own.
+ */
+import type { QueryClient } from '@tanstack/react-query';
+
+import { appendReadingPoint, patchZoneLatest, readingKeys } from '@/components/queries';
+
+import type { LiveMessage } from './messages';
+
+export function applyLiveMessage(queryClient: QueryClient, message: LiveMessage): void {
+  switch (message.type) {
+    case 'reading': {
+      const { shopId, zoneId, sensorId, reading } = message;
+      patchZoneLatest(queryClient, shopId, zoneId, { ...reading, sensorId });
+      if ((message.count ?? 1) > 1) {
+        // A batch (a sensor catching up) carries only its newest reading: refetch the series.
+        void queryClient.invalidateQueries({ queryKey: readingKeys.zone(shopId, zoneId) });
+        return;
+      }
+      appendReadingPoint(queryClient, shopId, zoneId, {
+        at: reading.at,
+        air: reading.air,
+        rh: reading.rh,
+        surface: reading.surface,
+        dewPoint: reading.dewPoint,
+        margin: reading.margin,
+        marginMin: reading.margin,
+        emc: reading.emc,
+        level: reading.level,
+        count: 1,
+      });
+      return;
+    }
+  }
+}

@@ -1,0 +1,82 @@
+/** A shop's zones with each zone's latest reading: GET /api/v1/shops/:shopId/zones. */
+import { queryOptions, useQuery, type QueryClient } from '@tanstack/react-query';
+
+import type { Level } from '@/ingest';
+
+import { apiRequest } from './api';
+
+export type SurfaceSource = 'probe' | 'estimate';
+
+/** The newest reading in a zone, with what we derived from it. Temperatures °C, margin K. */
+export interface LatestReading {
+  at: string;
+  air: number;
+  rh: number;
+  surface: number | null;
+  dewPoint: number | null;
+  margin: number | null;
+  emc: number | null;
+  level: Level;
+  surfaceSource: SurfaceSource | null;
+  sensorId: string;
+}
+
+export interface Zone {
+  id: string;
+  name: string;
+  cautionK: number;
+  wetK: number;
+  humidRhPct: number;
+  latest: LatestReading | null;
+}
+
+export interface ZonesResponse {
+  zones: Zone[];
+}
+
+export const zoneKeys = {
+  all: ['zones'] as const,
+  shop: (shopId: string) => [...zoneKeys.all, shopId] as const,
+  list: (shopId: string) => [...zoneKeys.shop(shopId), 'list'] as const,
+};
+
+export function zonesQueryOptions(shopId: string) {
+  return queryOptions({
+    queryKey: zoneKeys.list(shopId),
+    queryFn: ({ signal }) =>
+      apiRequest<ZonesResponse>(`/api/v1/shops/${encodeURIComponent(shopId)}/zones`, { signal }),
+    // Live messages keep the list fresh; a refetch on focus catches anything missed.
+    staleTime: 30_000,
+  });
+}
+
+export function useZonesQuery(shopId: string) {
+  return useQuery(zonesQueryOptions(shopId));
+}
+
+/** Puts a newer reading into the cached zone list; older or unknown zones change nothing. */
+export function patchZoneLatest(
+  queryClient: QueryClient,
+  shopId: string,
+  zoneId: string,
+  latest: LatestReading,
+): void {
+  queryClient.setQueryData<ZonesResponse>(zoneKeys.list(shopId), (previous) =>
+    previous ? withLatest(previous, zoneId, latest) : previous,
+  );
+}
+
+export function withLatest(
+  response: ZonesResponse,
+  zoneId: string,
+  latest: LatestReading,
+): ZonesResponse {
+  let changed = false;
+  const zones = response.zones.map((zone) => {
+    if (zone.id !== zoneId) return zone;
+    if (zone.latest && Date.parse(zone.latest.at) > Date.parse(latest.at)) return zone;
+    changed = true;
+    return { ...zone, latest };
+  });
+  return changed ? { ...response, zones } : response;
+}

@@ -1,0 +1,59 @@
+/**
+ * Drybench's colours, type and spacing (see LOOK.md). Every level colour is paired with its
+ * word wherever it is shown; colour alone never carries a level.
+ */
+import type { TextStyle } from 'react-native';
+
+import type { Level } from '@/ingest';
+
+export const colors = {
+  paper: '#F5F2EA',
+  card: '#FFFDF8',
+  border: '#E2DCCF',
+  ink: '#1F2427',
+  iron: '#56626B',
+  air: '#2C6E91',
+  dew: '#7A5AA6',
+  dry: '#2E7A57',
+  close: '#8F6210',
+  wet: '#A5402D',
+  unknown: '#656C73',
+} as const;
+
+export const levelColors: Record<Level, string> = {
+  dry: colors.dry,
+  close: colors.close,
+  wet: colors.wet,
+  unknown: colors.unknown,
+};
+
+/** The word shown beside a level's colour; plain and short. */
+export const levelWords: Record<Level, string> = {
+  dry: 'dry',
+  close: 'close',
+  wet: 'wet',
+  unknown: 'unknown',
+};
+
+/** Names registered by useFonts in app/_layout.tsx; they double as CSS font-family names. */
+export const fonts = {
+  regular: 'JetBrainsMono_400Regular',
+  medium: 'JetBrainsMono_500Medium',
+  bold: 'JetBrainsMono_700Bold',
+} as const;
+
+export const space = { xs: 4, sm: 8, md: 12, lg: 16, xl: 24, xxl: 32 } as const;
+
+export const radius = { card: 10, control: 6 } as const;
+
+/** Numbers that change live keep their width so digits do not jump. */
+export const tabular: TextStyle = { fontVariant: ['tabular-nums'] };
+
+export const type = {
+  body: { fontFamily: fonts.regular, fontSize: 14, lineHeight: 20, color: colors.ink },
+  small: { fontFamily: fonts.regular, fontSize: 12, lineHeight: 16, color: colors.iron },
+  label: { fontFamily: fonts.medium, fontSize: 12, lineHeight: 16, color: colors.iron },
+  title: { fontFamily: fonts.bold, fontSize: 18, lineHeight: 24, color: colors.ink },
+  heading: { fontFamily: fonts.medium, fontSize: 16, lineHeight: 22, color: colors.ink },
+  hero: { fontFamily: fonts.bold, fontSize: 40, lineHeight: 46, color: colors.ink },
+} satisfies Record<string, TextStyle>;
