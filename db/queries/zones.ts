@@ -1,0 +1,73 @@
+import { and, eq, sql } from 'drizzle-orm';
+
+import type { Db } from '../index';
+import { zones } from '../schema';
+
+const zoneColumns = {
+  id: zones.id,
+  name: zones.name,
+  cautionK: zones.cautionK,
+  wetK: zones.wetK,
+  humidRhPct: zones.humidRhPct,
+};
+
+export async function insertZone(db: Db, shopId: string, name: string) {
+  const [row] = await db.insert(zones).values({ shopId, name }).returning(zoneColumns);
+  if (!row) throw new Error('zone insert returned no row');
+  return row;
+}
+
+export async function findZone(db: Db, shopId: string, zoneId: string) {
+  const [row] = await db
+    .select(zoneColumns)
+    .from(zones)
+    .where(and(eq(zones.shopId, shopId), eq(zones.id, zoneId)));
+  return row ?? null;
+}
+
+export interface LatestReading {
+  at: string;
+  air: number;
+  rh: number;
+  surface: number | null;
+  dewPoint: number | null;
+  margin: number | null;
+  emc: number | null;
+  level: 'dry' | 'close' | 'wet' | 'unknown';
+  surfaceSource: 'probe' | 'estimate' | null;
+  sensorId: string;
+}
+
+/**
+ * Zones of a shop, each with its newest reading. A LATERAL lookup per zone walks the
+ * (zone_id, at) index backwards, so it stays one index probe per zone however long the history.
+ */
+export async function listZonesWithLatest(db: Db, shopId: string) {
+  const result = await db.execute<{
+    id: string;
+    name: string;
+    caution_k: number;
+    wet_k: number;
+    humid_rh_pct: number;
+    latest: LatestReading | null;
+  }>(sql`
+    select z.id, z.name, z.caution_k, z.wet_k, z.humid_rh_pct,
+      case when r.at is null then null else json_build_object(
+        'at', r.at, 'air', r.air_c, 'rh', r.rh_pct, 'surface', r.surface_c,
+        'dewPoint', r.dew_point_c, 'margin', r.margin_k, 'emc', r.emc_pct, 'level', r.level,
+        'surfaceSource', r.surface_source, 'sensorId', r.sensor_id) end as latest
+    from zones z
+    left join lateral (
+      select * from readings where zone_id = z.id order by at desc limit 1
+    ) r on true
+    where z.shop_id = ${shopId}
+    order by z.created_at, z.name`);
+  return result.rows.map((row) => ({
+    id: row.id,
+    name: row.name,
+    cautionK: row.caution_k,
+    wetK: row.wet_k,
+    humidRhPct: row.humid_rh_pct,
+    latest: row.latest ? { ...row.latest, at: new Date(row.latest.at).toISOString() } : null,
+  }));
+}

@@ -1,0 +1,11 @@
+/** The public surface of ingest/: pure domain code shared by the server and the app. */
+export * from './derive';
+export * from './emc';
+export * from './levels';
+export * from './payload';
+export * from './psychrometrics';
+export * from './units';
+export * from './hysteresis';
+export * from './surfaceEstimate';
+export * from './trend';
+export * from './wetness';

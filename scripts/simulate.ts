@@ -1,0 +1,37 @@
+// Runs the demo sensors against a running server.
+//   tsx scripts/simulate.ts [--url http://127.0.0.1:8080] [--interval 5] [--speed 1] [--backfill 12]
+import fs from 'node:fs';
+import { parseArgs } from 'node:util';
+
+import { getTimezoneOffset } from 'date-fns-tz';
+
+import { DEMO_SHOP, type DemoSensorToken } from '@/db/seed';
+import { startSimulator } from '@/server/demo/simulator';
+
+const { values } = parseArgs({
+  options: {
+    url: { type: 'string', default: `http://127.0.0.1:${process.env.PORT ?? 8080}` },
+    interval: { type: 'string', default: '5' },
+    speed: { type: 'string', default: '1' },
+    backfill: { type: 'string', default: '12' },
+    tokens: { type: 'string', default: '.data/demo-sensors.json' },
+  },
+});
+
+const sensors = JSON.parse(fs.readFileSync(values.tokens, 'utf8')) as DemoSensorToken[];
+const simulator = startSimulator({
+  baseUrl: values.url,
+  sensors,
+  intervalMs: Number(values.interval) * 1000,
+  speed: Number(values.speed),
+  backfillHours: Number(values.backfill),
+  utcOffsetHours: getTimezoneOffset(DEMO_SHOP.timeZone, new Date()) / 3_600_000,
+  log: (line) => console.log(line),
+});
+console.log(
+  `Demo sensors posting to ${values.url} every ${values.interval} s (${sensors.length} sensors).`,
+);
+
+const stop = () => void simulator.stop().then(() => process.exit(0));
+process.on('SIGINT', stop);
+process.on('SIGTERM', stop);

@@ -1,0 +1,44 @@
+#!/usr/bin/env bash
+# npm start: everything a fresh machine needs to serve the live demo on http://127.0.0.1:8080.
+set -euo pipefail
+cd "$(dirname "$0")/.."
+export PORT=${PORT:-8080}
+PG_PORT=${PG_PORT:-54320}
+
+bash scripts/ensure-deps.sh
+export DATABASE_URL=$(bash scripts/db.sh start dev "$PG_PORT" drybench)
+echo "PostgreSQL running on 127.0.0.1:$PG_PORT (data in the git-ignored .data/)."
+
+pids=()
+cleanup() {
+  trap - EXIT INT TERM
+  for pid in "${pids[@]}"; do kill -TERM "$pid" 2>/dev/null || true; done
+  wait 2>/dev/null || true
+  bash scripts/db.sh stop dev
+  echo "Stopped the server, the demo sensors and PostgreSQL."
+}
+trap cleanup EXIT INT TERM
+
+# A per-checkout session secret, made once and kept in .data/ (never committed).
+secret_file=.data/session-secret
+[ -s "$secret_file" ] || (umask 077 && head -c 48 /dev/urandom | base64 | tr -d '\n' > "$secret_file")
+export SESSION_SECRET=$(cat "$secret_file")
+export WEB_DIR=dist
+
+npx tsx scripts/migrate.ts
+npx tsx scripts/seed.ts .data/demo-sensors.json
+bash scripts/build-web.sh
+
+npx tsx server/index.ts &
+pids+=($!)
+for _ in $(seq 1 100); do
+  curl -fs "http://127.0.0.1:$PORT/api/v1/health" >/dev/null 2>&1 && break
+  sleep 0.2
+done
+npx tsx scripts/simulate.ts --url "http://127.0.0.1:$PORT" --tokens .data/demo-sensors.json &
+pids+=($!)
+
+echo
+echo "Drybench is running: http://127.0.0.1:$PORT   (Ctrl-C stops everything)"
+echo
+wait -n "${pids[@]}" || true

@@ -1,0 +1,86 @@
+/**
+ * Builds the Express app from its dependencies; it never listens, so tests drive it with
+ * supertest and server/index.ts decides ports and shutdown.
+ */
+import fs from 'node:fs';
+import path from 'node:path';
+
+import express from 'express';
+import helmet from 'helmet';
+import type pg from 'pg';
+
+import type { Db } from '@/db';
+
+import { requireUser } from './auth/middleware';
+import type { SensorTokenCache } from './auth/sensorTokens';
+import type { SessionSigner } from './auth/session';
+import { errorHandler, notFound } from './errors';
+import { authRouter } from './routes/auth';
+import { healthRouter } from './routes/health';
+import { ingestRouter } from './routes/ingest';
+import { meRouter } from './routes/me';
+import { readingsRouter } from './routes/readings';
+import { sensorsRouter } from './routes/sensors';
+import { shopsRouter } from './routes/shops';
+import { zonesRouter } from './routes/zones';
+
+export interface AppDeps {
+  db: Db;
+  pool: pg.Pool;
+  sessions: SessionSigner;
+  tokens: SensorTokenCache;
+  /** The exported web app (dist/); omitted in API-only tests. */
+  webDir?: string;
+  now?: () => number;
+  log?: (err: unknown) => void;
+}
+
+export function createApp(deps: AppDeps): express.Express {
+  const now = deps.now ?? Date.now;
+  const log = deps.log ?? ((err: unknown) => console.error(err));
+  const app = express();
+  app.disable('x-powered-by');
+  app.set('query parser', 'simple');
+  app.use(
+    helmet({
+      // The exported Expo app uses inline styles; scripts stay same-origin.
+      contentSecurityPolicy: {
+        directives: {
+          'script-src': ["'self'"],
+          'style-src': ["'self'", "'unsafe-inline'"],
+          'img-src': ["'self'", 'data:', 'blob:'],
+          'font-src': ["'self'", 'data:'],
+          'connect-src': ["'self'"],
+        },
+      },
+    }),
+  );
+
+  const api = express.Router();
+  // Ingest parses its own body (after the token check and with its own limit).
+  api.use('/ingest', ingestRouter(deps.db, deps.tokens, now));
+  api.use(express.json({ limit: '100kb' }));
+  api.use(healthRouter(deps.pool));
+  api.use('/auth', authRouter(deps.db, deps.sessions));
+
+  const signedIn = requireUser(deps.sessions);
+  api.use('/me', signedIn, meRouter(deps.db));
+  api.use('/shops', signedIn, shopsRouter(deps.db));
+  api.use('/shops/:shopId/zones/:zoneId/readings', signedIn, readingsRouter(deps.db, now));
+  api.use('/shops/:shopId/zones', signedIn, zonesRouter(deps.db));
+  api.use('/shops/:shopId/sensors', signedIn, sensorsRouter(deps.db, deps.tokens));
+  api.use(notFound);
+  app.use('/api/v1', api);
+  app.use('/api', notFound);
+
+  if (deps.webDir && fs.existsSync(path.join(deps.webDir, 'index.html'))) {
+    const indexHtml = path.join(deps.webDir, 'index.html');
+    app.use(express.static(deps.webDir, { index: false, maxAge: '1h' }));
+    // Client-side routes (/shops/…) all load the single-page app.
+    app.get('/{*splat}', (_req, res) => res.sendFile(indexHtml));
+  }
+
+  app.use(notFound);
+  app.use(errorHandler(log));
+  return app;
+}

@@ -1,0 +1,109 @@
+/**
+ * The shared error shape `{ error: { code, message, details } }` and the middleware that turns
+ * every failure into it. Nothing here ever sends a stack trace or SQL text.
+ */
+import type { ErrorRequestHandler, RequestHandler } from 'express';
+import type { ZodError } from 'zod';
+
+export interface ErrorDetail {
+  path: string;
+  message: string;
+}
+
+export class ApiError extends Error {
+  constructor(
+    readonly status: number,
+    readonly code: string,
+    message: string,
+    readonly details: ErrorDetail[] = [],
+  ) {
+    super(message);
+  }
+}
+
+export function zodDetails(error: ZodError): ErrorDetail[] {
+  return error.issues.map((issue) => ({ path: issue.path.join('.'), message: issue.message }));
+}
+
+// Error codes of node-postgres / PostgreSQL that mean "the database is not reachable now".
+const UNAVAILABLE_CODES = new Set([
+  'ECONNREFUSED',
+  'ECONNRESET',
+  'ETIMEDOUT',
+  'EPIPE',
+  '57P01', // admin_shutdown
+  '57P02', // crash_shutdown
+  '57P03', // cannot_connect_now
+  '08000',
+  '08003',
+  '08006',
+]);
+
+function isDatabaseUnavailable(err: unknown): boolean {
+  if (typeof err !== 'object' || err === null) return false;
+  const e = err as { code?: unknown; message?: unknown; cause?: unknown };
+  if (typeof e.code === 'string' && UNAVAILABLE_CODES.has(e.code)) return true;
+  if (
+    typeof e.message === 'string' &&
+    /timeout exceeded when trying to connect|Connection terminated/i.test(e.message)
+  ) {
+    return true;
+  }
+  return e.cause !== undefined && e.cause !== err && isDatabaseUnavailable(e.cause);
+}
+
+/** body-parser's own error types, mapped to the contract's statuses. */
+function fromBodyParser(err: { type?: string }): ApiError | null {
+  switch (err.type) {
+    case 'entity.parse.failed':
+      return new ApiError(400, 'invalid_json', 'The body is not valid JSON.');
+    case 'entity.too.large':
+      return new ApiError(
+        413,
+        'body_too_large',
+        'The body is larger than 1 MiB; send fewer readings per request.',
+      );
+    case 'encoding.unsupported':
+    case 'charset.unsupported':
+      return new ApiError(415, 'unsupported_encoding', 'Send the body as UTF-8 JSON.');
+    case 'request.aborted':
+      return new ApiError(
+        400,
+        'request_aborted',
+        'The request was aborted before its body arrived.',
+      );
+    default:
+      return null;
+  }
+}
+
+export function toApiError(err: unknown): ApiError {
+  if (err instanceof ApiError) return err;
+  if (typeof err === 'object' && err !== null && 'type' in err) {
+    const mapped = fromBodyParser(err as { type?: string });
+    if (mapped) return mapped;
+  }
+  if (isDatabaseUnavailable(err)) {
+    return new ApiError(
+      503,
+      'storage_unavailable',
+      'Storage is unavailable right now; keep the data and retry shortly.',
+    );
+  }
+  return new ApiError(500, 'internal', 'Something went wrong on our side; it has been logged.');
+}
+
+export function errorHandler(log: (err: unknown) => void): ErrorRequestHandler {
+  return (err, _req, res, _next) => {
+    const apiError = toApiError(err);
+    if (apiError.status >= 500 && apiError.status !== 503) log(err);
+    if (res.headersSent) return;
+    res.status(apiError.status).json({
+      error: { code: apiError.code, message: apiError.message, details: apiError.details },
+    });
+  };
+}
+
+export const notFound: RequestHandler = (req, _res, next) => {
+  next(new ApiError(404, 'not_found', `Nothing at ${req.method} ${req.path}.`));
+};

@@ -1,0 +1,149 @@
+/**
+ * The live hub: every server instance LISTENs on one PostgreSQL channel and forwards each
+ * notification to its own WebSocket clients of that shop. Fan-out through the database means
+ * instances share no memory, so more of them can stand behind a load balancer.
+ */
+import type { IncomingMessage, Server } from 'node:http';
+import type { Duplex } from 'node:stream';
+
+import pg from 'pg';
+import { WebSocket, WebSocketServer } from 'ws';
+
+import type { Db } from '@/db';
+import { listShopsOfUser } from '@/db/queries/memberships';
+import { LIVE_CHANNEL } from '@/db/queries/readings';
+
+import { readCookie, SESSION_COOKIE, type SessionSigner } from '../auth/session';
+
+import type { LiveMessage } from './messages';
+
+export const LIVE_PATH = '/api/v1/live';
+const HEARTBEAT_MS = 30_000;
+const RECONNECT_MS = 1_000;
+
+interface Client {
+  socket: WebSocket;
+  shopIds: Set<string>;
+  alive: boolean;
+}
+
+export interface LiveHub {
+  attach(server: Server): void;
+  clientCount(): number;
+  close(): Promise<void>;
+}
+
+export async function startLiveHub(deps: {
+  databaseUrl: string;
+  db: Db;
+  sessions: SessionSigner;
+  log?: (message: string) => void;
+}): Promise<LiveHub> {
+  const log = deps.log ?? (() => {});
+  const clients = new Set<Client>();
+  const wss = new WebSocketServer({ noServer: true });
+  let listener: pg.Client | null = null;
+  let closed = false;
+
+  function deliver(payload: string | undefined) {
+    if (!payload) return;
+    let message: LiveMessage;
+    try {
+      message = JSON.parse(payload) as LiveMessage;
+    } catch {
+      return;
+    }
+    for (const client of clients) {
+      if (client.shopIds.has(message.shopId) && client.socket.readyState === WebSocket.OPEN) {
+        client.socket.send(payload);
+      }
+    }
+  }
+
+  // Keep one LISTEN connection, and get it back after a database restart.
+  async function listen(): Promise<void> {
+    while (!closed) {
+      const client = new pg.Client({ connectionString: deps.databaseUrl });
+      try {
+        await client.connect();
+        client.on('notification', (n) => deliver(n.payload));
+        await client.query(`LISTEN ${LIVE_CHANNEL}`);
+        listener = client;
+        await new Promise<void>((resolve) => {
+          client.on('error', () => resolve());
+          client.on('end', () => resolve());
+        });
+        if (!closed) log('live hub: lost its database connection; reconnecting');
+      } catch {
+        await client.end().catch(() => {});
+      }
+      listener = null;
+      if (!closed) await new Promise((r) => setTimeout(r, RECONNECT_MS));
+    }
+  }
+  const firstConnection = new Promise<void>((resolve) => {
+    const poll = setInterval(() => {
+      if (listener || closed) {
+        clearInterval(poll);
+        resolve();
+      }
+    }, 10);
+  });
+  void listen();
+  await firstConnection;
+
+  const heartbeat = setInterval(() => {
+    for (const client of clients) {
+      if (!client.alive) {
+        client.socket.terminate();
+        continue;
+      }
+      client.alive = false;
+      client.socket.ping();
+    }
+  }, HEARTBEAT_MS);
+
+  function refuse(socket: Duplex, status: string) {
+    socket.write(`HTTP/1.1 ${status}\r\nConnection: close\r\nContent-Length: 0\r\n\r\n`);
+    socket.destroy();
+  }
+
+  async function onUpgrade(req: IncomingMessage, socket: Duplex, head: Buffer) {
+    const url = new URL(req.url ?? '/', 'http://localhost');
+    if (url.pathname !== LIVE_PATH) return refuse(socket, '404 Not Found');
+    const token = readCookie(req.headers.cookie, SESSION_COOKIE);
+    const userId = token ? await deps.sessions.verify(token) : null;
+    if (!userId) return refuse(socket, '401 Unauthorized');
+    let shopIds: Set<string>;
+    try {
+      shopIds = new Set((await listShopsOfUser(deps.db, userId)).map((s) => s.id));
+    } catch {
+      return refuse(socket, '503 Service Unavailable');
+    }
+    wss.handleUpgrade(req, socket, head, (ws) => {
+      const client: Client = { socket: ws, shopIds, alive: true };
+      clients.add(client);
+      ws.on('pong', () => (client.alive = true));
+      ws.on('close', () => clients.delete(client));
+      ws.on('error', () => ws.terminate());
+      ws.send(JSON.stringify({ type: 'hello', shopIds: [...shopIds] }));
+    });
+  }
+
+  return {
+    attach(server) {
+      server.on('upgrade', (req, socket, head) => {
+        socket.on('error', () => socket.destroy());
+        onUpgrade(req, socket, head).catch(() => refuse(socket, '500 Internal Server Error'));
+      });
+    },
+    clientCount: () => clients.size,
+    async close() {
+      closed = true;
+      clearInterval(heartbeat);
+      for (const client of clients) client.socket.terminate();
+      wss.close();
+      await listener?.end().catch(() => {});
+    },
+  };
+}

@@ -1,0 +1,139 @@
+/**
+ * POST /api/v1/ingest — sensors post one reading or a batch with a bearer token.
+ * The route validates the envelope (400), checks each reading (listed in `rejected`),
+ * derives dew point, margin, EMC and level in ingest/, and answers 202 only after the rows
+ * are committed, so an acknowledged reading is never lost.
+ */
+import express, { Router } from 'express';
+
+import type { Db } from '@/db';
+import { storeReadings, type ReadingRow } from '@/db/queries/readings';
+import type { SensorIdentity } from '@/db/queries/sensors';
+import {
+  checkReading,
+  deriveReading,
+  MAX_READINGS_PER_REQUEST,
+  parseEnvelope,
+  type Rejection,
+} from '@/ingest';
+
+import type { SensorTokenCache } from '../auth/sensorTokens';
+import { ApiError } from '../errors';
+import { readingMessage } from '../live/messages';
+
+const BEARER = /^Bearer\s+(\S+)$/i;
+
+export function ingestRouter(db: Db, tokens: SensorTokenCache, now: () => number): Router {
+  const router = Router();
+
+  router.post(
+    '/',
+    async (req, res, next) => {
+      // Authenticate before reading the body: an unknown sender should cost us nothing.
+      const match = BEARER.exec(req.headers.authorization ?? '');
+      if (!match) {
+        throw new ApiError(
+          401,
+          'missing_token',
+          'Send the sensor token as `Authorization: Bearer <token>`.',
+        );
+      }
+      const sensor = await tokens.resolve(match[1]!);
+      if (!sensor) {
+        throw new ApiError(
+          401,
+          'invalid_token',
+          'This sensor token is unknown or has been revoked.',
+        );
+      }
+      if (!req.is('application/json')) {
+        throw new ApiError(
+          415,
+          'unsupported_media_type',
+          'Send the readings as `Content-Type: application/json`.',
+        );
+      }
+      res.locals.sensor = sensor;
+      next();
+    },
+    express.json({ limit: '1mb' }),
+    async (req, res) => {
+      const sensor = res.locals.sensor as SensorIdentity;
+      const receivedAtMs = now();
+      const body: unknown = req.body;
+      if (
+        typeof body === 'object' &&
+        body !== null &&
+        'readings' in body &&
+        Array.isArray(body.readings) &&
+        body.readings.length > MAX_READINGS_PER_REQUEST
+      ) {
+        throw new ApiError(
+          413,
+          'too_many_readings',
+          `Send at most ${MAX_READINGS_PER_REQUEST} readings per request.`,
+        );
+      }
+      const envelope = parseEnvelope(body, receivedAtMs);
+      if (!envelope.ok) {
+        throw new ApiError(
+          400,
+          'invalid_payload',
+          'The readings are not in the expected shape.',
+          envelope.issues,
+        );
+      }
+
+      const limits = { cautionK: sensor.cautionK, wetK: sensor.wetK };
+      const rejected: ({ index: number } & Rejection)[] = [];
+      const rows: ReadingRow[] = [];
+      envelope.readings.forEach((reading, index) => {
+        const problem = checkReading(reading, receivedAtMs);
+        if (problem) return void rejected.push({ index, ...problem });
+        const derived = deriveReading(reading, limits);
+        if (derived.dewPointC === null) {
+          return void rejected.push({
+            index,
+            code: 'not_computable',
+            message: 'The dew point cannot be computed from this reading (RH too low?).',
+          });
+        }
+        rows.push({
+          sensorId: sensor.sensorId,
+          shopId: sensor.shopId,
+          zoneId: sensor.zoneId,
+          at: new Date(reading.atMs),
+          airC: reading.airC,
+          rhPct: reading.rhPct,
+          surfaceC: reading.surfaceC,
+          surfaceSource: reading.surfaceC === null ? null : 'probe',
+          batteryV: reading.batteryV,
+          ...derived,
+        });
+      });
+
+      // Within one request the same `at` twice is also a duplicate; keep the first.
+      const unique = new Map<number, ReadingRow>();
+      for (const row of rows) if (!unique.has(row.at.getTime())) unique.set(row.at.getTime(), row);
+      const inserted = await storeReadings(db, [...unique.values()], (fresh) =>
+        fresh.length ? JSON.stringify(readingMessage(fresh)) : null,
+      );
+
+      res.status(202).json({
+        stored: inserted.size,
+        duplicates: rows.length - inserted.size,
+        rejected,
+        results: rows.map((r) => ({
+          at: r.at.toISOString(),
+          dewPoint: r.dewPointC,
+          margin: r.marginK,
+          emc: r.emcPct,
+          level: r.level,
+          surfaceSource: r.surfaceSource,
+        })),
+      });
+    },
+  );
+
+  return router;
+}

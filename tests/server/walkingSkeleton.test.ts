@@ -1,0 +1,299 @@
+// The foundation's path through the HTTP contract: sign-up → shop → zone → sensor → ingest →
+// readings, all on the real test database.
+import psychrolib from 'psychrolib';
+import request from 'supertest';
+import { afterAll, beforeAll, describe, expect, it } from 'vitest';
+
+import { makeTestApp, ownerWithSensor, signUp, type TestApp } from '../support/app';
+
+let t: TestApp;
+beforeAll(() => {
+  t = makeTestApp();
+  psychrolib.SetUnitSystem(psychrolib.SI);
+});
+afterAll(() => t.pool.end());
+
+const errorShape = {
+  error: {
+    code: expect.stringMatching(/^[a-z_]+$/),
+    message: expect.any(String),
+    details: expect.any(Array),
+  },
+};
+
+describe('health', () => {
+  it('answers ok when the database is reachable', async () => {
+    await request(t.app).get('/api/v1/health').expect(200, { ok: true });
+  });
+});
+
+describe('people', () => {
+  it('signs up, reads /me, signs out and signs in again', async () => {
+    const { agent, email, password, user } = await signUp(t.app, 'Ada Planer');
+    const me = await agent.get('/api/v1/me').expect(200);
+    expect(me.body).toEqual({ user, shops: [] });
+
+    await agent.post('/api/v1/auth/sign-out').expect(204);
+    const fresh = request.agent(t.app);
+    await fresh.get('/api/v1/me').expect(401);
+    const signIn = await fresh
+      .post('/api/v1/auth/sign-in')
+      .send({ email: email.toUpperCase(), password })
+      .expect(200);
+    expect(signIn.headers['set-cookie']?.[0]).toMatch(/drybench_session=.*HttpOnly/i);
+    await fresh.get('/api/v1/me').expect(200);
+  });
+
+  it('refuses a wrong password with the same message as an unknown e-mail', async () => {
+    const { email } = await signUp(t.app);
+    const wrong = await request(t.app)
+      .post('/api/v1/auth/sign-in')
+      .send({ email, password: 'not the password' })
+      .expect(401);
+    const unknown = await request(t.app)
+      .post('/api/v1/auth/sign-in')
+      .send({ email: 'nobody@test.example', password: 'whatever1234' })
+      .expect(401);
+    expect(wrong.body).toMatchObject(errorShape);
+    expect(wrong.body.error.message).toBe(unknown.body.error.message);
+  });
+
+  it('refuses a second account on the same e-mail with 409', async () => {
+    const { email } = await signUp(t.app);
+    const res = await request(t.app)
+      .post('/api/v1/auth/sign-up')
+      .send({ email, password: 'another long one', name: 'Twin' })
+      .expect(409);
+    expect(res.body.error.code).toBe('email_taken');
+  });
+
+  it('lists the new shop with the creator as owner and rejects an unknown time zone', async () => {
+    const { agent } = await signUp(t.app);
+    const shop = await agent
+      .post('/api/v1/shops')
+      .send({ name: 'Birch Barn', timeZone: 'America/Denver' })
+      .expect(201);
+    expect(shop.body).toMatchObject({ name: 'Birch Barn', timeZone: 'America/Denver' });
+    const me = await agent.get('/api/v1/me').expect(200);
+    expect(me.body.shops).toEqual([
+      { id: shop.body.id, name: 'Birch Barn', timeZone: 'America/Denver', role: 'owner' },
+    ]);
+
+    const bad = await agent
+      .post('/api/v1/shops')
+      .send({ name: 'X', timeZone: 'Mars/Olympus' })
+      .expect(400);
+    expect(bad.body).toMatchObject(errorShape);
+    expect(bad.body.error.details[0].path).toBe('timeZone');
+  });
+});
+
+describe('ingest', () => {
+  it('stores a reading and returns the derived values', async () => {
+    const o = await ownerWithSensor(t.app);
+    const at = new Date(Date.now() - 60_000).toISOString();
+    const res = await request(t.app)
+      .post('/api/v1/ingest')
+      .set('authorization', `Bearer ${o.token}`)
+      .send({ readings: [{ at, air: 20, rh: 50, surface: 12, battery: 3.01 }] })
+      .expect(202);
+    expect(res.body).toMatchObject({ stored: 1, duplicates: 0, rejected: [] });
+    const result = res.body.results[0];
+    // Reference: psychrolib (ASHRAE Handbook — Fundamentals psychrometric functions), 20 °C / 50 %.
+    const expectedDewC = psychrolib.GetTDewPointFromRelHum(20, 0.5);
+    expect(expectedDewC).toBeCloseTo(9.26, 1); // sanity: the commonly tabulated 9.3 °C
+    expect(Math.abs(result.dewPoint - expectedDewC)).toBeLessThanOrEqual(0.05);
+    expect(result.margin).toBeCloseTo(12 - result.dewPoint, 10);
+    // 12 − 9.26 = 2.74 K: inside the 3 K caution limit (ISO 8502-4) and above the 1 K wet limit.
+    expect(result.level).toBe('close');
+    expect(result.surfaceSource).toBe('probe');
+    // Wood Handbook (FPL-GTR-190) table 4-2: 68 °F / 50 % RH → 9.2 %.
+    expect(result.emc).toBeGreaterThan(9.0);
+    expect(result.emc).toBeLessThan(9.4);
+    expect(result.at).toBe(at);
+  });
+
+  it('accepts a single reading in °F with epoch seconds, and counts a retry as a duplicate', async () => {
+    const o = await ownerWithSensor(t.app);
+    const atS = Math.floor(Date.now() / 1000) - 120;
+    const body = { unit: 'F', at: atS, air: 68, rh: 50, surface: 53.6 };
+    const first = await request(t.app)
+      .post('/api/v1/ingest')
+      .set('authorization', `Bearer ${o.token}`)
+      .send(body)
+      .expect(202);
+    expect(first.body.stored).toBe(1);
+    // 53.6 °F = 12 °C; 68 °F = 20 °C.
+    expect(first.body.results[0].margin).toBeCloseTo(12 - first.body.results[0].dewPoint, 6);
+    const retry = await request(t.app)
+      .post('/api/v1/ingest')
+      .set('authorization', `Bearer ${o.token}`)
+      .send(body)
+      .expect(202);
+    expect(retry.body).toMatchObject({ stored: 0, duplicates: 1 });
+  });
+
+  it('rejects out-of-range readings one by one and stores the rest', async () => {
+    const o = await ownerWithSensor(t.app);
+    const base = Date.now() - 10 * 60_000;
+    const res = await request(t.app)
+      .post('/api/v1/ingest')
+      .set('authorization', `Bearer ${o.token}`)
+      .send({
+        readings: [
+          { at: new Date(base).toISOString(), air: 15, rh: 60 },
+          { at: new Date(base + 1000).toISOString(), air: 15, rh: 100.5 },
+          { at: new Date(base + 2000).toISOString(), air: 90, rh: 50 },
+          { at: new Date(Date.now() + 10 * 60_000).toISOString(), air: 15, rh: 50 },
+        ],
+      })
+      .expect(202);
+    expect(res.body.stored).toBe(1);
+    expect(
+      res.body.rejected.map((r: { index: number; code: string }) => [r.index, r.code]),
+    ).toEqual([
+      [1, 'rh_out_of_range'],
+      [2, 'air_out_of_range'],
+      [3, 'time_in_future'],
+    ]);
+    expect(res.body.results[0].level).toBe('unknown');
+  });
+
+  it.each([
+    ['no token', undefined, 'missing_token'],
+    ['an unknown token', 'Bearer dbs_not-a-real-token', 'invalid_token'],
+    ['a non-bearer scheme', 'Basic abc', 'missing_token'],
+  ])('answers 401 to %s', async (_name, header, code) => {
+    const req = request(t.app).post('/api/v1/ingest').send({ air: 20, rh: 50 });
+    const res = await (header ? req.set('authorization', header) : req).expect(401);
+    expect(res.body).toMatchObject(errorShape);
+    expect(res.body.error.code).toBe(code);
+  });
+
+  it('answers 400 in the error shape to malformed JSON and to wrong types', async () => {
+    const o = await ownerWithSensor(t.app);
+    const broken = await request(t.app)
+      .post('/api/v1/ingest')
+      .set('authorization', `Bearer ${o.token}`)
+      .set('content-type', 'application/json')
+      .send('{"air": 20, "rh": ')
+      .expect(400);
+    expect(broken.body).toMatchObject(errorShape);
+    expect(broken.body.error.code).toBe('invalid_json');
+    const wrongType = await request(t.app)
+      .post('/api/v1/ingest')
+      .set('authorization', `Bearer ${o.token}`)
+      .send({ readings: [{ air: '20', rh: 50 }] })
+      .expect(400);
+    expect(wrongType.body.error.details[0].path).toBe('readings.0.air');
+    const empty = await request(t.app)
+      .post('/api/v1/ingest')
+      .set('authorization', `Bearer ${o.token}`)
+      .send({ readings: [] })
+      .expect(400);
+    expect(empty.body).toMatchObject(errorShape);
+  });
+
+  it('refuses a revoked token', async () => {
+    const o = await ownerWithSensor(t.app);
+    await request(t.app)
+      .post('/api/v1/ingest')
+      .set('authorization', `Bearer ${o.token}`)
+      .send({ air: 20, rh: 50 })
+      .expect(202);
+    await o.agent.delete(`/api/v1/shops/${o.shopId}/sensors/${o.sensorId}/token`).expect(204);
+    await request(t.app)
+      .post('/api/v1/ingest')
+      .set('authorization', `Bearer ${o.token}`)
+      .send({ air: 20, rh: 50 })
+      .expect(401);
+  });
+});
+
+describe('readings query', () => {
+  it('returns what was posted, oldest first, with the zone list showing the newest', async () => {
+    const o = await ownerWithSensor(t.app);
+    const start = Date.now() - 30 * 60_000;
+    const readings = [0, 1, 2].map((i) => ({
+      at: new Date(start + i * 60_000).toISOString(),
+      air: 18 + i,
+      rh: 55,
+      surface: 14,
+    }));
+    await request(t.app)
+      .post('/api/v1/ingest')
+      .set('authorization', `Bearer ${o.token}`)
+      .send({ readings })
+      .expect(202);
+
+    const series = await o.agent
+      .get(`/api/v1/shops/${o.shopId}/zones/${o.zoneId}/readings`)
+      .expect(200);
+    expect(series.body.bucketSeconds).toBe(0);
+    expect(series.body.points.map((p: { at: string; air: number }) => [p.at, p.air])).toEqual(
+      readings.map((r) => [r.at, r.air]),
+    );
+    expect(series.body.points[0]).toMatchObject({ rh: 55, surface: 14, count: 1 });
+
+    const zones = await o.agent.get(`/api/v1/shops/${o.shopId}/zones`).expect(200);
+    expect(zones.body.zones).toHaveLength(1);
+    expect(zones.body.zones[0].latest).toMatchObject({
+      at: readings[2]!.at,
+      air: 20,
+      rh: 55,
+      surface: 14,
+    });
+  });
+
+  it('downsamples into buckets that keep the lowest margin', async () => {
+    const o = await ownerWithSensor(t.app);
+    const start = Date.now() - 100 * 60_000;
+    // 100 one-minute readings; one dip of the surface to 5 °C must survive the downsampling.
+    const readings = Array.from({ length: 100 }, (_, i) => ({
+      at: new Date(start + i * 60_000).toISOString(),
+      air: 20,
+      rh: 50,
+      surface: i === 37 ? 5 : 15,
+    }));
+    await request(t.app)
+      .post('/api/v1/ingest')
+      .set('authorization', `Bearer ${o.token}`)
+      .send({ readings })
+      .expect(202);
+    const from = new Date(start).toISOString();
+    const to = new Date(start + 100 * 60_000).toISOString();
+    const res = await o.agent
+      .get(`/api/v1/shops/${o.shopId}/zones/${o.zoneId}/readings`)
+      .query({ from, to, points: 10 })
+      .expect(200);
+    expect(res.body.bucketSeconds).toBe(600);
+    expect(res.body.points).toHaveLength(10);
+    expect(res.body.points.reduce((n: number, p: { count: number }) => n + p.count, 0)).toBe(100);
+    const dip = res.body.points[3];
+    const dewC = psychrolib.GetTDewPointFromRelHum(20, 0.5);
+    expect(dip.marginMin).toBeCloseTo(5 - dewC, 1);
+    expect(dip.level).toBe('wet');
+    // 15 − 9.26 = 5.7 K: dry (≥ 3 K caution limit).
+    expect(res.body.points[2].level).toBe('dry');
+  });
+
+  it('hides another shop: 404 for a stranger, 401 without a session', async () => {
+    const o = await ownerWithSensor(t.app);
+    const stranger = await signUp(t.app, 'Stranger');
+    const res = await stranger.agent
+      .get(`/api/v1/shops/${o.shopId}/zones/${o.zoneId}/readings`)
+      .expect(404);
+    expect(res.body).toMatchObject(errorShape);
+    await stranger.agent.get(`/api/v1/shops/${o.shopId}/zones`).expect(404);
+    await stranger.agent
+      .post(`/api/v1/shops/${o.shopId}/zones`)
+      .send({ name: 'Mine now' })
+      .expect(404);
+    await request(t.app).get(`/api/v1/shops/${o.shopId}/zones`).expect(401);
+  });
+
+  it('answers unknown API paths with a JSON 404', async () => {
+    const res = await request(t.app).get('/api/v1/nothing-here').expect(404);
+    expect(res.body).toMatchObject(errorShape);
+  });
+});

@@ -1,0 +1,64 @@
+// A Drybench app wired to the real test database, plus helpers that create a signed-in user
+// with a shop, a zone and a sensor through the public HTTP routes.
+import { randomUUID } from 'node:crypto';
+
+import request from 'supertest';
+
+import { createDatabase } from '@/db';
+import { createApp } from '@/server/app';
+import { createSensorTokenCache } from '@/server/auth/sensorTokens';
+import { createSessionSigner } from '@/server/auth/session';
+
+export const TEST_SECRET = 'test-secret-that-is-at-least-32-characters-long';
+
+export function makeTestApp(options: { webDir?: string } = {}) {
+  const database = createDatabase(process.env.DATABASE_URL!, { max: 5 });
+  const sessions = createSessionSigner(TEST_SECRET, false);
+  const tokens = createSensorTokenCache(database.db);
+  const app = createApp({ ...database, sessions, tokens, webDir: options.webDir, log: () => {} });
+  return { app, ...database, sessions, tokens };
+}
+
+export type TestApp = ReturnType<typeof makeTestApp>;
+
+export function uniqueEmail(prefix = 'user'): string {
+  return `${prefix}-${randomUUID().slice(0, 8)}@test.example`;
+}
+
+/** Signs up a new user and returns an agent that carries the session cookie. */
+export async function signUp(app: TestApp['app'], name = 'Test Person') {
+  const agent = request.agent(app);
+  const email = uniqueEmail();
+  const password = 'correct horse battery';
+  const res = await agent.post('/api/v1/auth/sign-up').send({ email, password, name }).expect(201);
+  return {
+    agent,
+    email,
+    password,
+    user: res.body.user as { id: string; email: string; name: string },
+  };
+}
+
+/** A user who owns a shop with one zone and one sensor, all made through the API. */
+export async function ownerWithSensor(app: TestApp['app']) {
+  const owner = await signUp(app, 'Owner');
+  const shop = (
+    await owner.agent
+      .post('/api/v1/shops')
+      .send({ name: 'Test shop', timeZone: 'Europe/Oslo' })
+      .expect(201)
+  ).body as { id: string };
+  const zone = (
+    await owner.agent
+      .post(`/api/v1/shops/${shop.id}/zones`)
+      .send({ name: 'Machine room' })
+      .expect(201)
+  ).body as { id: string };
+  const sensor = (
+    await owner.agent
+      .post(`/api/v1/shops/${shop.id}/sensors`)
+      .send({ name: 'Saw probe', zoneId: zone.id })
+      .expect(201)
+  ).body as { id: string; token: string };
+  return { ...owner, shopId: shop.id, zoneId: zone.id, sensorId: sensor.id, token: sensor.token };
+}
