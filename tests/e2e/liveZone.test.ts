@@ -1,0 +1,95 @@
+// A person's path through the foundation, in Debian's Chromium against the real server:
+// sign in as the demo owner, open a zone, and watch a reading posted over HTTP by "a sensor"
+// (this test) reach the card and the chart without a reload.
+import fs from 'node:fs';
+
+import { chromium, type Browser, type Page } from 'playwright-core';
+import { afterAll, beforeAll, describe, expect, it } from 'vitest';
+
+import { DEMO_PASSWORD, DEMO_PEOPLE } from '@/db/seed';
+
+import { CHROMIUM_ARGS, startLiveServer } from '../support/liveServer';
+
+const SHOTS = 'test-results/screenshots';
+let server: Awaited<ReturnType<typeof startLiveServer>>;
+let browser: Browser;
+
+beforeAll(async () => {
+  if (!fs.existsSync('dist/index.html'))
+    throw new Error('dist/ is missing: run scripts/build-web.sh');
+  fs.mkdirSync(SHOTS, { recursive: true });
+  server = await startLiveServer();
+  browser = await chromium.launch({ executablePath: '/usr/bin/chromium', args: CHROMIUM_ARGS });
+});
+
+afterAll(async () => {
+  await browser?.close();
+  await server?.close();
+});
+
+async function signIn(page: Page) {
+  await page.goto(`${server.baseUrl}/sign-in`);
+  await page.getByTestId('sign-in-email').fill(DEMO_PEOPLE[0].email);
+  await page.getByTestId('sign-in-password').fill(DEMO_PASSWORD);
+  await page.getByTestId('sign-in-submit').click();
+  await page.waitForURL(/\/shops\/[0-9a-f-]+/);
+}
+
+async function postReading(token: string, reading: Record<string, unknown>) {
+  const res = await fetch(`${server.baseUrl}/api/v1/ingest`, {
+    method: 'POST',
+    headers: { authorization: `Bearer ${token}`, 'content-type': 'application/json' },
+    body: JSON.stringify(reading),
+  });
+  expect(res.status).toBe(202);
+  return (await res.json()) as { results: { dewPoint: number; margin: number; level: string }[] };
+}
+
+describe.each([
+  { label: 'phone', width: 390, height: 844, air: 17.4, surface: 9.6 },
+  { label: 'wide', width: 1440, height: 900, air: 18.6, surface: 11.2 },
+])('a zone on a $label screen ($width×$height)', ({ label, width, height, air, surface }) => {
+  it('shows a reading posted by a sensor on the card and the chart within 2 s', async () => {
+    const page = await browser.newPage({ viewport: { width, height } });
+    const errors: string[] = [];
+    page.on('pageerror', (err) => errors.push(err.message));
+    await signIn(page);
+
+    await page.getByRole('link', { name: /^Machine room:/ }).click();
+    await page.waitForURL(/\/zones\/[0-9a-f-]+$/);
+    const detail = page.getByTestId('zone-detail');
+    const chart = detail.getByTestId('zone-chart');
+    await expect
+      .poll(() => chart.locator('svg path').count(), { timeout: 10_000 })
+      .toBeGreaterThan(2);
+    await expect
+      .poll(() => page.getByTestId('live-status').getAttribute('aria-label'))
+      .toBe('Live updates on');
+    const pointsBefore = Number(await chart.getAttribute('data-points'));
+
+    const sensor = server.demo.tokens.find((s) => s.zone === 'Machine room')!;
+    const posted = await postReading(sensor.token, { air, rh: 62, surface });
+    const expected = posted.results[0]!;
+    const card = detail.getByTestId('zone-card');
+    const startedMs = Date.now();
+    await expect
+      .poll(() => card.getByTestId('zone-air').textContent(), { timeout: 2000, interval: 50 })
+      .toContain(air.toFixed(1));
+    expect(Date.now() - startedMs).toBeLessThan(2000);
+    expect(await card.getByTestId('zone-surface').textContent()).toContain(surface.toFixed(1));
+    expect(await card.getByTestId('zone-margin').textContent()).toContain(
+      Math.abs(expected.margin).toFixed(1),
+    );
+    expect(await card.getByTestId('zone-level').textContent()).toContain(expected.level);
+    await expect
+      .poll(() => chart.getAttribute('data-points').then(Number), { timeout: 2000, interval: 50 })
+      .toBe(pointsBefore + 1);
+
+    await page.screenshot({ path: `${SHOTS}/zone-${label}.png`, fullPage: true });
+    await page.goto(page.url().replace(/\/zones\/.*$/, ''));
+    await page.getByTestId('zone-card').first().waitFor();
+    await page.screenshot({ path: `${SHOTS}/overview-${label}.png`, fullPage: true });
+    expect(errors).toEqual([]);
+    await page.close();
+  });
+});

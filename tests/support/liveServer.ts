@@ -1,0 +1,46 @@
+// The whole server as `npm start` runs it — Express app, live hub, exported web app — on a
+// free loopback port, over the test database, with the demo shop seeded.
+import http from 'node:http';
+import type { AddressInfo } from 'node:net';
+
+import { seedDemo } from '@/db/seed';
+import { hashPassword } from '@/server/auth/password';
+import { hashToken, newSensorToken } from '@/server/auth/sensorTokens';
+import { startLiveHub } from '@/server/live/hub';
+
+import { makeTestApp } from './app';
+
+export async function startLiveServer() {
+  const t = makeTestApp({ webDir: 'dist' });
+  const demo = await seedDemo(t.db, { hashPassword, newToken: newSensorToken, hashToken });
+  const hub = await startLiveHub({
+    databaseUrl: process.env.DATABASE_URL!,
+    db: t.db,
+    sessions: t.sessions,
+  });
+  const server = http.createServer(t.app);
+  hub.attach(server);
+  await new Promise<void>((resolve) => server.listen(0, '127.0.0.1', resolve));
+  const { port } = server.address() as AddressInfo;
+  return {
+    baseUrl: `http://127.0.0.1:${port}`,
+    demo,
+    async close() {
+      await hub.close();
+      server.closeAllConnections();
+      await new Promise((resolve) => server.close(resolve));
+      await t.pool.end();
+    },
+  };
+}
+
+export const CHROMIUM_ARGS = [
+  '--headless',
+  '--no-sandbox',
+  '--disable-gpu',
+  '--disable-quic',
+  '--no-first-run',
+  '--disable-background-networking',
+  '--disable-component-update',
+  '--disable-sync',
+];
