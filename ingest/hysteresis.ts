@@ -12,11 +12,13 @@
  *
  * When the samples in a run disagree (wet, close, wet while the state is dry), the run confirms the
  * level all of them support — here `close`, since every sample was at least that bad — rather than
- * restarting the count each time, which would let a noisy descent never raise anything. From
- * `unknown` there is no such order, and a mixed run confirms the worse level.
+ * restarting the count each time. From `unknown` there is no such order, and a mixed run confirms
+ * the worse level. A run also survives one contrary reading at a time (it is not counted); two in
+ * a row end it. Without that, a margin hovering at a limit (0.9, 1.1, 0.8, 1.2, …) would never
+ * confirm the worse level, and a rust alarm must not be talked out of itself by noise.
  *
  * The defaults are rules of thumb of ours, not from a standard: a band of 0.5 K matches the
- * ±0.5 K accuracy of a typical temperature sensor; three readings or five minutes ride out one
+ * ±0.5 K accuracy of a typical temperature sensor; three readings or five minutes ride out a
  * bad reading without delaying a real change by more than a few minutes.
  */
 import { levelFor, levelSeverity, type Level, type MarginLimits } from './levels';
@@ -27,7 +29,7 @@ export interface HysteresisOptions {
   bandK: number;
   /** A candidate level is entered after it has held this long... */
   minHoldMs: number;
-  /** ...or for this many consecutive readings. */
+  /** ...or for this many readings of the run. */
   minCount: number;
 }
 
@@ -46,7 +48,10 @@ export interface PendingLevel {
   level: Level;
   /** Time of the first reading of the run. */
   sinceMs: number;
+  /** Readings that supported the run. */
   count: number;
+  /** Contrary readings since the last supporting one (0 or 1; the second ends the run). */
+  contrary: number;
 }
 
 export interface LevelState {
@@ -114,13 +119,20 @@ export function stepLevelHysteresis(
     pending: null,
   };
   const target = targetLevel(current.level, sample.marginK, options);
+  const run = current.pending;
+  const merged =
+    run === null || target === current.level ? null : mergeRun(current.level, run.level, target);
+
+  if (run !== null && merged === null && run.contrary === 0) {
+    // The first contrary reading: the run waits for the next one.
+    return { ...current, atMs: sample.atMs, pending: { ...run, contrary: 1 } };
+  }
   if (target === current.level) return { ...current, atMs: sample.atMs, pending: null };
 
-  const merged = current.pending ? mergeRun(current.level, current.pending.level, target) : null;
   const pending: PendingLevel =
-    current.pending && merged !== null
-      ? { level: merged, sinceMs: current.pending.sinceMs, count: current.pending.count + 1 }
-      : { level: target, sinceMs: sample.atMs, count: 1 };
+    run !== null && merged !== null
+      ? { level: merged, sinceMs: run.sinceMs, count: run.count + 1, contrary: 0 }
+      : { level: target, sinceMs: sample.atMs, count: 1, contrary: 0 };
 
   if (pending.count >= options.minCount || sample.atMs - pending.sinceMs >= options.minHoldMs) {
     return { level: pending.level, enteredAtMs: sample.atMs, atMs: sample.atMs, pending: null };
