@@ -11,13 +11,15 @@ import { createSensorTokenCache } from './auth/sensorTokens';
 import { createSessionSigner } from './auth/session';
 import { readConfig } from './config';
 import { startLiveHub } from './live/hub';
+import { createReadingWriter } from './readings/writer';
 
 async function main() {
   const config = readConfig();
   const { pool, db } = createDatabase(config.databaseUrl);
   const sessions = createSessionSigner(config.sessionSecret, config.cookieSecure);
   const tokens = createSensorTokenCache(db);
-  const app = createApp({ db, pool, sessions, tokens, webDir: config.webDir });
+  const writer = createReadingWriter(pool);
+  const app = createApp({ db, pool, sessions, tokens, writer, webDir: config.webDir });
   const hub = await startLiveHub({
     databaseUrl: config.databaseUrl,
     db,
@@ -36,6 +38,7 @@ async function main() {
     stopping = true;
     console.log(`Drybench server stopping (${signal})…`);
     server.close();
+    await writer.close();
     await hub.close();
     server.closeAllConnections();
     await pool.end();

@@ -1,9 +1,9 @@
 import { sql } from 'drizzle-orm';
+import type pg from 'pg';
 
 import type { Level } from '@/ingest';
 
 import type { Db } from '../index';
-import { readings, sensors } from '../schema';
 
 export interface ReadingRow {
   sensorId: string;
@@ -24,36 +24,85 @@ export interface ReadingRow {
 /** The channel every server instance LISTENs on for live fan-out. */
 export const LIVE_CHANNEL = 'drybench_live';
 
+/** Identifies a reading: a sensor posts at most one reading per instant. */
+export const readingKey = (sensorId: string, atMs: number) => `${sensorId}|${atMs}`;
+
 /**
- * Stores readings once (the (sensor, at) key makes retries harmless), updates the sensor's
- * last-seen and battery, and queues a live notification — all in one transaction, so
- * PostgreSQL delivers the notification only if the rows committed.
- * Returns the `at` of the rows actually inserted.
+ * Inserts a group of readings in one transaction: one multi-row INSERT through unnest (a fixed
+ * 13 parameters whatever the row count), the sensors' last-seen and battery, and the live
+ * notifications `notificationsFor` builds from the keys that were new. The (sensor, at) key
+ * makes retries harmless; PostgreSQL delivers the notifications only if the rows committed.
  */
-export async function storeReadings(
-  db: Db,
+export async function insertReadingGroup(
+  pool: pg.Pool,
   rows: ReadingRow[],
-  livePayload: (inserted: ReadingRow[]) => string | null,
-): Promise<Set<number>> {
-  if (rows.length === 0) return new Set();
-  return db.transaction(async (tx) => {
-    const inserted = await tx
-      .insert(readings)
-      .values(rows)
-      .onConflictDoNothing({ target: [readings.sensorId, readings.at] })
-      .returning({ at: readings.at });
-    const insertedMs = new Set(inserted.map((r) => r.at.getTime()));
-    const first = rows[0]!;
-    const newest = rows.reduce((a, b) => (b.at > a.at ? b : a));
-    await tx.execute(sql`
-      update ${sensors}
-      set last_seen_at = greatest(coalesce(last_seen_at, ${newest.at}), ${newest.at}),
-          battery_v = coalesce(${newest.batteryV}, battery_v)
-      where id = ${first.sensorId}`);
-    const payload = livePayload(rows.filter((r) => insertedMs.has(r.at.getTime())));
-    if (payload) await tx.execute(sql`select pg_notify(${LIVE_CHANNEL}, ${payload})`);
-    return insertedMs;
-  });
+  notificationsFor: (insertedKeys: Set<string>) => string[],
+): Promise<void> {
+  const client = await pool.connect();
+  let broken = false;
+  try {
+    await client.query('begin');
+    const inserted = await client.query<{ sensor_id: string; at: Date }>(
+      `insert into readings (sensor_id, at, shop_id, zone_id, air_c, rh_pct, surface_c,
+         surface_source, battery_v, dew_point_c, margin_k, emc_pct, level)
+       select * from unnest($1::uuid[], $2::timestamptz[], $3::uuid[], $4::uuid[], $5::float8[],
+         $6::float8[], $7::float8[], $8::surface_source[], $9::float8[], $10::float8[],
+         $11::float8[], $12::float8[], $13::level[])
+       on conflict (sensor_id, at) do nothing
+       returning sensor_id, at`,
+      [
+        rows.map((r) => r.sensorId),
+        rows.map((r) => r.at.toISOString()),
+        rows.map((r) => r.shopId),
+        rows.map((r) => r.zoneId),
+        rows.map((r) => r.airC),
+        rows.map((r) => r.rhPct),
+        rows.map((r) => r.surfaceC),
+        rows.map((r) => r.surfaceSource),
+        rows.map((r) => r.batteryV),
+        rows.map((r) => r.dewPointC),
+        rows.map((r) => r.marginK),
+        rows.map((r) => r.emcPct),
+        rows.map((r) => r.level),
+      ],
+    );
+    const insertedKeys = new Set(inserted.rows.map((r) => readingKey(r.sensor_id, r.at.getTime())));
+
+    const newest = new Map<string, ReadingRow>();
+    for (const row of rows) {
+      const seen = newest.get(row.sensorId);
+      if (!seen || row.at > seen.at) newest.set(row.sensorId, row);
+    }
+    const latest = [...newest.values()];
+    await client.query(
+      `update sensors s
+       set last_seen_at = greatest(coalesce(s.last_seen_at, u.at), u.at),
+           battery_v = coalesce(u.battery_v, s.battery_v)
+       from unnest($1::uuid[], $2::timestamptz[], $3::float8[]) as u(id, at, battery_v)
+       where s.id = u.id`,
+      [
+        latest.map((r) => r.sensorId),
+        latest.map((r) => r.at.toISOString()),
+        latest.map((r) => r.batteryV),
+      ],
+    );
+
+    const payloads = notificationsFor(insertedKeys);
+    if (payloads.length > 0) {
+      await client.query('select pg_notify($1, p) from unnest($2::text[]) as p', [
+        LIVE_CHANNEL,
+        payloads,
+      ]);
+    }
+    await client.query('commit');
+  } catch (err) {
+    broken = true;
+    await client.query('rollback').catch(() => {});
+    throw err;
+  } finally {
+    // A client whose transaction failed may hold a dead connection: drop it from the pool.
+    client.release(broken);
+  }
 }
 
 export interface SeriesPoint {

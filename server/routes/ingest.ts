@@ -6,8 +6,7 @@
  */
 import express, { Router } from 'express';
 
-import type { Db } from '@/db';
-import { storeReadings, type ReadingRow } from '@/db/queries/readings';
+import type { ReadingRow } from '@/db/queries/readings';
 import type { SensorIdentity } from '@/db/queries/sensors';
 import {
   checkReading,
@@ -20,10 +19,15 @@ import {
 import type { SensorTokenCache } from '../auth/sensorTokens';
 import { ApiError } from '../errors';
 import { readingMessage } from '../live/messages';
+import type { ReadingWriter } from '../readings/writer';
 
 const BEARER = /^Bearer\s+(\S+)$/i;
 
-export function ingestRouter(db: Db, tokens: SensorTokenCache, now: () => number): Router {
+export function ingestRouter(
+  writer: ReadingWriter,
+  tokens: SensorTokenCache,
+  now: () => number,
+): Router {
   const router = Router();
 
   router.post(
@@ -115,13 +119,13 @@ export function ingestRouter(db: Db, tokens: SensorTokenCache, now: () => number
       // Within one request the same `at` twice is also a duplicate; keep the first.
       const unique = new Map<number, ReadingRow>();
       for (const row of rows) if (!unique.has(row.at.getTime())) unique.set(row.at.getTime(), row);
-      const inserted = await storeReadings(db, [...unique.values()], (fresh) =>
-        fresh.length ? JSON.stringify(readingMessage(fresh)) : null,
+      const { insertedMs } = await writer.write([...unique.values()], (fresh) =>
+        JSON.stringify(readingMessage(fresh)),
       );
 
       res.status(202).json({
-        stored: inserted.size,
-        duplicates: rows.length - inserted.size,
+        stored: insertedMs.size,
+        duplicates: rows.length - insertedMs.size,
         rejected,
         results: rows.map((r) => ({
           at: r.at.toISOString(),

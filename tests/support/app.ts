@@ -8,6 +8,7 @@ import { createDatabase } from '@/db';
 import { createApp } from '@/server/app';
 import { createSensorTokenCache } from '@/server/auth/sensorTokens';
 import { createSessionSigner } from '@/server/auth/session';
+import { createReadingWriter } from '@/server/readings/writer';
 
 export const TEST_SECRET = 'test-secret-that-is-at-least-32-characters-long';
 
@@ -15,8 +16,16 @@ export function makeTestApp(options: { webDir?: string } = {}) {
   const database = createDatabase(process.env.DATABASE_URL!, { max: 5 });
   const sessions = createSessionSigner(TEST_SECRET, false);
   const tokens = createSensorTokenCache(database.db);
-  const app = createApp({ ...database, sessions, tokens, webDir: options.webDir, log: () => {} });
-  return { app, ...database, sessions, tokens };
+  const writer = createReadingWriter(database.pool);
+  const app = createApp({
+    ...database,
+    sessions,
+    tokens,
+    writer,
+    webDir: options.webDir,
+    log: () => {},
+  });
+  return { app, ...database, sessions, tokens, writer };
 }
 
 export type TestApp = ReturnType<typeof makeTestApp>;
