@@ -14,6 +14,7 @@ import type { Db } from '@/db';
 import { requireUser } from './auth/middleware';
 import type { SensorTokenCache } from './auth/sensorTokens';
 import type { SessionSigner } from './auth/session';
+import type { SurfaceEstimator } from './readings/surfaceEstimates';
 import type { ReadingWriter } from './readings/writer';
 import { errorHandler, notFound } from './errors';
 import { authRouter } from './routes/auth';
@@ -31,6 +32,7 @@ export interface AppDeps {
   sessions: SessionSigner;
   tokens: SensorTokenCache;
   writer: ReadingWriter;
+  estimator: SurfaceEstimator;
   /** The exported web app (dist/); omitted in API-only tests. */
   webDir?: string;
   now?: () => number;
@@ -60,7 +62,7 @@ export function createApp(deps: AppDeps): express.Express {
 
   const api = express.Router();
   // Ingest parses its own body (after the token check and with its own limit).
-  api.use('/ingest', ingestRouter(deps.writer, deps.tokens, now));
+  api.use('/ingest', ingestRouter({ ...deps, now }));
   api.use(express.json({ limit: '100kb' }));
   api.use(healthRouter(deps.pool));
   api.use('/auth', authRouter(deps.db, deps.sessions));

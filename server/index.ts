@@ -11,6 +11,7 @@ import { createSensorTokenCache } from './auth/sensorTokens';
 import { createSessionSigner } from './auth/session';
 import { readConfig } from './config';
 import { startLiveHub } from './live/hub';
+import { createSurfaceEstimator } from './readings/surfaceEstimates';
 import { createReadingWriter } from './readings/writer';
 
 async function main() {
@@ -19,7 +20,8 @@ async function main() {
   const sessions = createSessionSigner(config.sessionSecret, config.cookieSecure);
   const tokens = createSensorTokenCache(db);
   const writer = createReadingWriter(pool);
-  const app = createApp({ db, pool, sessions, tokens, writer, webDir: config.webDir });
+  const estimator = createSurfaceEstimator(db);
+  const app = createApp({ db, pool, sessions, tokens, writer, estimator, webDir: config.webDir });
   const hub = await startLiveHub({
     databaseUrl: config.databaseUrl,
     db,

@@ -194,3 +194,13 @@ function toPoint(r: RawRow, levelOf: (marginK: number | null) => Level): SeriesP
     count: r.n,
   };
 }
+
+/** A sensor's stored air temperatures in [from, to), oldest first: the surface estimate's input. */
+export async function airSamplesOfSensor(db: Db, sensorId: string, from: Date, to: Date) {
+  const result = await db.execute<{ at: Date | string; air_c: number }>(sql`
+    select at, air_c from readings
+    where sensor_id = ${sensorId} and at >= ${from} and at < ${to}
+    order by at
+    limit 5000`);
+  return result.rows.map((r) => ({ atMs: new Date(r.at).getTime(), airC: Number(r.air_c) }));
+}

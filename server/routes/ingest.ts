@@ -6,28 +6,26 @@
  */
 import express, { Router } from 'express';
 
-import type { ReadingRow } from '@/db/queries/readings';
 import type { SensorIdentity } from '@/db/queries/sensors';
-import {
-  checkReading,
-  deriveReading,
-  MAX_READINGS_PER_REQUEST,
-  parseEnvelope,
-  type Rejection,
-} from '@/ingest';
+import { MAX_READINGS_PER_REQUEST, parseEnvelope } from '@/ingest';
 
 import type { SensorTokenCache } from '../auth/sensorTokens';
 import { ApiError } from '../errors';
 import { readingMessage } from '../live/messages';
+import { prepareReadings } from '../readings/prepare';
+import type { SurfaceEstimator } from '../readings/surfaceEstimates';
 import type { ReadingWriter } from '../readings/writer';
 
 const BEARER = /^Bearer\s+(\S+)$/i;
 
-export function ingestRouter(
-  writer: ReadingWriter,
-  tokens: SensorTokenCache,
-  now: () => number,
-): Router {
+export interface IngestDeps {
+  writer: ReadingWriter;
+  tokens: SensorTokenCache;
+  estimator: SurfaceEstimator;
+  now: () => number;
+}
+
+export function ingestRouter({ writer, tokens, estimator, now }: IngestDeps): Router {
   const router = Router();
 
   router.post(
@@ -88,38 +86,13 @@ export function ingestRouter(
         );
       }
 
-      const limits = { cautionK: sensor.cautionK, wetK: sensor.wetK };
-      const rejected: ({ index: number } & Rejection)[] = [];
-      const rows: ReadingRow[] = [];
-      envelope.readings.forEach((reading, index) => {
-        const problem = checkReading(reading, receivedAtMs);
-        if (problem) return void rejected.push({ index, ...problem });
-        const derived = deriveReading(reading, limits);
-        if (derived.dewPointC === null) {
-          return void rejected.push({
-            index,
-            code: 'not_computable',
-            message: 'The dew point cannot be computed from this reading (RH too low?).',
-          });
-        }
-        rows.push({
-          sensorId: sensor.sensorId,
-          shopId: sensor.shopId,
-          zoneId: sensor.zoneId,
-          at: new Date(reading.atMs),
-          airC: reading.airC,
-          rhPct: reading.rhPct,
-          surfaceC: reading.surfaceC,
-          surfaceSource: reading.surfaceC === null ? null : 'probe',
-          batteryV: reading.batteryV,
-          ...derived,
-        });
-      });
-
-      // Within one request the same `at` twice is also a duplicate; keep the first.
-      const unique = new Map<number, ReadingRow>();
-      for (const row of rows) if (!unique.has(row.at.getTime())) unique.set(row.at.getTime(), row);
-      const { insertedMs } = await writer.write([...unique.values()], (fresh) =>
+      const { rows, rejected } = await prepareReadings(
+        sensor,
+        envelope.readings,
+        receivedAtMs,
+        estimator,
+      );
+      const { insertedMs } = await writer.write(rows, (fresh) =>
         JSON.stringify(readingMessage(fresh)),
       );
 

@@ -156,7 +156,32 @@ describe('ingest', () => {
       [2, 'air_out_of_range'],
       [3, 'time_in_future'],
     ]);
-    expect(res.body.results[0].level).toBe('unknown');
+    // No probe: the first estimate of the iron starts at the air temperature.
+    expect(res.body.results[0]).toMatchObject({ surfaceSource: 'estimate' });
+    expect(res.body.results[0].margin).toBeCloseTo(15 - res.body.results[0].dewPoint, 6);
+  });
+
+  it('estimates the surface of a sensor without a probe as a first-order lag of the air', async () => {
+    const o = await ownerWithSensor(t.app);
+    const hourMs = 3_600_000;
+    const t0 = Date.now() - 4 * hourMs;
+    const post = (readings: object[]) =>
+      request(t.app)
+        .post('/api/v1/ingest')
+        .set('authorization', `Bearer ${o.token}`)
+        .send({ readings })
+        .expect(202);
+    // A step of the air from 10 to 20 °C, posted in two requests (the state carries over).
+    await post([{ at: new Date(t0).toISOString(), air: 10, rh: 50 }]);
+    const res = await post(
+      [1, 2, 3].map((h) => ({ at: new Date(t0 + h * hourMs).toISOString(), air: 20, rh: 50 })),
+    );
+    // Analytic step response of a first-order lag: after τ (3 h, the default) the surface has
+    // covered 1 − e⁻¹ = 63.2 % of the step: 10 + 10 × 0.632 = 16.32 °C.
+    const surfaceAfterTauC = 20 - 10 * Math.exp(-1);
+    const last = res.body.results[2];
+    expect(last.surfaceSource).toBe('estimate');
+    expect(last.margin + last.dewPoint).toBeCloseTo(surfaceAfterTauC, 6);
   });
 
   it.each([

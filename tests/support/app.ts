@@ -8,6 +8,7 @@ import { createDatabase } from '@/db';
 import { createApp } from '@/server/app';
 import { createSensorTokenCache } from '@/server/auth/sensorTokens';
 import { createSessionSigner } from '@/server/auth/session';
+import { createSurfaceEstimator } from '@/server/readings/surfaceEstimates';
 import { createReadingWriter } from '@/server/readings/writer';
 
 export const TEST_SECRET = 'test-secret-that-is-at-least-32-characters-long';
@@ -17,15 +18,17 @@ export function makeTestApp(options: { webDir?: string } = {}) {
   const sessions = createSessionSigner(TEST_SECRET, false);
   const tokens = createSensorTokenCache(database.db);
   const writer = createReadingWriter(database.pool);
+  const estimator = createSurfaceEstimator(database.db);
   const app = createApp({
     ...database,
     sessions,
     tokens,
     writer,
+    estimator,
     webDir: options.webDir,
     log: () => {},
   });
-  return { app, ...database, sessions, tokens, writer };
+  return { app, ...database, sessions, tokens, writer, estimator };
 }
 
 export type TestApp = ReturnType<typeof makeTestApp>;

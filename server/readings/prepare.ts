@@ -1,0 +1,77 @@
+/**
+ * Turns a sensor's parsed readings into rows to store: the contract's per-reading checks, the
+ * surface estimate where there is no probe, and the derived values from ingest/.
+ */
+import type { ReadingRow } from '@/db/queries/readings';
+import type { SensorIdentity } from '@/db/queries/sensors';
+import {
+  checkReading,
+  deriveReading,
+  dewPoint,
+  type Rejection,
+  type SensorReading,
+} from '@/ingest';
+
+import type { SurfaceEstimator } from './surfaceEstimates';
+
+export interface Prepared {
+  /** In the order the sensor sent them, one per distinct `at`. */
+  rows: ReadingRow[];
+  rejected: ({ index: number } & Rejection)[];
+}
+
+export async function prepareReadings(
+  sensor: SensorIdentity,
+  readings: SensorReading[],
+  receivedAtMs: number,
+  estimator: SurfaceEstimator,
+): Promise<Prepared> {
+  const rejected: Prepared['rejected'] = [];
+  const accepted: SensorReading[] = [];
+  const seenMs = new Set<number>();
+  readings.forEach((reading, index) => {
+    const problem = checkReading(reading, receivedAtMs);
+    if (problem) return void rejected.push({ index, ...problem });
+    if (!dewPoint(reading.airC, reading.rhPct).ok) {
+      return void rejected.push({
+        index,
+        code: 'not_computable',
+        message: 'The dew point cannot be computed from this reading (RH below 0.5 %?).',
+      });
+    }
+    // The same instant twice in one request is a duplicate too: keep the first.
+    if (seenMs.has(reading.atMs)) return;
+    seenMs.add(reading.atMs);
+    accepted.push(reading);
+  });
+
+  // The lag steps forward in time, so estimate over the readings sorted by time.
+  const byTime = [...accepted].sort((a, b) => a.atMs - b.atMs);
+  const estimates = new Map<number, number>();
+  if (byTime.some((r) => r.surfaceC === null)) {
+    const surfaces = await estimator.estimate(
+      sensor.sensorId,
+      byTime.map((r) => ({ atMs: r.atMs, airC: r.airC })),
+    );
+    byTime.forEach((r, i) => estimates.set(r.atMs, surfaces[i]!));
+  }
+
+  const limits = { cautionK: sensor.cautionK, wetK: sensor.wetK };
+  const rows = accepted.map((reading): ReadingRow => {
+    const probe = reading.surfaceC !== null;
+    const surfaceC = probe ? reading.surfaceC : (estimates.get(reading.atMs) ?? null);
+    return {
+      sensorId: sensor.sensorId,
+      shopId: sensor.shopId,
+      zoneId: sensor.zoneId,
+      at: new Date(reading.atMs),
+      airC: reading.airC,
+      rhPct: reading.rhPct,
+      surfaceC,
+      surfaceSource: probe ? 'probe' : surfaceC === null ? null : 'estimate',
+      batteryV: reading.batteryV,
+      ...deriveReading({ ...reading, surfaceC }, limits),
+    };
+  });
+  return { rows, rejected };
+}
