@@ -10,7 +10,7 @@ interface FlashProps {
   style?: StyleProp<ViewStyle>;
 }
 
-const FLASH_MS = 1_400;
+const FLASH_MS = 1_200;
 
 /** Marks a value that just changed, so a live update is noticed without being shouted. */
 export function Flash({ value, children, style }: FlashProps) {
@@ -29,7 +29,7 @@ export function Flash({ value, children, style }: FlashProps) {
   const backgroundColor = glow.interpolate({
     inputRange: [0, 1],
     // The close colour, faint: attention without alarm.
-    outputRange: ['rgba(143, 98, 16, 0)', 'rgba(143, 98, 16, 0.16)'],
+    outputRange: ['rgba(143, 98, 16, 0)', 'rgba(143, 98, 16, 0.12)'],
   });
   return (
     <Animated.View style={[{ backgroundColor, borderRadius: 4 }, style]}>{children}</Animated.View>

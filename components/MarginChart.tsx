@@ -19,6 +19,7 @@ interface MarginChartProps {
   height?: number;
 }
 
+const PADDING = { top: 12, bottom: 32, left: 44, right: 12 };
 const AXIS_TEXT = { fontFamily: fonts.regular, fontSize: 11, fill: colors.iron };
 
 /**
@@ -65,7 +66,7 @@ export function MarginChart({
           <VictoryChart
             width={width}
             height={height}
-            padding={{ top: 12, bottom: 32, left: 44, right: 12 }}
+            padding={PADDING}
             scale={{ x: 'time', y: 'linear' }}
             domain={{ x: [new Date(fromMs), new Date(toMs)], y: series.yDomain }}
             containerComponent={
@@ -78,6 +79,9 @@ export function MarginChart({
           >
             <VictoryAxis
               dependentAxis
+              offsetX={PADDING.left}
+              // Not a crossing axis, so Victory keeps the 0° tick it would otherwise hide.
+              crossAxis={false}
               tickFormat={(t: number) => `${t}°`}
               style={{
                 axis: { stroke: 'transparent' },
@@ -87,6 +91,9 @@ export function MarginChart({
               }}
             />
             <VictoryAxis
+              // Pinned to the bottom edge; by default it would cross the y axis at 0 °C.
+              offsetY={PADDING.bottom}
+              crossAxis={false}
               tickValues={ticks}
               tickFormat={(t: number | Date) => hourTickLabel(Number(t), timeZone)}
               style={{
@@ -102,7 +109,7 @@ export function MarginChart({
             />
             <VictoryArea
               data={series.wetBand}
-              style={{ data: { fill: colors.wet, fillOpacity: 0.2, stroke: 'none' } }}
+              style={{ data: { fill: colors.wet, fillOpacity: 0.24, stroke: 'none' } }}
             />
             <VictoryLine
               data={series.dewPoint}

@@ -8,14 +8,20 @@ import { useSignOutMutation } from './queries';
 import { colors, space, type } from './theme';
 
 /** The bar across the top of a shop's pages: its name, the live mark and signing out. */
-export function ShopHeader({ shopName }: { shopName: string }) {
+interface ShopHeaderProps {
+  shopName: string;
+  /** Lines the header up with the page column below it. */
+  maxWidth?: number;
+}
+
+export function ShopHeader({ shopName, maxWidth }: ShopHeaderProps) {
   const router = useRouter();
   const signOut = useSignOutMutation();
   return (
     <View style={styles.bar} accessibilityRole="header">
-      <Content style={styles.row}>
+      <Content style={styles.row} maxWidth={maxWidth}>
         <View style={styles.titleBlock}>
-          <Text style={type.title} numberOfLines={1} testID="shop-name">
+          <Text style={type.title} numberOfLines={2} testID="shop-name">
             {shopName}
           </Text>
           <LiveMark />

@@ -3,7 +3,14 @@ import type { ReactNode } from 'react';
 import { StyleSheet, Text, View } from 'react-native';
 
 import { shopHref } from './hrefs';
-import { Content, LIST_COLUMN_WIDTH, Screen, useBreakpoints } from './layout';
+import {
+  CONTENT_MAX_WIDTH,
+  Content,
+  LIST_COLUMN_WIDTH,
+  SINGLE_COLUMN_MAX_WIDTH,
+  Screen,
+  useBreakpoints,
+} from './layout';
 import { Notice } from './Notice';
 import { findShop, isSignedOut, useMeQuery, useZonesQuery, type Zone } from './queries';
 import { ShopHeader } from './ShopHeader';
@@ -57,6 +64,7 @@ export function ShopScreen({ shopId, zoneId }: ShopScreenProps) {
   }
 
   const timeZone = shop.timeZone;
+  const columnWidth = isWide ? CONTENT_MAX_WIDTH : SINGLE_COLUMN_MAX_WIDTH;
   let body: ReactNode;
   if (!zoneList) {
     body = zones.isError ? (
@@ -117,8 +125,8 @@ export function ShopScreen({ shopId, zoneId }: ShopScreenProps) {
   }
 
   return (
-    <Screen header={<ShopHeader shopName={shop.name} />}>
-      <Content>{body}</Content>
+    <Screen header={<ShopHeader shopName={shop.name} maxWidth={columnWidth} />}>
+      <Content maxWidth={columnWidth}>{body}</Content>
     </Screen>
   );
 }

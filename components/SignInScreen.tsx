@@ -2,7 +2,7 @@ import { Redirect, useRouter } from 'expo-router';
 import { useState } from 'react';
 import { StyleSheet, Text, View } from 'react-native';
 
-import { Button, TextField } from './forms';
+import { Button, Form, TextField } from './forms';
 import { homeHrefFor } from './hrefs';
 import { Content, FORM_MAX_WIDTH, Screen } from './layout';
 import {
@@ -66,7 +66,7 @@ export function SignInScreen() {
           <Text style={type.title}>Drybench</Text>
           <Text style={type.small}>Dew margin and wood moisture for your shop.</Text>
         </View>
-        <View style={styles.card}>
+        <Form style={styles.card} onSubmit={submit}>
           <Text style={type.heading} accessibilityRole="header">
             Sign in
           </Text>
@@ -115,7 +115,7 @@ export function SignInScreen() {
             testID="sign-in-submit"
           />
           {sending ? <Text style={type.small}>Signing in…</Text> : null}
-        </View>
+        </Form>
       </Content>
     </Screen>
   );

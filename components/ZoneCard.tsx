@@ -1,5 +1,4 @@
 import { Link } from 'expo-router';
-import type { ReactNode } from 'react';
 import { Pressable, StyleSheet, Text, View } from 'react-native';
 
 import type { Zone } from '@/components/queries';
@@ -25,6 +24,7 @@ interface ZoneCardProps {
 export function ZoneCard({ zone, timeZone, href, selected = false }: ZoneCardProps) {
   const latest = zone.latest;
   const level = latest?.level ?? 'unknown';
+  const margin = formatMargin(latest?.margin);
   const body = (
     <View style={styles.inner}>
       <View style={[styles.rule, { backgroundColor: levelColors[level] }]} />
@@ -35,9 +35,9 @@ export function ZoneCard({ zone, timeZone, href, selected = false }: ZoneCardPro
         <LevelMark level={level} testID="zone-level" />
       </View>
 
-      <Flash value={latest?.margin} style={styles.hero}>
+      <Flash value={margin} style={styles.hero}>
         <Text style={[type.hero, tabular]} testID="zone-margin">
-          {formatMargin(latest?.margin)}
+          {margin}
         </Text>
         <Text style={type.small}>dew margin</Text>
       </Flash>
@@ -45,25 +45,19 @@ export function ZoneCard({ zone, timeZone, href, selected = false }: ZoneCardPro
       <MarginBar marginK={latest?.margin ?? null} wetK={zone.wetK} cautionK={zone.cautionK} />
 
       <View style={styles.grid}>
-        <Value label="Dew point" testID="zone-dewpoint" value={latest?.dewPoint}>
-          {formatTemperature(latest?.dewPoint)}
-        </Value>
+        <Value
+          label="Dew point"
+          testID="zone-dewpoint"
+          text={formatTemperature(latest?.dewPoint)}
+        />
         <Value
           label={latest?.surfaceSource === 'estimate' ? 'Surface (est.)' : 'Surface'}
           testID="zone-surface"
-          value={latest?.surface}
-        >
-          {formatTemperature(latest?.surface)}
-        </Value>
-        <Value label="Air" testID="zone-air" value={latest?.air}>
-          {formatTemperature(latest?.air)}
-        </Value>
-        <Value label="RH" testID="zone-rh" value={latest?.rh}>
-          {formatPercent(latest?.rh)}
-        </Value>
-        <Value label="Wood EMC" testID="zone-emc" value={latest?.emc}>
-          {formatPercent(latest?.emc, 1)}
-        </Value>
+          text={formatTemperature(latest?.surface)}
+        />
+        <Value label="Air" testID="zone-air" text={formatTemperature(latest?.air)} />
+        <Value label="RH" testID="zone-rh" text={formatPercent(latest?.rh)} />
+        <Value label="Wood EMC" testID="zone-emc" text={formatPercent(latest?.emc, 1)} />
       </View>
 
       <LastSeen at={latest?.at ?? null} timeZone={timeZone} />
@@ -81,8 +75,10 @@ export function ZoneCard({ zone, timeZone, href, selected = false }: ZoneCardPro
   }
   return (
     <Link href={href} asChild>
+      {/* Link's Slot passes style straight to the DOM: a style function is dropped and an
+          array throws, so the card gets one flat object here. */}
       <Pressable
-        style={({ pressed }) => [cardStyle, pressed && styles.pressed]}
+        style={StyleSheet.flatten(cardStyle)}
         testID="zone-card"
         accessibilityRole="link"
         accessibilityLabel={linkLabel}
@@ -98,17 +94,17 @@ export function ZoneCard({ zone, timeZone, href, selected = false }: ZoneCardPro
 interface ValueProps {
   label: string;
   testID: string;
-  value: number | null | undefined;
-  children: ReactNode;
+  /** The value as shown; it flashes only when what a person sees changes. */
+  text: string;
 }
 
-function Value({ label, testID, value, children }: ValueProps) {
+function Value({ label, testID, text }: ValueProps) {
   return (
     <View style={styles.cell}>
       <Text style={type.small}>{label}</Text>
-      <Flash value={value} style={styles.valueFlash}>
+      <Flash value={text} style={styles.valueFlash}>
         <Text style={[type.body, tabular, styles.value]} testID={testID}>
-          {children}
+          {text}
         </Text>
       </Flash>
     </View>
@@ -133,7 +129,6 @@ const styles = StyleSheet.create({
     overflow: 'hidden',
   },
   selected: { borderColor: colors.iron },
-  pressed: { opacity: 0.85 },
   inner: {
     paddingVertical: space.lg,
     paddingLeft: space.lg + 6,

@@ -1,2 +1,3 @@
 export { Button } from './Button';
+export { Form, type FormProps } from './Form';
 export { TextField } from './TextField';

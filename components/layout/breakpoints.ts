@@ -14,6 +14,8 @@ export const BREAKPOINTS = {
 
 /** A readable column: cards and forms never stretch past this on a wide screen. */
 export const CONTENT_MAX_WIDTH = 1200;
+/** One column below the wide breakpoint: a tablet gets a phone's column, centred. */
+export const SINGLE_COLUMN_MAX_WIDTH = 640;
 export const FORM_MAX_WIDTH = 420;
 export const LIST_COLUMN_WIDTH = 400;
 

@@ -3,6 +3,7 @@ export {
   CONTENT_MAX_WIDTH,
   FORM_MAX_WIDTH,
   LIST_COLUMN_WIDTH,
+  SINGLE_COLUMN_MAX_WIDTH,
   getBreakpoints,
   useBreakpoints,
   type Breakpoints,

@@ -32,9 +32,11 @@ export function useSignOutMutation() {
   const queryClient = useQueryClient();
   return useMutation({
     mutationFn: () => apiRequest<void>('/api/v1/auth/sign-out', { method: 'POST' }),
-    onSettled: () => {
-      // Drop every cached answer so the next person sees nothing of this one's shops.
-      queryClient.clear();
+    onSettled: async () => {
+      // Drop every cached answer so the next person sees nothing of this one's shops. `me` is
+      // reset rather than removed so its observers (the live connection) learn of it at once.
+      queryClient.removeQueries({ predicate: (query) => query.queryKey[0] !== meKeys.all[0] });
+      await queryClient.resetQueries({ queryKey: meKeys.all });
     },
   });
 }

@@ -74,8 +74,9 @@ export function useReadingsQuery(shopId: string, zoneId: string, window?: Readin
 }
 
 /**
- * Appends a live point to every cached window of this zone, dropping points that have slid
- * out of the window. A point no newer than the last one is ignored (replays, retries).
+ * Adds a live point to every cached window of this zone, dropping points that have slid out of
+ * the window. A raw series that has grown well past the points asked for is refetched instead,
+ * so the server can bucket it again and a page left open all day stays light.
  */
 export function appendReadingPoint(
   queryClient: QueryClient,
@@ -88,12 +89,45 @@ export function appendReadingPoint(
   });
   for (const [key, previous] of queries) {
     if (!previous) continue;
-    const window = key[3] as ReadingsWindow | undefined;
-    const hours = window?.hours ?? DAY_WINDOW.hours;
-    queryClient.setQueryData<ReadingsResponse>(key, withPoint(previous, point, hours));
+    const window = (key[3] as ReadingsWindow | undefined) ?? DAY_WINDOW;
+    const next = withPoint(previous, point, window.hours);
+    queryClient.setQueryData<ReadingsResponse>(key, next);
+    if (next.points.length > window.points * 1.2) {
+      void queryClient.invalidateQueries({ queryKey: key, exact: true });
+    }
   }
 }
 
+function mean(a: number | null, countA: number, b: number | null): number | null {
+  if (a === null) return b;
+  if (b === null) return a;
+  return (a * countA + b) / (countA + 1);
+}
+
+/** Folds a raw reading into a downsampled bucket: means, the lowest margin and its level. */
+function mergeIntoBucket(bucket: ReadingPoint, point: ReadingPoint): ReadingPoint {
+  const n = bucket.count;
+  const lower =
+    point.margin !== null && (bucket.marginMin === null || point.margin < bucket.marginMin);
+  return {
+    at: bucket.at,
+    air: mean(bucket.air, n, point.air) ?? point.air,
+    rh: mean(bucket.rh, n, point.rh) ?? point.rh,
+    surface: mean(bucket.surface, n, point.surface),
+    dewPoint: mean(bucket.dewPoint, n, point.dewPoint),
+    margin: mean(bucket.margin, n, point.margin),
+    marginMin: lower ? point.margin : bucket.marginMin,
+    emc: mean(bucket.emc, n, point.emc),
+    level: lower ? point.level : bucket.level,
+    count: n + 1,
+  };
+}
+
+/**
+ * The series with one more reading. In a downsampled series the reading joins the last bucket
+ * while it falls inside it, so the chart keeps one density; a reading no newer than the last
+ * point is ignored (replays, retries).
+ */
 export function withPoint(
   response: ReadingsResponse,
   point: ReadingPoint,
@@ -101,13 +135,22 @@ export function withPoint(
 ): ReadingsResponse {
   const atMs = Date.parse(point.at);
   const last = response.points[response.points.length - 1];
-  if (last && Date.parse(last.at) >= atMs) return response;
+  const lastMs = last ? Date.parse(last.at) : -Infinity;
   const fromMs = atMs - windowHours * 3_600_000;
   const kept = response.points.filter((p) => Date.parse(p.at) >= fromMs);
+  const bucketMs = response.bucketSeconds * 1000;
+  let points: ReadingPoint[];
+  if (last && bucketMs > 0 && atMs >= lastMs && atMs < lastMs + bucketMs) {
+    points = [...kept.slice(0, -1), mergeIntoBucket(last, point)];
+  } else if (atMs > lastMs) {
+    points = [...kept, point];
+  } else {
+    return response;
+  }
   return {
     ...response,
     from: new Date(Math.max(fromMs, Date.parse(response.from))).toISOString(),
     to: new Date(Math.max(atMs, Date.parse(response.to))).toISOString(),
-    points: [...kept, point],
+    points,
   };
 }

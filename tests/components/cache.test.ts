@@ -1,0 +1,120 @@
+import { QueryClient } from '@tanstack/react-query';
+import { describe, expect, it } from 'vitest';
+
+import { applyLiveMessage, parseLiveMessage } from '@/components/live';
+import {
+  DAY_WINDOW,
+  readingKeys,
+  withPoint,
+  zoneKeys,
+  type ReadingPoint,
+  type ReadingsResponse,
+  type ZonesResponse,
+} from '@/components/queries';
+
+const point = (at: string, margin: number): ReadingPoint => ({
+  at,
+  air: 12,
+  rh: 70,
+  surface: 9,
+  dewPoint: 9 - margin,
+  margin,
+  marginMin: margin,
+  emc: 13,
+  level: margin <= 1 ? 'wet' : margin >= 3 ? 'dry' : 'close',
+  count: 1,
+});
+
+const zones: ZonesResponse = {
+  zones: [
+    { id: 'z1', name: 'Machine room', cautionK: 3, wetK: 1, humidRhPct: 60, latest: null },
+    { id: 'z2', name: 'Lumber rack', cautionK: 3, wetK: 1, humidRhPct: 60, latest: null },
+  ],
+};
+
+const message = (at: string, margin: number, extra: Record<string, unknown> = {}) =>
+  JSON.stringify({
+    type: 'reading',
+    shopId: 's1',
+    zoneId: 'z1',
+    sensorId: 'sensor-1',
+    reading: {
+      at,
+      air: 12,
+      rh: 70,
+      surface: 9,
+      dewPoint: 9 - margin,
+      margin,
+      emc: 13,
+      level: 'close',
+      surfaceSource: 'probe',
+    },
+    ...extra,
+  });
+
+describe('parseLiveMessage', () => {
+  it('ignores what it does not understand', () => {
+    expect(parseLiveMessage('not json')).toBeNull();
+    expect(parseLiveMessage(JSON.stringify({ type: 'alarm', shopId: 's1' }))).toBeNull();
+    expect(parseLiveMessage(message('not a time', 2))).toBeNull();
+    expect(parseLiveMessage(message('2026-03-02T06:10:00Z', 2))?.zoneId).toBe('z1');
+  });
+});
+
+describe('applyLiveMessage', () => {
+  it('patches the zone list and appends to the zone series through the key factories', () => {
+    const client = new QueryClient();
+    client.setQueryData(zoneKeys.list('s1'), zones);
+    const series: ReadingsResponse = {
+      from: '2026-03-01T06:10:00.000Z',
+      to: '2026-03-02T06:10:00.000Z',
+      bucketSeconds: 0,
+      points: [point('2026-03-02T06:00:00Z', 2.5)],
+    };
+    client.setQueryData(readingKeys.window('s1', 'z1', DAY_WINDOW), series);
+
+    applyLiveMessage(client, parseLiveMessage(message('2026-03-02T06:15:00Z', 1.8))!);
+
+    const list = client.getQueryData<ZonesResponse>(zoneKeys.list('s1'))!;
+    expect(list.zones[0]!.latest).toMatchObject({ margin: 1.8, sensorId: 'sensor-1' });
+    expect(list.zones[1]!.latest).toBeNull();
+    const next = client.getQueryData<ReadingsResponse>(readingKeys.window('s1', 'z1', DAY_WINDOW))!;
+    expect(next.points.map((p) => p.at)).toEqual(['2026-03-02T06:00:00Z', '2026-03-02T06:15:00Z']);
+
+    // An older reading (a late retry) changes neither cache.
+    applyLiveMessage(client, parseLiveMessage(message('2026-03-02T06:05:00Z', 5))!);
+    expect(client.getQueryData<ZonesResponse>(zoneKeys.list('s1'))!.zones[0]!.latest?.margin).toBe(
+      1.8,
+    );
+  });
+});
+
+describe('withPoint', () => {
+  it('folds a reading into the last bucket of a downsampled series', () => {
+    const series: ReadingsResponse = {
+      from: '2026-03-01T06:00:00.000Z',
+      to: '2026-03-02T06:00:00.000Z',
+      bucketSeconds: 300,
+      points: [{ ...point('2026-03-02T06:00:00Z', 2.5), count: 3 }],
+    };
+    const next = withPoint(series, point('2026-03-02T06:02:00Z', 0.5), 24);
+    expect(next.points).toHaveLength(1);
+    expect(next.points[0]).toMatchObject({ count: 4, marginMin: 0.5, level: 'wet' });
+    expect(next.points[0]!.margin).toBeCloseTo((2.5 * 3 + 0.5) / 4);
+
+    const later = withPoint(next, point('2026-03-02T06:06:00Z', 2), 24);
+    expect(later.points).toHaveLength(2);
+  });
+
+  it('drops points that slid out of the window', () => {
+    const series: ReadingsResponse = {
+      from: '2026-03-01T06:00:00.000Z',
+      to: '2026-03-02T06:00:00.000Z',
+      bucketSeconds: 0,
+      points: [point('2026-03-01T06:00:00Z', 4), point('2026-03-02T05:00:00Z', 4)],
+    };
+    const next = withPoint(series, point('2026-03-02T07:00:00Z', 4), 24);
+    expect(next.points.map((p) => p.at)).toEqual(['2026-03-02T05:00:00Z', '2026-03-02T07:00:00Z']);
+    expect(next.from).toBe('2026-03-01T07:00:00.000Z');
+  });
+});
