@@ -16,6 +16,16 @@ export default defineConfig({
         test: { name: 'unit', include: ['tests/ingest/**/*.test.ts'], environment: 'node' },
       },
       {
+        // Pure UI helpers; react-native resolves to react-native-web as in the web bundle.
+        extends: true,
+        resolve: { alias: { 'react-native': 'react-native-web' } },
+        test: {
+          name: 'components',
+          include: ['tests/components/**/*.test.ts'],
+          environment: 'node',
+        },
+      },
+      {
         extends: true,
         test: {
           name: 'api',

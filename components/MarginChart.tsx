@@ -37,6 +37,8 @@ export function MarginChart({
   height = 260,
 }: MarginChartProps) {
   const [width, setWidth] = useState(0);
+  // Buckets carry how many readings they stand for; raw points count one each.
+  const readingCount = points.reduce((n, p) => n + p.count, 0);
   const series = useMemo(
     () => chartSeries(points, { wetK, cautionK }, bucketSeconds),
     [points, wetK, cautionK, bucketSeconds],
@@ -131,7 +133,10 @@ export function MarginChart({
           </View>
         ) : null}
       </View>
-      <Text style={[type.small, styles.note]}>Times in {timeZone}</Text>
+      <Text style={[type.small, styles.note]} testID="zone-chart-note">
+        Times in {timeZone} · <Text testID="zone-chart-count">{readingCount}</Text>{' '}
+        {readingCount === 1 ? 'reading' : 'readings'}
+      </Text>
     </View>
   );
 }

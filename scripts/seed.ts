@@ -8,7 +8,7 @@ import { hashPassword } from '@/server/auth/password';
 import { hashToken, newSensorToken } from '@/server/auth/sensorTokens';
 
 async function main() {
-  const tokensFile = process.argv[2] ?? '.data/demo-sensors.json';
+  const tokensFile = process.argv[2] ?? '.data/demo-sensors-dev.json';
   const { pool, db } = createDatabase(process.env.DATABASE_URL ?? '');
   const result = await seedDemo(db, { hashPassword, newToken: newSensorToken, hashToken });
   await pool.end();

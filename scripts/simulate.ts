@@ -14,7 +14,7 @@ const { values } = parseArgs({
     interval: { type: 'string', default: '5' },
     speed: { type: 'string', default: '1' },
     backfill: { type: 'string', default: '12' },
-    tokens: { type: 'string', default: '.data/demo-sensors.json' },
+    tokens: { type: 'string', default: '.data/demo-sensors-dev.json' },
   },
 });
 

@@ -4,9 +4,13 @@ set -euo pipefail
 cd "$(dirname "$0")/.."
 export PORT=${PORT:-8080}
 PG_PORT=${PG_PORT:-54320}
+# A second copy (another PORT) needs its own PG_NAME and PG_PORT, or it would share and then
+# stop this one's database.
+PG_NAME=${PG_NAME:-dev}
+tokens=.data/demo-sensors-$PG_NAME.json
 
 bash scripts/ensure-deps.sh
-export DATABASE_URL=$(bash scripts/db.sh start dev "$PG_PORT" drybench)
+export DATABASE_URL=$(bash scripts/db.sh start "$PG_NAME" "$PG_PORT" drybench)
 echo "PostgreSQL running on 127.0.0.1:$PG_PORT (data in the git-ignored .data/)."
 
 pids=()
@@ -14,7 +18,7 @@ cleanup() {
   trap - EXIT INT TERM
   for pid in "${pids[@]}"; do kill -TERM "$pid" 2>/dev/null || true; done
   wait 2>/dev/null || true
-  bash scripts/db.sh stop dev
+  bash scripts/db.sh stop "$PG_NAME"
   echo "Stopped the server, the demo sensors and PostgreSQL."
 }
 trap cleanup EXIT INT TERM
@@ -26,7 +30,7 @@ export SESSION_SECRET=$(cat "$secret_file")
 export WEB_DIR=dist
 
 npx tsx scripts/migrate.ts
-npx tsx scripts/seed.ts .data/demo-sensors.json
+npx tsx scripts/seed.ts "$tokens"
 bash scripts/build-web.sh
 
 npx tsx server/index.ts &
@@ -35,7 +39,7 @@ for _ in $(seq 1 100); do
   curl -fs "http://127.0.0.1:$PORT/api/v1/health" >/dev/null 2>&1 && break
   sleep 0.2
 done
-npx tsx scripts/simulate.ts --url "http://127.0.0.1:$PORT" --tokens .data/demo-sensors.json &
+npx tsx scripts/simulate.ts --url "http://127.0.0.1:$PORT" --tokens "$tokens" &
 pids+=($!)
 
 echo

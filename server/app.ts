@@ -77,9 +77,10 @@ export function createApp(deps: AppDeps): express.Express {
   app.use('/api/v1', api);
   app.use('/api', notFound);
 
-  if (deps.webDir && fs.existsSync(path.join(deps.webDir, 'index.html'))) {
-    const indexHtml = path.join(deps.webDir, 'index.html');
-    app.use(express.static(deps.webDir, { index: false, maxAge: '1h' }));
+  const webDir = deps.webDir && path.resolve(deps.webDir);
+  if (webDir && fs.existsSync(path.join(webDir, 'index.html'))) {
+    const indexHtml = path.join(webDir, 'index.html');
+    app.use(express.static(webDir, { index: false, maxAge: '1h' }));
     // Client-side routes (/shops/…) all load the single-page app.
     app.get('/{*splat}', (_req, res) => res.sendFile(indexHtml));
   }
