@@ -1,8 +1,4 @@
-/**
- * Drybench's tables. Every row that belongs to a shop carries `shop_id`, so every query can be
- * scoped by shop and the readings table can later be partitioned by time or distributed by
- * shop without a schema change.
- */
+/** What the sensors tell us: zones of a shop, the sensors in them and their readings. */
 import { sql } from 'drizzle-orm';
 import {
   doublePrecision,
@@ -15,42 +11,11 @@ import {
   uuid,
 } from 'drizzle-orm/pg-core';
 
-export const roleEnum = pgEnum('role', ['owner', 'member', 'viewer']);
+import { createdAt } from './columns';
+import { shops } from './people';
+
 export const levelEnum = pgEnum('level', ['dry', 'close', 'wet', 'unknown']);
 export const surfaceSourceEnum = pgEnum('surface_source', ['probe', 'estimate']);
-
-const createdAt = () => timestamp({ withTimezone: true }).notNull().defaultNow();
-
-export const users = pgTable('users', {
-  id: uuid().primaryKey().defaultRandom(),
-  // Stored lower-cased so sign-in is case-insensitive and the unique index holds.
-  email: text().notNull().unique(),
-  name: text().notNull(),
-  passwordHash: text().notNull(),
-  createdAt: createdAt(),
-});
-
-export const shops = pgTable('shops', {
-  id: uuid().primaryKey().defaultRandom(),
-  name: text().notNull(),
-  timeZone: text().notNull(),
-  createdAt: createdAt(),
-});
-
-export const memberships = pgTable(
-  'memberships',
-  {
-    shopId: uuid()
-      .notNull()
-      .references(() => shops.id, { onDelete: 'cascade' }),
-    userId: uuid()
-      .notNull()
-      .references(() => users.id, { onDelete: 'cascade' }),
-    role: roleEnum().notNull(),
-    createdAt: createdAt(),
-  },
-  (t) => [primaryKey({ columns: [t.shopId, t.userId] }), index().on(t.userId)],
-);
 
 export const zones = pgTable(
   'zones',
@@ -115,5 +80,3 @@ export const readings = pgTable(
   },
   (t) => [primaryKey({ columns: [t.sensorId, t.at] }), index().on(t.zoneId, t.at)],
 );
-
-export type Role = (typeof roleEnum.enumValues)[number];

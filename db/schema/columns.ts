@@ -1,0 +1,3 @@
+import { timestamp } from 'drizzle-orm/pg-core';
+
+export const createdAt = () => timestamp({ withTimezone: true }).notNull().defaultNow();
