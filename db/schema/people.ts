@@ -1,9 +1,19 @@
-/** People and shops: accounts, shops and who may do what in each. */
-import { index, pgEnum, pgTable, primaryKey, text, uuid } from 'drizzle-orm/pg-core';
+/** People and shops: accounts, shops, who may do what in each, invitations and resets. */
+import {
+  index,
+  integer,
+  pgEnum,
+  pgTable,
+  primaryKey,
+  text,
+  timestamp,
+  uuid,
+} from 'drizzle-orm/pg-core';
 
 import { createdAt } from './columns';
 
 export const roleEnum = pgEnum('role', ['owner', 'member', 'viewer']);
+export const temperatureUnitEnum = pgEnum('temperature_unit', ['C', 'F']);
 
 export const users = pgTable('users', {
   id: uuid().primaryKey().defaultRandom(),
@@ -11,6 +21,11 @@ export const users = pgTable('users', {
   email: text().notNull().unique(),
   name: text().notNull(),
   passwordHash: text().notNull(),
+  // Every session token carries the version it was signed with; sign-out and a password
+  // change bump it, so every older token stops working on every server instance at once.
+  sessionVersion: integer().notNull().default(0),
+  // How the app shows temperatures to this person; the API always speaks °C and K.
+  unitPref: temperatureUnitEnum().notNull().default('C'),
   createdAt: createdAt(),
 });
 
@@ -36,4 +51,41 @@ export const memberships = pgTable(
   (t) => [primaryKey({ columns: [t.shopId, t.userId] }), index().on(t.userId)],
 );
 
+/** An owner's invitation of an e-mail address to a shop; the link carries the only token. */
+export const invitations = pgTable(
+  'invitations',
+  {
+    id: uuid().primaryKey().defaultRandom(),
+    shopId: uuid()
+      .notNull()
+      .references(() => shops.id, { onDelete: 'cascade' }),
+    email: text().notNull(),
+    role: roleEnum().notNull(),
+    // SHA-256 of the token in the link, hex; the token itself is only in the e-mail.
+    tokenHash: text().notNull().unique(),
+    invitedBy: uuid().references(() => users.id, { onDelete: 'set null' }),
+    expiresAt: timestamp({ withTimezone: true }).notNull(),
+    acceptedAt: timestamp({ withTimezone: true }),
+    createdAt: createdAt(),
+  },
+  (t) => [index().on(t.shopId)],
+);
+
+/** A password-reset link: single use, short-lived, stored as a hash like sensor tokens. */
+export const passwordResets = pgTable(
+  'password_resets',
+  {
+    id: uuid().primaryKey().defaultRandom(),
+    userId: uuid()
+      .notNull()
+      .references(() => users.id, { onDelete: 'cascade' }),
+    tokenHash: text().notNull().unique(),
+    expiresAt: timestamp({ withTimezone: true }).notNull(),
+    usedAt: timestamp({ withTimezone: true }),
+    createdAt: createdAt(),
+  },
+  (t) => [index().on(t.userId)],
+);
+
 export type Role = (typeof roleEnum.enumValues)[number];
+export type TemperatureUnitPref = (typeof temperatureUnitEnum.enumValues)[number];
