@@ -5,3 +5,4 @@
  */
 export * from './people';
 export * from './sensing';
+export * from './alarms';
