@@ -11,6 +11,7 @@ import { createSensorTokenCache } from './auth/sensorTokens';
 import { createSessionSigner } from './auth/session';
 import { readConfig } from './config';
 import { startLiveHub } from './live/hub';
+import { startNotificationListener } from './live/listener';
 import { createSurfaceEstimator } from './readings/surfaceEstimates';
 import { createReadingWriter } from './readings/writer';
 
@@ -18,16 +19,13 @@ async function main() {
   const config = readConfig();
   const { pool, db } = createDatabase(config.databaseUrl);
   const sessions = createSessionSigner(config.sessionSecret, config.cookieSecure);
-  const tokens = createSensorTokenCache(db);
+  const listener = startNotificationListener(config.databaseUrl, console.log);
+  const tokens = createSensorTokenCache(db, { listener });
   const writer = createReadingWriter(pool);
   const estimator = createSurfaceEstimator(db);
   const app = createApp({ db, pool, sessions, tokens, writer, estimator, webDir: config.webDir });
-  const hub = await startLiveHub({
-    databaseUrl: config.databaseUrl,
-    db,
-    sessions,
-    log: console.log,
-  });
+  const hub = startLiveHub({ listener, db, sessions });
+  await listener.ready;
 
   const server = http.createServer(app);
   hub.attach(server);
@@ -42,6 +40,7 @@ async function main() {
     server.close();
     await writer.close();
     await hub.close();
+    await listener.close();
     server.closeAllConnections();
     await pool.end();
     process.exit(0);

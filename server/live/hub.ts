@@ -1,12 +1,12 @@
 /**
- * The live hub: every server instance LISTENs on one PostgreSQL channel and forwards each
- * notification to its own WebSocket clients of that shop. Fan-out through the database means
+ * The live hub: every server instance LISTENs on one PostgreSQL channel (through the shared
+ * notification listener) and forwards each notification to its own WebSocket clients of that
+ * shop. Fan-out through the database means
  * instances share no memory, so more of them can stand behind a load balancer.
  */
 import type { IncomingMessage, Server } from 'node:http';
 import type { Duplex } from 'node:stream';
 
-import pg from 'pg';
 import { WebSocket, WebSocketServer } from 'ws';
 
 import type { Db } from '@/db';
@@ -15,11 +15,11 @@ import { LIVE_CHANNEL } from '@/db/queries/readings';
 
 import { readCookie, SESSION_COOKIE, type SessionSigner } from '../auth/session';
 
+import type { NotificationListener } from './listener';
 import type { LiveMessage } from './messages';
 
 export const LIVE_PATH = '/api/v1/live';
 const HEARTBEAT_MS = 30_000;
-const RECONNECT_MS = 1_000;
 
 interface Client {
   socket: WebSocket;
@@ -33,17 +33,13 @@ export interface LiveHub {
   close(): Promise<void>;
 }
 
-export async function startLiveHub(deps: {
-  databaseUrl: string;
+export function startLiveHub(deps: {
+  listener: NotificationListener;
   db: Db;
   sessions: SessionSigner;
-  log?: (message: string) => void;
-}): Promise<LiveHub> {
-  const log = deps.log ?? (() => {});
+}): LiveHub {
   const clients = new Set<Client>();
   const wss = new WebSocketServer({ noServer: true });
-  let listener: pg.Client | null = null;
-  let closed = false;
 
   function deliver(payload: string | undefined) {
     if (!payload) return;
@@ -60,37 +56,7 @@ export async function startLiveHub(deps: {
     }
   }
 
-  // Keep one LISTEN connection, and get it back after a database restart.
-  async function listen(): Promise<void> {
-    while (!closed) {
-      const client = new pg.Client({ connectionString: deps.databaseUrl });
-      try {
-        await client.connect();
-        client.on('notification', (n) => deliver(n.payload));
-        await client.query(`LISTEN ${LIVE_CHANNEL}`);
-        listener = client;
-        await new Promise<void>((resolve) => {
-          client.on('error', () => resolve());
-          client.on('end', () => resolve());
-        });
-        if (!closed) log('live hub: lost its database connection; reconnecting');
-      } catch {
-        await client.end().catch(() => {});
-      }
-      listener = null;
-      if (!closed) await new Promise((r) => setTimeout(r, RECONNECT_MS));
-    }
-  }
-  const firstConnection = new Promise<void>((resolve) => {
-    const poll = setInterval(() => {
-      if (listener || closed) {
-        clearInterval(poll);
-        resolve();
-      }
-    }, 10);
-  });
-  void listen();
-  await firstConnection;
+  deps.listener.on(LIVE_CHANNEL, deliver);
 
   const heartbeat = setInterval(() => {
     for (const client of clients) {
@@ -139,11 +105,9 @@ export async function startLiveHub(deps: {
     },
     clientCount: () => clients.size,
     async close() {
-      closed = true;
       clearInterval(heartbeat);
       for (const client of clients) client.socket.terminate();
-      wss.close();
-      await listener?.end().catch(() => {});
+      await new Promise<void>((resolve) => wss.close(() => resolve()));
     },
   };
 }

@@ -45,7 +45,7 @@ export function sensorsRouter(db: Db, tokens: SensorTokenCache): Router {
       ? await revokeSensorToken(db, shopIdOf(res), sensorId)
       : null;
     if (!tokenHash) throw new ApiError(404, 'not_found', 'No such sensor in this shop.');
-    tokens.invalidate(tokenHash);
+    await tokens.invalidate(tokenHash);
     res.status(204).end();
   });
 

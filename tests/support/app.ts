@@ -8,15 +8,25 @@ import { createDatabase } from '@/db';
 import { createApp } from '@/server/app';
 import { createSensorTokenCache } from '@/server/auth/sensorTokens';
 import { createSessionSigner } from '@/server/auth/session';
+import { startNotificationListener } from '@/server/live/listener';
 import { createSurfaceEstimator } from '@/server/readings/surfaceEstimates';
 import { createReadingWriter } from '@/server/readings/writer';
 
 export const TEST_SECRET = 'test-secret-that-is-at-least-32-characters-long';
 
-export function makeTestApp(options: { webDir?: string } = {}) {
+export interface TestAppOptions {
+  webDir?: string;
+  /** Start a LISTEN connection, as a server instance does (live hub, token revocations). */
+  listen?: boolean;
+}
+
+export function makeTestApp(options: TestAppOptions = {}) {
   const database = createDatabase(process.env.DATABASE_URL!, { max: 5 });
   const sessions = createSessionSigner(TEST_SECRET, false);
-  const tokens = createSensorTokenCache(database.db);
+  const listener = options.listen
+    ? startNotificationListener(process.env.DATABASE_URL!)
+    : undefined;
+  const tokens = createSensorTokenCache(database.db, { listener });
   const writer = createReadingWriter(database.pool);
   const estimator = createSurfaceEstimator(database.db);
   const app = createApp({
@@ -28,7 +38,7 @@ export function makeTestApp(options: { webDir?: string } = {}) {
     webDir: options.webDir,
     log: () => {},
   });
-  return { app, ...database, sessions, tokens, writer, estimator };
+  return { app, ...database, sessions, tokens, writer, estimator, listener };
 }
 
 export type TestApp = ReturnType<typeof makeTestApp>;

@@ -11,13 +11,10 @@ import { startLiveHub } from '@/server/live/hub';
 import { makeTestApp } from './app';
 
 export async function startLiveServer() {
-  const t = makeTestApp({ webDir: 'dist' });
+  const t = makeTestApp({ webDir: 'dist', listen: true });
   const demo = await seedDemo(t.db, { hashPassword, newToken: newSensorToken, hashToken });
-  const hub = await startLiveHub({
-    databaseUrl: process.env.DATABASE_URL!,
-    db: t.db,
-    sessions: t.sessions,
-  });
+  const hub = startLiveHub({ listener: t.listener!, db: t.db, sessions: t.sessions });
+  await t.listener!.ready;
   const server = http.createServer(t.app);
   hub.attach(server);
   await new Promise<void>((resolve) => server.listen(0, '127.0.0.1', resolve));
@@ -25,8 +22,11 @@ export async function startLiveServer() {
   return {
     baseUrl: `http://127.0.0.1:${port}`,
     demo,
+    app: t,
+    hub,
     async close() {
       await hub.close();
+      await t.listener!.close();
       server.closeAllConnections();
       await new Promise((resolve) => server.close(resolve));
       await t.pool.end();

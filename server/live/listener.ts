@@ -1,0 +1,77 @@
+/**
+ * One LISTEN connection per server instance, shared by everything that reacts to other
+ * instances: the live hub (readings, alarms) and the sensor-token cache (revocations). It
+ * reconnects after a database restart and re-LISTENs on every channel.
+ */
+import pg from 'pg';
+
+const RECONNECT_MS = 1_000;
+
+export type NotificationHandler = (payload: string) => void;
+
+export interface NotificationListener {
+  on(channel: string, handler: NotificationHandler): void;
+  /** Resolves once the first connection is listening (or the listener closes). */
+  ready: Promise<void>;
+  close(): Promise<void>;
+}
+
+// Channel names are our own constants, but LISTEN takes an identifier, not a parameter.
+const CHANNEL_NAME = /^[a-z_][a-z0-9_]*$/;
+
+export function startNotificationListener(
+  databaseUrl: string,
+  log: (message: string) => void = () => {},
+): NotificationListener {
+  const handlers = new Map<string, NotificationHandler[]>();
+  let client: pg.Client | null = null;
+  let closed = false;
+  let markReady: () => void = () => {};
+  const ready = new Promise<void>((resolve) => (markReady = resolve));
+
+  async function listenOn(c: pg.Client, channel: string) {
+    await c.query(`LISTEN ${channel}`);
+  }
+
+  async function loop(): Promise<void> {
+    while (!closed) {
+      const c = new pg.Client({ connectionString: databaseUrl, connectionTimeoutMillis: 3000 });
+      try {
+        await c.connect();
+        c.on('notification', (n) => {
+          for (const handler of handlers.get(n.channel) ?? []) handler(n.payload ?? '');
+        });
+        for (const channel of handlers.keys()) await listenOn(c, channel);
+        client = c;
+        markReady();
+        await new Promise<void>((resolve) => {
+          c.on('error', () => resolve());
+          c.on('end', () => resolve());
+        });
+        if (!closed) log('notification listener: lost its database connection; reconnecting');
+      } catch {
+        // The database is away: try again shortly.
+      }
+      client = null;
+      await c.end().catch(() => {});
+      if (!closed) await new Promise((r) => setTimeout(r, RECONNECT_MS));
+    }
+  }
+  void loop();
+
+  return {
+    on(channel, handler) {
+      if (!CHANNEL_NAME.test(channel)) throw new Error(`bad channel name: ${channel}`);
+      const list = handlers.get(channel);
+      if (list) return void list.push(handler);
+      handlers.set(channel, [handler]);
+      if (client) void listenOn(client, channel).catch(() => {});
+    },
+    ready,
+    async close() {
+      closed = true;
+      markReady();
+      await client?.end().catch(() => {});
+    },
+  };
+}
