@@ -9,6 +9,11 @@ import express, { Router } from 'express';
 import type { SensorIdentity } from '@/db/queries/sensors';
 import { MAX_READINGS_PER_REQUEST, parseEnvelope } from '@/ingest';
 
+import {
+  createSensorRateLimiter,
+  DEFAULT_SENSOR_RATE,
+  type RateLimitOptions,
+} from '../auth/sensorRateLimit';
 import type { SensorTokenCache } from '../auth/sensorTokens';
 import { ApiError } from '../errors';
 import { readingMessage } from '../live/messages';
@@ -23,10 +28,12 @@ export interface IngestDeps {
   tokens: SensorTokenCache;
   estimator: SurfaceEstimator;
   now: () => number;
+  sensorRate?: RateLimitOptions;
 }
 
-export function ingestRouter({ writer, tokens, estimator, now }: IngestDeps): Router {
+export function ingestRouter({ writer, tokens, estimator, now, sensorRate }: IngestDeps): Router {
   const router = Router();
+  const limiter = createSensorRateLimiter({ ...DEFAULT_SENSOR_RATE, ...sensorRate, now });
 
   router.post(
     '/',
@@ -46,6 +53,15 @@ export function ingestRouter({ writer, tokens, estimator, now }: IngestDeps): Ro
           401,
           'invalid_token',
           'This sensor token is unknown or has been revoked.',
+        );
+      }
+      const allowed = limiter.take(sensor.sensorId);
+      if (!allowed.ok) {
+        res.setHeader('Retry-After', String(allowed.retryAfterS));
+        throw new ApiError(
+          429,
+          'rate_limited',
+          `This sensor is posting faster than its limit; retry in ${allowed.retryAfterS} s.`,
         );
       }
       if (!req.is('application/json')) {
