@@ -12,6 +12,7 @@ import type pg from 'pg';
 import type { Db } from '@/db';
 
 import { requireUser } from './auth/middleware';
+import type { RateLimitOptions } from './auth/sensorRateLimit';
 import type { SensorTokenCache } from './auth/sensorTokens';
 import type { SessionSigner } from './auth/session';
 import type { SurfaceEstimator } from './readings/surfaceEstimates';
@@ -33,6 +34,8 @@ export interface AppDeps {
   tokens: SensorTokenCache;
   writer: ReadingWriter;
   estimator: SurfaceEstimator;
+  /** Per-sensor request limit of the ingest route; the default suits real sensors. */
+  sensorRate?: RateLimitOptions;
   /** The exported web app (dist/); omitted in API-only tests. */
   webDir?: string;
   now?: () => number;
