@@ -1,0 +1,131 @@
+// Two server instances on one database, as behind a load balancer: live fan-out and token
+// revocation go through PostgreSQL, so neither depends on which instance a request hits.
+import request from 'supertest';
+import { afterAll, beforeAll, describe, expect, it } from 'vitest';
+import WebSocket from 'ws';
+
+import { ownerWithSensor } from '../support/app';
+import { startInstance } from '../support/liveServer';
+
+type Instance = Awaited<ReturnType<typeof startInstance>>;
+let a: Instance;
+let b: Instance;
+
+beforeAll(async () => {
+  [a, b] = await Promise.all([startInstance(), startInstance()]);
+});
+afterAll(async () => {
+  await Promise.all([a?.close(), b?.close()]);
+});
+
+/** Signs in on an instance and returns the session cookie, as a browser would hold it. */
+async function sessionCookie(baseUrl: string, email: string, password: string): Promise<string> {
+  const res = await request(baseUrl)
+    .post('/api/v1/auth/sign-in')
+    .send({ email, password })
+    .expect(200);
+  return String(res.headers['set-cookie']?.[0] ?? '').split(';')[0]!;
+}
+
+function openSocket(
+  baseUrl: string,
+  cookie: string,
+): Promise<{ ws: WebSocket; messages: unknown[] }> {
+  const messages: unknown[] = [];
+  const ws = new WebSocket(`${baseUrl.replace('http', 'ws')}/api/v1/live`, { headers: { cookie } });
+  ws.on('message', (data) => messages.push(JSON.parse(String(data))));
+  return new Promise((resolve, reject) => {
+    ws.on('open', () => resolve({ ws, messages }));
+    ws.on('error', reject);
+  });
+}
+
+async function waitFor<T>(probe: () => T | undefined, timeoutMs: number): Promise<T> {
+  const deadline = Date.now() + timeoutMs;
+  for (;;) {
+    const value = probe();
+    if (value !== undefined) return value;
+    if (Date.now() > deadline) throw new Error(`nothing within ${timeoutMs} ms`);
+    await new Promise((r) => setTimeout(r, 10));
+  }
+}
+
+describe('two instances on one database', () => {
+  it('delivers a reading posted to one instance to a WebSocket client of the other', async () => {
+    const o = await ownerWithSensor(a.app.app);
+    const cookie = await sessionCookie(b.baseUrl, o.email, o.password);
+    expect(cookie).toMatch(/^drybench_session=/);
+    const { ws, messages } = await openSocket(b.baseUrl, cookie);
+    try {
+      const at = new Date(Date.now() - 1000).toISOString();
+      await request(a.baseUrl)
+        .post('/api/v1/ingest')
+        .set('authorization', `Bearer ${o.token}`)
+        .send({ at, air: 16.5, rh: 64, surface: 12 })
+        .expect(202);
+      const message = await waitFor(
+        () =>
+          messages.find(
+            (m): m is { type: string; zoneId: string; reading: { at: string; air: number } } =>
+              (m as { type?: string }).type === 'reading',
+          ),
+        2000,
+      );
+      expect(message.zoneId).toBe(o.zoneId);
+      expect(message.reading).toMatchObject({ at, air: 16.5 });
+    } finally {
+      ws.close();
+    }
+  });
+
+  it("never sends a client another shop's readings", async () => {
+    const mine = await ownerWithSensor(a.app.app);
+    const theirs = await ownerWithSensor(a.app.app);
+    const cookie = await sessionCookie(b.baseUrl, mine.email, mine.password);
+    const { ws, messages } = await openSocket(b.baseUrl, cookie);
+    try {
+      await request(a.baseUrl)
+        .post('/api/v1/ingest')
+        .set('authorization', `Bearer ${theirs.token}`)
+        .send({ air: 20, rh: 40 })
+        .expect(202);
+      await request(a.baseUrl)
+        .post('/api/v1/ingest')
+        .set('authorization', `Bearer ${mine.token}`)
+        .send({ air: 21, rh: 41 })
+        .expect(202);
+      await waitFor(() => messages.find((m) => (m as { type?: string }).type === 'reading'), 2000);
+      // Mine arrived after theirs was committed; theirs must not be among what came.
+      const shops = messages
+        .filter((m) => (m as { type?: string }).type === 'reading')
+        .map((m) => (m as { shopId: string }).shopId);
+      expect(shops).toEqual([mine.shopId]);
+    } finally {
+      ws.close();
+    }
+  });
+
+  it('refuses a token revoked on one instance on the other within 1 s', async () => {
+    const o = await ownerWithSensor(a.app.app);
+    const post = () =>
+      request(b.baseUrl)
+        .post('/api/v1/ingest')
+        .set('authorization', `Bearer ${o.token}`)
+        .send({ air: 18, rh: 50 });
+    // Instance B now holds the token in its cache.
+    expect((await post()).status).toBe(202);
+    await o.agent.delete(`/api/v1/shops/${o.shopId}/sensors/${o.sensorId}/token`).expect(204);
+    const revokedAtMs = Date.now();
+    let status = 0;
+    while (Date.now() - revokedAtMs < 1000) {
+      status = (await post()).status;
+      if (status === 401) break;
+      await new Promise((r) => setTimeout(r, 20));
+    }
+    expect(status).toBe(401);
+  });
+
+  it('refuses a WebSocket without a session', async () => {
+    await expect(openSocket(b.baseUrl, '')).rejects.toThrow(/401/);
+  });
+});
