@@ -68,22 +68,27 @@ export async function insertReadingGroup(
     );
     const insertedKeys = new Set(inserted.rows.map((r) => readingKey(r.sensor_id, r.at.getTime())));
 
-    const newest = new Map<string, ReadingRow>();
-    for (const row of rows) {
-      const seen = newest.get(row.sensorId);
-      if (!seen || row.at > seen.at) newest.set(row.sensorId, row);
-    }
-    const latest = [...newest.values()];
+    const latest = summarizeSensors(rows);
     await client.query(
       `update sensors s
        set last_seen_at = greatest(coalesce(s.last_seen_at, u.at), u.at),
-           battery_v = coalesce(u.battery_v, s.battery_v)
-       from unnest($1::uuid[], $2::timestamptz[], $3::float8[]) as u(id, at, battery_v)
+           battery_v = coalesce(u.battery_v, s.battery_v),
+           interval_s = case
+             when u.batch_interval_s is not null then u.batch_interval_s
+             when s.last_seen_at is null or u.at <= s.last_seen_at then s.interval_s
+             when s.interval_s is null then extract(epoch from u.at - s.last_seen_at)
+             -- A gap of over 4 intervals is an outage, not a new cadence.
+             when extract(epoch from u.at - s.last_seen_at) > 4 * s.interval_s then s.interval_s
+             else 0.8 * s.interval_s + 0.2 * extract(epoch from u.at - s.last_seen_at)
+           end
+       from unnest($1::uuid[], $2::timestamptz[], $3::float8[], $4::float8[])
+         as u(id, at, battery_v, batch_interval_s)
        where s.id = u.id`,
       [
         latest.map((r) => r.sensorId),
         latest.map((r) => r.at.toISOString()),
         latest.map((r) => r.batteryV),
+        latest.map((r) => r.batchIntervalS),
       ],
     );
 
@@ -103,6 +108,33 @@ export async function insertReadingGroup(
     // A client whose transaction failed may hold a dead connection: drop it from the pool.
     client.release(broken);
   }
+}
+
+/**
+ * Per sensor in a group: its newest reading (last seen, battery) and, when it sent several,
+ * the median gap between them — a batch is a sensor's own record of its cadence.
+ */
+function summarizeSensors(rows: ReadingRow[]) {
+  const bySensor = new Map<string, ReadingRow[]>();
+  for (const row of rows) {
+    const own = bySensor.get(row.sensorId);
+    if (own) own.push(row);
+    else bySensor.set(row.sensorId, [row]);
+  }
+  return [...bySensor.values()].map((own) => {
+    const times = own.map((r) => r.at.getTime()).sort((a, b) => a - b);
+    const gapsS = times
+      .slice(1)
+      .map((t, i) => (t - times[i]!) / 1000)
+      .sort((a, b) => a - b);
+    const newest = own.reduce((a, b) => (b.at > a.at ? b : a));
+    return {
+      sensorId: newest.sensorId,
+      at: newest.at,
+      batteryV: newest.batteryV,
+      batchIntervalS: gapsS.length ? gapsS[Math.floor(gapsS.length / 2)]! : null,
+    };
+  });
 }
 
 export interface SeriesPoint {

@@ -51,6 +51,8 @@ export const sensors = pgTable(
     revokedAt: timestamp({ withTimezone: true }),
     lastSeenAt: timestamp({ withTimezone: true }),
     batteryV: doublePrecision(),
+    // How often the sensor posts, learnt from its readings (see insertReadingGroup).
+    intervalS: doublePrecision(),
     createdAt: createdAt(),
   },
   (t) => [index().on(t.shopId), index().on(t.zoneId)],

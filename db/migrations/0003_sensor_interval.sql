@@ -1,0 +1,1 @@
+ALTER TABLE "sensors" ADD COLUMN "interval_s" double precision;
