@@ -11,17 +11,21 @@ import type pg from 'pg';
 
 import type { Db } from '@/db';
 
-import { requireUser } from './auth/middleware';
+import { authorize } from './auth/middleware';
+import { createRateLimits, DEFAULT_RATE_LIMITS, type RateLimitConfig } from './auth/rateLimits';
 import type { RateLimitOptions } from './auth/sensorRateLimit';
 import type { SensorTokenCache } from './auth/sensorTokens';
 import type { SessionSigner } from './auth/session';
 import type { SurfaceEstimator } from './readings/surfaceEstimates';
 import type { ReadingWriter } from './readings/writer';
 import { errorHandler, notFound } from './errors';
+import { outboxRouter, type Mailer, type Outbox } from './mail';
 import { authRouter } from './routes/auth';
 import { healthRouter } from './routes/health';
 import { ingestRouter } from './routes/ingest';
+import { invitationsRouter } from './routes/invitations';
 import { meRouter } from './routes/me';
+import { membersRouter } from './routes/members';
 import { readingsRouter } from './routes/readings';
 import { sensorsRouter } from './routes/sensors';
 import { shopsRouter } from './routes/shops';
@@ -36,6 +40,12 @@ export interface AppDeps {
   estimator: SurfaceEstimator;
   /** Per-sensor request limit of the ingest route; the default suits real sensors. */
   sensorRate?: RateLimitOptions;
+  mailer: Mailer;
+  /** Where people reach the app (links in e-mail; a trusted origin). */
+  publicUrl: string;
+  /** The local SMTP server's messages, shown at /dev/outbox; only in development. */
+  devOutbox?: Outbox;
+  rateLimits?: RateLimitConfig;
   /** The exported web app (dist/); omitted in API-only tests. */
   webDir?: string;
   now?: () => number;
@@ -63,22 +73,28 @@ export function createApp(deps: AppDeps): express.Express {
     }),
   );
 
+  const { db, sessions, tokens } = deps;
+  const limits = createRateLimits(deps.rateLimits ?? DEFAULT_RATE_LIMITS);
+  const people = { ...deps, db, sessions, limits, now, log };
   const api = express.Router();
+  // Every API route has a row in server/auth/policy.ts; this checks it before any router runs.
+  api.use(authorize({ db, sessions, trustedOrigins: new Set([new URL(deps.publicUrl).origin]) }));
   // Ingest parses its own body (after the token check and with its own limit).
   api.use('/ingest', ingestRouter({ ...deps, now }));
   api.use(express.json({ limit: '100kb' }));
   api.use(healthRouter(deps.pool));
-  api.use('/auth', authRouter(deps.db, deps.sessions));
-
-  const signedIn = requireUser(deps.sessions);
-  api.use('/me', signedIn, meRouter(deps.db));
-  api.use('/shops', signedIn, shopsRouter(deps.db));
-  api.use('/shops/:shopId/zones/:zoneId/readings', signedIn, readingsRouter(deps.db, now));
-  api.use('/shops/:shopId/zones', signedIn, zonesRouter(deps.db));
-  api.use('/shops/:shopId/sensors', signedIn, sensorsRouter(deps.db, deps.tokens));
+  api.use('/auth', authRouter(people));
+  api.use('/me', meRouter(db, sessions));
+  api.use('/shops', shopsRouter(db));
+  api.use('/shops/:shopId/zones/:zoneId/readings', readingsRouter(db, now));
+  api.use('/shops/:shopId/zones', zonesRouter(db, tokens));
+  api.use('/shops/:shopId/sensors', sensorsRouter(db, tokens));
+  api.use('/shops/:shopId', membersRouter(db));
+  api.use(invitationsRouter(people));
   api.use(notFound);
   app.use('/api/v1', api);
   app.use('/api', notFound);
+  if (deps.devOutbox) app.use(outboxRouter(deps.devOutbox));
 
   const webDir = deps.webDir && path.resolve(deps.webDir);
   if (webDir && fs.existsSync(path.join(webDir, 'index.html'))) {

@@ -13,6 +13,19 @@ const envSchema = z.object({
     .default('false')
     .transform((v) => v === 'true'),
   WEB_DIR: z.string().optional(),
+  // Outgoing mail. Without SMTP_HOST the server runs its own SMTP server on loopback and keeps
+  // what it receives in memory (see server/mail/); DEV_OUTBOX=true shows it at /dev/outbox.
+  SMTP_HOST: z.string().min(1).optional(),
+  SMTP_PORT: z.coerce.number().int().min(0).max(65535).optional(),
+  MAIL_FROM: z.string().min(3).default('Drybench <no-reply@drybench.example>'),
+  // Where people reach the app; links in e-mail point here.
+  PUBLIC_URL: z
+    .url({ protocol: /^https?$/, error: 'PUBLIC_URL must be an http(s) URL' })
+    .optional(),
+  DEV_OUTBOX: z
+    .enum(['true', 'false'])
+    .default('false')
+    .transform((v) => v === 'true'),
 });
 
 export interface Config {
@@ -22,6 +35,15 @@ export interface Config {
   sessionSecret: string;
   cookieSecure: boolean;
   webDir?: string;
+  mail: {
+    /** Absent: use the in-process local SMTP server. */
+    smtpHost?: string;
+    smtpPort?: number;
+    from: string;
+  };
+  /** Origin of the app as people reach it, without a trailing slash. */
+  publicUrl: string;
+  devOutbox: boolean;
 }
 
 export function readConfig(env: NodeJS.ProcessEnv = process.env): Config {
@@ -38,5 +60,8 @@ export function readConfig(env: NodeJS.ProcessEnv = process.env): Config {
     sessionSecret: e.SESSION_SECRET,
     cookieSecure: e.COOKIE_SECURE,
     webDir: e.WEB_DIR,
+    mail: { smtpHost: e.SMTP_HOST, smtpPort: e.SMTP_PORT, from: e.MAIL_FROM },
+    publicUrl: (e.PUBLIC_URL ?? `http://${e.HOST}:${e.PORT}`).replace(/\/+$/, ''),
+    devOutbox: e.DEV_OUTBOX,
   };
 }

@@ -12,6 +12,7 @@ import { createSessionSigner } from './auth/session';
 import { readConfig } from './config';
 import { startLiveHub } from './live/hub';
 import { startNotificationListener } from './live/listener';
+import { startMail } from './mail';
 import { createSurfaceEstimator } from './readings/surfaceEstimates';
 import { createReadingWriter } from './readings/writer';
 
@@ -23,14 +24,29 @@ async function main() {
   const tokens = createSensorTokenCache(db, { listener });
   const writer = createReadingWriter(pool);
   const estimator = createSurfaceEstimator(db);
-  const app = createApp({ db, pool, sessions, tokens, writer, estimator, webDir: config.webDir });
-  const hub = startLiveHub({ listener, db, sessions });
+  const mail = await startMail(config.mail);
+  const app = createApp({
+    db,
+    pool,
+    sessions,
+    tokens,
+    writer,
+    estimator,
+    webDir: config.webDir,
+    mailer: mail.mailer,
+    publicUrl: config.publicUrl,
+    devOutbox: config.devOutbox ? mail.outbox : undefined,
+  });
+  const trustedOrigins = new Set([new URL(config.publicUrl).origin]);
+  const hub = startLiveHub({ listener, db, sessions, trustedOrigins });
   await listener.ready;
 
   const server = http.createServer(app);
   hub.attach(server);
   await new Promise<void>((resolve) => server.listen(config.port, config.host, resolve));
   console.log(`Drybench server listening on http://${config.host}:${config.port}`);
+  console.log(`Drybench ${mail.describe}`);
+  if (config.devOutbox && mail.outbox) console.log(`Outbox: ${config.publicUrl}/dev/outbox`);
 
   let stopping = false;
   const stop = async (signal: string) => {
@@ -41,6 +57,7 @@ async function main() {
     await writer.close();
     await hub.close();
     await listener.close();
+    await mail.close();
     server.closeAllConnections();
     await pool.end();
     process.exit(0);

@@ -1,7 +1,11 @@
-import { and, eq } from 'drizzle-orm';
+import { and, eq, sql } from 'drizzle-orm';
 
 import type { Db } from '../index';
-import { memberships, shops, type Role } from '../schema';
+import { memberships, shops, users, type Role } from '../schema';
+
+import { LIVE_CHANNEL } from './readings';
+
+type Executor = Pick<Db, 'execute'>;
 
 export async function findMembership(db: Db, shopId: string, userId: string) {
   const [row] = await db
@@ -22,4 +26,67 @@ export async function listShopsOfUser(db: Db, userId: string) {
 
 export async function addMember(db: Db, shopId: string, userId: string, role: Role) {
   await db.insert(memberships).values({ shopId, userId, role }).onConflictDoNothing();
+}
+
+export async function listMembers(db: Db, shopId: string) {
+  return db
+    .select({
+      userId: users.id,
+      name: users.name,
+      email: users.email,
+      role: memberships.role,
+      since: memberships.createdAt,
+    })
+    .from(memberships)
+    .innerJoin(users, eq(users.id, memberships.userId))
+    .where(eq(memberships.shopId, shopId))
+    .orderBy(users.name);
+}
+
+/**
+ * Tells every server instance's live hub that these people's shops changed, so their open
+ * WebSockets stop (or start) receiving a shop's messages. Sent inside the caller's
+ * transaction: PostgreSQL delivers it only if the change commits.
+ */
+export async function notifyAccessChanged(executor: Executor, userIds: string[]) {
+  if (userIds.length === 0) return;
+  const payload = JSON.stringify({ type: 'access', userIds });
+  await executor.execute(sql`select pg_notify(${LIVE_CHANNEL}, ${payload})`);
+}
+
+export type MembershipChange = { ok: true } | { ok: false; reason: 'not_a_member' | 'last_owner' };
+
+/**
+ * Changes a member's role or removes them, refusing to leave a shop without an owner. The
+ * shop's owner rows are locked first, so two owners demoting each other at the same moment
+ * cannot both succeed.
+ */
+export async function changeMembership(
+  db: Db,
+  shopId: string,
+  userId: string,
+  change: { role: Role } | { remove: true },
+): Promise<MembershipChange> {
+  return db.transaction(async (tx) => {
+    const owners = await tx
+      .select({ userId: memberships.userId })
+      .from(memberships)
+      .where(and(eq(memberships.shopId, shopId), eq(memberships.role, 'owner')))
+      .for('update');
+    const [current] = await tx
+      .select({ role: memberships.role })
+      .from(memberships)
+      .where(and(eq(memberships.shopId, shopId), eq(memberships.userId, userId)))
+      .for('update');
+    if (!current) return { ok: false, reason: 'not_a_member' };
+    const staysOwner = 'role' in change && change.role === 'owner';
+    if (current.role === 'owner' && !staysOwner && owners.length <= 1) {
+      return { ok: false, reason: 'last_owner' };
+    }
+    const where = and(eq(memberships.shopId, shopId), eq(memberships.userId, userId));
+    if ('remove' in change) await tx.delete(memberships).where(where);
+    else await tx.update(memberships).set({ role: change.role }).where(where);
+    await notifyAccessChanged(tx, [userId]);
+    return { ok: true };
+  });
 }

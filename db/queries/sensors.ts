@@ -56,3 +56,79 @@ export async function revokeSensorToken(db: Db, shopId: string, sensorId: string
 export async function replaceSensorToken(db: Db, sensorId: string, tokenHash: string) {
   await db.update(sensors).set({ tokenHash, revokedAt: null }).where(eq(sensors.id, sensorId));
 }
+
+/** A shop's sensors with where they sit and how they are doing; never the token hash. */
+export async function listSensors(db: Db, shopId: string) {
+  return db
+    .select({
+      id: sensors.id,
+      name: sensors.name,
+      zoneId: sensors.zoneId,
+      zoneName: zones.name,
+      lastSeenAt: sensors.lastSeenAt,
+      batteryV: sensors.batteryV,
+      revokedAt: sensors.revokedAt,
+      createdAt: sensors.createdAt,
+    })
+    .from(sensors)
+    .innerJoin(zones, eq(zones.id, sensors.zoneId))
+    .where(eq(sensors.shopId, shopId))
+    .orderBy(zones.name, sensors.name);
+}
+
+/**
+ * Gives a sensor a new token (and lifts a revocation). Returns the old hash so the token
+ * cache can drop it at once, or null when the sensor is not in this shop.
+ */
+export async function rotateSensorToken(
+  db: Db,
+  shopId: string,
+  sensorId: string,
+  tokenHash: string,
+): Promise<{ oldTokenHash: string } | null> {
+  return db.transaction(async (tx) => {
+    const [old] = await tx
+      .select({ tokenHash: sensors.tokenHash })
+      .from(sensors)
+      .where(and(eq(sensors.shopId, shopId), eq(sensors.id, sensorId)))
+      .for('update');
+    if (!old) return null;
+    await tx.update(sensors).set({ tokenHash, revokedAt: null }).where(eq(sensors.id, sensorId));
+    return { oldTokenHash: old.tokenHash };
+  });
+}
+
+/**
+ * Renames a sensor or moves it to another zone of the same shop (the zone is checked in the
+ * same statement). Returns its token hash so the ingest cache forgets the old zone, or null.
+ */
+export async function updateSensor(
+  db: Db,
+  shopId: string,
+  sensorId: string,
+  changes: { name?: string; zoneId?: string },
+) {
+  const zoneOk = changes.zoneId
+    ? sql`exists (select 1 from ${zones} where ${zones.id} = ${changes.zoneId} and ${zones.shopId} = ${shopId})`
+    : sql`true`;
+  const [row] = await db
+    .update(sensors)
+    .set(changes)
+    .where(and(eq(sensors.shopId, shopId), eq(sensors.id, sensorId), zoneOk))
+    .returning({
+      id: sensors.id,
+      name: sensors.name,
+      zoneId: sensors.zoneId,
+      tokenHash: sensors.tokenHash,
+    });
+  return row ?? null;
+}
+
+/** Token hashes of a zone's sensors: the cache entries that hold the zone's old limits. */
+export async function tokenHashesOfZone(db: Db, zoneId: string): Promise<string[]> {
+  const rows = await db
+    .select({ tokenHash: sensors.tokenHash })
+    .from(sensors)
+    .where(eq(sensors.zoneId, zoneId));
+  return rows.map((r) => r.tokenHash);
+}

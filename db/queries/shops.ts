@@ -1,5 +1,11 @@
+import { eq } from 'drizzle-orm';
+
 import type { Db } from '../index';
 import { memberships, shops } from '../schema';
+
+import { notifyAccessChanged } from './memberships';
+
+const shopColumns = { id: shops.id, name: shops.name, timeZone: shops.timeZone };
 
 /** Creates a shop and makes its creator the owner, in one transaction. */
 export async function createShopWithOwner(
@@ -8,12 +14,47 @@ export async function createShopWithOwner(
   ownerId: string,
 ) {
   return db.transaction(async (tx) => {
-    const [shop] = await tx
-      .insert(shops)
-      .values(input)
-      .returning({ id: shops.id, name: shops.name, timeZone: shops.timeZone });
+    const [shop] = await tx.insert(shops).values(input).returning(shopColumns);
     if (!shop) throw new Error('shop insert returned no row');
     await tx.insert(memberships).values({ shopId: shop.id, userId: ownerId, role: 'owner' });
+    await notifyAccessChanged(tx, [ownerId]);
     return shop;
+  });
+}
+
+export async function findShop(db: Db, shopId: string) {
+  const [row] = await db.select(shopColumns).from(shops).where(eq(shops.id, shopId));
+  return row ?? null;
+}
+
+export async function updateShop(
+  db: Db,
+  shopId: string,
+  changes: { name?: string; timeZone?: string },
+) {
+  const [row] = await db
+    .update(shops)
+    .set(changes)
+    .where(eq(shops.id, shopId))
+    .returning(shopColumns);
+  return row ?? null;
+}
+
+/**
+ * Deletes a shop and, by cascade, its zones, sensors, readings, memberships and invitations;
+ * its former members' live connections are told to drop it.
+ */
+export async function deleteShop(db: Db, shopId: string): Promise<boolean> {
+  return db.transaction(async (tx) => {
+    const members = await tx
+      .select({ userId: memberships.userId })
+      .from(memberships)
+      .where(eq(memberships.shopId, shopId));
+    const deleted = await tx.delete(shops).where(eq(shops.id, shopId)).returning({ id: shops.id });
+    await notifyAccessChanged(
+      tx,
+      members.map((m) => m.userId),
+    );
+    return deleted.length > 0;
   });
 }

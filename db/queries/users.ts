@@ -1,15 +1,21 @@
-import { eq } from 'drizzle-orm';
+import { and, eq, sql } from 'drizzle-orm';
 
 import type { Db } from '../index';
-import { users } from '../schema';
+import { memberships, users, type TemperatureUnitPref } from '../schema';
 
 export interface PublicUser {
   id: string;
   email: string;
   name: string;
+  unitPref: TemperatureUnitPref;
 }
 
-const publicColumns = { id: users.id, email: users.email, name: users.name };
+const publicColumns = {
+  id: users.id,
+  email: users.email,
+  name: users.name,
+  unitPref: users.unitPref,
+};
 
 export async function findUserByEmail(db: Db, email: string) {
   const [row] = await db.select().from(users).where(eq(users.email, email.toLowerCase()));
@@ -21,15 +27,77 @@ export async function findUserById(db: Db, id: string): Promise<PublicUser | nul
   return row ?? null;
 }
 
+/** The stored password hash and session version, for checks that need the secret. */
+export async function findUserSecrets(db: Db, id: string) {
+  const [row] = await db
+    .select({ passwordHash: users.passwordHash, sessionVersion: users.sessionVersion })
+    .from(users)
+    .where(eq(users.id, id));
+  return row ?? null;
+}
+
 /** Inserts a user; null when the e-mail is taken (the unique index decides, not a pre-check). */
 export async function insertUser(
   db: Db,
   input: { email: string; name: string; passwordHash: string },
-): Promise<PublicUser | null> {
+): Promise<(PublicUser & { sessionVersion: number }) | null> {
   const [row] = await db
     .insert(users)
     .values({ ...input, email: input.email.toLowerCase() })
     .onConflictDoNothing({ target: users.email })
+    .returning({ ...publicColumns, sessionVersion: users.sessionVersion });
+  return row ?? null;
+}
+
+/**
+ * What every signed-in request needs, in one primary-key probe: the account's current session
+ * version and, when the route names a shop, the person's role there (null when not a member).
+ */
+export async function findSessionState(db: Db, userId: string, shopId?: string) {
+  const [row] = await db
+    .select({ sessionVersion: users.sessionVersion, role: memberships.role })
+    .from(users)
+    .leftJoin(
+      memberships,
+      and(eq(memberships.userId, users.id), eq(memberships.shopId, shopId ?? sql`null::uuid`)),
+    )
+    .where(eq(users.id, userId));
+  return row ?? null;
+}
+
+export async function updateProfile(
+  db: Db,
+  userId: string,
+  changes: { name?: string; unitPref?: TemperatureUnitPref },
+): Promise<PublicUser | null> {
+  const [row] = await db
+    .update(users)
+    .set(changes)
+    .where(eq(users.id, userId))
     .returning(publicColumns);
   return row ?? null;
+}
+
+/** Ends every session of the account (all devices); returns the new version. */
+export async function bumpSessionVersion(db: Db, userId: string): Promise<number | null> {
+  const [row] = await db
+    .update(users)
+    .set({ sessionVersion: sql`${users.sessionVersion} + 1` })
+    .where(eq(users.id, userId))
+    .returning({ sessionVersion: users.sessionVersion });
+  return row?.sessionVersion ?? null;
+}
+
+/** Sets a new password and ends every older session in the same statement. */
+export async function setPassword(
+  db: Db,
+  userId: string,
+  passwordHash: string,
+): Promise<number | null> {
+  const [row] = await db
+    .update(users)
+    .set({ passwordHash, sessionVersion: sql`${users.sessionVersion} + 1` })
+    .where(eq(users.id, userId))
+    .returning({ sessionVersion: users.sessionVersion });
+  return row?.sessionVersion ?? null;
 }

@@ -25,6 +25,20 @@ export async function findZone(db: Db, shopId: string, zoneId: string) {
   return row ?? null;
 }
 
+export async function updateZone(
+  db: Db,
+  shopId: string,
+  zoneId: string,
+  changes: { name?: string; cautionK?: number; wetK?: number; humidRhPct?: number },
+) {
+  const [row] = await db
+    .update(zones)
+    .set(changes)
+    .where(and(eq(zones.shopId, shopId), eq(zones.id, zoneId)))
+    .returning(zoneColumns);
+  return row ?? null;
+}
+
 export interface LatestReading {
   at: string;
   air: number;

@@ -1,53 +1,107 @@
 /**
- * Who is asking, and may they? `requireUser` answers 401 without a valid session;
- * `requireShopRole` answers 404 for a shop the user is not in (so shop ids do not leak) and
- * 403 when their role is too low.
+ * The one authorization middleware: looks the request up in the policy table, refuses
+ * cross-site writes, checks the session (401), then the shop: a shop the person is not in
+ * answers 404 exactly like a shop that does not exist, a role below the row's answers 403.
+ * It renews a session cookie past half its lifetime.
  */
 import type { RequestHandler, Response } from 'express';
+import { match } from 'path-to-regexp';
 
 import type { Db } from '@/db';
-import { findMembership } from '@/db/queries/memberships';
 import type { Role } from '@/db/schema';
 
 import { ApiError } from '../errors';
 
-import { readCookie, SESSION_COOKIE, type SessionSigner } from './session';
+import { crossSiteRefusal } from './origin';
+import { isShopRole, POLICY, ROLE_RANK, type PolicyRow } from './policy';
+import { SESSION_COOKIE, type SessionSigner } from './session';
+import { isUuid, resolveSession } from './sessionState';
 
-const RANK: Record<Role, number> = { viewer: 0, member: 1, owner: 2 };
+export { isUuid } from './sessionState';
 
-/** The shop a `requireShopRole` check admitted the request to. */
+const compiled = POLICY.map((row) => ({
+  row,
+  match: match<Partial<Record<string, string>>>(row.path),
+}));
+
+/** The policy row for a request and its path parameters, or null when no route answers. */
+export function findPolicy(
+  method: string,
+  path: string,
+): { row: PolicyRow; params: Partial<Record<string, string>> } | null {
+  const wanted = method === 'HEAD' ? 'GET' : method;
+  for (const entry of compiled) {
+    if (entry.row.method !== wanted) continue;
+    try {
+      const found = entry.match(path);
+      if (found) return { row: entry.row, params: found.params };
+    } catch {
+      // A malformed %-escape in the path matches nothing.
+    }
+  }
+  return null;
+}
+
+export const SHOP_NOT_FOUND = 'shop_not_found';
+
+export function userIdOf(res: Response): string {
+  return res.locals.userId as string;
+}
+
+/** The shop the policy admitted the request to. */
 export function shopIdOf(res: Response): string {
   return res.locals.shopId as string;
 }
 
-export function requireUser(sessions: SessionSigner): RequestHandler {
-  return async (req, res, next) => {
-    const token = readCookie(req.headers.cookie, SESSION_COOKIE);
-    const userId = token ? await sessions.verify(token) : null;
-    if (!userId) return next(new ApiError(401, 'not_signed_in', 'Sign in to continue.'));
-    res.locals.userId = userId;
-    next();
-  };
+export function roleOf(res: Response): Role {
+  return res.locals.role as Role;
 }
 
-const UUID = /^[0-9a-f]{8}-[0-9a-f]{4}-[0-9a-f]{4}-[0-9a-f]{4}-[0-9a-f]{12}$/i;
-
-export function isUuid(value: unknown): value is string {
-  return typeof value === 'string' && UUID.test(value);
-}
-
-export function requireShopRole(db: Db, minimum: Role): RequestHandler {
+export function authorize(deps: {
+  db: Db;
+  sessions: SessionSigner;
+  trustedOrigins: ReadonlySet<string>;
+}): RequestHandler {
+  const { db, sessions } = deps;
   return async (req, res, next) => {
-    const shopId = req.params.shopId;
-    const notFound = new ApiError(404, 'not_found', 'No such shop.');
-    if (!isUuid(shopId)) return next(notFound);
-    const membership = await findMembership(db, shopId, res.locals.userId as string);
-    if (!membership) return next(notFound);
-    if (RANK[membership.role] < RANK[minimum]) {
-      return next(new ApiError(403, 'forbidden', `This needs the ${minimum} role in this shop.`));
+    const found = findPolicy(req.method, req.path);
+    if (!found) {
+      return next(new ApiError(404, 'not_found', `Nothing at ${req.method} ${req.path}.`));
     }
-    res.locals.role = membership.role;
+    const { row } = found;
+    // A sensor's bearer token cannot be borrowed by another site: no origin check there.
+    if (row.access === 'sensor') return next();
+    const refusal = crossSiteRefusal(req, deps.trustedOrigins);
+    if (refusal) return next(refusal);
+
+    const shopId = isShopRole(row.access) ? found.params.shopId : undefined;
+    const cookie = req.headers.cookie;
+    const session =
+      cookie === undefined
+        ? null
+        : await resolveSession(db, sessions, cookie, isUuid(shopId) ? shopId : undefined);
+    if (session) {
+      res.locals.userId = session.claims.userId;
+      res.locals.sessionVersion = session.claims.sessionVersion;
+      if (sessions.wantsRenewal(session.claims)) {
+        const token = await sessions.sign(session.claims.userId, session.claims.sessionVersion);
+        res.cookie(SESSION_COOKIE, token, sessions.cookieOptions);
+      }
+    }
+    if (row.access === 'anyone') return next();
+    if (!session) return next(new ApiError(401, 'not_signed_in', 'Sign in to continue.'));
+    if (!isShopRole(row.access)) return next();
+
+    if (!isUuid(shopId) || !session.role) {
+      return next(new ApiError(404, SHOP_NOT_FOUND, 'No such shop among yours.'));
+    }
+    if (ROLE_RANK[session.role] < ROLE_RANK[row.access]) {
+      return next(
+        new ApiError(403, 'forbidden', `This needs the ${row.access} role in this shop.`),
+      );
+    }
     res.locals.shopId = shopId;
+    res.locals.role = session.role;
     next();
   };
 }

@@ -12,8 +12,11 @@ import { WebSocket, WebSocketServer } from 'ws';
 import type { Db } from '@/db';
 import { listShopsOfUser } from '@/db/queries/memberships';
 import { LIVE_CHANNEL } from '@/db/queries/readings';
+import { findSessionState } from '@/db/queries/users';
 
-import { readCookie, SESSION_COOKIE, type SessionSigner } from '../auth/session';
+import { isTrustedUpgradeOrigin } from '../auth/origin';
+import type { SessionSigner } from '../auth/session';
+import { resolveSession } from '../auth/sessionState';
 
 import type { NotificationListener } from './listener';
 import type { LiveMessage } from './messages';
@@ -23,9 +26,20 @@ const HEARTBEAT_MS = 30_000;
 
 interface Client {
   socket: WebSocket;
+  userId: string;
+  sessionVersion: number;
   shopIds: Set<string>;
   alive: boolean;
 }
+
+/** Sent (inside the committing transaction) when people's shops or sessions changed. */
+interface AccessNotice {
+  type: 'access';
+  userIds: string[];
+}
+
+/** Close code for a socket whose session ended (sign-out, password change elsewhere). */
+const SESSION_ENDED = 4401;
 
 export interface LiveHub {
   attach(server: Server): void;
@@ -37,21 +51,52 @@ export function startLiveHub(deps: {
   listener: NotificationListener;
   db: Db;
   sessions: SessionSigner;
+  /** Origins besides the request's own host that may open a socket (PUBLIC_URL). */
+  trustedOrigins?: ReadonlySet<string>;
 }): LiveHub {
   const clients = new Set<Client>();
+  const trusted = deps.trustedOrigins ?? new Set<string>();
   const wss = new WebSocketServer({ noServer: true });
 
   function deliver(payload: string | undefined) {
     if (!payload) return;
-    let message: LiveMessage;
+    let message: LiveMessage | AccessNotice;
     try {
-      message = JSON.parse(payload) as LiveMessage;
+      message = JSON.parse(payload) as LiveMessage | AccessNotice;
     } catch {
       return;
     }
+    if (message.type === 'access') return void recheck(message.userIds);
     for (const client of clients) {
       if (client.shopIds.has(message.shopId) && client.socket.readyState === WebSocket.OPEN) {
         client.socket.send(payload);
+      }
+    }
+  }
+
+  /**
+   * The same rule as every HTTP request, applied to open sockets when it may have changed: a
+   * socket whose session ended is closed, and its shop list is read again, so a removed
+   * member stops receiving a shop's messages as soon as the removal commits.
+   */
+  async function recheck(userIds: string[]) {
+    const affected = [...clients].filter((c) => userIds.includes(c.userId));
+    for (const userId of new Set(affected.map((c) => c.userId))) {
+      try {
+        const state = await findSessionState(deps.db, userId);
+        const shopIds = new Set((await listShopsOfUser(deps.db, userId)).map((s) => s.id));
+        for (const client of affected.filter((c) => c.userId === userId)) {
+          if (state?.sessionVersion !== client.sessionVersion) {
+            client.shopIds = new Set();
+            client.socket.close(SESSION_ENDED, 'session ended');
+            continue;
+          }
+          client.shopIds = shopIds;
+          client.socket.send(JSON.stringify({ type: 'access', shopIds: [...shopIds] }));
+        }
+      } catch {
+        // Database away: stop sending these sockets anything until they reconnect and re-check.
+        for (const client of affected.filter((c) => c.userId === userId)) client.socket.terminate();
       }
     }
   }
@@ -77,17 +122,22 @@ export function startLiveHub(deps: {
   async function onUpgrade(req: IncomingMessage, socket: Duplex, head: Buffer) {
     const url = new URL(req.url ?? '/', 'http://localhost');
     if (url.pathname !== LIVE_PATH) return refuse(socket, '404 Not Found');
-    const token = readCookie(req.headers.cookie, SESSION_COOKIE);
-    const userId = token ? await deps.sessions.verify(token) : null;
-    if (!userId) return refuse(socket, '401 Unauthorized');
+    // A page on another site must not open a socket with this browser's cookie.
+    if (!isTrustedUpgradeOrigin(req.headers.origin, req.headers.host, trusted)) {
+      return refuse(socket, '403 Forbidden');
+    }
+    let session: Awaited<ReturnType<typeof resolveSession>>;
     let shopIds: Set<string>;
     try {
-      shopIds = new Set((await listShopsOfUser(deps.db, userId)).map((s) => s.id));
+      session = await resolveSession(deps.db, deps.sessions, req.headers.cookie);
+      if (!session) return refuse(socket, '401 Unauthorized');
+      shopIds = new Set((await listShopsOfUser(deps.db, session.claims.userId)).map((s) => s.id));
     } catch {
       return refuse(socket, '503 Service Unavailable');
     }
+    const { userId, sessionVersion } = session.claims;
     wss.handleUpgrade(req, socket, head, (ws) => {
-      const client: Client = { socket: ws, shopIds, alive: true };
+      const client: Client = { socket: ws, userId, sessionVersion, shopIds, alive: true };
       clients.add(client);
       ws.on('pong', () => (client.alive = true));
       ws.on('close', () => clients.delete(client));

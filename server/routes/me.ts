@@ -1,19 +1,65 @@
+/** The signed-in person: GET /me (with their shops), profile changes and password change. */
 import { Router } from 'express';
+import { z } from 'zod';
 
 import type { Db } from '@/db';
-import { listShopsOfUser } from '@/db/queries/memberships';
-import { findUserById } from '@/db/queries/users';
+import { listShopsOfUser, notifyAccessChanged } from '@/db/queries/memberships';
+import { findUserById, findUserSecrets, setPassword, updateProfile } from '@/db/queries/users';
 
+import { userIdOf } from '../auth/middleware';
+import { hashPassword, verifyPassword } from '../auth/password';
+import { startSession, type SessionSigner } from '../auth/session';
 import { ApiError } from '../errors';
+import { parseInput } from '../validate';
 
-export function meRouter(db: Db): Router {
+import { newPasswordField, personNameField, unitPrefField } from './fields';
+
+const profileBody = z
+  .object({ name: personNameField.optional(), unitPref: unitPrefField.optional() })
+  .strict()
+  .refine((b) => b.name !== undefined || b.unitPref !== undefined, 'Change the name or the units');
+
+const passwordBody = z.object({
+  currentPassword: z.string().min(1, 'Enter your current password').max(200),
+  newPassword: newPasswordField,
+});
+
+const signedOut = () => new ApiError(401, 'not_signed_in', 'Sign in to continue.');
+
+export function meRouter(db: Db, sessions: SessionSigner): Router {
   const router = Router();
+
   router.get('/', async (_req, res) => {
-    const userId = res.locals.userId as string;
+    const userId = userIdOf(res);
     const user = await findUserById(db, userId);
-    // A valid token for a deleted account is treated as signed out.
-    if (!user) throw new ApiError(401, 'not_signed_in', 'Sign in to continue.');
+    if (!user) throw signedOut();
     res.json({ user, shops: await listShopsOfUser(db, userId) });
   });
+
+  router.patch('/', async (req, res) => {
+    const body = parseInput(profileBody, req.body);
+    const user = await updateProfile(db, userIdOf(res), body);
+    if (!user) throw signedOut();
+    res.json({ user });
+  });
+
+  // A new password ends every other session; this one continues with a fresh cookie.
+  router.post('/password', async (req, res) => {
+    const body = parseInput(passwordBody, req.body);
+    const userId = userIdOf(res);
+    const secrets = await findUserSecrets(db, userId);
+    if (!secrets) throw signedOut();
+    if (!(await verifyPassword(body.currentPassword, secrets.passwordHash))) {
+      throw new ApiError(400, 'wrong_password', 'The current password is not right.', [
+        { path: 'currentPassword', message: 'Not your current password' },
+      ]);
+    }
+    const version = await setPassword(db, userId, await hashPassword(body.newPassword));
+    if (version === null) throw signedOut();
+    await notifyAccessChanged(db, [userId]);
+    await startSession(res, sessions, userId, version);
+    res.status(204).end();
+  });
+
   return router;
 }

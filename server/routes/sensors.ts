@@ -1,33 +1,53 @@
+/**
+ * A shop's sensors. Listing shows last seen and battery; creating and rotating answer the
+ * token this once (it is stored only as a hash); revoking and moving drop the token from the
+ * ingest cache at once so the change applies to the sensor's next post.
+ */
 import { Router } from 'express';
 import { z } from 'zod';
 
 import type { Db } from '@/db';
-import { insertSensor, revokeSensorToken } from '@/db/queries/sensors';
+import {
+  insertSensor,
+  listSensors,
+  revokeSensorToken,
+  rotateSensorToken,
+  updateSensor,
+} from '@/db/queries/sensors';
 import { findZone } from '@/db/queries/zones';
 
-import { isUuid, requireShopRole, shopIdOf } from '../auth/middleware';
+import { isUuid, shopIdOf } from '../auth/middleware';
 import { hashToken, newSensorToken, type SensorTokenCache } from '../auth/sensorTokens';
 import { ApiError } from '../errors';
 import { parseInput } from '../validate';
 
-const createSensorBody = z.object({
-  name: z.string().trim().min(1, 'Name the sensor').max(100),
-  zoneId: z.string().uuid('Pick a zone of this shop'),
-});
+const sensorName = z.string().trim().min(1, 'Name the sensor').max(100);
+const zoneId = z.string().uuid('Pick a zone of this shop');
 
-/** Mounted at /shops/:shopId/sensors. Owners only: a token is a key to the shop's data. */
+const createSensorBody = z.object({ name: sensorName, zoneId });
+const updateSensorBody = z
+  .object({ name: sensorName.optional(), zoneId: zoneId.optional() })
+  .strict()
+  .refine((b) => b.name !== undefined || b.zoneId !== undefined, 'Change the name or the zone');
+
+const noSensor = () => new ApiError(404, 'not_found', 'No such sensor in this shop.');
+const unknownZone = () =>
+  new ApiError(400, 'invalid_input', 'That zone is not in this shop.', [
+    { path: 'zoneId', message: 'Unknown zone' },
+  ]);
+
+/** Mounted at /shops/:shopId/sensors. */
 export function sensorsRouter(db: Db, tokens: SensorTokenCache): Router {
   const router = Router({ mergeParams: true });
-  router.use(requireShopRole(db, 'owner'));
+
+  router.get('/', async (_req, res) => {
+    res.json({ sensors: await listSensors(db, shopIdOf(res)) });
+  });
 
   router.post('/', async (req, res) => {
     const shopId = shopIdOf(res);
     const body = parseInput(createSensorBody, req.body);
-    if (!(await findZone(db, shopId, body.zoneId))) {
-      throw new ApiError(400, 'invalid_input', 'That zone is not in this shop.', [
-        { path: 'zoneId', message: 'Unknown zone' },
-      ]);
-    }
+    if (!(await findZone(db, shopId, body.zoneId))) throw unknownZone();
     const token = newSensorToken();
     const sensor = await insertSensor(db, {
       shopId,
@@ -39,12 +59,36 @@ export function sensorsRouter(db: Db, tokens: SensorTokenCache): Router {
     res.status(201).json({ id: sensor.id, name: sensor.name, zoneId: sensor.zoneId, token });
   });
 
+  router.patch('/:sensorId', async (req, res) => {
+    const body = parseInput(updateSensorBody, req.body);
+    const sensorId = req.params.sensorId;
+    if (!isUuid(sensorId)) throw noSensor();
+    const shopId = shopIdOf(res);
+    if (body.zoneId && !(await findZone(db, shopId, body.zoneId))) throw unknownZone();
+    const updated = await updateSensor(db, shopId, sensorId, body);
+    if (!updated) throw noSensor();
+    await tokens.invalidate(updated.tokenHash);
+    res.json({ id: updated.id, name: updated.name, zoneId: updated.zoneId });
+  });
+
+  // Rotation: a new token now, the old one refused from the next post on.
+  router.post('/:sensorId/token', async (req, res) => {
+    const sensorId = req.params.sensorId;
+    const token = newSensorToken();
+    const rotated = isUuid(sensorId)
+      ? await rotateSensorToken(db, shopIdOf(res), sensorId, hashToken(token))
+      : null;
+    if (!rotated) throw noSensor();
+    await tokens.invalidate(rotated.oldTokenHash);
+    res.status(201).json({ id: sensorId, token });
+  });
+
   router.delete('/:sensorId/token', async (req, res) => {
     const sensorId = req.params.sensorId;
     const tokenHash = isUuid(sensorId)
       ? await revokeSensorToken(db, shopIdOf(res), sensorId)
       : null;
-    if (!tokenHash) throw new ApiError(404, 'not_found', 'No such sensor in this shop.');
+    if (!tokenHash) throw noSensor();
     await tokens.invalidate(tokenHash);
     res.status(204).end();
   });

@@ -1,9 +1,12 @@
+/** Shops: create (the creator owns it), read, rename or move time zone, delete with confirmation. */
 import { Router } from 'express';
 import { z } from 'zod';
 
 import type { Db } from '@/db';
-import { createShopWithOwner } from '@/db/queries/shops';
+import { createShopWithOwner, deleteShop, findShop, updateShop } from '@/db/queries/shops';
 
+import { roleOf, shopIdOf, userIdOf } from '../auth/middleware';
+import { ApiError } from '../errors';
 import { parseInput } from '../validate';
 
 /** True for a time zone name the runtime's IANA database knows (e.g. Europe/Dublin). */
@@ -16,17 +19,59 @@ function isIanaZone(name: string): boolean {
   }
 }
 
-const createShopBody = z.object({
-  name: z.string().trim().min(1, 'Name the shop').max(100),
-  timeZone: z.string().refine(isIanaZone, 'Use an IANA time zone such as America/Chicago'),
-});
+const shopName = z.string().trim().min(1, 'Name the shop').max(100);
+const timeZone = z
+  .string()
+  .max(64)
+  .refine(isIanaZone, 'Use an IANA time zone such as America/Chicago');
+
+const createShopBody = z.object({ name: shopName, timeZone });
+const updateShopBody = z
+  .object({ name: shopName.optional(), timeZone: timeZone.optional() })
+  .strict()
+  .refine((b) => b.name !== undefined || b.timeZone !== undefined, 'Change the name or time zone');
+const deleteShopBody = z.object({ confirmName: z.string().max(200) });
+
+const gone = () => new ApiError(404, 'shop_not_found', 'No such shop among yours.');
 
 export function shopsRouter(db: Db): Router {
   const router = Router();
+
   router.post('/', async (req, res) => {
     const body = parseInput(createShopBody, req.body);
-    const shop = await createShopWithOwner(db, body, res.locals.userId as string);
+    const shop = await createShopWithOwner(db, body, userIdOf(res));
     res.status(201).json(shop);
   });
+
+  router.get('/:shopId', async (_req, res) => {
+    const shop = await findShop(db, shopIdOf(res));
+    if (!shop) throw gone();
+    res.json({ ...shop, role: roleOf(res) });
+  });
+
+  router.patch('/:shopId', async (req, res) => {
+    const body = parseInput(updateShopBody, req.body);
+    const shop = await updateShop(db, shopIdOf(res), body);
+    if (!shop) throw gone();
+    res.json({ ...shop, role: roleOf(res) });
+  });
+
+  // Deleting takes every zone, sensor and reading with it: the body must repeat the name.
+  router.delete('/:shopId', async (req, res) => {
+    const body = parseInput(deleteShopBody, req.body ?? {});
+    const shop = await findShop(db, shopIdOf(res));
+    if (!shop) throw gone();
+    if (body.confirmName.trim() !== shop.name) {
+      throw new ApiError(
+        400,
+        'confirmation_mismatch',
+        'Type the shop’s name exactly to delete it.',
+        [{ path: 'confirmName', message: `Type “${shop.name}”` }],
+      );
+    }
+    await deleteShop(db, shop.id);
+    res.status(204).end();
+  });
+
   return router;
 }

@@ -1,26 +1,62 @@
+/** A shop's zones: list with each zone's newest reading, create, rename and set limits. */
 import { Router } from 'express';
 import { z } from 'zod';
 
 import type { Db } from '@/db';
-import { insertZone, listZonesWithLatest } from '@/db/queries/zones';
+import { tokenHashesOfZone } from '@/db/queries/sensors';
+import { findZone, insertZone, listZonesWithLatest, updateZone } from '@/db/queries/zones';
+import { marginLimitsSchema } from '@/ingest';
 
-import { requireShopRole, shopIdOf } from '../auth/middleware';
+import { isUuid, shopIdOf } from '../auth/middleware';
+import type { SensorTokenCache } from '../auth/sensorTokens';
+import { ApiError } from '../errors';
 import { parseInput } from '../validate';
 
-const createZoneBody = z.object({ name: z.string().trim().min(1, 'Name the zone').max(100) });
+const zoneName = z.string().trim().min(1, 'Name the zone').max(100);
+const createZoneBody = z.object({ name: zoneName });
+
+// Limits in kelvin (a margin is a difference). 20 K and 100 % bound typos, not physics.
+const updateZoneBody = z
+  .object({
+    name: zoneName.optional(),
+    cautionK: z.number().min(0, 'At least 0 K').max(20, 'At most 20 K').optional(),
+    wetK: z.number().min(-5, 'At least −5 K').max(20, 'At most 20 K').optional(),
+    humidRhPct: z.number().min(30, 'At least 30 %').max(100, 'At most 100 %').optional(),
+  })
+  .strict();
+
+const noZone = () => new ApiError(404, 'not_found', 'No such zone in this shop.');
 
 /** Mounted at /shops/:shopId/zones. */
-export function zonesRouter(db: Db): Router {
+export function zonesRouter(db: Db, tokens: SensorTokenCache): Router {
   const router = Router({ mergeParams: true });
 
-  router.get('/', requireShopRole(db, 'viewer'), async (req, res) => {
+  router.get('/', async (_req, res) => {
     res.json({ zones: await listZonesWithLatest(db, shopIdOf(res)) });
   });
 
-  router.post('/', requireShopRole(db, 'owner'), async (req, res) => {
+  router.post('/', async (req, res) => {
     const body = parseInput(createZoneBody, req.body);
     const zone = await insertZone(db, shopIdOf(res), body.name);
     res.status(201).json(zone);
+  });
+
+  router.patch('/:zoneId', async (req, res) => {
+    const body = parseInput(updateZoneBody, req.body);
+    const shopId = shopIdOf(res);
+    const zoneId = req.params.zoneId;
+    const zone = isUuid(zoneId) ? await findZone(db, shopId, zoneId) : null;
+    if (!zone) throw noZone();
+    // The pair must hold together after the change, whichever of the two is sent.
+    parseInput(marginLimitsSchema, {
+      cautionK: body.cautionK ?? zone.cautionK,
+      wetK: body.wetK ?? zone.wetK,
+    });
+    const updated = await updateZone(db, shopId, zone.id, body);
+    if (!updated) throw noZone();
+    // Sensors in this zone carry its limits in the ingest cache: forget them.
+    for (const hash of await tokenHashesOfZone(db, zone.id)) await tokens.invalidate(hash);
+    res.json(updated);
   });
 
   return router;

@@ -9,6 +9,8 @@ import { createApp } from '@/server/app';
 import { createSensorTokenCache } from '@/server/auth/sensorTokens';
 import { createSessionSigner } from '@/server/auth/session';
 import { startNotificationListener } from '@/server/live/listener';
+import { createMailer, createOutbox, startLocalSmtpServer } from '@/server/mail';
+import { DEFAULT_RATE_LIMITS, type RateLimitConfig } from '@/server/auth/rateLimits';
 import { createSurfaceEstimator } from '@/server/readings/surfaceEstimates';
 import { createReadingWriter } from '@/server/readings/writer';
 
@@ -18,11 +20,34 @@ export interface TestAppOptions {
   webDir?: string;
   /** Start a LISTEN connection, as a server instance does (live hub, token revocations). */
   listen?: boolean;
+  /** The app's clock (sessions, link expiry); tests of expiry move it. */
+  now?: () => number;
+  /** Defaults to TEST_RATE_LIMITS: every test request comes from 127.0.0.1. */
+  rateLimits?: RateLimitConfig;
 }
+
+/** Where links in test e-mail point; also a trusted origin of the test app. */
+export const TEST_PUBLIC_URL = 'http://drybench.test';
+
+/** The production limits per account; per network address high enough for a test file. */
+export const TEST_RATE_LIMITS: RateLimitConfig = {
+  ...DEFAULT_RATE_LIMITS,
+  signInPerIp: 10_000,
+  signUpPerIp: 10_000,
+  resetPerIp: 10_000,
+  invitationsPerIp: 10_000,
+};
 
 export function makeTestApp(options: TestAppOptions = {}) {
   const database = createDatabase(process.env.DATABASE_URL!, { max: 5 });
-  const sessions = createSessionSigner(TEST_SECRET, false);
+  const sessions = createSessionSigner(TEST_SECRET, false, options.now);
+  // A real SMTP server on a free loopback port; what it receives lands in `outbox`.
+  const outbox = createOutbox();
+  const smtp = startLocalSmtpServer({ outbox });
+  const mailer = createMailer({
+    from: 'Drybench <no-reply@drybench.example>',
+    target: smtp.then((s) => ({ host: s.host, port: s.port, requireTls: false })),
+  });
   const listener = options.listen
     ? startNotificationListener(process.env.DATABASE_URL!)
     : undefined;
@@ -36,9 +61,13 @@ export function makeTestApp(options: TestAppOptions = {}) {
     writer,
     estimator,
     webDir: options.webDir,
+    mailer,
+    publicUrl: TEST_PUBLIC_URL,
+    rateLimits: options.rateLimits ?? TEST_RATE_LIMITS,
+    now: options.now,
     log: () => {},
   });
-  return { app, ...database, sessions, tokens, writer, estimator, listener };
+  return { app, ...database, sessions, tokens, writer, estimator, listener, outbox, smtp };
 }
 
 export type TestApp = ReturnType<typeof makeTestApp>;

@@ -1,0 +1,66 @@
+/**
+ * A real SMTP server on loopback (the `smtp-server` package) that parses each message it is
+ * given and keeps it in an Outbox. `npm start` and the tests send mail through it with the
+ * same nodemailer transport production uses against a real relay.
+ */
+import type { AddressInfo } from 'node:net';
+
+import { simpleParser, type AddressObject } from 'mailparser';
+import { SMTPServer } from 'smtp-server';
+
+import type { Outbox } from './outbox';
+
+export interface LocalSmtpServer {
+  host: string;
+  port: number;
+  close(): Promise<void>;
+}
+
+function addresses(field: AddressObject | AddressObject[] | undefined): string[] {
+  const list = Array.isArray(field) ? field : field ? [field] : [];
+  return list.flatMap((a) => a.value.map((v) => v.address ?? '')).filter(Boolean);
+}
+
+export async function startLocalSmtpServer(options: {
+  outbox: Outbox;
+  host?: string;
+  /** 0 picks a free port. */
+  port?: number;
+}): Promise<LocalSmtpServer> {
+  const host = options.host ?? '127.0.0.1';
+  const server = new SMTPServer({
+    // Loopback only, no certificate: plain SMTP without authentication, like a local relay.
+    authOptional: true,
+    disabledCommands: ['STARTTLS', 'AUTH'],
+    logger: false,
+    size: 1024 * 1024,
+    onData(stream, _session, callback) {
+      simpleParser(stream)
+        .then((parsed) => {
+          options.outbox.add({
+            receivedAt: new Date().toISOString(),
+            from: addresses(parsed.from)[0] ?? '',
+            to: addresses(parsed.to),
+            subject: parsed.subject ?? '',
+            text: parsed.text ?? '',
+            html: typeof parsed.html === 'string' ? parsed.html : null,
+          });
+          callback();
+        })
+        .catch((err: unknown) => callback(err instanceof Error ? err : new Error(String(err))));
+    },
+  });
+  server.on('error', () => {});
+  await new Promise<void>((resolve, reject) => {
+    server.server.once('error', reject);
+    server.listen(options.port ?? 0, host, () => resolve());
+  });
+  // Tests and the demo stop by closing the app; the mail server must not keep them alive.
+  server.server.unref();
+  const { port } = server.server.address() as AddressInfo;
+  return {
+    host,
+    port,
+    close: () => new Promise((resolve) => server.close(() => resolve())),
+  };
+}
