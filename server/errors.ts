@@ -45,11 +45,20 @@ function isDatabaseUnavailable(err: unknown): boolean {
   if (typeof e.code === 'string' && UNAVAILABLE_CODES.has(e.code)) return true;
   if (
     typeof e.message === 'string' &&
-    /timeout exceeded when trying to connect|Connection terminated/i.test(e.message)
+    /timeout exceeded when trying to connect|Connection terminated|connection error and is not queryable|the database system is (starting up|shutting down)/i.test(
+      e.message,
+    )
   ) {
     return true;
   }
   return e.cause !== undefined && e.cause !== err && isDatabaseUnavailable(e.cause);
+}
+
+/** zlib and brotli failures (brotli's codes read ERR__ERROR_…) while inflating a body that is not what Content-Encoding says. */
+function isCompressionError(err: unknown): boolean {
+  const code =
+    typeof err === 'object' && err !== null ? (err as { code?: unknown }).code : undefined;
+  return typeof code === 'string' && /^(Z_|ERR_BROTLI|ERR_ZLIB|ERR__ERROR_)/.test(code);
 }
 
 /** body-parser's own error types, mapped to the contract's statuses. */
@@ -82,6 +91,13 @@ export function toApiError(err: unknown): ApiError {
   if (typeof err === 'object' && err !== null && 'type' in err) {
     const mapped = fromBodyParser(err as { type?: string });
     if (mapped) return mapped;
+  }
+  if (isCompressionError(err)) {
+    return new ApiError(
+      400,
+      'invalid_encoding',
+      'The body could not be decompressed; check Content-Encoding.',
+    );
   }
   if (isDatabaseUnavailable(err)) {
     return new ApiError(

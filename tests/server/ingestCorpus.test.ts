@@ -1,6 +1,8 @@
 // A corpus of hostile and broken bodies for POST /api/v1/ingest. Every answer is a 4xx in the
 // shared error shape (or a 202 whose bad readings are listed in `rejected`), never a 5xx, and
 // afterwards the database holds exactly the valid readings — each once.
+import http from 'node:http';
+import type { AddressInfo } from 'node:net';
 import { gzipSync } from 'node:zlib';
 
 import request from 'supertest';
@@ -9,6 +11,8 @@ import { afterAll, beforeAll, describe, expect, it } from 'vitest';
 import { makeTestApp, ownerWithSensor, type TestApp } from '../support/app';
 
 let t: TestApp;
+let server: http.Server;
+let baseUrl: string;
 let token: string;
 let sensorId: string;
 // Each valid reading gets its own instant, so the expected row count is exact.
@@ -21,8 +25,16 @@ beforeAll(async () => {
   const o = await ownerWithSensor(t.app);
   token = o.token;
   sensorId = o.sensorId;
+  // Raw bytes over a real socket: a client library would re-encode what we mean to send.
+  server = http.createServer(t.app).listen(0, '127.0.0.1');
+  await new Promise((resolve) => server.once('listening', resolve));
+  baseUrl = `http://127.0.0.1:${(server.address() as AddressInfo).port}`;
 });
-afterAll(() => t.pool.end());
+afterAll(async () => {
+  server.closeAllConnections();
+  await new Promise((resolve) => server.close(resolve));
+  await t.pool.end();
+});
 
 interface Case {
   name: string;
@@ -45,7 +57,7 @@ function envelopeCases(): Case[] {
     unit: 'C',
     readings: [{ at: '2026-01-01T00:00:00Z', air: 1, rh: 2 }],
   });
-  for (let n = 1; n < full.length; n += 2) bad(`truncated at ${n}`, full.slice(0, n));
+  for (let n = 1; n < full.length; n += 1) bad(`truncated at ${n}`, full.slice(0, n));
 
   for (const text of ['{', '[', '}', 'nul', 'tru', '{"air": 1,}', "{'air': 1}", '{"air": 01}']) {
     bad(`invalid JSON ${text}`, text);
@@ -75,6 +87,7 @@ function envelopeCases(): Case[] {
     ['at as date only', { at: '2026-03-02', air: 1, rh: 50 }],
     ['at as words', { at: 'yesterday', air: 1, rh: 50 }],
     ['at as boolean', { at: true, air: 1, rh: 50 }],
+    ['at with a six-digit year', { at: '+275760-09-13T00:00:00Z', air: 1, rh: 50 }],
     ['unit lowercase', { unit: 'c', air: 1, rh: 50 }],
     ['unit kelvin', { unit: 'K', air: 1, rh: 50 }],
     ['unit number', { unit: 1, air: 1, rh: 50 }],
@@ -98,7 +111,7 @@ function envelopeCases(): Case[] {
     ['proto pollution in readings', JSON.parse('{"readings": {"__proto__": {"length": 1}}}')],
   ];
   for (const [name, body] of wrongTypes) bad(name, JSON.stringify(body));
-  bad('deep nesting 100000', '['.repeat(100_000) + ']'.repeat(100_000), 413);
+  bad('deep nesting 100000', '['.repeat(100_000) + ']'.repeat(100_000));
 
   bad(
     '1,001 readings',
@@ -123,7 +136,8 @@ function envelopeCases(): Case[] {
   }
   bad('no content type', body, 415, { contentType: null });
   bad('charset latin1', body, 415, { contentType: 'application/json; charset=latin1' });
-  bad('content-encoding br', body, 415, { headers: { 'content-encoding': 'br' } });
+  bad('content-encoding br, plain body', body, 400, { headers: { 'content-encoding': 'br' } });
+  bad('content-encoding zstd', body, 415, { headers: { 'content-encoding': 'zstd' } });
   bad('gzip header, plain body', body, 400, { headers: { 'content-encoding': 'gzip' } });
   bad(
     'invalid UTF-8 in a key',
@@ -153,7 +167,6 @@ function readingCases(): Case[] {
     air: 10,
     rh: 50,
   });
-  rejectedOne('year 275760', { at: '+275760-09-13T00:00:00Z', air: 10, rh: 50 });
   rejectedOne('epoch 1e20 seconds', { at: 1e20, air: 10, rh: 50 });
   rejectedOne('impossible date', { at: '2026-02-30T25:61:00Z', air: 10, rh: 50 });
   return cases;
@@ -200,10 +213,11 @@ describe('the ingest bad-input corpus', () => {
   it.each(cases)('$name', async (c) => {
     let body = typeof c.body === 'string' ? Buffer.from(c.body) : c.body;
     if (c.headers?.['content-encoding'] === 'gzip' && 'stored' in c.expect) body = gzipSync(body);
-    const req = request(t.app).post('/api/v1/ingest').set('authorization', `Bearer ${token}`);
-    if (c.contentType !== null) req.set('content-type', c.contentType ?? 'application/json');
-    for (const [k, v] of Object.entries(c.headers ?? {})) req.set(k, v);
-    const res = await req.send(body);
+    const headers: Record<string, string> = { authorization: `Bearer ${token}`, ...c.headers };
+    if (c.contentType !== null) headers['content-type'] = c.contentType ?? 'application/json';
+    const response = await fetch(`${baseUrl}/api/v1/ingest`, { method: 'POST', headers, body });
+    const text = await response.text();
+    const res = { status: response.status, text, body: JSON.parse(text) };
 
     expect(res.status).toBeLessThan(500);
     expect(res.text).not.toMatch(/at .*\.ts:\d+|node_modules|select |insert into/i);
