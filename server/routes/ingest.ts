@@ -9,6 +9,7 @@ import express, { Router } from 'express';
 import type { SensorIdentity } from '@/db/queries/sensors';
 import { MAX_READINGS_PER_REQUEST, parseEnvelope } from '@/ingest';
 
+import type { AlarmEngine } from '../alarms';
 import {
   createSensorRateLimiter,
   DEFAULT_SENSOR_RATE,
@@ -29,9 +30,11 @@ export interface IngestDeps {
   estimator: SurfaceEstimator;
   now: () => number;
   sensorRate?: RateLimitOptions;
+  alarms?: AlarmEngine;
 }
 
-export function ingestRouter({ writer, tokens, estimator, now, sensorRate }: IngestDeps): Router {
+export function ingestRouter(deps: IngestDeps): Router {
+  const { writer, tokens, estimator, now, sensorRate, alarms } = deps;
   const router = Router();
   const limiter = createSensorRateLimiter({ ...DEFAULT_SENSOR_RATE, ...sensorRate, now });
 
@@ -111,6 +114,8 @@ export function ingestRouter({ writer, tokens, estimator, now, sensorRate }: Ing
       const { insertedMs } = await writer.write(rows, (fresh) =>
         JSON.stringify(readingMessage(fresh)),
       );
+      // The rows are committed: the engine logs its own failures and never undoes the 202.
+      await alarms?.onReadingsStored(sensor, rows.filter((r) => insertedMs.has(r.at.getTime())));
 
       res.status(202).json({
         stored: insertedMs.size,

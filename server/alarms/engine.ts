@@ -1,0 +1,143 @@
+/**
+ * The alarm engine. After a request's readings commit, the instance that received them steps
+ * the zone's alarm state — a row in PostgreSQL locked with SELECT … FOR UPDATE, so concurrent
+ * requests and other instances take turns — and writes the opened, updated and cleared alarms,
+ * their events and the live messages in one transaction. A scheduled sweep (server/jobs) opens
+ * sensor-silent alarms, since silence is the absence of a request.
+ */
+import type { Db } from '@/db';
+import {
+  lockZoneState,
+  openAlarmsOfZone,
+  saveAlarmChanges,
+  saveZoneState,
+  sensorSeen,
+  sweepCandidates,
+  zoneMargins,
+  type AlarmView,
+  type Tx,
+} from '@/db/queries/alarms';
+import type { ReadingRow } from '@/db/queries/readings';
+import { DEFAULT_TREND } from '@/ingest';
+
+import { alarmMessageJson } from '../live/messages';
+
+import { createAlarmBook } from './book';
+import { evaluateZone, readZoneState, type Signal } from './evaluate';
+import { ALARM_RULES, postingIntervalMs, silentAfterMs } from './rules';
+
+export interface SweepOutcome {
+  opened: number;
+  cleared: number;
+}
+
+export interface AlarmEngine {
+  /**
+   * Judges one request's newly stored readings (all from one sensor). Never throws: the readings
+   * are committed already, so a failure here is logged and the sensor still gets its 202.
+   */
+  onReadingsStored(
+    sensor: { sensorId: string; zoneId: string; shopId: string },
+    rows: ReadingRow[],
+  ): Promise<void>;
+  /** Opens sensor-silent alarms as of `nowMs`, and closes those of revoked sensors. */
+  sweepSilent(input: { nowMs: number; shopId?: string }): Promise<SweepOutcome>;
+}
+
+const NO_SAMPLE = { marginK: null, rhPct: null, batteryV: null, minutesToWet: null };
+
+export function createAlarmEngine(deps: { db: Db; log?: (err: unknown) => void }): AlarmEngine {
+  const { db } = deps;
+  const log = deps.log ?? ((err: unknown) => console.error('alarm engine:', err));
+
+  async function applySignals(
+    tx: Tx,
+    where: { shopId: string; zoneId: string },
+    signals: Signal[],
+  ): Promise<number> {
+    const book = createAlarmBook(where, await openAlarmsOfZone(tx, where.zoneId));
+    signals.forEach((signal) => book.apply(signal));
+    const changes = book.changes();
+    await saveAlarmChanges(tx, changes, (views: AlarmView[]) =>
+      views.map((view) => alarmMessageJson(where.shopId, view)),
+    );
+    return changes.events.length;
+  }
+
+  return {
+    async onReadingsStored(sensor, rows) {
+      if (rows.length === 0) return;
+      const where = { shopId: sensor.shopId, zoneId: sensor.zoneId };
+      try {
+        await db.transaction(async (tx) => {
+          const locked = await lockZoneState(tx, where.zoneId, where.shopId);
+          if (!locked) return;
+          const times = rows.map((r) => r.at.getTime());
+          const firstMs = Math.min(...times);
+          const lastMs = Math.max(...times);
+          const margins = rows.some((r) => r.marginK !== null)
+            ? await zoneMargins(
+                tx,
+                where.zoneId,
+                new Date(firstMs - DEFAULT_TREND.windowMs),
+                new Date(lastMs),
+              )
+            : [];
+          const { settings } = locked;
+          const { state, signals } = evaluateZone(
+            readZoneState(locked.state),
+            where.zoneId,
+            rows.map((r) => ({
+              sensorId: r.sensorId,
+              atMs: r.at.getTime(),
+              marginK: r.marginK,
+              rhPct: r.rhPct,
+              batteryV: r.batteryV,
+            })),
+            margins,
+            {
+              limits: { cautionK: settings.cautionK, wetK: settings.wetK },
+              humidRhPct: settings.humidRhPct,
+            },
+          );
+          await saveZoneState(tx, where.zoneId, state);
+          await applySignals(tx, where, signals);
+        });
+      } catch (err) {
+        log(err);
+      }
+    },
+
+    async sweepSilent({ nowMs, shopId }) {
+      const outcome: SweepOutcome = { opened: 0, cleared: 0 };
+      const candidates = await sweepCandidates(db, ALARM_RULES.silent.gaps + 1, shopId);
+      for (const c of candidates) {
+        const allowedMs = silentAfterMs(postingIntervalMs(c.recentAtMs));
+        const silent = !c.revoked && nowMs - c.lastSeenAt.getTime() > allowedMs;
+        if (c.openSilentAlarmId ? !c.revoked : !silent) continue;
+        const where = { shopId: c.shopId, zoneId: c.zoneId };
+        const changed = await db.transaction(async (tx) => {
+          if (!(await lockZoneState(tx, c.zoneId, c.shopId))) return 0;
+          // Judge again under the lock: a reading may have committed since the list was read.
+          const seen = await sensorSeen(tx, c.sensorId);
+          if (!seen?.lastSeenAt) return 0;
+          const lastMs = seen.lastSeenAt.getTime();
+          const active = seen.revokedAt === null && nowMs - lastMs > allowedMs;
+          return applySignals(tx, where, [
+            {
+              kind: 'sensor_silent',
+              subjectId: c.sensorId,
+              sensorId: c.sensorId,
+              active,
+              atMs: nowMs,
+              sinceMs: lastMs,
+              sample: NO_SAMPLE,
+            },
+          ]);
+        });
+        if (changed > 0) outcome[silent ? 'opened' : 'cleared'] += 1;
+      }
+      return outcome;
+    },
+  };
+}

@@ -1,0 +1,223 @@
+/**
+ * The alarm rules as pure functions of readings and the times they carry (never the clock), so a
+ * sensor's backlog is judged as if it had arrived live. The dew rules reuse ingest/'s level
+ * hysteresis and early warning; this file adds a plain threshold hysteresis for humid air and
+ * battery, the dew-risk hold, the silent test and when an open alarm's change is worth recording.
+ *
+ * Values marked "rule of thumb" have no published source and say so; the others are our own
+ * choices with the reason beside them.
+ */
+import type { AlarmValues } from '@/db/queries/alarms';
+import type { AlarmKind } from '@/db/schema';
+import { DEFAULT_HYSTERESIS, DEFAULT_LOOK_AHEAD_MS, type Level } from '@/ingest';
+
+const MINUTE_MS = 60_000;
+
+export const ALARM_RULES = {
+  /** Dew risk warns when the trend reaches the wet limit within this (DESIGN.md's default). */
+  lookAheadMs: DEFAULT_LOOK_AHEAD_MS,
+  /**
+   * Dew risk clears once the confirmed level is dry (margin ≥ caution limit + band, held — see
+   * ingest/hysteresis.ts) and the early warning has been quiet this long. Ours: two fits on a
+   * 5-minute sensor, so one flat stretch in a rising morning does not close the alarm.
+   */
+  warningQuietMs: 10 * MINUTE_MS,
+  /** In a backlog the trend is fitted at most once per minute of data; the level every reading. */
+  trendEveryMs: MINUTE_MS,
+  /** Level hysteresis: band 0.5 K, 3 readings or 5 min — rules of thumb, stated in ingest/. */
+  level: DEFAULT_HYSTERESIS,
+  /**
+   * Humid air: RH above the zone's limit (default 60 % — a rule of thumb of the trade, no
+   * standard gives 60 %) for 30 min; clears at 5 % RH below the limit for 15 min. Ours: a door
+   * opened for a delivery must not raise it, and 5 % is about twice a shop hygrometer's error.
+   */
+  humid: { openHoldMs: 30 * MINUTE_MS, bandPct: 5, clearHoldMs: 15 * MINUTE_MS },
+  /**
+   * Battery low: under 2.7 V for a pair of lithium cells (3 V nominal) — a rule of thumb of the
+   * trade: such cells hold near 3 V most of their life and fall off quickly below about 2.7 V.
+   * Held 15 min so a cold-morning sag does not raise it; clears 0.1 V above (fresh cells).
+   */
+  battery: { lowV: 2.7, bandV: 0.1, openHoldMs: 15 * MINUTE_MS, clearHoldMs: 15 * MINUTE_MS },
+  /**
+   * Sensor silent: no reading for 3 × the sensor's own posting interval (the median gap of its
+   * last 10 gaps; 5 min when unknown). Never under a minute: the sweep runs once a minute.
+   */
+  silent: { factor: 3, defaultIntervalMs: 5 * MINUTE_MS, minSilenceMs: MINUTE_MS, gaps: 10 },
+  /**
+   * An open alarm records an update when its worst value gets worse by a step, the expected
+   * minutes move to another 5-minute step, or the latest value has moved by a step and the last
+   * update is 5 min old. Steps are what the screen shows (0.1 °C, 1 %, 0.01 V).
+   */
+  update: {
+    marginStepK: 0.1,
+    rhStepPct: 1,
+    batteryStepV: 0.01,
+    minutesStep: 5,
+    latestEveryMs: 5 * MINUTE_MS,
+  },
+} as const;
+
+export const NO_VALUES: AlarmValues = {
+  worstMarginK: null,
+  latestMarginK: null,
+  minutesToWet: null,
+  peakRhPct: null,
+  latestRhPct: null,
+  lowestBatteryV: null,
+  latestBatteryV: null,
+};
+
+/** One reading's part in an alarm. */
+export interface SampleValues {
+  marginK: number | null;
+  rhPct: number | null;
+  batteryV: number | null;
+  minutesToWet: number | null;
+}
+
+const lower = (a: number | null, b: number | null) =>
+  a === null ? b : b === null ? a : Math.min(a, b);
+const higher = (a: number | null, b: number | null) =>
+  a === null ? b : b === null ? a : Math.max(a, b);
+
+/** An alarm's values after one more reading. */
+export function mergeValues(kind: AlarmKind, prev: AlarmValues, s: SampleValues): AlarmValues {
+  switch (kind) {
+    case 'dew_risk':
+    case 'wet_surface':
+      return {
+        ...prev,
+        latestMarginK: s.marginK ?? prev.latestMarginK,
+        worstMarginK: lower(prev.worstMarginK, s.marginK),
+        minutesToWet: kind === 'dew_risk' ? s.minutesToWet : null,
+      };
+    case 'humid_air':
+      return {
+        ...prev,
+        latestRhPct: s.rhPct ?? prev.latestRhPct,
+        peakRhPct: higher(prev.peakRhPct, s.rhPct),
+      };
+    case 'battery_low':
+      return {
+        ...prev,
+        latestBatteryV: s.batteryV ?? prev.latestBatteryV,
+        lowestBatteryV: lower(prev.lowestBatteryV, s.batteryV),
+      };
+    case 'sensor_silent':
+      return prev;
+  }
+}
+
+const moved = (a: number | null, b: number | null, step: number) =>
+  a === null || b === null ? a !== b : Math.abs(a - b) >= step - 1e-9;
+const worse = (stored: number | null, next: number | null, step: number, sign: 1 | -1) =>
+  next !== null && (stored === null || sign * (next - stored) >= step - 1e-9);
+const minutesBucket = (m: number | null) =>
+  m === null ? null : Math.round(m / ALARM_RULES.update.minutesStep);
+
+/** Whether going from `stored` to `next` is an update worth recording (and pushing). */
+export function isMaterialUpdate(stored: AlarmValues, next: AlarmValues, sinceUpdateMs: number) {
+  const u = ALARM_RULES.update;
+  if (worse(stored.worstMarginK, next.worstMarginK, u.marginStepK, -1)) return true;
+  if (worse(stored.peakRhPct, next.peakRhPct, u.rhStepPct, 1)) return true;
+  if (worse(stored.lowestBatteryV, next.lowestBatteryV, u.batteryStepV, -1)) return true;
+  if (minutesBucket(stored.minutesToWet) !== minutesBucket(next.minutesToWet)) return true;
+  if (sinceUpdateMs < u.latestEveryMs) return false;
+  return (
+    moved(stored.latestMarginK, next.latestMarginK, u.marginStepK) ||
+    moved(stored.latestRhPct, next.latestRhPct, u.rhStepPct) ||
+    moved(stored.latestBatteryV, next.latestBatteryV, u.batteryStepV)
+  );
+}
+
+/** A confirmed on/off condition with a hold in each direction. */
+export interface ThresholdState {
+  active: boolean;
+  /** First reading of the run arguing for the other state; also the start of an active spell. */
+  runSinceMs: number | null;
+  /** Start of the current active spell. */
+  sinceMs: number | null;
+  atMs: number;
+}
+
+/** `bad` argues for the alarm, `good` for clearing it, `band` for neither (the run ends). */
+export type Verdict = 'bad' | 'good' | 'band';
+
+export function stepThreshold(
+  state: ThresholdState | null,
+  atMs: number,
+  verdict: Verdict,
+  hold: { openHoldMs: number; clearHoldMs: number },
+): ThresholdState {
+  const current = state ?? { active: false, runSinceMs: null, sinceMs: null, atMs: -Infinity };
+  if (!(atMs > current.atMs)) return current;
+  const wanted = current.active ? 'good' : 'bad';
+  if (verdict !== wanted) return { ...current, runSinceMs: null, atMs };
+  const runSinceMs = current.runSinceMs ?? atMs;
+  const holdMs = current.active ? hold.clearHoldMs : hold.openHoldMs;
+  if (atMs - runSinceMs < holdMs) return { ...current, runSinceMs, atMs };
+  return current.active
+    ? { active: false, runSinceMs: null, sinceMs: null, atMs }
+    : { active: true, runSinceMs: null, sinceMs: runSinceMs, atMs };
+}
+
+export function humidVerdict(rhPct: number, limitPct: number): Verdict {
+  if (rhPct > limitPct) return 'bad';
+  return rhPct <= limitPct - ALARM_RULES.humid.bandPct ? 'good' : 'band';
+}
+
+export function batteryVerdict(batteryV: number): Verdict {
+  const { lowV, bandV } = ALARM_RULES.battery;
+  if (batteryV < lowV) return 'bad';
+  return batteryV >= lowV + bandV ? 'good' : 'band';
+}
+
+/** Dew risk: on while the confirmed level is close or wet or the trend warns; off after a hold. */
+export interface DewRiskState {
+  active: boolean;
+  sinceMs: number | null;
+  /** First reading since which the level has been dry (or unknown) and the trend quiet. */
+  quietSinceMs: number | null;
+  atMs: number;
+}
+
+export function stepDewRisk(
+  state: DewRiskState | null,
+  atMs: number,
+  level: Level,
+  minutesToWet: number | null,
+): DewRiskState {
+  const current = state ?? { active: false, sinceMs: null, quietSinceMs: null, atMs: -Infinity };
+  if (!(atMs > current.atMs)) return current;
+  if (level === 'close' || level === 'wet' || minutesToWet !== null) {
+    return {
+      active: true,
+      sinceMs: current.active ? current.sinceMs : atMs,
+      quietSinceMs: null,
+      atMs,
+    };
+  }
+  if (!current.active) return { ...current, atMs };
+  const quietSinceMs = current.quietSinceMs ?? atMs;
+  if (atMs - quietSinceMs >= ALARM_RULES.warningQuietMs) {
+    return { active: false, sinceMs: null, quietSinceMs: null, atMs };
+  }
+  return { ...current, quietSinceMs, atMs };
+}
+
+/** The median gap between a sensor's readings (any order); the default with fewer than two. */
+export function postingIntervalMs(readingTimesMs: readonly number[]): number {
+  const sorted = [...readingTimesMs].sort((a, b) => a - b);
+  const gaps: number[] = [];
+  for (let i = 1; i < sorted.length; i++) gaps.push(sorted[i]! - sorted[i - 1]!);
+  const positive = gaps.filter((g) => g > 0).sort((a, b) => a - b);
+  if (positive.length === 0) return ALARM_RULES.silent.defaultIntervalMs;
+  const mid = positive.length >> 1;
+  return positive.length % 2 === 1 ? positive[mid]! : (positive[mid - 1]! + positive[mid]!) / 2;
+}
+
+/** How long a sensor with this posting interval may stay quiet before it counts as silent. */
+export function silentAfterMs(intervalMs: number): number {
+  const { factor, minSilenceMs } = ALARM_RULES.silent;
+  return Math.max(factor * intervalMs, minSilenceMs);
+}

@@ -1,0 +1,47 @@
+/**
+ * The silent-sensor sweep as a pg-boss job: scheduled every minute (the silent rule's own
+ * resolution — no sensor counts as silent in under a minute), on a singleton queue so two
+ * instances never sweep at the same moment. A job may name one shop (`{ shopId }`).
+ */
+import type PgBoss from 'pg-boss';
+
+import type { AlarmEngine } from '../alarms';
+
+export const ALARM_SWEEP_QUEUE = 'alarm-silent-sweep';
+export const ALARM_SWEEP_CRON = '* * * * *';
+
+export interface AlarmSweepOptions {
+  now?: () => number;
+  log: (message: string) => void;
+  /** How often an idle worker asks for a job; pg-boss's default is 2 s. */
+  pollingIntervalSeconds?: number;
+}
+
+export async function scheduleAlarmSweep(
+  boss: PgBoss,
+  engine: Pick<AlarmEngine, 'sweepSilent'>,
+  options: AlarmSweepOptions,
+): Promise<void> {
+  const now = options.now ?? Date.now;
+  await boss.createQueue(ALARM_SWEEP_QUEUE, {
+    name: ALARM_SWEEP_QUEUE,
+    policy: 'singleton',
+    // A failed sweep is not retried: the next minute's sweep looks at everything again.
+    retryLimit: 0,
+    expireInSeconds: 120,
+  });
+  await boss.schedule(ALARM_SWEEP_QUEUE, ALARM_SWEEP_CRON, {});
+  await boss.work<{ shopId?: unknown }>(
+    ALARM_SWEEP_QUEUE,
+    { pollingIntervalSeconds: options.pollingIntervalSeconds ?? 2 },
+    async (jobs) => {
+      for (const job of jobs) {
+        const shopId = typeof job.data?.shopId === 'string' ? job.data.shopId : undefined;
+        const outcome = await engine.sweepSilent({ nowMs: now(), shopId });
+        if (outcome.opened + outcome.cleared > 0) {
+          options.log(`alarm sweep: ${outcome.opened} silent opened, ${outcome.cleared} cleared`);
+        }
+      }
+    },
+  );
+}

@@ -1,0 +1,3 @@
+/** The public surface of server/jobs: the pg-boss runner and the jobs it runs. */
+export { ALARM_SWEEP_CRON, ALARM_SWEEP_QUEUE, scheduleAlarmSweep } from './alarmSweep';
+export { startJobRunner, type JobRunnerOptions } from './runner';

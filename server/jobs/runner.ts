@@ -1,0 +1,35 @@
+/**
+ * Scheduled jobs run through pg-boss in our own PostgreSQL (its tables live in their own
+ * schema, created and migrated by pg-boss on start). Every server instance starts a runner;
+ * pg-boss keeps the cron clock and the job queue in the database, so a schedule fires once per
+ * slot however many instances run, and a singleton queue never runs two of its jobs at once.
+ */
+import PgBoss from 'pg-boss';
+
+export interface JobRunnerOptions {
+  databaseUrl: string;
+  log: (message: string) => void;
+  /** PostgreSQL schema for pg-boss's tables. */
+  schema?: string;
+  /** How often pg-boss checks the cron schedules (1–45 s); its default is 30 s. */
+  cronMonitorIntervalSeconds?: number;
+}
+
+export async function startJobRunner(options: JobRunnerOptions): Promise<PgBoss> {
+  const boss = new PgBoss({
+    connectionString: options.databaseUrl,
+    schema: options.schema ?? 'pgboss',
+    // Polling, cron and maintenance need few connections; the app's pool keeps the rest.
+    max: 3,
+    ...(options.cronMonitorIntervalSeconds
+      ? {
+          cronMonitorIntervalSeconds: options.cronMonitorIntervalSeconds,
+          cronWorkerIntervalSeconds: options.cronMonitorIntervalSeconds,
+        }
+      : {}),
+  });
+  // A lost connection or a failed job is reported here; pg-boss retries on its own.
+  boss.on('error', (err) => options.log(`jobs: ${err.message}`));
+  await boss.start();
+  return boss;
+}
