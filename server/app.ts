@@ -11,6 +11,7 @@ import type pg from 'pg';
 
 import type { Db } from '@/db';
 
+import type { AlarmEngine } from './alarms';
 import { authorize } from './auth/middleware';
 import { createRateLimits, DEFAULT_RATE_LIMITS, type RateLimitConfig } from './auth/rateLimits';
 import type { RateLimitOptions } from './auth/sensorRateLimit';
@@ -20,6 +21,7 @@ import type { SurfaceEstimator } from './readings/surfaceEstimates';
 import type { ReadingWriter } from './readings/writer';
 import { errorHandler, notFound } from './errors';
 import { outboxRouter, type Mailer, type Outbox } from './mail';
+import { alarmsRouter } from './routes/alarms';
 import { authRouter } from './routes/auth';
 import { healthRouter } from './routes/health';
 import { ingestRouter } from './routes/ingest';
@@ -38,6 +40,8 @@ export interface AppDeps {
   tokens: SensorTokenCache;
   writer: ReadingWriter;
   estimator: SurfaceEstimator;
+  /** Judges stored readings and opens, updates and clears alarms; omitted, no alarms open. */
+  alarms?: AlarmEngine;
   /** Per-sensor request limit of the ingest route; the default suits real sensors. */
   sensorRate?: RateLimitOptions;
   mailer: Mailer;
@@ -89,6 +93,7 @@ export function createApp(deps: AppDeps): express.Express {
   api.use('/shops/:shopId/zones/:zoneId/readings', readingsRouter(db, now));
   api.use('/shops/:shopId/zones', zonesRouter(db, tokens));
   api.use('/shops/:shopId/sensors', sensorsRouter(db, tokens));
+  api.use('/shops/:shopId/alarms', alarmsRouter(db, now));
   api.use('/shops/:shopId', membersRouter(db));
   api.use(invitationsRouter(people));
   api.use(notFound);
