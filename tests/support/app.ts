@@ -5,6 +5,7 @@ import { randomUUID } from 'node:crypto';
 import request from 'supertest';
 
 import { createDatabase } from '@/db';
+import { createAlarmEngine } from '@/server/alarms';
 import { createApp } from '@/server/app';
 import { createSensorTokenCache } from '@/server/auth/sensorTokens';
 import { createSessionSigner } from '@/server/auth/session';
@@ -54,12 +55,14 @@ export function makeTestApp(options: TestAppOptions = {}) {
   const tokens = createSensorTokenCache(database.db, { listener });
   const writer = createReadingWriter(database.pool);
   const estimator = createSurfaceEstimator(database.db);
+  const alarms = createAlarmEngine({ db: database.db });
   const app = createApp({
     ...database,
     sessions,
     tokens,
     writer,
     estimator,
+    alarms,
     webDir: options.webDir,
     mailer,
     publicUrl: TEST_PUBLIC_URL,
@@ -67,7 +70,7 @@ export function makeTestApp(options: TestAppOptions = {}) {
     now: options.now,
     log: () => {},
   });
-  return { app, ...database, sessions, tokens, writer, estimator, listener, outbox, smtp };
+  return { app, ...database, sessions, tokens, writer, estimator, alarms, listener, outbox, smtp };
 }
 
 export type TestApp = ReturnType<typeof makeTestApp>;
