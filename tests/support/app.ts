@@ -21,6 +21,10 @@ export interface TestAppOptions {
   webDir?: string;
   /** Start a LISTEN connection, as a server instance does (live hub, token revocations). */
   listen?: boolean;
+  /** Ingest limit per sensor; tests that post hundreds of requests from one sensor raise it. */
+  sensorRate?: { ratePerS: number; burst: number };
+  /** Another database than the shared test one (fault tests stop and restart their own). */
+  databaseUrl?: string;
   /** The app's clock (sessions, link expiry); tests of expiry move it. */
   now?: () => number;
   /** Defaults to TEST_RATE_LIMITS: every test request comes from 127.0.0.1. */
@@ -40,7 +44,8 @@ export const TEST_RATE_LIMITS: RateLimitConfig = {
 };
 
 export function makeTestApp(options: TestAppOptions = {}) {
-  const database = createDatabase(process.env.DATABASE_URL!, { max: 5 });
+  const url = options.databaseUrl ?? process.env.DATABASE_URL!;
+  const database = createDatabase(url, { max: 5 });
   const sessions = createSessionSigner(TEST_SECRET, false, options.now);
   // A real SMTP server on a free loopback port; what it receives lands in `outbox`.
   const outbox = createOutbox();
@@ -49,9 +54,7 @@ export function makeTestApp(options: TestAppOptions = {}) {
     from: 'Drybench <no-reply@drybench.example>',
     target: smtp.then((s) => ({ host: s.host, port: s.port, requireTls: false })),
   });
-  const listener = options.listen
-    ? startNotificationListener(process.env.DATABASE_URL!)
-    : undefined;
+  const listener = options.listen ? startNotificationListener(url) : undefined;
   const tokens = createSensorTokenCache(database.db, { listener });
   const writer = createReadingWriter(database.pool);
   const estimator = createSurfaceEstimator(database.db);
@@ -64,6 +67,7 @@ export function makeTestApp(options: TestAppOptions = {}) {
     estimator,
     alarms,
     webDir: options.webDir,
+    sensorRate: options.sensorRate,
     mailer,
     publicUrl: TEST_PUBLIC_URL,
     rateLimits: options.rateLimits ?? TEST_RATE_LIMITS,

@@ -1,5 +1,5 @@
 // The whole server as `npm start` runs it — Express app, live hub, exported web app — on a
-// free loopback port, over the test database, with the demo shop seeded.
+// free loopback port, over the test database (or another, for fault tests).
 import http from 'node:http';
 import type { AddressInfo } from 'node:net';
 
@@ -8,11 +8,11 @@ import { hashPassword } from '@/server/auth/password';
 import { hashToken, newSensorToken } from '@/server/auth/sensorTokens';
 import { startLiveHub } from '@/server/live/hub';
 
-import { makeTestApp } from './app';
+import { makeTestApp, type TestAppOptions } from './app';
 
-export async function startLiveServer() {
-  const t = makeTestApp({ webDir: 'dist', listen: true });
-  const demo = await seedDemo(t.db, { hashPassword, newToken: newSensorToken, hashToken });
+/** One server instance; several of them on one database behave as behind a load balancer. */
+export async function startInstance(options: TestAppOptions = {}) {
+  const t = makeTestApp({ webDir: 'dist', ...options, listen: true });
   const hub = startLiveHub({ listener: t.listener!, db: t.db, sessions: t.sessions });
   await t.listener!.ready;
   const server = http.createServer(t.app);
@@ -21,7 +21,6 @@ export async function startLiveServer() {
   const { port } = server.address() as AddressInfo;
   return {
     baseUrl: `http://127.0.0.1:${port}`,
-    demo,
     app: t,
     hub,
     async close() {
@@ -32,6 +31,17 @@ export async function startLiveServer() {
       await t.pool.end();
     },
   };
+}
+
+/** An instance with the demo shop seeded (its sensor tokens re-issued), for browser tests. */
+export async function startLiveServer() {
+  const instance = await startInstance();
+  const demo = await seedDemo(instance.app.db, {
+    hashPassword,
+    newToken: newSensorToken,
+    hashToken,
+  });
+  return { ...instance, demo };
 }
 
 export const CHROMIUM_ARGS = [
