@@ -1,0 +1,228 @@
+// The tenant matrix, generated from the policy table (server/auth/policy.ts): every API route
+// × {owner, member, viewer, a member of another shop, anonymous} → the status the table
+// implies, and no response body carrying the other shop's ids, names or people. A route added
+// to the table joins the matrix by itself; SAMPLES only make the allowed cases more exact.
+import { randomUUID } from 'node:crypto';
+
+import request from 'supertest';
+import { afterAll, beforeAll, describe, expect, it } from 'vitest';
+
+import { POLICY, ROLE_RANK, isShopRole, type PolicyRow } from '@/server/auth/policy';
+
+import { makeTestApp, type TestApp } from '../support/app';
+import { ACTORS, makeWorld, secretsOf, type Actor, type World } from '../support/tenants';
+
+let t: TestApp;
+beforeAll(() => {
+  t = makeTestApp();
+});
+afterAll(() => t.pool.end());
+
+const key = (row: PolicyRow) => `${row.method} ${row.path}`;
+const fresh = () => `${randomUUID().slice(0, 8)}@matrix.example`;
+
+interface Sample {
+  body?: (w: World) => object;
+  /** Status for an actor the policy lets through (`default` for all of them). */
+  status?: Partial<Record<Actor | 'default', number>>;
+}
+
+// What an allowed caller sends and gets. Actors go from least to most privileged on one fresh
+// world per route, so e.g. the viewer and member have left before the last owner tries to.
+const SAMPLES: Record<string, Sample> = {
+  'GET /health': { status: { default: 200 } },
+  'POST /auth/sign-up': {
+    body: () => ({ email: fresh(), password: 'long enough pass', name: 'New' }),
+    status: { default: 201 },
+  },
+  'POST /auth/sign-in': {
+    body: () => ({ email: fresh(), password: 'wrong password' }),
+    status: { default: 401 },
+  },
+  'POST /auth/sign-out': { status: { default: 204 } },
+  'POST /auth/password-reset': { body: () => ({ email: fresh() }), status: { default: 202 } },
+  'POST /auth/password-reset/confirm': {
+    body: () => ({ token: 'x'.repeat(43), password: 'long enough pass' }),
+    status: { default: 410 },
+  },
+  'GET /me': { status: { default: 200 } },
+  'PATCH /me': { body: () => ({ unitPref: 'F' }), status: { default: 200 } },
+  'POST /me/password': {
+    body: () => ({ currentPassword: 'not it at all', newPassword: 'another long one' }),
+    status: { default: 400 },
+  },
+  'POST /shops': {
+    body: () => ({ name: 'Fresh shop', timeZone: 'America/Chicago' }),
+    status: { default: 201 },
+  },
+  'GET /shops/:shopId': { status: { default: 200 } },
+  'PATCH /shops/:shopId': { body: () => ({ timeZone: 'Europe/Dublin' }), status: { default: 200 } },
+  'DELETE /shops/:shopId': { body: (w) => ({ confirmName: w.a.name }), status: { default: 204 } },
+  'GET /shops/:shopId/zones': { status: { default: 200 } },
+  'POST /shops/:shopId/zones': { body: () => ({ name: 'Spray booth' }), status: { default: 201 } },
+  'PATCH /shops/:shopId/zones/:zoneId': {
+    body: () => ({ cautionK: 4, wetK: 1.5 }),
+    status: { default: 200 },
+  },
+  'GET /shops/:shopId/zones/:zoneId/readings': { status: { default: 200 } },
+  'GET /shops/:shopId/sensors': { status: { default: 200 } },
+  'POST /shops/:shopId/sensors': {
+    body: (w) => ({ name: 'New probe', zoneId: w.a.zone.id }),
+    status: { default: 201 },
+  },
+  'PATCH /shops/:shopId/sensors/:sensorId': {
+    body: () => ({ name: 'Renamed probe' }),
+    status: { default: 200 },
+  },
+  'POST /shops/:shopId/sensors/:sensorId/token': { status: { default: 201 } },
+  'DELETE /shops/:shopId/sensors/:sensorId/token': { status: { default: 204 } },
+  'GET /shops/:shopId/members': { status: { default: 200 } },
+  'PATCH /shops/:shopId/members/:userId': {
+    body: () => ({ role: 'member' }),
+    status: { default: 200 },
+  },
+  'DELETE /shops/:shopId/members/:userId': { status: { default: 204 } },
+  // The viewer and the member leave; the owner, then the last owner, may not.
+  'DELETE /shops/:shopId/membership': { status: { default: 204, owner: 409 } },
+  'GET /shops/:shopId/invitations': { status: { default: 200 } },
+  'POST /shops/:shopId/invitations': {
+    body: () => ({ email: fresh(), role: 'viewer' }),
+    status: { default: 201 },
+  },
+  'DELETE /shops/:shopId/invitations/:invitationId': { status: { default: 204 } },
+  'GET /invitations/:token': { status: { default: 200 } },
+  // The anonymous caller accepts first with a new account; then the link is spent.
+  'POST /invitations/:token/accept': {
+    body: () => ({ name: 'Invitee', password: 'long enough pass' }),
+    status: { default: 404, anonymous: 201 },
+  },
+  'POST /shops/:shopId/alarms/:alarmId/ack': { body: () => ({ note: 'Wiped and covered' }) },
+};
+
+/** The path with the world's ids; the target of /members/:userId is the viewer. */
+function pathFor(row: PolicyRow, w: World, shop: World['a'] | World['b'] = w.a): string {
+  const values: Record<string, string> = {
+    shopId: shop.id,
+    zoneId: w.a.zone.id,
+    sensorId: w.a.sensor.id,
+    userId: w.viewer.id,
+    invitationId: w.invitation.id,
+    token: w.invitationToken,
+    alarmId: randomUUID(),
+  };
+  return row.path.replace(/:(\w+)/g, (_m, name: string) => {
+    const value = values[name];
+    if (!value) throw new Error(`no value for :${name} in ${row.path}; add it to pathFor`);
+    return value;
+  });
+}
+
+function cookieOf(w: World, actor: Actor): string | null {
+  return actor === 'anonymous' ? null : w[actor].cookie;
+}
+
+async function call(row: PolicyRow, path: string, cookie: string | null, body?: object) {
+  const method = row.method.toLowerCase() as 'get' | 'post' | 'patch' | 'put' | 'delete';
+  let req = request(t.app)[method](`/api/v1${path}`);
+  if (cookie) req = req.set('Cookie', cookie);
+  return body ? req.send(body) : req;
+}
+
+type Outcome = { status: number; code?: string };
+
+/** What the table says for this actor: a refusal, or null when the policy lets them through. */
+function refusal(row: PolicyRow, actor: Actor): Outcome | null {
+  if (row.access === 'anyone') return null;
+  if (row.access === 'sensor') return { status: 401, code: 'missing_token' };
+  if (actor === 'anonymous') return { status: 401, code: 'not_signed_in' };
+  if (row.access === 'user') return null;
+  if (actor === 'stranger') return { status: 404, code: 'shop_not_found' };
+  if (isShopRole(row.access) && ROLE_RANK[actor] < ROLE_RANK[row.access]) {
+    return { status: 403, code: 'forbidden' };
+  }
+  return null;
+}
+
+const POLICY_REFUSALS = new Set(['not_signed_in', 'forbidden', 'shop_not_found']);
+
+describe('tenant matrix (generated from server/auth/policy.ts)', () => {
+  it('has a sample value for every path parameter in the table', () => {
+    const params = new Set(
+      POLICY.flatMap((row) => [...row.path.matchAll(/:(\w+)/g)].map((m) => m[1])),
+    );
+    expect([...params].sort()).toEqual(
+      ['alarmId', 'invitationId', 'sensorId', 'shopId', 'token', 'userId', 'zoneId'].sort(),
+    );
+  });
+
+  // The table is the rule, so the matrix cannot catch a wrong row; this pins the one decision
+  // a slip would cost most: changing a shop's setup is for owners (DESIGN.md's roles). A new
+  // write route for members or viewers must be added here on purpose.
+  it('keeps every write under /shops/:shopId for owners, except the listed ones', () => {
+    const belowOwner = POLICY.filter(
+      (row) =>
+        row.method !== 'GET' && row.path.startsWith('/shops/:shopId') && row.access !== 'owner',
+    ).map(key);
+    expect(belowOwner.sort()).toEqual([
+      'DELETE /shops/:shopId/membership',
+      'POST /shops/:shopId/alarms/:alarmId/ack',
+    ]);
+  });
+
+  it.each(POLICY.map((row) => [key(row), row] as const))('%s', async (_name, row) => {
+    const w = await makeWorld(t);
+    const secrets = secretsOf(w);
+    const sample = SAMPLES[key(row)] ?? {};
+    for (const actor of ACTORS) {
+      const res = await call(row, pathFor(row, w), cookieOf(w, actor), sample.body?.(w));
+      const where = `${key(row)} as ${actor}: ${res.status} ${res.text.slice(0, 200)}`;
+      expect(res.status, where).not.toBe(500);
+      const refused = refusal(row, actor);
+      if (refused) {
+        expect({ status: res.status, code: res.body?.error?.code }, where).toEqual(refused);
+      } else {
+        expect(POLICY_REFUSALS.has(res.body?.error?.code), where).toBe(false);
+        const wanted = sample.status?.[actor] ?? sample.status?.default;
+        if (wanted !== undefined) expect(res.status, where).toBe(wanted);
+      }
+      // Leaks: nobody outside shop A sees its data (the invitation link's holder excepted:
+      // the token is the key), and nobody but the stranger sees shop B's.
+      const text = res.text;
+      const outsideA = actor === 'anonymous' || actor === 'stranger';
+      if (outsideA && !row.path.includes(':token')) {
+        for (const secret of secrets.a) expect(text, where).not.toContain(secret);
+      }
+      if (actor !== 'stranger') {
+        for (const secret of secrets.b) expect(text, where).not.toContain(secret);
+      }
+    }
+  });
+
+  // Shop B's owner naming shop B in the path but one of shop A's zones, sensors, members or
+  // invitations: the resource is not in their shop, so it does not exist for them.
+  const nested = POLICY.filter(
+    (row) => isShopRole(row.access) && /:(zoneId|sensorId|userId|invitationId)/.test(row.path),
+  );
+  it.each(nested.map((row) => [key(row), row] as const))(
+    "%s with another shop's id answers 404 and changes nothing",
+    async (_name, row) => {
+      const w = await makeWorld(t);
+      const sample = SAMPLES[key(row)] ?? {};
+      const res = await call(row, pathFor(row, w, w.b), w.stranger.cookie, sample.body?.(w));
+      expect(res.status, res.text).toBe(404);
+      for (const secret of secretsOf(w).a) expect(res.text).not.toContain(secret);
+      const zones = await request(t.app)
+        .get(`/api/v1/shops/${w.a.id}/zones`)
+        .set('Cookie', w.owner.cookie)
+        .expect(200);
+      expect(zones.body.zones).toEqual([
+        expect.objectContaining({ id: w.a.zone.id, name: w.a.zone.name, cautionK: 3, wetK: 1 }),
+      ]);
+      const members = await request(t.app)
+        .get(`/api/v1/shops/${w.a.id}/members`)
+        .set('Cookie', w.owner.cookie)
+        .expect(200);
+      expect(members.body.members).toHaveLength(3);
+    },
+  );
+});
