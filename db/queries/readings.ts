@@ -236,3 +236,56 @@ export async function airSamplesOfSensor(db: Db, sensorId: string, from: Date, t
     limit 5000`);
   return result.rows.map((r) => ({ atMs: new Date(r.at).getTime(), airC: Number(r.air_c) }));
 }
+
+/**
+ * For a reconnecting live client: per zone of these shops, the newest reading after `since`
+ * and how many arrived, walked through the (zone_id, at) index.
+ */
+export async function latestPerZoneSince(db: Db, shopIds: string[], since: Date) {
+  if (shopIds.length === 0) return [];
+  const result = await db.execute<{
+    shop_id: string;
+    zone_id: string;
+    sensor_id: string;
+    at: Date | string;
+    air_c: number;
+    rh_pct: number;
+    surface_c: number | null;
+    dew_point_c: number | null;
+    margin_k: number | null;
+    emc_pct: number | null;
+    level: Level;
+    surface_source: 'probe' | 'estimate' | null;
+    n: number;
+  }>(sql`
+    select z.shop_id, z.id as zone_id, r.sensor_id, r.at, r.air_c, r.rh_pct, r.surface_c,
+           r.dew_point_c, r.margin_k, r.emc_pct, r.level, r.surface_source, c.n
+    from zones z
+    join lateral (
+      select * from readings where zone_id = z.id and at > ${since} order by at desc limit 1
+    ) r on true
+    join lateral (
+      select count(*)::int as n from readings where zone_id = z.id and at > ${since}
+    ) c on true
+    where z.shop_id in (${sql.join(
+      shopIds.map((id) => sql`${id}::uuid`),
+      sql`, `,
+    )})`);
+  return result.rows.map((r) => ({
+    shopId: r.shop_id,
+    zoneId: r.zone_id,
+    sensorId: r.sensor_id,
+    count: r.n,
+    reading: {
+      at: new Date(r.at).toISOString(),
+      air: Number(r.air_c),
+      rh: Number(r.rh_pct),
+      surface: r.surface_c === null ? null : Number(r.surface_c),
+      dewPoint: r.dew_point_c === null ? null : Number(r.dew_point_c),
+      margin: r.margin_k === null ? null : Number(r.margin_k),
+      emc: r.emc_pct === null ? null : Number(r.emc_pct),
+      level: r.level,
+      surfaceSource: r.surface_source,
+    },
+  }));
+}

@@ -20,6 +20,7 @@ import { resolveSession } from '../auth/sessionState';
 
 import type { NotificationListener } from './listener';
 import type { LiveMessage } from './messages';
+import { missedMessages } from './replay';
 
 export const LIVE_PATH = '/api/v1/live';
 const HEARTBEAT_MS = 30_000;
@@ -143,7 +144,22 @@ export function startLiveHub(deps: {
       ws.on('close', () => clients.delete(client));
       ws.on('error', () => ws.terminate());
       ws.send(JSON.stringify({ type: 'hello', shopIds: [...shopIds] }));
+      const sinceMs = Date.parse(url.searchParams.get('since') ?? '');
+      if (Number.isFinite(sinceMs)) void replay(client, sinceMs);
     });
+  }
+
+  /** Sends a reconnecting client what it missed; a failure only means it refetches itself. */
+  async function replay(client: Client, sinceMs: number) {
+    try {
+      const missed = await missedMessages(deps.db, [...client.shopIds], sinceMs, Date.now());
+      for (const message of missed) {
+        if (client.socket.readyState !== WebSocket.OPEN) return;
+        if (client.shopIds.has(message.shopId)) client.socket.send(JSON.stringify(message));
+      }
+    } catch {
+      // The database is away; the client's own refetch on reconnect covers the gap.
+    }
   }
 
   return {

@@ -215,7 +215,11 @@ describe('the ingest bad-input corpus', () => {
     if (c.headers?.['content-encoding'] === 'gzip' && 'stored' in c.expect) body = gzipSync(body);
     const headers: Record<string, string> = { authorization: `Bearer ${token}`, ...c.headers };
     if (c.contentType !== null) headers['content-type'] = c.contentType ?? 'application/json';
-    const response = await fetch(`${baseUrl}/api/v1/ingest`, { method: 'POST', headers, body });
+    const response = await fetch(`${baseUrl}/api/v1/ingest`, {
+      method: 'POST',
+      headers,
+      body: new Uint8Array(body),
+    });
     const text = await response.text();
     const res = { status: response.status, text, body: JSON.parse(text) };
 

@@ -30,9 +30,12 @@ async function sessionCookie(baseUrl: string, email: string, password: string): 
 function openSocket(
   baseUrl: string,
   cookie: string,
+  query = '',
 ): Promise<{ ws: WebSocket; messages: unknown[] }> {
   const messages: unknown[] = [];
-  const ws = new WebSocket(`${baseUrl.replace('http', 'ws')}/api/v1/live`, { headers: { cookie } });
+  const ws = new WebSocket(`${baseUrl.replace('http', 'ws')}/api/v1/live${query}`, {
+    headers: { cookie },
+  });
   ws.on('message', (data) => messages.push(JSON.parse(String(data))));
   return new Promise((resolve, reject) => {
     ws.on('open', () => resolve({ ws, messages }));
@@ -123,6 +126,39 @@ describe('two instances on one database', () => {
       await new Promise((r) => setTimeout(r, 20));
     }
     expect(status).toBe(401);
+  });
+
+  it('sends a reconnecting client, per zone, the newest reading it missed and how many', async () => {
+    const o = await ownerWithSensor(a.app.app);
+    const cookie = await sessionCookie(b.baseUrl, o.email, o.password);
+    const lastSeen = new Date(Date.now() - 10 * 60_000);
+    const missed = [3, 2, 1].map((minutesAgo) => ({
+      at: new Date(Date.now() - minutesAgo * 60_000).toISOString(),
+      air: 20 - minutesAgo,
+      rh: 50,
+    }));
+    await request(a.baseUrl)
+      .post('/api/v1/ingest')
+      .set('authorization', `Bearer ${o.token}`)
+      .send({ readings: missed })
+      .expect(202);
+    const { ws, messages } = await openSocket(
+      b.baseUrl,
+      cookie,
+      `?since=${lastSeen.toISOString()}`,
+    );
+    try {
+      const replayed = await waitFor(
+        () =>
+          messages.find((m) => (m as { type?: string }).type === 'reading') as
+            { zoneId: string; count: number; reading: { at: string; air: number } } | undefined,
+        2000,
+      );
+      expect(replayed).toMatchObject({ zoneId: o.zoneId, count: 3 });
+      expect(replayed.reading).toMatchObject({ at: missed[2]!.at, air: 19 });
+    } finally {
+      ws.close();
+    }
   });
 
   it('refuses a WebSocket without a session', async () => {
