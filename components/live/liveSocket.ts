@@ -19,12 +19,17 @@ export function openLiveSocket(options: LiveSocketOptions): () => void {
   let attempt = 0;
   let everOpened = false;
   let stopped = false;
+  // The server replays what arrived after `since`; a minute of slack covers clock skew.
+  let lastMessageAtMs: number | null = null;
+  const REPLAY_SLACK_MS = 60_000;
 
   const connect = () => {
     if (stopped) return;
     options.onStatus('connecting');
     let opened = false;
-    const current = new WebSocket(options.url);
+    const since =
+      lastMessageAtMs === null ? '' : new Date(lastMessageAtMs - REPLAY_SLACK_MS).toISOString();
+    const current = new WebSocket(since ? `${options.url}?since=${since}` : options.url);
     socket = current;
     current.onopen = () => {
       opened = true;
@@ -33,7 +38,10 @@ export function openLiveSocket(options: LiveSocketOptions): () => void {
       if (everOpened) options.onReconnect();
       everOpened = true;
     };
-    current.onmessage = (event) => options.onMessage(event.data);
+    current.onmessage = (event) => {
+      lastMessageAtMs = Date.now();
+      options.onMessage(event.data);
+    };
     current.onclose = () => {
       if (socket !== current) return;
       socket = null;
