@@ -1,0 +1,116 @@
+// The live hub applies the same rules as the HTTP routes: a removed member stops receiving a
+// shop's readings as soon as the removal commits, a signed-out session's socket closes, and a
+// page on another site cannot open a socket with the cookie.
+import http from 'node:http';
+import type { AddressInfo } from 'node:net';
+
+import request from 'supertest';
+import { afterAll, beforeAll, describe, expect, it } from 'vitest';
+import WebSocket from 'ws';
+
+import { SESSION_COOKIE } from '@/server/auth/session';
+import { startLiveHub } from '@/server/live/hub';
+
+import { makeTestApp, ownerWithSensor, signUp, type TestApp } from '../support/app';
+import { linkToken, waitForMail } from '../support/mail';
+
+let t: TestApp;
+let server: http.Server;
+let hub: ReturnType<typeof startLiveHub>;
+let wsUrl: string;
+
+beforeAll(async () => {
+  t = makeTestApp({ listen: true });
+  hub = startLiveHub({ listener: t.listener!, db: t.db, sessions: t.sessions });
+  await t.listener!.ready;
+  server = http.createServer(t.app);
+  hub.attach(server);
+  await new Promise<void>((resolve) => server.listen(0, '127.0.0.1', resolve));
+  wsUrl = `ws://127.0.0.1:${(server.address() as AddressInfo).port}/api/v1/live`;
+});
+afterAll(async () => {
+  await hub.close();
+  await t.listener!.close();
+  server.closeAllConnections();
+  await new Promise((resolve) => server.close(resolve));
+  await t.pool.end();
+});
+
+interface Socket {
+  ws: WebSocket;
+  messages: { type: string; shopIds?: string[] }[];
+  closed: Promise<number>;
+}
+
+/** A fresh session of this account, as the Cookie header a browser would send. */
+async function cookieOf(person: { email: string; password: string }): Promise<string> {
+  const res = await request(t.app).post('/api/v1/auth/sign-in').send(person).expect(200);
+  const raw = ([] as string[]).concat(res.headers['set-cookie'] ?? []);
+  return raw.find((c) => c.startsWith(`${SESSION_COOKIE}=`))!.split(';')[0]!;
+}
+
+function open(cookie: string, origin?: string): Promise<Socket> {
+  return new Promise((resolve, reject) => {
+    const ws = new WebSocket(wsUrl, { headers: { cookie, ...(origin ? { origin } : {}) } });
+    const messages: Socket['messages'] = [];
+    const closed = new Promise<number>((r) => ws.on('close', (code) => r(code)));
+    ws.on('message', (data) => messages.push(JSON.parse(String(data))));
+    ws.on('open', () => resolve({ ws, messages, closed }));
+    ws.on('unexpected-response', (_req, res) => reject(new Error(`refused ${res.statusCode}`)));
+    ws.on('error', reject);
+  });
+}
+
+async function until(check: () => boolean, timeoutMs = 2000) {
+  const deadline = Date.now() + timeoutMs;
+  while (!check()) {
+    if (Date.now() > deadline) throw new Error('timed out');
+    await new Promise((r) => setTimeout(r, 20));
+  }
+}
+
+describe('live hub access', () => {
+  it('stops sending a shop to a member once removed', async () => {
+    const o = await ownerWithSensor(t.app);
+    const m = await signUp(t.app, 'Live Member');
+    await o.agent
+      .post(`/api/v1/shops/${o.shopId}/invitations`)
+      .send({ email: m.email, role: 'member' })
+      .expect(201);
+    const token = linkToken(await waitForMail(t.outbox, m.email), 'invite');
+    await m.agent.post(`/api/v1/invitations/${token}/accept`).expect(200);
+
+    const socket = await open(await cookieOf(m));
+    const readings = () => socket.messages.filter((x) => x.type === 'reading').length;
+    const post = () =>
+      request(t.app)
+        .post('/api/v1/ingest')
+        .set('authorization', `Bearer ${o.token}`)
+        .send({ air: 19, rh: 55, surface: 15 })
+        .expect(202);
+    await post();
+    await until(() => readings() === 1);
+
+    await o.agent.delete(`/api/v1/shops/${o.shopId}/members/${m.user.id}`).expect(204);
+    await until(() => socket.messages.some((x) => x.type === 'access'));
+    expect(socket.messages.at(-1)).toEqual({ type: 'access', shopIds: [] });
+    await post();
+    await new Promise((r) => setTimeout(r, 300));
+    expect(readings()).toBe(1);
+    socket.ws.close();
+  });
+
+  it('closes the socket of a session that signed out', async () => {
+    const o = await ownerWithSensor(t.app);
+    const cookie = await cookieOf(o);
+    const socket = await open(cookie);
+    await o.agent.post('/api/v1/auth/sign-out').expect(204);
+    expect(await socket.closed).toBe(4401);
+    await expect(open(cookie)).rejects.toThrow('refused 401');
+  });
+
+  it('refuses a socket opened from another site', async () => {
+    const o = await ownerWithSensor(t.app);
+    await expect(open(await cookieOf(o), 'http://evil.example')).rejects.toThrow('refused 403');
+  });
+});
