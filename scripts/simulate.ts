@@ -1,5 +1,6 @@
 // Runs the demo sensors against a running server.
 //   tsx scripts/simulate.ts [--url http://127.0.0.1:8080] [--interval 5] [--speed 1] [--backfill 12]
+//                           [--outage 10/1]   (every 10 min, 1 min without network)
 import fs from 'node:fs';
 import { parseArgs } from 'node:util';
 
@@ -15,8 +16,17 @@ const { values } = parseArgs({
     speed: { type: 'string', default: '1' },
     backfill: { type: 'string', default: '12' },
     tokens: { type: 'string', default: '.data/demo-sensors-dev.json' },
+    // e.g. --outage 10/1: every 10 minutes the sensors lose the network for 1 minute.
+    outage: { type: 'string', default: '' },
   },
 });
+
+function parseOutage(text: string) {
+  const match = /^(\d+(?:\.\d+)?)\/(\d+(?:\.\d+)?)$/.exec(text);
+  if (!text) return null;
+  if (!match) throw new Error('--outage takes EVERY/FOR in minutes, e.g. 10/1');
+  return { everyMs: Number(match[1]) * 60_000, forMs: Number(match[2]) * 60_000 };
+}
 
 const sensors = JSON.parse(fs.readFileSync(values.tokens, 'utf8')) as DemoSensorToken[];
 const simulator = startSimulator({
@@ -25,6 +35,7 @@ const simulator = startSimulator({
   intervalMs: Number(values.interval) * 1000,
   speed: Number(values.speed),
   backfillHours: Number(values.backfill),
+  outage: parseOutage(values.outage),
   utcOffsetHours: getTimezoneOffset(DEMO_SHOP.timeZone, new Date()) / 3_600_000,
   log: (line) => console.log(line),
 });

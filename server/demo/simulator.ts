@@ -19,6 +19,11 @@ export interface SimulatorOptions {
   /** Model time runs this many times faster than the clock (readings stay stamped "now"). */
   speed: number;
   backfillHours: number;
+  /**
+   * A simulated network outage: every `everyMs` the sensors stop reaching the server for
+   * `forMs`, keep their readings, and send the backlog in batches when back. Null for none.
+   */
+  outage: { everyMs: number; forMs: number } | null;
   utcOffsetHours: number;
   log: (line: string) => void;
 }
@@ -67,6 +72,11 @@ export function startSimulator(options: SimulatorOptions): { stop(): Promise<voi
     };
   }
 
+  const offline = (nowMs: number) =>
+    options.outage !== null &&
+    (nowMs - startedAtMs) % options.outage.everyMs > options.outage.everyMs - options.outage.forMs;
+  let wasOffline = false;
+
   async function flush(state: (typeof states)[number]): Promise<void> {
     while (state.queue.length > 0 && !stopped) {
       const batch = state.queue.slice(0, 1000);
@@ -102,11 +112,21 @@ export function startSimulator(options: SimulatorOptions): { stop(): Promise<voi
 
   const timer = setInterval(() => {
     const nowMs = Date.now();
+    const isOffline = offline(nowMs);
+    if (isOffline !== wasOffline) {
+      const waiting = states.reduce((n, s) => n + s.queue.length, 0);
+      options.log(
+        isOffline
+          ? 'demo sensors: simulated outage, queueing readings'
+          : `demo sensors: back online, sending ${waiting} queued readings`,
+      );
+      wasOffline = isOffline;
+    }
     running = running.then(() =>
       Promise.all(
         states.map((state) => {
           state.queue.push(sample(state, nowMs, Math.max(modelTime(nowMs), state.lastModelMs)));
-          return flush(state);
+          return isOffline ? undefined : flush(state);
         }),
       ).then(() => undefined),
     );
