@@ -6,10 +6,12 @@ import http from 'node:http';
 
 import { createDatabase } from '@/db';
 
+import { createAlarmEngine } from './alarms';
 import { createApp } from './app';
 import { createSensorTokenCache } from './auth/sensorTokens';
 import { createSessionSigner } from './auth/session';
 import { readConfig } from './config';
+import { scheduleAlarmSweep, startJobRunner } from './jobs';
 import { startLiveHub } from './live/hub';
 import { startNotificationListener } from './live/listener';
 import { startMail } from './mail';
@@ -24,6 +26,7 @@ async function main() {
   const tokens = createSensorTokenCache(db, { listener });
   const writer = createReadingWriter(pool);
   const estimator = createSurfaceEstimator(db);
+  const alarms = createAlarmEngine({ db });
   const mail = await startMail(config.mail);
   const app = createApp({
     db,
@@ -32,6 +35,7 @@ async function main() {
     tokens,
     writer,
     estimator,
+    alarms,
     webDir: config.webDir,
     mailer: mail.mailer,
     publicUrl: config.publicUrl,
@@ -40,6 +44,8 @@ async function main() {
   const trustedOrigins = new Set([new URL(config.publicUrl).origin]);
   const hub = startLiveHub({ listener, db, sessions, trustedOrigins });
   await listener.ready;
+  const jobs = await startJobRunner({ databaseUrl: config.databaseUrl, log: console.log });
+  await scheduleAlarmSweep(jobs, alarms, { log: console.log });
 
   const server = http.createServer(app);
   hub.attach(server);
@@ -55,6 +61,7 @@ async function main() {
     console.log(`Drybench server stopping (${signal})…`);
     server.close();
     await writer.close();
+    await jobs.stop({ graceful: true, timeout: 10_000 });
     await hub.close();
     await listener.close();
     await mail.close();

@@ -272,7 +272,7 @@ export async function sweepCandidates(db: Db, readingsUsed: number, shopId?: str
   }>(sql`
     select s.id as sensor_id, s.shop_id, s.zone_id, s.last_seen_at,
       s.revoked_at is not null as revoked,
-      (select array_agg(extract(epoch from r.at) * 1000) from (
+      (select array_agg((extract(epoch from r.at) * 1000)::float8) from (
          select at from readings where sensor_id = s.id order by at desc limit ${readingsUsed}
        ) r) as recent_ms,
       a.id as open_silent_alarm_id

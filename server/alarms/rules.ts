@@ -46,14 +46,14 @@ export const ALARM_RULES = {
   /**
    * An open alarm records an update when its worst value gets worse by a step, the expected
    * minutes move to another 5-minute step, or the latest value has moved by a step and the last
-   * update is 5 min old. Steps are what the screen shows (0.1 °C, 1 %, 0.01 V).
+   * update is 15 min old. Steps are what the screen shows (0.1 °C, 1 %, 0.01 V).
    */
   update: {
     marginStepK: 0.1,
     rhStepPct: 1,
     batteryStepV: 0.01,
     minutesStep: 5,
-    latestEveryMs: 5 * MINUTE_MS,
+    latestEveryMs: 15 * MINUTE_MS,
   },
 } as const;
 

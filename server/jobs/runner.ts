@@ -11,8 +11,8 @@ export interface JobRunnerOptions {
   log: (message: string) => void;
   /** PostgreSQL schema for pg-boss's tables. */
   schema?: string;
-  /** How often pg-boss checks the cron schedules (1–45 s); its default is 30 s. */
-  cronMonitorIntervalSeconds?: number;
+  /** False: this runner works jobs but never fires schedules (a test beside live data). */
+  cron?: boolean;
 }
 
 export async function startJobRunner(options: JobRunnerOptions): Promise<PgBoss> {
@@ -21,12 +21,7 @@ export async function startJobRunner(options: JobRunnerOptions): Promise<PgBoss>
     schema: options.schema ?? 'pgboss',
     // Polling, cron and maintenance need few connections; the app's pool keeps the rest.
     max: 3,
-    ...(options.cronMonitorIntervalSeconds
-      ? {
-          cronMonitorIntervalSeconds: options.cronMonitorIntervalSeconds,
-          cronWorkerIntervalSeconds: options.cronMonitorIntervalSeconds,
-        }
-      : {}),
+    schedule: options.cron ?? true,
   });
   // A lost connection or a failed job is reported here; pg-boss retries on its own.
   boss.on('error', (err) => options.log(`jobs: ${err.message}`));

@@ -115,7 +115,10 @@ export function ingestRouter(deps: IngestDeps): Router {
         JSON.stringify(readingMessage(fresh)),
       );
       // The rows are committed: the engine logs its own failures and never undoes the 202.
-      await alarms?.onReadingsStored(sensor, rows.filter((r) => insertedMs.has(r.at.getTime())));
+      await alarms?.onReadingsStored(
+        sensor,
+        rows.filter((r) => insertedMs.has(r.at.getTime())),
+      );
 
       res.status(202).json({
         stored: insertedMs.size,
