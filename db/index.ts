@@ -18,8 +18,10 @@ export function createDatabase(url: string, options: { max?: number } = {}): Dat
     // Fail fast when PostgreSQL is down, so requests answer 503 instead of hanging.
     connectionTimeoutMillis: 3000,
   });
-  // An idle client losing its connection (database restart) must not crash the process.
+  // A client losing its connection (database restart) must not crash the process: idle ones
+  // report on the pool, checked-out ones on themselves. The query in flight still rejects.
   pool.on('error', () => {});
+  pool.on('connect', (client) => client.on('error', () => {}));
   return { pool, db: drizzle(pool, { schema, casing: 'snake_case' }) };
 }
 
