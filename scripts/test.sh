@@ -18,8 +18,14 @@ if [ ! -x /usr/bin/chromium ]; then
 fi
 
 # A fresh database every run, so no test depends on what an earlier run left.
-url=$(bash scripts/db.sh start test "$PG_PORT" postgres)
-trap 'bash scripts/db.sh stop test' EXIT
+bin=$(ls -d /usr/lib/postgresql/*/bin 2>/dev/null | sort -V | tail -n 1 || true)
+# Stop the test server afterwards only if this run started it (a developer may keep it up).
+if [ -n "$bin" ] && "$bin/pg_isready" -q -h 127.0.0.1 -p "$PG_PORT"; then
+  url=$(bash scripts/db.sh start test "$PG_PORT" postgres)
+else
+  url=$(bash scripts/db.sh start test "$PG_PORT" postgres)
+  trap 'bash scripts/db.sh stop test' EXIT
+fi
 bin=$(ls -d /usr/lib/postgresql/*/bin | sort -V | tail -n 1)
 "$bin/psql" -q "$url" -c 'drop database if exists drybench_test with (force)' -c 'create database drybench_test'
 export DATABASE_URL=${url%/postgres}/drybench_test
