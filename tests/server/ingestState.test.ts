@@ -1,0 +1,70 @@
+// Ingest behaviour that spans requests: the per-sensor limit, and the surface estimate's state
+// surviving a server restart (a new process rebuilds it from the stored readings).
+import request from 'supertest';
+import { afterAll, beforeAll, describe, expect, it } from 'vitest';
+
+import { makeTestApp, ownerWithSensor, type TestApp } from '../support/app';
+
+const apps: TestApp[] = [];
+const app = (options: Parameters<typeof makeTestApp>[0] = {}) => {
+  const t = makeTestApp(options);
+  apps.push(t);
+  return t;
+};
+let first: TestApp;
+
+beforeAll(() => {
+  first = app();
+});
+afterAll(async () => {
+  await Promise.all(apps.map((t) => t.pool.end()));
+});
+
+describe('the per-sensor limit', () => {
+  it('answers 429 with Retry-After once a sensor spends its burst, and only for that sensor', async () => {
+    const t = app({ sensorRate: { ratePerS: 0.5, burst: 5 } });
+    const noisy = await ownerWithSensor(t.app);
+    const quiet = await ownerWithSensor(t.app);
+    const post = (token: string) =>
+      request(t.app)
+        .post('/api/v1/ingest')
+        .set('authorization', `Bearer ${token}`)
+        .send({ air: 18, rh: 50 });
+    const statuses: number[] = [];
+    for (let i = 0; i < 6; i++) statuses.push((await post(noisy.token)).status);
+    expect(statuses).toEqual([202, 202, 202, 202, 202, 429]);
+    const limited = await post(noisy.token);
+    expect(limited.status).toBe(429);
+    expect(limited.body.error.code).toBe('rate_limited');
+    // One token every 2 s at 0.5/s.
+    expect(Number(limited.headers['retry-after'])).toBe(2);
+    expect((await post(quiet.token)).status).toBe(202);
+  });
+});
+
+describe('the surface estimate across a restart', () => {
+  it('continues the lag from stored readings in a fresh server', async () => {
+    const o = await ownerWithSensor(first.app);
+    const hourMs = 3_600_000;
+    const t0 = Date.now() - 3 * hourMs;
+    const post = (t: TestApp, readings: object[]) =>
+      request(t.app)
+        .post('/api/v1/ingest')
+        .set('authorization', `Bearer ${o.token}`)
+        .send({ readings })
+        .expect(202);
+    await post(first, [{ at: new Date(t0).toISOString(), air: 10, rh: 50 }]);
+    await post(first, [{ at: new Date(t0 + hourMs).toISOString(), air: 20, rh: 50 }]);
+
+    // A new process: nothing in memory, the same database.
+    const restarted = app();
+    const res = await post(restarted, [
+      { at: new Date(t0 + 2 * hourMs).toISOString(), air: 20, rh: 50 },
+    ]);
+    const result = res.body.results[0];
+    // First-order lag, τ = 3 h: two hours of a 10 K step → 20 − 10·e^(−2/3) = 14.87 °C. A
+    // fresh start from the air would have said 20 °C.
+    expect(result.surfaceSource).toBe('estimate');
+    expect(result.margin + result.dewPoint).toBeCloseTo(20 - 10 * Math.exp(-2 / 3), 6);
+  });
+});
