@@ -1,0 +1,83 @@
+/** What one bench run does; `npm run bench -- --help` lists the flags. */
+import { parseArgs } from 'node:util';
+
+export const PHASES = ['bare', 'raw', 'ingest1', 'ingest50', 'live'] as const;
+export type Phase = (typeof PHASES)[number];
+
+export interface BenchOptions {
+  pgPort: number;
+  database: string;
+  /** HTTP connections of the load generator, and connections of the raw INSERT baseline. */
+  connections: number;
+  /** Seconds measured per phase; a ratio's two sides alternate in `rounds` slices of it. */
+  durationS: number;
+  rounds: number;
+  warmupS: number;
+  batch: number;
+  /** Sensors the closed-loop load rotates through: several, so no one sensor's order matters. */
+  loadSensors: number;
+  wsClients: number;
+  probeIntervalMs: number;
+  backgroundReadingsPerS: number;
+  /** Readings per background request: 1, as real sensors post one reading at a time. */
+  backgroundBatch: number;
+  backgroundSensors: number;
+  phases: Phase[];
+  /** Where the server writes a V8 CPU profile on exit (node --cpu-prof), if set. */
+  cpuProfDir: string | null;
+}
+
+export const DEFAULT_OPTIONS: BenchOptions = {
+  pgPort: 54350,
+  database: 'drybench_bench',
+  connections: 10,
+  durationS: 8,
+  rounds: 4,
+  warmupS: 2,
+  batch: 50,
+  loadSensors: 10,
+  wsClients: 200,
+  probeIntervalMs: 50,
+  backgroundReadingsPerS: 1000,
+  backgroundBatch: 1,
+  backgroundSensors: 20,
+  phases: [...PHASES],
+  cpuProfDir: null,
+};
+
+export const USAGE = `npm run bench [-- options]
+  --connections N    load generator connections (default ${DEFAULT_OPTIONS.connections})
+  --duration S       seconds measured per phase (default ${DEFAULT_OPTIONS.durationS})
+  --phases LIST      some of ${PHASES.join(',')} (default all)
+  --cpu-prof DIR     write the server's CPU profile to DIR when it exits`;
+
+export function readBenchOptions(argv: string[]): BenchOptions | 'help' {
+  const { values } = parseArgs({
+    args: argv,
+    options: {
+      connections: { type: 'string' },
+      duration: { type: 'string' },
+      phases: { type: 'string' },
+      'cpu-prof': { type: 'string' },
+      help: { type: 'boolean' },
+    },
+  });
+  if (values.help) return 'help';
+  const positive = (name: string, value: string | undefined, fallback: number) => {
+    if (value === undefined) return fallback;
+    const n = Number(value);
+    if (!(Number.isInteger(n) && n > 0)) throw new Error(`--${name} must be a positive integer`);
+    return n;
+  };
+  const phases = values.phases?.split(',').map((p) => p.trim()) ?? [...PHASES];
+  const unknown = phases.filter((p) => !(PHASES as readonly string[]).includes(p));
+  if (unknown.length > 0) throw new Error(`unknown phase ${unknown.join(', ')}`);
+  return {
+    ...DEFAULT_OPTIONS,
+    connections: positive('connections', values.connections, DEFAULT_OPTIONS.connections),
+    // Bounded so a run stays within a few minutes whatever is asked.
+    durationS: Math.min(30, positive('duration', values.duration, DEFAULT_OPTIONS.durationS)),
+    phases: phases as Phase[],
+    cpuProfDir: values['cpu-prof'] ?? null,
+  };
+}

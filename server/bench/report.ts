@@ -1,0 +1,163 @@
+/** The printout: a table of the phases, the figures against their targets, then one JSON line. */
+import type { Measured } from './interleave';
+import type { BenchResult, LivePhase } from './run';
+import { round } from './stats';
+import type { CpuCores } from './usage';
+
+/** The issue's targets for this 2-core machine. */
+export const TARGETS = {
+  batchVsRawInsert: { atLeast: 0.8 },
+  singleVsBareExpress: { atLeast: 0.6 },
+  wsP99IdleMs: { atMost: 25 },
+  wsP99LoadedMs: { atMost: 50 },
+  rssMb: { atMost: 250 },
+} as const;
+
+export type Figures = Record<keyof typeof TARGETS, number | null> & Record<string, unknown>;
+
+export function figuresOf(r: BenchResult): Figures {
+  const ratio = (a: number | undefined, b: number | undefined) =>
+    a === undefined || b === undefined ? null : round(a / b, 3);
+  const batch = r.options.batch;
+  const ingest50ReadingsPerS = r.ingest50 && r.ingest50.perS * batch;
+  const bg = r.liveLoaded?.background;
+  return {
+    batchVsRawInsert: ratio(ingest50ReadingsPerS, r.raw?.perS),
+    singleVsBareExpress: ratio(r.ingest1?.perS, r.bare?.perS),
+    wsP99IdleMs: r.liveIdle ? round(r.liveIdle.delivery.p99Ms) : null,
+    wsP99LoadedMs: r.liveLoaded ? round(r.liveLoaded.delivery.p99Ms) : null,
+    rssMb: round(r.peakRssMb, 0),
+    date: r.startedAt.toISOString(),
+    cpuCount: r.cpuCount,
+    loadAverage1m: round(r.loadAverage1m, 2),
+    connections: r.options.connections,
+    phaseS: r.options.durationS,
+    bareExpressReqPerS: r.bare ? round(r.bare.perS, 0) : null,
+    rawInsertRowsPerS: r.raw ? round(r.raw.perS, 0) : null,
+    ingestBatch1ReqPerS: r.ingest1 ? round(r.ingest1.perS, 0) : null,
+    ingestBatch50ReadingsPerS: ingest50ReadingsPerS ? round(ingest50ReadingsPerS, 0) : null,
+    wsP50IdleMs: r.liveIdle ? round(r.liveIdle.delivery.p50Ms) : null,
+    wsP50LoadedMs: r.liveLoaded ? round(r.liveLoaded.delivery.p50Ms) : null,
+    backgroundReadingsPerS: bg ? round(bg.readingsPerS, 0) : null,
+    failures:
+      (r.bare?.failures ?? 0) +
+      (r.ingest1?.failures ?? 0) +
+      (r.ingest50?.failures ?? 0) +
+      (r.liveIdle ? r.liveIdle.missing + r.liveIdle.failedPosts : 0) +
+      (r.liveLoaded ? r.liveLoaded.missing + r.liveLoaded.failedPosts : 0) +
+      (bg ? bg.failures + bg.skipped : 0),
+  };
+}
+
+const int = (n: number) => Math.round(n).toLocaleString('en-US');
+const ms = (n: number) => (Number.isFinite(n) ? n.toFixed(1) : '–');
+const cores = (n: number) => n.toFixed(2);
+
+function table(header: string[], rows: string[][]): string {
+  const widths = header.map((h, i) => Math.max(h.length, ...rows.map((r) => (r[i] ?? '').length)));
+  // The first column is text; the others are figures, right-aligned so digits line up.
+  const line = (cells: string[]) =>
+    cells
+      .map((c, i) => (i === 0 ? c.padEnd(widths[i]!) : c.padStart(widths[i]!)))
+      .join('  ')
+      .trimEnd();
+  return [line(header), line(widths.map((w) => '-'.repeat(w))), ...rows.map(line)].join('\n');
+}
+
+function cpuCells(c: CpuCores): string[] {
+  return [c.server, c.postgres, c.bench, c.other].map(cores);
+}
+
+export function formatReport(r: BenchResult): string {
+  const o = r.options;
+  const rows: string[][] = [];
+  const row = (name: string, rate: string, p50Ms: number, p99Ms: number, cpu?: CpuCores) =>
+    rows.push([name, rate, ms(p50Ms), ms(p99Ms), ...(cpu ? cpuCells(cpu) : [])]);
+  const m = (name: string, x: Measured | undefined, rate: (perS: number) => string) => {
+    if (x) row(name, rate(x.perS), x.latency.p50Ms, x.latency.p99Ms, x.cpu);
+  };
+  m('bare Express 5 POST', r.bare, (v) => `${int(v)} req/s`);
+  m('ingest, 1 reading', r.ingest1, (v) => `${int(v)} req/s`);
+  m(`raw INSERT, ${o.batch} rows`, r.raw, (v) => `${int(v)} rows/s`);
+  m(`ingest, ${o.batch} readings`, r.ingest50, (v) => `${int(v * o.batch)} readings/s`);
+  for (const [name, l] of [
+    ['POST → WS, idle', r.liveIdle],
+    ['POST → WS, under load', r.liveLoaded],
+  ] as const) {
+    if (l) row(name, `${int(l.delivery.count)} msgs`, l.delivery.p50Ms, l.delivery.p99Ms, l.cpu);
+  }
+  if (r.liveLoaded) {
+    const b = r.liveLoaded.background;
+    row(
+      '  background ingest',
+      `${int(b.readingsPerS)} readings/s`,
+      b.request.p50Ms,
+      b.request.p99Ms,
+    );
+  }
+
+  const out: string[] = [];
+  out.push(
+    `Drybench bench, ${r.startedAt.toISOString().slice(0, 16)}Z: ${r.cpuCount} cores, ` +
+      `load average ${r.loadAverage1m.toFixed(2)} before the run, Node ${process.versions.node}`,
+  );
+  out.push(
+    `${o.connections} connections, ${o.durationS} s measured per phase after ${o.warmupS} s of ` +
+      `warm-up, a ratio's two sides alternating in ${o.rounds} slices; readings carry a surface ` +
+      `value (the probe path), spread over ${o.loadSensors} sensors`,
+  );
+  out.push('');
+  out.push(
+    table(['phase', 'rate', 'p50 ms', 'p99 ms', 'server', 'postgres', 'bench', 'other'], rows),
+  );
+  out.push(
+    `server/postgres/bench/other: CPU used during the phase, in cores (of ${r.cpuCount}). ` +
+      'Latency is per request, per statement (commit included) for the raw INSERT, per message for WS.',
+  );
+
+  const live: [string, LivePhase | undefined][] = [
+    ['idle', r.liveIdle],
+    ['under load', r.liveLoaded],
+  ];
+  for (const [name, l] of live) {
+    if (!l) continue;
+    out.push(
+      `POST → WS ${name}: ${o.wsClients} clients, ${l.probes} probes every ${o.probeIntervalMs} ms, ` +
+        `${l.missing} deliveries missing; the probe's POST → 202 p50 ${ms(l.post.p50Ms)} / ` +
+        `p99 ${ms(l.post.p99Ms)} ms; the clients' event-loop delay p99 ${ms(l.clientLoopDelayP99Ms)} ms`,
+    );
+  }
+  if (r.liveLoaded) {
+    const b = r.liveLoaded.background;
+    out.push(
+      `background: ${int(o.backgroundReadingsPerS)} readings/s asked, ${o.backgroundBatch} per ` +
+        `request from ${o.backgroundSensors} sensors of another shop; ${b.failures} failed, ` +
+        `${b.skipped} not sent (server behind)`,
+    );
+  }
+
+  const f = figuresOf(r);
+  out.push('');
+  const targetRows = (Object.keys(TARGETS) as (keyof typeof TARGETS)[]).map((key) => {
+    const target: { atLeast?: number; atMost?: number } = TARGETS[key];
+    const value = f[key];
+    const met =
+      value === null
+        ? 'not run'
+        : target.atLeast !== undefined
+          ? value >= target.atLeast
+            ? 'met'
+            : 'MISSED'
+          : value <= target.atMost!
+            ? 'met'
+            : 'MISSED';
+    const goal = target.atLeast !== undefined ? `≥ ${target.atLeast}` : `≤ ${target.atMost}`;
+    return [key, value === null ? '–' : String(value), goal, met];
+  });
+  out.push(table(['figure', 'measured', 'target', ''], targetRows));
+  out.push(
+    `failures: ${String(f.failures)} (non-2xx, socket errors, missing deliveries; should be 0)`,
+  );
+  out.push(JSON.stringify(f));
+  return out.join('\n');
+}

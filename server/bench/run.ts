@@ -1,0 +1,239 @@
+/**
+ * One bench run, start to finish: its own PostgreSQL, the servers under test as child processes,
+ * the fixtures, each phase for a fixed time, then everything stopped again — also on failure.
+ */
+import { randomBytes } from 'node:crypto';
+import os from 'node:os';
+
+import { createFixtures, type BenchFixtures } from './fixtures';
+import { runHttpSlice } from './httpLoad';
+import { interleave, type Contender, type Measured } from './interleave';
+import { connectLiveClients, measureLiveLatency, type LiveLatencyResult } from './liveLatency';
+import type { BenchOptions, Phase } from './options';
+import { startPacedLoad, type PacedLoadResult } from './pacedLoad';
+import { startBenchDatabase } from './postgres';
+import { freePort, memoryOf, startNodeChild, type Child } from './processes';
+import { openRawInserter } from './rawInsert';
+import { createReadingSource, type ReadingSource } from './readings';
+import { coresOf, startCpuMeter, type CpuCores } from './usage';
+
+export interface LivePhase extends LiveLatencyResult {
+  cpu: CpuCores;
+}
+
+export interface BenchResult {
+  startedAt: Date;
+  options: BenchOptions;
+  /** 1-minute load average before the run: other work on the machine skews everything. */
+  loadAverage1m: number;
+  cpuCount: number;
+  bare?: Measured;
+  raw?: Measured;
+  ingest1?: Measured;
+  ingest50?: Measured;
+  liveIdle?: LivePhase;
+  liveLoaded?: LivePhase & { background: PacedLoadResult };
+  /** The Drybench server's peak resident memory over the whole run. */
+  peakRssMb: number;
+}
+
+export async function runBench(
+  options: BenchOptions,
+  progress: (line: string) => void,
+): Promise<BenchResult> {
+  const result: BenchResult = {
+    startedAt: new Date(),
+    options,
+    loadAverage1m: os.loadavg()[0]!,
+    cpuCount: os.cpus().length,
+    peakRssMb: Number.NaN,
+  };
+  const has = (phase: Phase) => options.phases.includes(phase);
+  const readings = createReadingSource();
+
+  progress(`starting PostgreSQL on 127.0.0.1:${options.pgPort}…`);
+  const database = await startBenchDatabase({ port: options.pgPort, database: options.database });
+  const children: Child[] = [];
+  const closers: (() => Promise<void>)[] = [];
+  let stopping = false;
+  const cleanUp = async () => {
+    if (stopping) return;
+    stopping = true;
+    for (const close of closers.reverse()) await close().catch(() => {});
+    await Promise.all(children.map((c) => c.stop()));
+    database.stop();
+  };
+  const onSignal = () => void cleanUp().then(() => process.exit(130));
+  process.once('SIGINT', onSignal);
+  process.once('SIGTERM', onSignal);
+
+  try {
+    const serverPort = await freePort();
+    const server = await startNodeChild({
+      entry: 'server/index.ts',
+      nodeArgs: options.cpuProfDir ? ['--cpu-prof', `--cpu-prof-dir=${options.cpuProfDir}`] : [],
+      env: serverEnv(database.url, serverPort),
+      ready: /listening on/,
+    });
+    children.push(server);
+    const url = `http://127.0.0.1:${serverPort}`;
+
+    progress('creating the shops, sensors and owners through the API…');
+    const fixtures = await createFixtures(url, {
+      loadSensors: options.loadSensors,
+      backgroundSensors: options.backgroundSensors,
+    });
+    const timing = {
+      rounds: options.rounds,
+      sliceS: options.durationS / options.rounds,
+      warmupS: options.warmupS,
+      pgPort: options.pgPort,
+    };
+    const ingest = (batch: number): Contender<Phase> => ({
+      key: batch === 1 ? 'ingest1' : 'ingest50',
+      serverPid: server.pid,
+      slice: (durationS) =>
+        runHttpSlice(
+          {
+            url,
+            path: '/api/v1/ingest',
+            connections: options.connections,
+            tokens: fixtures.loadTokens,
+            body: batch === 1 ? readings.singleBody : () => readings.batchBody(batch),
+          },
+          durationS,
+        ).then((s) => ({ ...s, count: s.ok })),
+    });
+
+    // HTTP overhead: the bare route against one reading per request.
+    const httpPair: Contender<Phase>[] = [];
+    if (has('bare')) {
+      const barePort = await freePort();
+      const bare = await startNodeChild({
+        entry: 'scripts/bench/bareExpress.ts',
+        env: { ...process.env, PORT: String(barePort) },
+        ready: /listening on/,
+      });
+      children.push(bare);
+      httpPair.push({
+        key: 'bare',
+        serverPid: bare.pid,
+        slice: (durationS) =>
+          runHttpSlice(
+            {
+              url: `http://127.0.0.1:${barePort}`,
+              path: '/bare',
+              connections: options.connections,
+              tokens: fixtures.loadTokens,
+              body: readings.singleBody,
+            },
+            durationS,
+          ).then((s) => ({ ...s, count: s.ok })),
+      });
+    }
+    if (has('ingest1')) httpPair.push(ingest(1));
+    if (httpPair.length > 0) {
+      progress(`${httpPair.map((c) => c.key).join(' and ')}, interleaved…`);
+      Object.assign(result, await interleave(httpPair, timing));
+    }
+
+    // The database: raw INSERTs against batches through the ingest route.
+    const dbPair: Contender<Phase>[] = [];
+    if (has('raw')) {
+      const raw = await openRawInserter({
+        databaseUrl: database.url,
+        connections: options.connections,
+        batch: options.batch,
+        sensors: fixtures.loadSensors,
+        readings,
+      });
+      closers.push(() => raw.close());
+      dbPair.push({
+        key: 'raw',
+        serverPid: server.pid,
+        slice: (durationS) =>
+          raw.slice(durationS).then((s) => ({ ...s, count: s.rows, failures: 0 })),
+      });
+    }
+    if (has('ingest50')) dbPair.push(ingest(options.batch));
+    if (dbPair.length > 0) {
+      progress(`${dbPair.map((c) => c.key).join(' and ')}, interleaved…`);
+      Object.assign(result, await interleave(dbPair, timing));
+    }
+
+    if (has('live')) {
+      progress(`connecting ${options.wsClients} signed-in WebSocket clients…`);
+      const clients = await connectLiveClients({
+        url,
+        cookie: fixtures.cookie,
+        count: options.wsClients,
+      });
+      closers.push(async () => clients.close());
+      Object.assign(
+        result,
+        await measureLive(options, url, server.pid, fixtures, readings, clients, progress),
+      );
+    }
+
+    result.peakRssMb = memoryOf(server.pid).peakRssMb;
+    progress('stopping…');
+    return result;
+  } finally {
+    await cleanUp();
+    process.off('SIGINT', onSignal);
+    process.off('SIGTERM', onSignal);
+  }
+}
+
+async function measureLive(
+  options: BenchOptions,
+  url: string,
+  serverPid: number,
+  fixtures: BenchFixtures,
+  readings: ReadingSource,
+  clients: Awaited<ReturnType<typeof connectLiveClients>>,
+  progress: (line: string) => void,
+): Promise<Pick<BenchResult, 'liveIdle' | 'liveLoaded'>> {
+  const live = {
+    url,
+    clients,
+    probeToken: fixtures.probeToken,
+    intervalMs: options.probeIntervalMs,
+    durationS: options.durationS,
+    readings,
+  };
+  progress('POST → WebSocket latency, idle…');
+  let meter = startCpuMeter(serverPid, options.pgPort);
+  const idle = await measureLiveLatency(live);
+  const liveIdle = { ...idle, cpu: coresOf(meter.stop()) };
+
+  progress(
+    `POST → WebSocket latency under ${options.backgroundReadingsPerS} readings/s of background ingest…`,
+  );
+  const background = startPacedLoad({
+    url,
+    tokens: fixtures.backgroundTokens,
+    readingsPerS: options.backgroundReadingsPerS,
+    batch: options.backgroundBatch,
+    body: (n) => (n === 1 ? readings.singleBody() : readings.batchBody(n)),
+  });
+  // Let the background load settle before the first probe.
+  await new Promise((resolve) => setTimeout(resolve, 1000));
+  meter = startCpuMeter(serverPid, options.pgPort);
+  const loaded = await measureLiveLatency(live);
+  const cpu = coresOf(meter.stop());
+  return { liveIdle, liveLoaded: { ...loaded, cpu, background: await background.stop() } };
+}
+
+/** The server's environment: API only (no web app to serve), a throwaway session secret. */
+function serverEnv(databaseUrl: string, port: number): NodeJS.ProcessEnv {
+  const env: NodeJS.ProcessEnv = {
+    ...process.env,
+    DATABASE_URL: databaseUrl,
+    PORT: String(port),
+    HOST: '127.0.0.1',
+    SESSION_SECRET: randomBytes(32).toString('hex'),
+  };
+  delete env.WEB_DIR;
+  return env;
+}
