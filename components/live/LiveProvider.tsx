@@ -2,7 +2,7 @@ import { useQuery, useQueryClient } from '@tanstack/react-query';
 import { createContext, useContext, useEffect, useState, type ReactNode } from 'react';
 import { Platform } from 'react-native';
 
-import { meKeys, meQueryOptions, readingKeys, zoneKeys } from '@/components/queries';
+import { alarmKeys, meKeys, meQueryOptions, readingKeys, zoneKeys } from '@/components/queries';
 
 import { applyLiveMessage } from './applyLiveMessage';
 import { liveUrl } from './backoff';
@@ -36,6 +36,7 @@ export function LiveProvider({ children }: { children: ReactNode }) {
       onReconnect: () => {
         void queryClient.invalidateQueries({ queryKey: zoneKeys.all });
         void queryClient.invalidateQueries({ queryKey: readingKeys.all });
+        void queryClient.invalidateQueries({ queryKey: alarmKeys.all });
       },
       // A refused handshake looks like any other failure; asking /me tells a lapsed session
       // apart, and signing out closes this socket through `signedIn`.

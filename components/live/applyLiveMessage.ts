@@ -4,7 +4,13 @@
  */
 import type { QueryClient } from '@tanstack/react-query';
 
-import { appendReadingPoint, patchZoneLatest, readingKeys } from '@/components/queries';
+import {
+  alarmKeys,
+  appendReadingPoint,
+  patchAlarm,
+  patchZoneLatest,
+  readingKeys,
+} from '@/components/queries';
 
 import type { LiveMessage } from './messages';
 
@@ -30,6 +36,14 @@ export function applyLiveMessage(queryClient: QueryClient, message: LiveMessage)
         level: reading.level,
         count: 1,
       });
+      return;
+    }
+    case 'alarm': {
+      if (message.partial) {
+        void queryClient.invalidateQueries({ queryKey: alarmKeys.shop(message.shopId) });
+        return;
+      }
+      patchAlarm(queryClient, message.shopId, message.alarm);
       return;
     }
   }

@@ -2,4 +2,9 @@ export { applyLiveMessage } from './applyLiveMessage';
 export { BACKOFF_BASE_MS, BACKOFF_MAX_MS, backoffDelayMs, liveUrl } from './backoff';
 export { LiveProvider, useLiveStatus } from './LiveProvider';
 export { openLiveSocket, type LiveStatus } from './liveSocket';
-export { parseLiveMessage, type LiveMessage, type LiveReadingMessage } from './messages';
+export {
+  parseLiveMessage,
+  type LiveAlarmMessage,
+  type LiveMessage,
+  type LiveReadingMessage,
+} from './messages';

@@ -3,7 +3,7 @@
  * the web bundle small; anything unexpected is dropped, never thrown.
  */
 import type { Level } from '@/ingest';
-import type { SurfaceSource } from '@/components/queries';
+import type { Alarm, SurfaceSource } from '@/components/queries';
 
 export interface LiveReading {
   at: string;
@@ -27,7 +27,15 @@ export interface LiveReadingMessage {
   count?: number;
 }
 
-export type LiveMessage = LiveReadingMessage;
+export interface LiveAlarmMessage {
+  type: 'alarm';
+  shopId: string;
+  alarm: Alarm;
+  /** The server cut the alarm to fit the notification: refetch rather than patch. */
+  partial: boolean;
+}
+
+export type LiveMessage = LiveReadingMessage | LiveAlarmMessage;
 
 const LEVELS: readonly string[] = ['dry', 'close', 'wet', 'unknown'];
 
@@ -62,6 +70,55 @@ function isReading(value: unknown): value is LiveReading {
   );
 }
 
+const ALARM_KINDS: readonly string[] = [
+  'dew_risk',
+  'wet_surface',
+  'humid_air',
+  'sensor_silent',
+  'battery_low',
+];
+const ALARM_NUMBERS = [
+  'worstMarginK',
+  'latestMarginK',
+  'minutesToWet',
+  'peakRhPct',
+  'latestRhPct',
+  'lowestBatteryV',
+  'latestBatteryV',
+] as const;
+
+const isTime = (value: unknown) => typeof value === 'string' && !Number.isNaN(Date.parse(value));
+const isNamed = (value: unknown) =>
+  isObject(value) && typeof value.id === 'string' && typeof value.name === 'string';
+
+function isAcknowledgement(value: unknown): boolean {
+  if (value === null) return true;
+  return (
+    isObject(value) &&
+    (value.by === null || isNamed(value.by)) &&
+    isTime(value.at) &&
+    typeof value.note === 'string'
+  );
+}
+
+function isAlarm(value: unknown): value is Alarm {
+  if (!isObject(value)) return false;
+  return (
+    typeof value.id === 'string' &&
+    typeof value.kind === 'string' &&
+    ALARM_KINDS.includes(value.kind) &&
+    (value.state === 'open' || value.state === 'cleared') &&
+    isNamed(value.zone) &&
+    (value.sensor === null || isNamed(value.sensor)) &&
+    isTime(value.sinceAt) &&
+    isTime(value.openedAt) &&
+    isTime(value.updatedAt) &&
+    (value.clearedAt === null || isTime(value.clearedAt)) &&
+    ALARM_NUMBERS.every((key) => isNumberOrNull(value[key])) &&
+    isAcknowledgement(value.acknowledgement)
+  );
+}
+
 /** The message in a WebSocket frame, or null for anything we do not (yet) understand. */
 export function parseLiveMessage(data: unknown): LiveMessage | null {
   if (typeof data !== 'string') return null;
@@ -70,6 +127,10 @@ export function parseLiveMessage(data: unknown): LiveMessage | null {
     value = JSON.parse(data);
   } catch {
     return null;
+  }
+  if (isObject(value) && value.type === 'alarm') {
+    if (typeof value.shopId !== 'string' || !isAlarm(value.alarm)) return null;
+    return { type: 'alarm', shopId: value.shopId, alarm: value.alarm, partial: !!value.partial };
   }
   if (!isObject(value) || value.type !== 'reading') return null;
   if (

@@ -40,3 +40,16 @@ export {
   type Zone,
   type ZonesResponse,
 } from './zones';
+export {
+  alarmKeys,
+  alarmsQueryOptions,
+  patchAlarm,
+  useAlarmAckMutation,
+  useAlarmsQuery,
+  withAlarm,
+  type Alarm,
+  type AlarmAckInput,
+  type AlarmKind,
+  type AlarmListState,
+  type AlarmsResponse,
+} from './alarms';

@@ -1,39 +1,25 @@
 // A person's path through the foundation, in Debian's Chromium against the real server:
 // sign in as the demo owner, open a zone, and watch a reading posted over HTTP by "a sensor"
 // (this test) reach the card and the chart without a reload.
-import fs from 'node:fs';
-
-import { chromium, type Browser, type Page } from 'playwright-core';
+import type { Page } from 'playwright-core';
 import { afterAll, beforeAll, describe, expect, it } from 'vitest';
 
-import { DEMO_PASSWORD, DEMO_PEOPLE } from '@/db/seed';
+import { DEMO_PEOPLE } from '@/db/seed';
 
-import { CHROMIUM_ARGS, startLiveServer } from '../support/liveServer';
+import { SHOTS, signInAs, startBrowserSuite, type BrowserSuite } from '../support/browser';
 
-const SHOTS = 'test-results/screenshots';
-let server: Awaited<ReturnType<typeof startLiveServer>>;
-let browser: Browser;
+let suite: BrowserSuite;
+let server: BrowserSuite['server'];
+let browser: BrowserSuite['browser'];
 
 beforeAll(async () => {
-  if (!fs.existsSync('dist/index.html'))
-    throw new Error('dist/ is missing: run scripts/build-web.sh');
-  fs.mkdirSync(SHOTS, { recursive: true });
-  server = await startLiveServer();
-  browser = await chromium.launch({ executablePath: '/usr/bin/chromium', args: CHROMIUM_ARGS });
+  suite = await startBrowserSuite();
+  ({ server, browser } = suite);
 });
 
-afterAll(async () => {
-  await browser?.close();
-  await server?.close();
-});
+afterAll(() => suite?.close());
 
-async function signIn(page: Page) {
-  await page.goto(`${server.baseUrl}/sign-in`);
-  await page.getByTestId('sign-in-email').fill(DEMO_PEOPLE[0].email);
-  await page.getByTestId('sign-in-password').fill(DEMO_PASSWORD);
-  await page.getByTestId('sign-in-submit').click();
-  await page.waitForURL(/\/shops\/[0-9a-f-]+/);
-}
+const signIn = (page: Page) => signInAs(page, server.baseUrl, DEMO_PEOPLE[0].email);
 
 async function postReading(token: string, reading: Record<string, unknown>) {
   const res = await fetch(`${server.baseUrl}/api/v1/ingest`, {

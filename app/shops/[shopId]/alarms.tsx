@@ -1,0 +1,8 @@
+import { useLocalSearchParams } from 'expo-router';
+
+import { AlarmsScreen } from '@/components/AlarmsScreen';
+
+export default function ShopAlarms() {
+  const { shopId } = useLocalSearchParams<{ shopId: string }>();
+  return <AlarmsScreen shopId={shopId} />;
+}

@@ -1,0 +1,67 @@
+import { useState } from 'react';
+import { StyleSheet, Text, View } from 'react-native';
+
+import { ackNoteProblem, ACK_NOTE_MAX } from './alarmText';
+import { Button, Form, TextField } from './forms';
+import { isApiError, useAlarmAckMutation } from './queries';
+import { colors, space, type } from './theme';
+
+interface AlarmAckFormProps {
+  shopId: string;
+  alarmId: string;
+  /** Called after the acknowledgement is stored, or when the person cancels. */
+  onDone: () => void;
+}
+
+/** Acknowledging an alarm: a short note of what was done, checked here and by the server. */
+export function AlarmAckForm({ shopId, alarmId, onDone }: AlarmAckFormProps) {
+  const [note, setNote] = useState('');
+  const [tried, setTried] = useState(false);
+  const ack = useAlarmAckMutation(shopId);
+  const problem = ackNoteProblem(note);
+  const serverProblem = isApiError(ack.error)
+    ? (ack.error.details.find((d) => d.path === 'note')?.message ?? ack.error.message)
+    : ack.error?.message;
+
+  const submit = () => {
+    setTried(true);
+    if (problem || ack.isPending) return;
+    ack.mutate({ alarmId, note: note.trim() }, { onSuccess: onDone });
+  };
+
+  return (
+    <Form onSubmit={submit} style={styles.form}>
+      <TextField
+        label="What did you do?"
+        placeholder="Wiped and covered the saw top"
+        value={note}
+        onChangeText={setNote}
+        maxLength={ACK_NOTE_MAX + 20}
+        autoFocus
+        onSubmitEditing={submit}
+        error={tried && problem ? problem : undefined}
+        testID="alarm-ack-note"
+      />
+      {serverProblem ? (
+        <Text style={[type.small, styles.error]} testID="alarm-ack-error">
+          {serverProblem}
+        </Text>
+      ) : null}
+      <View style={styles.buttons}>
+        <Button
+          label={ack.isPending ? 'Saving…' : 'Acknowledge'}
+          onPress={submit}
+          disabled={ack.isPending}
+          testID="alarm-ack-save"
+        />
+        <Button label="Cancel" variant="quiet" onPress={onDone} testID="alarm-ack-cancel" />
+      </View>
+    </Form>
+  );
+}
+
+const styles = StyleSheet.create({
+  form: { gap: space.sm, paddingTop: space.xs, width: '100%', maxWidth: 560 },
+  buttons: { flexDirection: 'row', gap: space.sm, flexWrap: 'wrap' },
+  error: { color: colors.wet },
+});

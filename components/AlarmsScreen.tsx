@@ -1,0 +1,84 @@
+import { StyleSheet, Text, View } from 'react-native';
+
+import { AlarmCard } from './AlarmCard';
+import { bySeverity } from './alarmText';
+import { CONTENT_MAX_WIDTH, SINGLE_COLUMN_MAX_WIDTH, useBreakpoints } from './layout';
+import { Notice } from './Notice';
+import { useAlarmsQuery, type Alarm, type ShopSummary } from './queries';
+import { ShopFrame } from './ShopPage';
+import { space, type } from './theme';
+import { useNow } from './useNow';
+
+/**
+ * A shop's alarms: the open ones with what to do, and the recent ones with who acknowledged
+ * them and what they did. Phone: one column; wide: open and recent side by side.
+ */
+export function AlarmsScreen({ shopId }: { shopId: string }) {
+  const { isWide } = useBreakpoints();
+  return (
+    <ShopFrame
+      shopId={shopId}
+      active="alarms"
+      title="Alarms"
+      maxWidth={isWide ? CONTENT_MAX_WIDTH : SINGLE_COLUMN_MAX_WIDTH}
+    >
+      {(shop) => <AlarmLists shop={shop} wide={isWide} />}
+    </ShopFrame>
+  );
+}
+
+function AlarmLists({ shop, wide }: { shop: ShopSummary; wide: boolean }) {
+  const alarms = useAlarmsQuery(shop.id, 'all');
+  const nowMs = useNow();
+  if (alarms.isError) {
+    return (
+      <Notice title="Alarms could not be loaded" testID="alarms-error">
+        {alarms.error.message}
+      </Notice>
+    );
+  }
+  if (!alarms.data) return <Notice title="Loading alarms…" />;
+
+  const section = (title: string, items: Alarm[], empty: string, testID: string) => (
+    <View style={[styles.section, wide && styles.wideSection]} testID={testID}>
+      <Text style={type.title}>
+        {title} <Text style={type.small}>({items.length})</Text>
+      </Text>
+      {items.length === 0 ? <Notice title={empty} /> : null}
+      {items.map((alarm) => (
+        <AlarmCard
+          key={alarm.id}
+          shopId={shop.id}
+          alarm={alarm}
+          nowMs={nowMs}
+          timeZone={shop.timeZone}
+          canAcknowledge={shop.role !== 'viewer'}
+        />
+      ))}
+    </View>
+  );
+  const list = alarms.data.alarms;
+  return (
+    <View style={[styles.sections, wide && styles.columns]}>
+      {section(
+        'Open',
+        list.filter((a) => a.state === 'open').sort(bySeverity),
+        'No open alarms: every surface is clear.',
+        'alarms-open',
+      )}
+      {section(
+        'Recent',
+        list.filter((a) => a.state === 'cleared'),
+        'Nothing has cleared yet.',
+        'alarms-recent',
+      )}
+    </View>
+  );
+}
+
+const styles = StyleSheet.create({
+  sections: { gap: space.xl },
+  columns: { flexDirection: 'row', alignItems: 'flex-start' },
+  section: { gap: space.md },
+  wideSection: { flex: 1, minWidth: 0 },
+});
