@@ -38,5 +38,11 @@ export default tseslint.config(
       ],
     },
   },
+  {
+    // Metro's configuration is CommonJS run by Node.
+    files: ['metro.config.js'],
+    languageOptions: { sourceType: 'commonjs', globals: globals.node },
+    rules: { '@typescript-eslint/no-require-imports': 'off' },
+  },
   prettier,
 );

@@ -1,4 +1,4 @@
-import { Redirect } from 'expo-router';
+import { Redirect, useRouter } from 'expo-router';
 import { Text } from 'react-native';
 
 import { Button } from './forms';
@@ -11,6 +11,7 @@ import { type } from './theme';
 
 /** The front door: the first shop's overview when signed in, else the sign-in page. */
 export function HomeScreen() {
+  const router = useRouter();
   const me = useMeQuery();
   const signOut = useSignOutMutation();
 
@@ -34,9 +35,14 @@ export function HomeScreen() {
       <Content>
         <Notice title="No shop yet" testID="no-shop">
           <Text style={type.body}>
-            You are signed in as {me.data.user.email} but belong to no shop. Ask a shop owner to add
-            you.
+            You are signed in as {me.data.user.email} and belong to no shop yet. Create one for your
+            workshop, or ask a shop owner to invite you.
           </Text>
+          <Button
+            label="Create a shop"
+            onPress={() => router.push('/new-shop')}
+            testID="create-shop"
+          />
           <Button label="Sign out" variant="quiet" onPress={() => signOut.mutate()} />
         </Notice>
       </Content>

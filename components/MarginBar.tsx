@@ -1,6 +1,8 @@
 import { StyleSheet, Text, View } from 'react-native';
 
-import { formatMargin } from './format';
+import type { TemperatureUnit } from '@/ingest/units';
+
+import { deltaInUnit, formatMargin } from './format';
 import { marginScale } from './marginScale';
 import { colors, tabular, type } from './theme';
 
@@ -8,6 +10,7 @@ interface MarginBarProps {
   marginK: number | null;
   wetK: number;
   cautionK: number;
+  unit?: TemperatureUnit;
 }
 
 function pct(fraction: number): `${number}%` {
@@ -15,11 +18,11 @@ function pct(fraction: number): `${number}%` {
 }
 
 /** A small bar placing the dew margin between the zone's wet and caution limits. */
-export function MarginBar({ marginK, wetK, cautionK }: MarginBarProps) {
+export function MarginBar({ marginK, wetK, cautionK, unit = 'C' }: MarginBarProps) {
   const scale = marginScale(marginK, wetK, cautionK);
   const description =
-    `Dew margin ${formatMargin(marginK)}; wet at ${wetK.toFixed(1)} °C or less, ` +
-    `dry from ${cautionK.toFixed(1)} °C`;
+    `Dew margin ${formatMargin(marginK, unit)}; wet at ${deltaInUnit(wetK, unit)} °${unit} ` +
+    `or less, dry from ${deltaInUnit(cautionK, unit)} °${unit}`;
   return (
     <View accessibilityLabel={description} aria-label={description} testID="zone-margin-bar">
       <View style={styles.track}>
@@ -44,10 +47,10 @@ export function MarginBar({ marginK, wetK, cautionK }: MarginBarProps) {
       </View>
       <View style={styles.labels}>
         <Text style={[type.small, tabular, styles.label, { left: pct(scale.wetAt) }]}>
-          {wetK.toFixed(1)}
+          {deltaInUnit(wetK, unit)}
         </Text>
         <Text style={[type.small, tabular, styles.label, { left: pct(scale.cautionAt) }]}>
-          {cautionK.toFixed(1)}
+          {deltaInUnit(cautionK, unit)}
         </Text>
       </View>
     </View>

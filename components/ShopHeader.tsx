@@ -5,25 +5,32 @@ import { Button } from './forms';
 import { Content } from './layout';
 import { LiveMark } from './LiveMark';
 import { useSignOutMutation } from './queries';
+import { ShopSwitcher } from './ShopSwitcher';
 import { colors, space, type } from './theme';
 
 /** The bar across the top of a shop's pages: its name, the live mark and signing out. */
 interface ShopHeaderProps {
   shopName: string;
+  /** With it, the name opens the shop switcher. */
+  shopId?: string;
   /** Lines the header up with the page column below it. */
   maxWidth?: number;
 }
 
-export function ShopHeader({ shopName, maxWidth }: ShopHeaderProps) {
+export function ShopHeader({ shopName, shopId, maxWidth }: ShopHeaderProps) {
   const router = useRouter();
   const signOut = useSignOutMutation();
   return (
     <View style={styles.bar} accessibilityRole="header">
       <Content style={styles.row} maxWidth={maxWidth}>
         <View style={styles.titleBlock}>
-          <Text style={type.title} numberOfLines={2} testID="shop-name">
-            {shopName}
-          </Text>
+          {shopId ? (
+            <ShopSwitcher shopId={shopId} shopName={shopName} />
+          ) : (
+            <Text style={type.title} numberOfLines={2} testID="shop-name">
+              {shopName}
+            </Text>
+          )}
           <LiveMark />
         </View>
         <Button
@@ -40,6 +47,7 @@ export function ShopHeader({ shopName, maxWidth }: ShopHeaderProps) {
 
 const styles = StyleSheet.create({
   bar: {
+    zIndex: 10,
     backgroundColor: colors.paper,
     borderBottomWidth: 1,
     borderBottomColor: colors.border,

@@ -2,6 +2,7 @@ import { Link, Redirect } from 'expo-router';
 import type { ReactNode } from 'react';
 import { StyleSheet, Text, View } from 'react-native';
 
+import { AlarmBanner } from './AlarmBanner';
 import { shopHref } from './hrefs';
 import {
   CONTENT_MAX_WIDTH,
@@ -13,7 +14,7 @@ import {
 } from './layout';
 import { Notice } from './Notice';
 import { findShop, isSignedOut, useMeQuery, useZonesQuery, type Zone } from './queries';
-import { ShopHeader } from './ShopHeader';
+import { ShopPage } from './ShopPage';
 import { Splash } from './Splash';
 import { colors, space, type } from './theme';
 import { useDocumentTitle } from './useDocumentTitle';
@@ -125,9 +126,21 @@ export function ShopScreen({ shopId, zoneId }: ShopScreenProps) {
   }
 
   return (
-    <Screen header={<ShopHeader shopName={shop.name} maxWidth={columnWidth} />}>
-      <Content maxWidth={columnWidth}>{body}</Content>
-    </Screen>
+    <ShopPage
+      shop={shop}
+      active="zones"
+      maxWidth={columnWidth}
+      banner={
+        <AlarmBanner
+          shopId={shopId}
+          timeZone={timeZone}
+          canAcknowledge={shop.role !== 'viewer'}
+          maxWidth={columnWidth}
+        />
+      }
+    >
+      {body}
+    </ShopPage>
   );
 }
 

@@ -1,4 +1,4 @@
-import { Redirect, useRouter } from 'expo-router';
+import { Link, Redirect, useLocalSearchParams, useRouter } from 'expo-router';
 import { useState } from 'react';
 import { StyleSheet, Text, View } from 'react-native';
 
@@ -24,6 +24,10 @@ function detailFor(details: ApiErrorDetail[], path: string): string | undefined 
 export function SignInScreen() {
   useDocumentTitle('Sign in');
   const router = useRouter();
+  // Where to go after signing in, when a page sent the person here (e.g. an invitation).
+  const { next } = useLocalSearchParams<{ next?: string }>();
+  const nextPath =
+    typeof next === 'string' && next.startsWith('/') && !next.startsWith('//') ? next : null;
   const me = useMeQuery();
   const signIn = useSignInMutation();
   const fetchMe = useFetchMe();
@@ -43,8 +47,8 @@ export function SignInScreen() {
         onSuccess: async () => {
           setLeaving(true);
           try {
-            const next = await fetchMe();
-            router.replace(homeHrefFor(next.shops));
+            const signedIn = await fetchMe();
+            router.replace(nextPath ?? homeHrefFor(signedIn.shops));
           } catch {
             router.replace('/');
           }
@@ -56,7 +60,7 @@ export function SignInScreen() {
   if (me.isPending) return <Splash />;
   // Already signed in (e.g. a bookmarked sign-in page): straight to the shop.
   if (me.isSuccess && !signIn.isPending && !leaving) {
-    return <Redirect href={homeHrefFor(me.data.shops)} />;
+    return <Redirect href={nextPath ?? homeHrefFor(me.data.shops)} />;
   }
 
   return (
@@ -116,6 +120,14 @@ export function SignInScreen() {
           />
           {sending ? <Text style={type.small}>Signing in…</Text> : null}
         </Form>
+        <View style={styles.links}>
+          <Link href="/sign-up" style={styles.link} testID="to-sign-up">
+            Create an account
+          </Link>
+          <Link href="/forgot-password" style={styles.link} testID="to-forgot-password">
+            Forgot your password?
+          </Link>
+        </View>
       </Content>
     </Screen>
   );
@@ -133,4 +145,11 @@ const styles = StyleSheet.create({
     gap: space.lg,
   },
   error: { color: colors.wet },
+  links: { gap: space.md },
+  link: {
+    ...type.body,
+    color: colors.air,
+    textDecorationLine: 'underline',
+    alignSelf: 'flex-start',
+  },
 });

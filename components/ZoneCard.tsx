@@ -1,7 +1,7 @@
 import { Link } from 'expo-router';
 import { Pressable, StyleSheet, Text, View } from 'react-native';
 
-import type { Zone } from '@/components/queries';
+import { useUnitPref, type Zone } from '@/components/queries';
 
 import { Flash } from './Flash';
 import { formatLastSeen, formatMargin, formatPercent, formatTemperature } from './format';
@@ -22,9 +22,10 @@ interface ZoneCardProps {
 
 /** One zone at a glance: level, dew margin (largest), the readings behind it, last seen. */
 export function ZoneCard({ zone, timeZone, href, selected = false }: ZoneCardProps) {
+  const unit = useUnitPref();
   const latest = zone.latest;
   const level = latest?.level ?? 'unknown';
-  const margin = formatMargin(latest?.margin);
+  const margin = formatMargin(latest?.margin, unit);
   const body = (
     <View style={styles.inner}>
       <View style={[styles.rule, { backgroundColor: levelColors[level] }]} />
@@ -42,20 +43,25 @@ export function ZoneCard({ zone, timeZone, href, selected = false }: ZoneCardPro
         <Text style={type.small}>dew margin</Text>
       </Flash>
 
-      <MarginBar marginK={latest?.margin ?? null} wetK={zone.wetK} cautionK={zone.cautionK} />
+      <MarginBar
+        marginK={latest?.margin ?? null}
+        wetK={zone.wetK}
+        cautionK={zone.cautionK}
+        unit={unit}
+      />
 
       <View style={styles.grid}>
         <Value
           label="Dew point"
           testID="zone-dewpoint"
-          text={formatTemperature(latest?.dewPoint)}
+          text={formatTemperature(latest?.dewPoint, unit)}
         />
         <Value
           label={latest?.surfaceSource === 'estimate' ? 'Surface (est.)' : 'Surface'}
           testID="zone-surface"
-          text={formatTemperature(latest?.surface)}
+          text={formatTemperature(latest?.surface, unit)}
         />
-        <Value label="Air" testID="zone-air" text={formatTemperature(latest?.air)} />
+        <Value label="Air" testID="zone-air" text={formatTemperature(latest?.air, unit)} />
         <Value label="RH" testID="zone-rh" text={formatPercent(latest?.rh)} />
         <Value label="Wood EMC" testID="zone-emc" text={formatPercent(latest?.emc, 1)} />
       </View>
@@ -65,7 +71,7 @@ export function ZoneCard({ zone, timeZone, href, selected = false }: ZoneCardPro
   );
 
   const cardStyle = [styles.card, selected && styles.selected];
-  const linkLabel = `${zone.name}: ${levelWords[level]}, dew margin ${formatMargin(latest?.margin)}`;
+  const linkLabel = `${zone.name}: ${levelWords[level]}, dew margin ${margin}`;
   if (!href) {
     return (
       <View style={cardStyle} testID="zone-card">

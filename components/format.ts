@@ -5,6 +5,9 @@
  */
 import { formatInTimeZone } from 'date-fns-tz';
 
+// The file, not '@/ingest': the package index would bring zod into the web bundle.
+import { cToF, kToFDelta, type TemperatureUnit } from '@/ingest/units';
+
 export const MISSING = '—';
 
 function fixed(value: number, digits: number): string {
@@ -14,18 +17,32 @@ function fixed(value: number, digits: number): string {
   return value < 0 ? `-${text}` : text;
 }
 
-/** A dew margin: "+4.2 °C", "-0.8 °C", "—". */
-export function formatMargin(marginK: number | null | undefined): string {
+/**
+ * A dew margin: "+4.2 °C", "-0.8 °C", "—"; in Fahrenheit degrees a difference only scales
+ * (3 K = +5.4 °F).
+ */
+export function formatMargin(
+  marginK: number | null | undefined,
+  unit: TemperatureUnit = 'C',
+): string {
   if (marginK === null || marginK === undefined || !Number.isFinite(marginK)) return MISSING;
-  const text = fixed(marginK, 1);
+  const text = fixed(unit === 'F' ? kToFDelta(marginK) : marginK, 1);
   const sign = text.startsWith('-') || Number(text) === 0 ? '' : '+';
-  return `${sign}${text} °C`;
+  return `${sign}${text} °${unit}`;
 }
 
-/** A temperature: "11.8 °C", "—". */
-export function formatTemperature(valueC: number | null | undefined): string {
+/** A temperature: "11.8 °C", "53.2 °F", "—". */
+export function formatTemperature(
+  valueC: number | null | undefined,
+  unit: TemperatureUnit = 'C',
+): string {
   if (valueC === null || valueC === undefined || !Number.isFinite(valueC)) return MISSING;
-  return `${fixed(valueC, 1)} °C`;
+  return `${fixed(unit === 'F' ? cToF(valueC) : valueC, 1)} °${unit}`;
+}
+
+/** A limit (a temperature difference) in the person's unit, for a form field: "5.4". */
+export function deltaInUnit(deltaK: number, unit: TemperatureUnit): string {
+  return fixed(unit === 'F' ? kToFDelta(deltaK) : deltaK, 1);
 }
 
 /** A percentage with no decimals for RH and one for EMC: "78 %", "14.2 %". */

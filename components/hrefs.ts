@@ -12,3 +12,29 @@ export function homeHrefFor(shops: { id: string }[]): string {
   const first = shops[0];
   return first ? shopHref(first.id) : '/';
 }
+
+export function alarmsHref(shopId: string): string {
+  return `${shopHref(shopId)}/alarms`;
+}
+
+/** The pages reached from a shop's navigation. */
+export type ShopSection = 'zones' | 'alarms' | 'sensors' | 'shop' | 'profile';
+
+export function shopSectionHref(shopId: string, section: ShopSection): string {
+  switch (section) {
+    case 'zones':
+      return shopHref(shopId);
+    case 'alarms':
+      return alarmsHref(shopId);
+    case 'sensors':
+      return `${shopHref(shopId)}/sensors`;
+    case 'shop':
+      return `${shopHref(shopId)}/settings`;
+    case 'profile':
+      return `${shopHref(shopId)}/profile`;
+  }
+}
+
+export function membersHref(shopId: string): string {
+  return `${shopHref(shopId)}/members`;
+}

@@ -28,6 +28,8 @@ secret_file=.data/session-secret
 [ -s "$secret_file" ] || (umask 077 && head -c 48 /dev/urandom | base64 | tr -d '\n' > "$secret_file")
 export SESSION_SECRET=$(cat "$secret_file")
 export WEB_DIR=dist
+# Mail goes to the server's own SMTP server on loopback; /dev/outbox shows what it received.
+export DEV_OUTBOX=${DEV_OUTBOX:-true}
 
 npx tsx scripts/migrate.ts
 npx tsx scripts/seed.ts "$tokens"
@@ -44,5 +46,6 @@ pids+=($!)
 
 echo
 echo "Drybench is running: http://127.0.0.1:$PORT   (Ctrl-C stops everything)"
+[ "$DEV_OUTBOX" = true ] && echo "Mail it sent (invitations, password resets): http://127.0.0.1:$PORT/dev/outbox"
 echo
 wait -n "${pids[@]}" || true

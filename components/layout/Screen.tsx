@@ -5,30 +5,49 @@ import { useSafeAreaInsets } from 'react-native-safe-area-context';
 import { colors, space } from '@/components/theme';
 
 interface ScreenProps {
-  /** Sits above the scrolling area, full width (e.g. the shop header). */
+  /** Sits above the scrolling area, across the page column (e.g. the shop header). */
   header?: ReactNode;
+  /** Beside the scrolling area on the left (the navigation rail on a wide screen). */
+  rail?: ReactNode;
+  /** Below the scrolling area, full width (the bottom bar on a phone). */
+  footer?: ReactNode;
   children: ReactNode;
   testID?: string;
 }
 
-/** A page: paper background, safe-area padding, an optional fixed header and a scroll area. */
-export function Screen({ header, children, testID }: ScreenProps) {
+/** A page: paper background, safe-area padding, optional fixed header, rail and footer. */
+export function Screen({ header, rail, footer, children, testID }: ScreenProps) {
   const insets = useSafeAreaInsets();
   return (
-    <View style={[styles.page, { paddingTop: insets.top }]} testID={testID}>
-      {header}
-      <ScrollView
-        style={styles.scroll}
-        contentContainerStyle={[styles.scrollContent, { paddingBottom: insets.bottom + space.xxl }]}
-      >
-        {children}
-      </ScrollView>
+    <View
+      style={[styles.page, { paddingTop: insets.top, paddingBottom: footer ? 0 : undefined }]}
+      testID={testID}
+    >
+      <View style={styles.body}>
+        {rail}
+        {/* The header sits over the page column only, so both line up beside a rail. */}
+        <View style={styles.column}>
+          {header}
+          <ScrollView
+            style={styles.scroll}
+            contentContainerStyle={[
+              styles.scrollContent,
+              { paddingBottom: (footer ? 0 : insets.bottom) + space.xxl },
+            ]}
+          >
+            {children}
+          </ScrollView>
+        </View>
+      </View>
+      {footer ? <View style={{ paddingBottom: insets.bottom }}>{footer}</View> : null}
     </View>
   );
 }
 
 const styles = StyleSheet.create({
   page: { flex: 1, backgroundColor: colors.paper },
+  body: { flex: 1, flexDirection: 'row' },
+  column: { flex: 1, minWidth: 0 },
   scroll: { flex: 1 },
   scrollContent: { flexGrow: 1, paddingTop: space.lg },
 });

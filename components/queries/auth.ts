@@ -1,5 +1,5 @@
-/** Signing in and out: POST /api/v1/auth/sign-in and /sign-out. */
-import { useMutation, useQueryClient } from '@tanstack/react-query';
+/** Accounts without a session: sign-in, sign-up, sign-out and password reset by e-mail. */
+import { useMutation, useQueryClient, type QueryClient } from '@tanstack/react-query';
 
 import { apiRequest } from './api';
 import { meKeys, meQueryOptions, type Me, type User } from './me';
@@ -9,16 +9,31 @@ export interface SignInInput {
   password: string;
 }
 
+export interface SignUpInput extends SignInInput {
+  name: string;
+}
+
+/** A new session: whatever was cached belonged to nobody or to someone else. */
+export async function startFreshSession(queryClient: QueryClient): Promise<void> {
+  queryClient.removeQueries({ predicate: (query) => query.queryKey[0] !== meKeys.all[0] });
+  await queryClient.invalidateQueries({ queryKey: meKeys.all });
+}
+
 export function useSignInMutation() {
   const queryClient = useQueryClient();
   return useMutation({
     mutationFn: (input: SignInInput) =>
       apiRequest<{ user: User }>('/api/v1/auth/sign-in', { method: 'POST', body: input }),
-    onSuccess: async (): Promise<void> => {
-      // A new session: whatever was cached belonged to nobody or to someone else.
-      queryClient.removeQueries({ predicate: (query) => query.queryKey[0] !== meKeys.all[0] });
-      await queryClient.invalidateQueries({ queryKey: meKeys.all });
-    },
+    onSuccess: () => startFreshSession(queryClient),
+  });
+}
+
+export function useSignUpMutation() {
+  const queryClient = useQueryClient();
+  return useMutation({
+    mutationFn: (input: SignUpInput) =>
+      apiRequest<{ user: User }>('/api/v1/auth/sign-up', { method: 'POST', body: input }),
+    onSuccess: () => startFreshSession(queryClient),
   });
 }
 
@@ -38,5 +53,21 @@ export function useSignOutMutation() {
       queryClient.removeQueries({ predicate: (query) => query.queryKey[0] !== meKeys.all[0] });
       await queryClient.resetQueries({ queryKey: meKeys.all });
     },
+  });
+}
+
+export function usePasswordResetRequestMutation() {
+  return useMutation({
+    mutationFn: (input: { email: string }) =>
+      apiRequest<{ sent: true }>('/api/v1/auth/password-reset', { method: 'POST', body: input }),
+  });
+}
+
+export function usePasswordResetConfirmMutation() {
+  const queryClient = useQueryClient();
+  return useMutation({
+    mutationFn: (input: { token: string; password: string }) =>
+      apiRequest<void>('/api/v1/auth/password-reset/confirm', { method: 'POST', body: input }),
+    onSuccess: () => startFreshSession(queryClient),
   });
 }

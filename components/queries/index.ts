@@ -6,18 +6,51 @@ export {
   isSignedOut,
   type ApiErrorDetail,
 } from './api';
-export { useFetchMe, useSignInMutation, useSignOutMutation, type SignInInput } from './auth';
+export {
+  startFreshSession,
+  useFetchMe,
+  usePasswordResetConfirmMutation,
+  usePasswordResetRequestMutation,
+  useSignInMutation,
+  useSignOutMutation,
+  useSignUpMutation,
+  type SignInInput,
+  type SignUpInput,
+} from './auth';
 export { createQueryClient, shouldRetry } from './client';
+export {
+  invitationLinkKeys,
+  useAcceptInvitationMutation,
+  useInvitationLinkQuery,
+  type InvitationLink,
+} from './invitationLinks';
 export {
   findShop,
   meKeys,
   meQueryOptions,
   useMeQuery,
+  usePasswordChangeMutation,
+  useProfileMutation,
+  useUnitPref,
   type Me,
   type Role,
   type ShopSummary,
+  type UnitPref,
   type User,
 } from './me';
+export {
+  memberKeys,
+  membersQueryOptions,
+  useInvitationsQuery,
+  useInviteMutation,
+  useLeaveShopMutation,
+  useMembersQuery,
+  useRemoveMemberMutation,
+  useRoleMutation,
+  useWithdrawInvitationMutation,
+  type Invitation,
+  type Member,
+} from './members';
 export {
   DAY_WINDOW,
   appendReadingPoint,
@@ -30,7 +63,26 @@ export {
   type ReadingsWindow,
 } from './readings';
 export {
+  sensorKeys,
+  sensorsQueryOptions,
+  useSensorCreateMutation,
+  useSensorMoveMutation,
+  useSensorRevokeMutation,
+  useSensorRotateMutation,
+  useSensorsQuery,
+  type IssuedToken,
+  type Sensor,
+} from './sensors';
+export {
+  shopPath,
+  useShopCreateMutation,
+  useShopDeleteMutation,
+  useShopUpdateMutation,
+} from './shops';
+export {
   patchZoneLatest,
+  useZoneCreateMutation,
+  useZoneUpdateMutation,
   useZonesQuery,
   withLatest,
   zoneKeys,
@@ -38,6 +90,7 @@ export {
   type LatestReading,
   type SurfaceSource,
   type Zone,
+  type ZoneChanges,
   type ZonesResponse,
 } from './zones';
 export {

@@ -1,14 +1,17 @@
-/** The signed-in person and the shops they belong to: GET /api/v1/me. */
-import { queryOptions, useQuery } from '@tanstack/react-query';
+/** The signed-in person and the shops they belong to: GET /api/v1/me, profile and password. */
+import { queryOptions, useMutation, useQuery, useQueryClient } from '@tanstack/react-query';
 
 import { apiRequest } from './api';
 
 export type Role = 'owner' | 'member' | 'viewer';
+export type UnitPref = 'C' | 'F';
 
 export interface User {
   id: string;
   email: string;
   name: string;
+  /** How temperatures are shown; the API always speaks °C and K. */
+  unitPref: UnitPref;
 }
 
 export interface ShopSummary {
@@ -40,7 +43,29 @@ export function useMeQuery() {
   return useQuery(meQueryOptions());
 }
 
+/** The signed-in person's unit preference (°C until /me has answered). */
+export function useUnitPref(): UnitPref {
+  return useMeQuery().data?.user.unitPref ?? 'C';
+}
+
 /** The shop with this id from the signed-in person's list, if they belong to it. */
 export function findShop(me: Me | undefined, shopId: string): ShopSummary | undefined {
   return me?.shops.find((shop) => shop.id === shopId);
+}
+
+export function useProfileMutation() {
+  const queryClient = useQueryClient();
+  return useMutation({
+    mutationFn: (input: { name?: string; unitPref?: UnitPref }) =>
+      apiRequest<{ user: User }>('/api/v1/me', { method: 'PATCH', body: input }),
+    onSuccess: ({ user }) =>
+      queryClient.setQueryData<Me>(meKeys.all, (me) => (me ? { ...me, user } : me)),
+  });
+}
+
+export function usePasswordChangeMutation() {
+  return useMutation({
+    mutationFn: (input: { currentPassword: string; newPassword: string }) =>
+      apiRequest<void>('/api/v1/me/password', { method: 'POST', body: input }),
+  });
 }

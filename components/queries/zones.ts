@@ -1,5 +1,11 @@
 /** A shop's zones with each zone's latest reading: GET /api/v1/shops/:shopId/zones. */
-import { queryOptions, useQuery, type QueryClient } from '@tanstack/react-query';
+import {
+  queryOptions,
+  useMutation,
+  useQuery,
+  useQueryClient,
+  type QueryClient,
+} from '@tanstack/react-query';
 
 import type { Level } from '@/ingest';
 
@@ -79,4 +85,35 @@ export function withLatest(
     return { ...zone, latest };
   });
   return changed ? { ...response, zones } : response;
+}
+
+export function useZoneCreateMutation(shopId: string) {
+  const queryClient = useQueryClient();
+  return useMutation({
+    mutationFn: (input: { name: string }) =>
+      apiRequest<Omit<Zone, 'latest'>>(`/api/v1/shops/${encodeURIComponent(shopId)}/zones`, {
+        method: 'POST',
+        body: input,
+      }),
+    onSettled: () => queryClient.invalidateQueries({ queryKey: zoneKeys.shop(shopId) }),
+  });
+}
+
+export interface ZoneChanges {
+  name?: string;
+  cautionK?: number;
+  wetK?: number;
+  humidRhPct?: number;
+}
+
+export function useZoneUpdateMutation(shopId: string) {
+  const queryClient = useQueryClient();
+  return useMutation({
+    mutationFn: ({ zoneId, ...changes }: ZoneChanges & { zoneId: string }) =>
+      apiRequest<Omit<Zone, 'latest'>>(
+        `/api/v1/shops/${encodeURIComponent(shopId)}/zones/${encodeURIComponent(zoneId)}`,
+        { method: 'PATCH', body: changes },
+      ),
+    onSettled: () => queryClient.invalidateQueries({ queryKey: zoneKeys.shop(shopId) }),
+  });
 }

@@ -52,3 +52,20 @@ describe('formatLastSeen', () => {
     expect(formatLastSeen(at, now, 'America/Chicago')).toBe(expected);
   });
 });
+
+describe('in Fahrenheit', () => {
+  // Exact by the definition of the scale: 1 °F = 5/9 K, 32 °F = 0 °C.
+  it.each([
+    [3, '+5.4 °F'], // a difference only scales: 3 K = 5.4 °F, not 37.4 °F
+    [-1, '-1.8 °F'],
+  ])('a margin of %s K reads %s', (marginK, expected) => {
+    expect(formatMargin(marginK, 'F')).toBe(expected);
+  });
+  it.each([
+    [0, '32.0 °F'],
+    [20, '68.0 °F'],
+    [-40, '-40.0 °F'],
+  ])('%s °C reads %s', (valueC, expected) => {
+    expect(formatTemperature(valueC, 'F')).toBe(expected);
+  });
+});

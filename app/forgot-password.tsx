@@ -1,0 +1,5 @@
+import { ForgotPasswordScreen } from '@/components/PasswordResetScreens';
+
+export default function ForgotPassword() {
+  return <ForgotPasswordScreen />;
+}

@@ -1,0 +1,8 @@
+import { useLocalSearchParams } from 'expo-router';
+
+import { AcceptInvitationScreen } from '@/components/AcceptInvitationScreen';
+
+export default function Invite() {
+  const { token } = useLocalSearchParams<{ token: string }>();
+  return <AcceptInvitationScreen token={token} />;
+}

@@ -1,0 +1,5 @@
+import { NewShopScreen } from '@/components/NewShopScreen';
+
+export default function NewShop() {
+  return <NewShopScreen />;
+}

@@ -1,0 +1,8 @@
+import { useLocalSearchParams } from 'expo-router';
+
+import { MembersScreen } from '@/components/MembersScreen';
+
+export default function Members() {
+  const { shopId } = useLocalSearchParams<{ shopId: string }>();
+  return <MembersScreen shopId={shopId} />;
+}

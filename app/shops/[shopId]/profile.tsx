@@ -1,0 +1,8 @@
+import { useLocalSearchParams } from 'expo-router';
+
+import { ProfileScreen } from '@/components/ProfileScreen';
+
+export default function Profile() {
+  const { shopId } = useLocalSearchParams<{ shopId: string }>();
+  return <ProfileScreen shopId={shopId} />;
+}

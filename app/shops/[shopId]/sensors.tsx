@@ -1,0 +1,8 @@
+import { useLocalSearchParams } from 'expo-router';
+
+import { SensorsScreen } from '@/components/SensorsScreen';
+
+export default function Sensors() {
+  const { shopId } = useLocalSearchParams<{ shopId: string }>();
+  return <SensorsScreen shopId={shopId} />;
+}

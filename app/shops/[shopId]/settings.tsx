@@ -1,0 +1,8 @@
+import { useLocalSearchParams } from 'expo-router';
+
+import { ShopSettingsScreen } from '@/components/ShopSettingsScreen';
+
+export default function ShopSettings() {
+  const { shopId } = useLocalSearchParams<{ shopId: string }>();
+  return <ShopSettingsScreen shopId={shopId} />;
+}

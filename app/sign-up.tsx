@@ -1,0 +1,5 @@
+import { SignUpScreen } from '@/components/SignUpScreen';
+
+export default function SignUp() {
+  return <SignUpScreen />;
+}

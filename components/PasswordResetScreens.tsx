@@ -1,0 +1,134 @@
+import { zodResolver } from '@hookform/resolvers/zod';
+import { useRouter } from 'expo-router';
+import { useState } from 'react';
+import { useForm } from 'react-hook-form';
+import { StyleSheet, Text } from 'react-native';
+
+import { AuthLayout } from './AuthLayout';
+import { Button, Form, FormError, FormField, applyServerErrors } from './forms';
+import { newPasswordFormSchema, resetRequestSchema } from './forms/schemas';
+import { usePasswordResetConfirmMutation, usePasswordResetRequestMutation } from './queries';
+import { space, type } from './theme';
+import { useDocumentTitle } from './useDocumentTitle';
+
+/** Asks for a reset link. The answer is the same whether or not the address has an account. */
+export function ForgotPasswordScreen() {
+  useDocumentTitle('Reset your password');
+  const request = usePasswordResetRequestMutation();
+  const [formError, setFormError] = useState<string | null>(null);
+  const form = useForm<{ email: string }>({
+    resolver: zodResolver(resetRequestSchema),
+    defaultValues: { email: '' },
+  });
+  const sending = form.formState.isSubmitting;
+  const submit = form.handleSubmit(async ({ email }) => {
+    setFormError(null);
+    try {
+      await request.mutateAsync({ email: email.trim() });
+    } catch (error) {
+      setFormError(applyServerErrors(error, ['email'], form.setError));
+    }
+  });
+
+  return (
+    <AuthLayout
+      title="Reset your password"
+      links={[{ href: '/sign-in', label: 'Back to sign in' }]}
+    >
+      {request.isSuccess ? (
+        <Text style={type.body} testID="reset-sent" role="status">
+          If an account uses {form.getValues('email').trim()}, a link to choose a new password is on
+          its way. It works once, for 60 minutes.
+        </Text>
+      ) : (
+        <Form onSubmit={() => void submit()} style={styles.form}>
+          <Text style={type.body}>We will e-mail you a link to choose a new password.</Text>
+          <FormField
+            control={form.control}
+            name="email"
+            label="Email"
+            testID="reset-email"
+            autoCapitalize="none"
+            autoComplete="email"
+            inputMode="email"
+            editable={!sending}
+            onSubmitEditing={() => void submit()}
+          />
+          <FormError message={formError} />
+          <Button
+            label={sending ? 'Sending…' : 'Send the link'}
+            onPress={() => void submit()}
+            disabled={sending}
+            testID="reset-submit"
+          />
+        </Form>
+      )}
+    </AuthLayout>
+  );
+}
+
+interface NewPasswordValues {
+  password: string;
+  repeat: string;
+}
+
+/** The page a reset link opens: a new password, then straight into the app. */
+export function ResetPasswordScreen({ token }: { token: string }) {
+  useDocumentTitle('Choose a new password');
+  const router = useRouter();
+  const confirm = usePasswordResetConfirmMutation();
+  const [formError, setFormError] = useState<string | null>(null);
+  const form = useForm<NewPasswordValues>({
+    resolver: zodResolver(newPasswordFormSchema),
+    defaultValues: { password: '', repeat: '' },
+  });
+  const sending = form.formState.isSubmitting;
+  const submit = form.handleSubmit(async ({ password }) => {
+    setFormError(null);
+    try {
+      await confirm.mutateAsync({ token, password });
+      router.replace('/');
+    } catch (error) {
+      setFormError(applyServerErrors(error, ['password'], form.setError));
+    }
+  });
+
+  return (
+    <AuthLayout
+      title="Choose a new password"
+      links={[{ href: '/forgot-password', label: 'Ask for a new link' }]}
+    >
+      <Form onSubmit={() => void submit()} style={styles.form}>
+        <Text style={type.body}>Signing in with the new password ends every other session.</Text>
+        <FormField
+          control={form.control}
+          name="password"
+          label="New password (at least 10 characters)"
+          testID="new-password"
+          secureTextEntry
+          autoComplete="new-password"
+          editable={!sending}
+        />
+        <FormField
+          control={form.control}
+          name="repeat"
+          label="The same again"
+          testID="new-password-repeat"
+          secureTextEntry
+          autoComplete="new-password"
+          editable={!sending}
+          onSubmitEditing={() => void submit()}
+        />
+        <FormError message={formError} testID="new-password-error" />
+        <Button
+          label={sending ? 'Saving…' : 'Save and sign in'}
+          onPress={() => void submit()}
+          disabled={sending}
+          testID="new-password-submit"
+        />
+      </Form>
+    </AuthLayout>
+  );
+}
+
+const styles = StyleSheet.create({ form: { gap: space.lg } });

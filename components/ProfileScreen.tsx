@@ -1,0 +1,180 @@
+import { zodResolver } from '@hookform/resolvers/zod';
+import { useRouter } from 'expo-router';
+import { useState } from 'react';
+import { useForm } from 'react-hook-form';
+import { StyleSheet, Text } from 'react-native';
+import * as z from 'zod/mini';
+
+import { Button, Choice, Form, FormError, FormField, applyServerErrors } from './forms';
+import { nameSchema, passwordChangeSchema } from './forms/schemas';
+import { Panel } from './Panel';
+import {
+  useMeQuery,
+  usePasswordChangeMutation,
+  useProfileMutation,
+  useSignOutMutation,
+  type UnitPref,
+  type User,
+} from './queries';
+import { ShopFrame } from './ShopPage';
+import { space, type } from './theme';
+
+const UNIT_OPTIONS: readonly { value: UnitPref; label: string }[] = [
+  { value: 'C', label: '°C' },
+  { value: 'F', label: '°F' },
+];
+
+/** The signed-in person: name, temperature units, password, signing out. */
+export function ProfileScreen({ shopId }: { shopId: string }) {
+  const me = useMeQuery();
+  return (
+    <ShopFrame shopId={shopId} active="profile" title="Profile">
+      {() => (me.data ? <ProfileBody user={me.data.user} /> : null)}
+    </ShopFrame>
+  );
+}
+
+function ProfileBody({ user }: { user: User }) {
+  const router = useRouter();
+  const profile = useProfileMutation();
+  const signOut = useSignOutMutation();
+  return (
+    <>
+      <Text style={type.title} role="heading" aria-level={1}>
+        Profile
+      </Text>
+      <NameForm user={user} />
+      <Panel title="Units" hint="How temperatures, dew margins and limits are shown to you.">
+        <Choice
+          label="Temperatures in"
+          options={UNIT_OPTIONS}
+          value={user.unitPref}
+          disabled={profile.isPending}
+          onChange={(unitPref) => profile.mutate({ unitPref })}
+          testID="profile-unit"
+        />
+        <FormError message={profile.error?.message} />
+      </Panel>
+      <PasswordForm />
+      <Panel title="Sign out" hint="Ends your sessions on every device.">
+        <Button
+          label="Sign out everywhere"
+          variant="quiet"
+          disabled={signOut.isPending}
+          onPress={() => signOut.mutate(undefined, { onSettled: () => router.replace('/sign-in') })}
+          testID="profile-sign-out"
+        />
+      </Panel>
+    </>
+  );
+}
+
+const nameFormSchema = z.object({ name: nameSchema });
+
+function NameForm({ user }: { user: User }) {
+  const profile = useProfileMutation();
+  const [formError, setFormError] = useState<string | null>(null);
+  const [saved, setSaved] = useState(false);
+  const form = useForm<{ name: string }>({
+    resolver: zodResolver(nameFormSchema),
+    defaultValues: { name: user.name },
+  });
+  const sending = form.formState.isSubmitting;
+  const submit = form.handleSubmit(async ({ name }) => {
+    setFormError(null);
+    setSaved(false);
+    try {
+      await profile.mutateAsync({ name: name.trim() });
+      setSaved(true);
+    } catch (error) {
+      setFormError(applyServerErrors(error, ['name'], form.setError));
+    }
+  });
+  return (
+    <Panel title="You" hint={`Signed in as ${user.email}.`}>
+      <Form onSubmit={() => void submit()} style={styles.form}>
+        <FormField
+          control={form.control}
+          name="name"
+          label="Your name"
+          testID="profile-name"
+          autoComplete="name"
+          editable={!sending}
+        />
+        <FormError message={formError} />
+        {saved ? (
+          <Text style={type.small} role="status">
+            Saved.
+          </Text>
+        ) : null}
+        <Button
+          label={sending ? 'Saving…' : 'Save name'}
+          onPress={() => void submit()}
+          disabled={sending}
+          testID="profile-name-submit"
+        />
+      </Form>
+    </Panel>
+  );
+}
+
+function PasswordForm() {
+  const change = usePasswordChangeMutation();
+  const [formError, setFormError] = useState<string | null>(null);
+  const [saved, setSaved] = useState(false);
+  const form = useForm<{ currentPassword: string; newPassword: string }>({
+    resolver: zodResolver(passwordChangeSchema),
+    defaultValues: { currentPassword: '', newPassword: '' },
+  });
+  const sending = form.formState.isSubmitting;
+  const submit = form.handleSubmit(async (values) => {
+    setFormError(null);
+    setSaved(false);
+    try {
+      await change.mutateAsync(values);
+      form.reset({ currentPassword: '', newPassword: '' });
+      setSaved(true);
+    } catch (error) {
+      setFormError(applyServerErrors(error, ['currentPassword', 'newPassword'], form.setError));
+    }
+  });
+  return (
+    <Panel title="Password" hint="Changing it signs you out on your other devices.">
+      <Form onSubmit={() => void submit()} style={styles.form}>
+        <FormField
+          control={form.control}
+          name="currentPassword"
+          label="Current password"
+          testID="profile-current-password"
+          secureTextEntry
+          autoComplete="current-password"
+          editable={!sending}
+        />
+        <FormField
+          control={form.control}
+          name="newPassword"
+          label="New password (at least 10 characters)"
+          testID="profile-new-password"
+          secureTextEntry
+          autoComplete="new-password"
+          editable={!sending}
+        />
+        <FormError message={formError} />
+        {saved ? (
+          <Text style={type.small} role="status">
+            Password changed; other sessions have ended.
+          </Text>
+        ) : null}
+        <Button
+          label={sending ? 'Changing…' : 'Change password'}
+          onPress={() => void submit()}
+          disabled={sending}
+          variant="quiet"
+          testID="profile-password-submit"
+        />
+      </Form>
+    </Panel>
+  );
+}
+
+const styles = StyleSheet.create({ form: { gap: space.md } });

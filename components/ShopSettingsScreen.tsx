@@ -1,0 +1,232 @@
+import { zodResolver } from '@hookform/resolvers/zod';
+import { useRouter } from 'expo-router';
+import { useState } from 'react';
+import { useForm } from 'react-hook-form';
+import { StyleSheet, Text, View } from 'react-native';
+
+import { deltaInUnit } from './format';
+import {
+  Button,
+  ConfirmButton,
+  Form,
+  FormError,
+  FormField,
+  TextField,
+  applyServerErrors,
+} from './forms';
+import { shopSchema, zoneNameSchema } from './forms/schemas';
+import { Panel } from './Panel';
+import {
+  useLeaveShopMutation,
+  useShopDeleteMutation,
+  useShopUpdateMutation,
+  useUnitPref,
+  useZoneCreateMutation,
+  useZonesQuery,
+  type ShopSummary,
+} from './queries';
+import { ShopFrame } from './ShopPage';
+import { ShopTabs } from './ShopTabs';
+import { colors, space, type } from './theme';
+import { ZoneLimitsForm } from './ZoneLimitsForm';
+
+/** The shop's name and time zone, its zones and their limits, leaving and deleting it. */
+export function ShopSettingsScreen({ shopId }: { shopId: string }) {
+  return (
+    <ShopFrame shopId={shopId} active="shop" title="Shop settings">
+      {(shop) => <SettingsBody shop={shop} />}
+    </ShopFrame>
+  );
+}
+
+function SettingsBody({ shop }: { shop: ShopSummary }) {
+  const owner = shop.role === 'owner';
+  const zones = useZonesQuery(shop.id);
+  const unit = useUnitPref();
+  return (
+    <>
+      <ShopTabs shop={shop} current="settings" />
+      {owner ? (
+        <ShopForm shop={shop} />
+      ) : (
+        <Panel title={shop.name}>
+          <Text style={type.body}>Time zone: {shop.timeZone}</Text>
+          <Text style={type.body}>Your role: {shop.role}</Text>
+        </Panel>
+      )}
+      <Panel
+        title="Zones and limits"
+        hint="A zone is an area with its own air: the machine room, the lumber rack."
+        testID="zone-settings"
+      >
+        {zones.data?.zones.length === 0 ? <Text style={type.body}>No zones yet.</Text> : null}
+        {zones.data?.zones.map((zone) => (
+          <View key={zone.id} style={styles.zone}>
+            {owner ? (
+              <ZoneLimitsForm shopId={shop.id} zone={zone} unit={unit} />
+            ) : (
+              <Text style={type.body}>
+                {zone.name}: caution below {deltaInUnit(zone.cautionK, unit)} °{unit}, wet at{' '}
+                {deltaInUnit(zone.wetK, unit)} °{unit}, humid above {zone.humidRhPct} % RH
+              </Text>
+            )}
+          </View>
+        ))}
+        {owner ? <NewZoneForm shopId={shop.id} /> : null}
+      </Panel>
+      <LeavePanel shop={shop} />
+      {owner ? <DeletePanel shop={shop} /> : null}
+    </>
+  );
+}
+
+function ShopForm({ shop }: { shop: ShopSummary }) {
+  const update = useShopUpdateMutation(shop.id);
+  const [formError, setFormError] = useState<string | null>(null);
+  const [saved, setSaved] = useState(false);
+  const form = useForm<{ name: string; timeZone: string }>({
+    resolver: zodResolver(shopSchema),
+    defaultValues: { name: shop.name, timeZone: shop.timeZone },
+  });
+  const sending = form.formState.isSubmitting;
+  const submit = form.handleSubmit(async (values) => {
+    setFormError(null);
+    setSaved(false);
+    try {
+      await update.mutateAsync({ name: values.name.trim(), timeZone: values.timeZone.trim() });
+      setSaved(true);
+    } catch (error) {
+      setFormError(applyServerErrors(error, ['name', 'timeZone'], form.setError));
+    }
+  });
+  return (
+    <Panel title="Shop">
+      <Form onSubmit={() => void submit()} style={styles.form}>
+        <FormField
+          control={form.control}
+          name="name"
+          label="Shop name"
+          testID="shop-edit-name"
+          editable={!sending}
+        />
+        <FormField
+          control={form.control}
+          name="timeZone"
+          label="Time zone (IANA, e.g. America/Chicago)"
+          testID="shop-edit-timezone"
+          autoCapitalize="none"
+          autoCorrect={false}
+          editable={!sending}
+        />
+        <FormError message={formError} />
+        {saved ? (
+          <Text style={type.small} role="status">
+            Saved.
+          </Text>
+        ) : null}
+        <Button
+          label={sending ? 'Saving…' : 'Save shop'}
+          onPress={() => void submit()}
+          disabled={sending}
+          testID="shop-edit-submit"
+        />
+      </Form>
+    </Panel>
+  );
+}
+
+function NewZoneForm({ shopId }: { shopId: string }) {
+  const create = useZoneCreateMutation(shopId);
+  const [formError, setFormError] = useState<string | null>(null);
+  const form = useForm<{ name: string }>({
+    resolver: zodResolver(zoneNameSchema),
+    defaultValues: { name: '' },
+  });
+  const sending = form.formState.isSubmitting;
+  const submit = form.handleSubmit(async ({ name }) => {
+    setFormError(null);
+    try {
+      await create.mutateAsync({ name: name.trim() });
+      form.reset({ name: '' });
+    } catch (error) {
+      setFormError(applyServerErrors(error, ['name'], form.setError));
+    }
+  });
+  return (
+    <Form onSubmit={() => void submit()} style={styles.form}>
+      <FormField
+        control={form.control}
+        name="name"
+        label="New zone"
+        placeholder="e.g. Machine room"
+        testID="zone-create-name"
+        editable={!sending}
+        onSubmitEditing={() => void submit()}
+      />
+      <FormError message={formError} />
+      <Button
+        label={sending ? 'Adding…' : 'Add zone'}
+        onPress={() => void submit()}
+        disabled={sending}
+        testID="zone-create-submit"
+      />
+    </Form>
+  );
+}
+
+function LeavePanel({ shop }: { shop: ShopSummary }) {
+  const router = useRouter();
+  const leave = useLeaveShopMutation(shop.id);
+  return (
+    <Panel title="Leave the shop" hint="You lose access to its zones, sensors and alarms.">
+      <ConfirmButton
+        label="Leave"
+        question={`Leave ${shop.name}?`}
+        disabled={leave.isPending}
+        onConfirm={() => leave.mutate(undefined, { onSuccess: () => router.replace('/') })}
+        testID="shop-leave"
+      />
+      <FormError message={leave.error?.message} testID="shop-leave-error" />
+    </Panel>
+  );
+}
+
+function DeletePanel({ shop }: { shop: ShopSummary }) {
+  const router = useRouter();
+  const remove = useShopDeleteMutation(shop.id);
+  const [typed, setTyped] = useState('');
+  const matches = typed.trim() === shop.name;
+  return (
+    <Panel
+      title="Delete the shop"
+      hint="Deletes every zone, sensor, reading and alarm of the shop, for every member. It cannot be undone."
+    >
+      <TextField
+        label={`Type the shop's name, ${shop.name}, to confirm`}
+        value={typed}
+        onChangeText={setTyped}
+        autoCapitalize="none"
+        testID="shop-delete-name"
+      />
+      <FormError message={remove.error?.message} />
+      <Button
+        label={remove.isPending ? 'Deleting…' : 'Delete the shop'}
+        disabled={!matches || remove.isPending}
+        onPress={() =>
+          remove.mutate({ confirmName: typed.trim() }, { onSuccess: () => router.replace('/') })
+        }
+        testID="shop-delete-submit"
+      />
+    </Panel>
+  );
+}
+
+const styles = StyleSheet.create({
+  form: { gap: space.md },
+  zone: {
+    gap: space.sm,
+    paddingBottom: space.md,
+    borderBottomWidth: 1,
+    borderBottomColor: colors.border,
+  },
+});

@@ -1,0 +1,86 @@
+/** A shop's sensors: list (last seen, battery), create, rotate, revoke, move. */
+import { queryOptions, useMutation, useQuery, useQueryClient } from '@tanstack/react-query';
+
+import { apiRequest } from './api';
+import { shopPath } from './shops';
+import { zoneKeys } from './zones';
+
+export interface Sensor {
+  id: string;
+  name: string;
+  zoneId: string;
+  zoneName: string;
+  lastSeenAt: string | null;
+  batteryV: number | null;
+  revokedAt: string | null;
+  createdAt: string;
+}
+
+/** The one moment a token is visible: right after create or rotate. */
+export interface IssuedToken {
+  id: string;
+  token: string;
+}
+
+export const sensorKeys = {
+  all: ['sensors'] as const,
+  list: (shopId: string) => [...sensorKeys.all, shopId, 'list'] as const,
+};
+
+export function sensorsQueryOptions(shopId: string) {
+  return queryOptions({
+    queryKey: sensorKeys.list(shopId),
+    queryFn: ({ signal }) =>
+      apiRequest<{ sensors: Sensor[] }>(`${shopPath(shopId)}/sensors`, { signal }),
+    staleTime: 30_000,
+  });
+}
+
+export function useSensorsQuery(shopId: string) {
+  return useQuery(sensorsQueryOptions(shopId));
+}
+
+function useSensorMutation<I, O>(shopId: string, fn: (input: I) => Promise<O>) {
+  const queryClient = useQueryClient();
+  return useMutation({
+    mutationFn: fn,
+    onSettled: async () => {
+      await queryClient.invalidateQueries({ queryKey: sensorKeys.list(shopId) });
+      await queryClient.invalidateQueries({ queryKey: zoneKeys.shop(shopId) });
+    },
+  });
+}
+
+export function useSensorCreateMutation(shopId: string) {
+  return useSensorMutation(shopId, (input: { name: string; zoneId: string }) =>
+    apiRequest<IssuedToken & { name: string; zoneId: string }>(`${shopPath(shopId)}/sensors`, {
+      method: 'POST',
+      body: input,
+    }),
+  );
+}
+
+export function useSensorRotateMutation(shopId: string) {
+  return useSensorMutation(shopId, (sensorId: string) =>
+    apiRequest<IssuedToken>(`${shopPath(shopId)}/sensors/${encodeURIComponent(sensorId)}/token`, {
+      method: 'POST',
+    }),
+  );
+}
+
+export function useSensorRevokeMutation(shopId: string) {
+  return useSensorMutation(shopId, (sensorId: string) =>
+    apiRequest<void>(`${shopPath(shopId)}/sensors/${encodeURIComponent(sensorId)}/token`, {
+      method: 'DELETE',
+    }),
+  );
+}
+
+export function useSensorMoveMutation(shopId: string) {
+  return useSensorMutation(shopId, (input: { sensorId: string; zoneId: string }) =>
+    apiRequest(`${shopPath(shopId)}/sensors/${encodeURIComponent(input.sensorId)}`, {
+      method: 'PATCH',
+      body: { zoneId: input.zoneId },
+    }),
+  );
+}
