@@ -32,7 +32,10 @@ export function sensorsQueryOptions(shopId: string) {
     queryKey: sensorKeys.list(shopId),
     queryFn: ({ signal }) =>
       apiRequest<{ sensors: Sensor[] }>(`${shopPath(shopId)}/sensors`, { signal }),
-    staleTime: 30_000,
+    // Last seen and battery change with every reading: fresh on each visit, and every
+    // 30 s while the page is open (live messages carry readings, not sensor rows).
+    staleTime: 0,
+    refetchInterval: 30_000,
   });
 }
 

@@ -1,0 +1,136 @@
+// A new person's path, in Debian's Chromium against the real server: sign up, create a shop,
+// add a zone and a sensor, copy the sensor's token from the page, post a reading with it from
+// this test (as the sensor would), and see the reading on the shop's overview — then switch
+// the profile to °F and see the same reading in Fahrenheit.
+import { randomUUID } from 'node:crypto';
+
+import type { BrowserContext, Page } from 'playwright-core';
+import { afterAll, beforeAll, describe, expect, it } from 'vitest';
+
+import { SHOTS, startBrowserSuite, type BrowserSuite } from '../support/browser';
+
+let suite: BrowserSuite;
+beforeAll(async () => {
+  suite = await startBrowserSuite();
+});
+afterAll(() => suite?.close());
+
+async function postReading(token: string, reading: Record<string, unknown>) {
+  const res = await fetch(`${suite.server.baseUrl}/api/v1/ingest`, {
+    method: 'POST',
+    headers: { authorization: `Bearer ${token}`, 'content-type': 'application/json' },
+    body: JSON.stringify(reading),
+  });
+  expect(res.status).toBe(202);
+}
+
+async function shot(page: Page, name: string) {
+  await page.screenshot({ path: `${SHOTS}/people-${name}.png`, fullPage: true });
+}
+
+describe('a new owner on a phone (390×844)', () => {
+  let context: BrowserContext;
+  let page: Page;
+  const errors: string[] = [];
+
+  beforeAll(async () => {
+    context = await suite.browser.newContext({
+      viewport: { width: 390, height: 844 },
+      permissions: ['clipboard-read', 'clipboard-write'],
+    });
+    page = await context.newPage();
+    page.setDefaultTimeout(10_000);
+    page.on('pageerror', (err) => errors.push(err.message));
+  });
+  afterAll(() => context?.close());
+
+  it('signs up, creates a shop, a zone and a sensor, and sees the sensor’s reading', async () => {
+    const base = suite.server.baseUrl;
+    await page.goto(`${base}/sign-in`);
+    await page.getByTestId('to-sign-up').click();
+    await page.waitForURL(/\/sign-up$/);
+
+    // The form checks before sending: errors appear next to their fields.
+    await page.getByTestId('sign-up-submit').click();
+    await expect
+      .poll(() => page.getByTestId('sign-up-email-error').textContent())
+      .toContain('e-mail');
+    await page.getByTestId('sign-up-name').fill('Mira Planer');
+    await page.getByTestId('sign-up-email').fill(`mira-${randomUUID().slice(0, 8)}@cedar.example`);
+    await page.getByTestId('sign-up-password').fill('short');
+    await page.getByTestId('sign-up-submit').click();
+    await expect
+      .poll(() => page.getByTestId('sign-up-password-error').textContent())
+      .toContain('at least 10');
+    await page.getByTestId('sign-up-password').fill('cedar loft password');
+    await page.getByTestId('sign-up-submit').click();
+
+    await page.getByTestId('create-shop').click();
+    await page.waitForURL(/\/new-shop$/);
+    await page.getByTestId('shop-create-name').fill('Cedar Loft Workshop');
+    await page.getByTestId('shop-create-timezone').fill('America/Denver');
+    await page.getByTestId('shop-create-submit').click();
+    await page.waitForURL(/\/shops\/[0-9a-f-]+\/settings$/);
+    expect(await page.getByTestId('shop-name').textContent()).toBe('Cedar Loft Workshop');
+
+    await page.getByTestId('zone-create-name').fill('Machine room');
+    await page.getByTestId('zone-create-submit').click();
+    await expect.poll(() => page.getByTestId('zone-edit-name').inputValue()).toBe('Machine room');
+    await shot(page, 'settings-phone');
+
+    await page.getByTestId('nav-sensors').click();
+    await page.waitForURL(/\/sensors$/);
+    await page.getByTestId('sensor-create-name').fill('Saw-top probe');
+    await page.getByRole('radio', { name: 'Machine room' }).click();
+    await page.getByTestId('sensor-create-submit').click();
+    const shown = (await page.getByTestId('sensor-token').textContent())!.trim();
+    expect(shown).toMatch(/^dbs_[A-Za-z0-9_-]{43}$/);
+    await page.getByTestId('copy-token').click();
+    await expect.poll(() => page.getByTestId('copy-status').textContent()).toBe('Token copied.');
+    const copied = await page.evaluate(() => navigator.clipboard.readText());
+    expect(copied).toBe(shown);
+    const curl = await page.getByTestId('sensor-curl').textContent();
+    expect(curl).toContain(`curl -X POST ${base}/api/v1/ingest`);
+    expect(curl).toContain(`Authorization: Bearer ${copied}`);
+    await shot(page, 'token-phone');
+
+    // The sensor (this test) posts with the copied token; the overview shows the reading.
+    await postReading(copied, { air: 16.4, rh: 58, surface: 13.1, battery: 3.05 });
+    await page.getByTestId('nav-zones').click();
+    const card = page.getByTestId('zone-card').filter({ hasText: 'Machine room' });
+    await expect.poll(() => card.getByTestId('zone-air').textContent()).toBe('16.4 °C');
+    expect(await card.getByTestId('zone-surface').textContent()).toBe('13.1 °C');
+    await shot(page, 'overview-phone');
+
+    // Fahrenheit: 16.4 °C = 61.5 °F; 13.1 °C = 55.6 °F (°F = °C × 9/5 + 32).
+    await page.getByTestId('nav-profile').click();
+    await page.getByRole('radio', { name: '°F' }).click();
+    await expect
+      .poll(() => page.getByRole('radio', { name: '°F' }).getAttribute('aria-checked'))
+      .toBe('true');
+    await page.getByTestId('nav-zones').click();
+    await expect.poll(() => card.getByTestId('zone-air').textContent()).toBe('61.5 °F');
+    expect(await card.getByTestId('zone-surface').textContent()).toBe('55.6 °F');
+
+    await page.getByTestId('nav-sensors').click();
+    await expect.poll(() => page.getByTestId('sensor-battery').textContent()).toBe('3.05 V');
+    expect(await page.getByTestId('sensor-last-seen').textContent()).toMatch(/just now|min ago/);
+    expect(errors).toEqual([]);
+  });
+
+  it('shows the same shop on a wide screen with a left rail instead of the bottom bar', async () => {
+    await page.setViewportSize({ width: 1440, height: 900 });
+    await page.getByTestId('nav-zones').click();
+    await page.getByTestId('shop-nav-rail').waitFor();
+    expect(await page.getByTestId('shop-nav-bar').count()).toBe(0);
+    expect(await page.getByRole('link', { name: 'Zones' }).getAttribute('aria-current')).toBe(
+      'page',
+    );
+    await shot(page, 'overview-wide');
+    await page.getByTestId('nav-shop').click();
+    await page.getByTestId('tab-members').click();
+    await page.getByTestId('member-list').waitFor();
+    await shot(page, 'members-wide');
+    expect(errors).toEqual([]);
+  });
+});
