@@ -2,10 +2,10 @@ import { useMemo, useState } from 'react';
 import { StyleSheet, Text, View, type LayoutChangeEvent } from 'react-native';
 import { VictoryArea, VictoryAxis, VictoryChart, VictoryContainer, VictoryLine } from 'victory';
 
-import type { ReadingPoint } from '@/components/queries';
+import { useUnitPref, type ReadingPoint } from '@/components/queries';
 
 import { hourTickLabel, hourTicks } from './chartTicks';
-import { chartSeries } from './chartSeries';
+import { chartSeries, seriesInUnit } from './chartSeries';
 import { colors, fonts, space, type } from './theme';
 
 interface MarginChartProps {
@@ -37,11 +37,12 @@ export function MarginChart({
   height = 260,
 }: MarginChartProps) {
   const [width, setWidth] = useState(0);
+  const unit = useUnitPref();
   // Buckets carry how many readings they stand for; raw points count one each.
   const readingCount = points.reduce((n, p) => n + p.count, 0);
   const series = useMemo(
-    () => chartSeries(points, { wetK, cautionK }, bucketSeconds),
-    [points, wetK, cautionK, bucketSeconds],
+    () => seriesInUnit(chartSeries(points, { wetK, cautionK }, bucketSeconds), unit),
+    [points, wetK, cautionK, bucketSeconds, unit],
   );
   // Roughly one label per 70 px keeps "HH:mm" labels apart on a phone.
   const stepHours = width >= 900 ? 2 : width >= 560 ? 3 : 6;
@@ -84,7 +85,7 @@ export function MarginChart({
               offsetX={PADDING.left}
               // Not a crossing axis, so Victory keeps the 0° tick it would otherwise hide.
               crossAxis={false}
-              tickFormat={(t: number) => `${t}°`}
+              tickFormat={(t: number) => `${t}°${unit}`}
               style={{
                 axis: { stroke: 'transparent' },
                 grid: { stroke: colors.border, strokeWidth: 1 },

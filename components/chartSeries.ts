@@ -3,6 +3,7 @@
  * sensor) becomes a break in every line rather than a straight line across the silence.
  */
 import type { ReadingPoint } from '@/components/queries';
+import { cToF, type TemperatureUnit } from '@/ingest/units';
 
 export interface XY {
   x: Date;
@@ -97,4 +98,25 @@ export function chartSeries(
     series.yDomain = [Math.floor(low - pad), Math.ceil(high + pad)];
   }
   return series;
+}
+
+/**
+ * The series in the person's unit. Every line and band edge is an absolute temperature (the
+ * bands are dew point + a limit), so each converts on its own; the domain is widened to whole
+ * degrees again.
+ */
+export function seriesInUnit(series: ChartSeries, unit: TemperatureUnit): ChartSeries {
+  if (unit === 'C') return series;
+  const f = (v: number | null) => (v === null ? null : cToF(v));
+  const line = (xs: XY[]) => xs.map((p) => ({ x: p.x, y: f(p.y) }));
+  const band = (xs: Band[]) => xs.map((p) => ({ x: p.x, y: f(p.y), y0: f(p.y0) }));
+  return {
+    air: line(series.air),
+    surface: line(series.surface),
+    dewPoint: line(series.dewPoint),
+    closeBand: band(series.closeBand),
+    wetBand: band(series.wetBand),
+    yDomain: [Math.floor(cToF(series.yDomain[0])), Math.ceil(cToF(series.yDomain[1]))],
+    hasData: series.hasData,
+  };
 }
