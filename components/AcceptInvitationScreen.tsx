@@ -1,11 +1,8 @@
-import { zodResolver } from '@hookform/resolvers/zod';
 import { useRouter } from 'expo-router';
-import { useState } from 'react';
-import { useForm } from 'react-hook-form';
 import { StyleSheet, Text } from 'react-native';
 
 import { AuthLayout } from './AuthLayout';
-import { Button, Form, FormError, FormField, applyServerErrors } from './forms';
+import { Button, Form, FormError, FormField, useApiForm } from './forms';
 import { acceptNewAccountSchema } from './forms/schemas';
 import { shopHref } from './hrefs';
 import {
@@ -134,26 +131,20 @@ function SignOutButton() {
 function NewAccountForm({ token, invitation }: { token: string; invitation: InvitationLink }) {
   const router = useRouter();
   const accept = useAcceptInvitationMutation(token);
-  const [formError, setFormError] = useState<string | null>(null);
-  const form = useForm<{ name: string; password: string }>({
-    resolver: zodResolver(acceptNewAccountSchema),
+  const { control, submit, sending, formError } = useApiForm<{ name: string; password: string }>({
+    schema: acceptNewAccountSchema,
     defaultValues: { name: '', password: '' },
-  });
-  const sending = form.formState.isSubmitting;
-  const submit = form.handleSubmit(async (values) => {
-    setFormError(null);
-    try {
+    fields: ['name', 'password'],
+    send: async (values) => {
       const result = await accept.mutateAsync(values);
       router.replace(shopHref(result.shop.id));
-    } catch (error) {
-      setFormError(applyServerErrors(error, ['name', 'password'], form.setError));
-    }
+    },
   });
   return (
-    <Form onSubmit={() => void submit()} style={styles.form}>
+    <Form onSubmit={submit} style={styles.form}>
       <Text style={type.small}>Create your account for {invitation.email}.</Text>
       <FormField
-        control={form.control}
+        control={control}
         name="name"
         label="Your name"
         testID="invitation-name"
@@ -161,19 +152,19 @@ function NewAccountForm({ token, invitation }: { token: string; invitation: Invi
         editable={!sending}
       />
       <FormField
-        control={form.control}
+        control={control}
         name="password"
         label="Password (at least 10 characters)"
         testID="invitation-password"
         secureTextEntry
         autoComplete="new-password"
         editable={!sending}
-        onSubmitEditing={() => void submit()}
+        onSubmitEditing={submit}
       />
       <FormError message={formError} testID="invitation-error" />
       <Button
         label={sending ? 'Joining…' : 'Create account and join'}
-        onPress={() => void submit()}
+        onPress={submit}
         disabled={sending}
         testID="invitation-accept"
       />

@@ -1,17 +1,8 @@
-import { zodResolver } from '@hookform/resolvers/zod';
 import { useState } from 'react';
-import { Controller, useForm } from 'react-hook-form';
+import { Controller } from 'react-hook-form';
 import { StyleSheet, Text, View } from 'react-native';
 
-import {
-  Button,
-  Choice,
-  ConfirmButton,
-  Form,
-  FormError,
-  FormField,
-  applyServerErrors,
-} from './forms';
+import { Button, Choice, ConfirmButton, Form, FormError, FormField, useApiForm } from './forms';
 import { inviteSchema } from './forms/schemas';
 import { Notice } from './Notice';
 import { Panel } from './Panel';
@@ -134,23 +125,19 @@ function InvitePanel({ shopId }: { shopId: string }) {
   const invite = useInviteMutation(shopId);
   const invitations = useInvitationsQuery(shopId);
   const withdraw = useWithdrawInvitationMutation(shopId);
-  const [formError, setFormError] = useState<string | null>(null);
   const [sentTo, setSentTo] = useState<string | null>(null);
-  const form = useForm<{ email: string; role: Role }>({
-    resolver: zodResolver(inviteSchema),
+  const { form, control, submit, sending, formError, done } = useApiForm<{
+    email: string;
+    role: Role;
+  }>({
+    schema: inviteSchema,
     defaultValues: { email: '', role: 'member' },
-  });
-  const sending = form.formState.isSubmitting;
-  const submit = form.handleSubmit(async (values) => {
-    setFormError(null);
-    setSentTo(null);
-    try {
+    fields: ['email', 'role'],
+    send: async (values) => {
       const created = await invite.mutateAsync({ email: values.email.trim(), role: values.role });
       setSentTo(created.email);
       form.reset({ email: '', role: values.role });
-    } catch (error) {
-      setFormError(applyServerErrors(error, ['email', 'role'], form.setError));
-    }
+    },
   });
 
   return (
@@ -158,9 +145,9 @@ function InvitePanel({ shopId }: { shopId: string }) {
       title="Invite someone"
       hint="They get an e-mail with a link that works once, for 7 days."
     >
-      <Form onSubmit={() => void submit()} style={styles.form}>
+      <Form onSubmit={submit} style={styles.form}>
         <FormField
-          control={form.control}
+          control={control}
           name="email"
           label="Their e-mail"
           testID="invite-email"
@@ -169,7 +156,7 @@ function InvitePanel({ shopId }: { shopId: string }) {
           editable={!sending}
         />
         <Controller
-          control={form.control}
+          control={control}
           name="role"
           render={({ field }) => (
             <Choice
@@ -183,14 +170,14 @@ function InvitePanel({ shopId }: { shopId: string }) {
           )}
         />
         <FormError message={formError} testID="invite-error" />
-        {sentTo ? (
+        {done && sentTo ? (
           <Text style={type.body} role="status" testID="invite-sent">
             Invitation sent to {sentTo}.
           </Text>
         ) : null}
         <Button
           label={sending ? 'Sending…' : 'Send invitation'}
-          onPress={() => void submit()}
+          onPress={submit}
           disabled={sending}
           testID="invite-submit"
         />

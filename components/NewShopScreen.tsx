@@ -1,11 +1,8 @@
-import { zodResolver } from '@hookform/resolvers/zod';
 import { Redirect, useRouter } from 'expo-router';
-import { useState } from 'react';
-import { useForm } from 'react-hook-form';
 import { StyleSheet, Text } from 'react-native';
 
 import { AuthLayout } from './AuthLayout';
-import { Button, Form, FormError, FormField, applyServerErrors } from './forms';
+import { Button, Form, FormError, FormField, useApiForm } from './forms';
 import { shopSchema } from './forms/schemas';
 import { shopSectionHref } from './hrefs';
 import { isSignedOut, useMeQuery, useShopCreateMutation } from './queries';
@@ -28,23 +25,17 @@ export function NewShopScreen() {
   const router = useRouter();
   const me = useMeQuery();
   const create = useShopCreateMutation();
-  const [formError, setFormError] = useState<string | null>(null);
-  const form = useForm<{ name: string; timeZone: string }>({
-    resolver: zodResolver(shopSchema),
+  const { control, submit, sending, formError } = useApiForm<{ name: string; timeZone: string }>({
+    schema: shopSchema,
     defaultValues: { name: '', timeZone: browserTimeZone() },
-  });
-  const sending = form.formState.isSubmitting;
-  const submit = form.handleSubmit(async (values) => {
-    setFormError(null);
-    try {
+    fields: ['name', 'timeZone'],
+    send: async (values) => {
       const shop = await create.mutateAsync({
         name: values.name.trim(),
         timeZone: values.timeZone.trim(),
       });
       router.replace(shopSectionHref(shop.id, 'shop'));
-    } catch (error) {
-      setFormError(applyServerErrors(error, ['name', 'timeZone'], form.setError));
-    }
+    },
   });
 
   if (me.isPending) return <Splash />;
@@ -52,31 +43,31 @@ export function NewShopScreen() {
   const back = me.data?.shops.length ? [{ href: '/', label: 'Back to my shops' }] : [];
   return (
     <AuthLayout title="New shop" links={back}>
-      <Form onSubmit={() => void submit()} style={styles.form}>
+      <Form onSubmit={submit} style={styles.form}>
         <Text style={type.body}>
           A shop is one workshop location. You will be its owner and can invite others.
         </Text>
         <FormField
-          control={form.control}
+          control={control}
           name="name"
           label="Shop name"
           testID="shop-create-name"
           editable={!sending}
         />
         <FormField
-          control={form.control}
+          control={control}
           name="timeZone"
           label="Time zone (IANA, e.g. America/Chicago)"
           testID="shop-create-timezone"
           autoCapitalize="none"
           autoCorrect={false}
           editable={!sending}
-          onSubmitEditing={() => void submit()}
+          onSubmitEditing={submit}
         />
         <FormError message={formError} testID="shop-create-error" />
         <Button
           label={sending ? 'Creating…' : 'Create shop'}
-          onPress={() => void submit()}
+          onPress={submit}
           disabled={sending}
           testID="shop-create-submit"
         />

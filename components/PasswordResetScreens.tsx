@@ -1,11 +1,8 @@
-import { zodResolver } from '@hookform/resolvers/zod';
 import { useRouter } from 'expo-router';
-import { useState } from 'react';
-import { useForm } from 'react-hook-form';
 import { StyleSheet, Text } from 'react-native';
 
 import { AuthLayout } from './AuthLayout';
-import { Button, Form, FormError, FormField, applyServerErrors } from './forms';
+import { Button, Form, FormError, FormField, useApiForm } from './forms';
 import { newPasswordFormSchema, resetRequestSchema } from './forms/schemas';
 import { usePasswordResetConfirmMutation, usePasswordResetRequestMutation } from './queries';
 import { space, type } from './theme';
@@ -15,19 +12,11 @@ import { useDocumentTitle } from './useDocumentTitle';
 export function ForgotPasswordScreen() {
   useDocumentTitle('Reset your password');
   const request = usePasswordResetRequestMutation();
-  const [formError, setFormError] = useState<string | null>(null);
-  const form = useForm<{ email: string }>({
-    resolver: zodResolver(resetRequestSchema),
+  const { form, control, submit, sending, formError } = useApiForm<{ email: string }>({
+    schema: resetRequestSchema,
     defaultValues: { email: '' },
-  });
-  const sending = form.formState.isSubmitting;
-  const submit = form.handleSubmit(async ({ email }) => {
-    setFormError(null);
-    try {
-      await request.mutateAsync({ email: email.trim() });
-    } catch (error) {
-      setFormError(applyServerErrors(error, ['email'], form.setError));
-    }
+    fields: ['email'],
+    send: ({ email }) => request.mutateAsync({ email: email.trim() }),
   });
 
   return (
@@ -41,10 +30,10 @@ export function ForgotPasswordScreen() {
           its way. It works once, for 60 minutes.
         </Text>
       ) : (
-        <Form onSubmit={() => void submit()} style={styles.form}>
+        <Form onSubmit={submit} style={styles.form}>
           <Text style={type.body}>We will e-mail you a link to choose a new password.</Text>
           <FormField
-            control={form.control}
+            control={control}
             name="email"
             label="Email"
             testID="reset-email"
@@ -52,12 +41,12 @@ export function ForgotPasswordScreen() {
             autoComplete="email"
             inputMode="email"
             editable={!sending}
-            onSubmitEditing={() => void submit()}
+            onSubmitEditing={submit}
           />
           <FormError message={formError} />
           <Button
             label={sending ? 'Sending…' : 'Send the link'}
-            onPress={() => void submit()}
+            onPress={submit}
             disabled={sending}
             testID="reset-submit"
           />
@@ -77,20 +66,14 @@ export function ResetPasswordScreen({ token }: { token: string }) {
   useDocumentTitle('Choose a new password');
   const router = useRouter();
   const confirm = usePasswordResetConfirmMutation();
-  const [formError, setFormError] = useState<string | null>(null);
-  const form = useForm<NewPasswordValues>({
-    resolver: zodResolver(newPasswordFormSchema),
+  const { control, submit, sending, formError } = useApiForm<NewPasswordValues>({
+    schema: newPasswordFormSchema,
     defaultValues: { password: '', repeat: '' },
-  });
-  const sending = form.formState.isSubmitting;
-  const submit = form.handleSubmit(async ({ password }) => {
-    setFormError(null);
-    try {
+    fields: ['password'],
+    send: async ({ password }) => {
       await confirm.mutateAsync({ token, password });
       router.replace('/');
-    } catch (error) {
-      setFormError(applyServerErrors(error, ['password'], form.setError));
-    }
+    },
   });
 
   return (
@@ -98,10 +81,10 @@ export function ResetPasswordScreen({ token }: { token: string }) {
       title="Choose a new password"
       links={[{ href: '/forgot-password', label: 'Ask for a new link' }]}
     >
-      <Form onSubmit={() => void submit()} style={styles.form}>
+      <Form onSubmit={submit} style={styles.form}>
         <Text style={type.body}>Signing in with the new password ends every other session.</Text>
         <FormField
-          control={form.control}
+          control={control}
           name="password"
           label="New password (at least 10 characters)"
           testID="new-password"
@@ -110,19 +93,19 @@ export function ResetPasswordScreen({ token }: { token: string }) {
           editable={!sending}
         />
         <FormField
-          control={form.control}
+          control={control}
           name="repeat"
           label="The same again"
           testID="new-password-repeat"
           secureTextEntry
           autoComplete="new-password"
           editable={!sending}
-          onSubmitEditing={() => void submit()}
+          onSubmitEditing={submit}
         />
         <FormError message={formError} testID="new-password-error" />
         <Button
           label={sending ? 'Saving…' : 'Save and sign in'}
-          onPress={() => void submit()}
+          onPress={submit}
           disabled={sending}
           testID="new-password-submit"
         />

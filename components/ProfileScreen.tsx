@@ -1,11 +1,8 @@
-import { zodResolver } from '@hookform/resolvers/zod';
 import { useRouter } from 'expo-router';
-import { useState } from 'react';
-import { useForm } from 'react-hook-form';
 import { StyleSheet, Text } from 'react-native';
 import * as z from 'zod/mini';
 
-import { Button, Choice, Form, FormError, FormField, applyServerErrors } from './forms';
+import { Button, Choice, Form, FormError, FormField, useApiForm } from './forms';
 import { nameSchema, passwordChangeSchema } from './forms/schemas';
 import { Panel } from './Panel';
 import {
@@ -73,28 +70,19 @@ const nameFormSchema = z.object({ name: nameSchema });
 
 function NameForm({ user }: { user: User }) {
   const profile = useProfileMutation();
-  const [formError, setFormError] = useState<string | null>(null);
-  const [saved, setSaved] = useState(false);
-  const form = useForm<{ name: string }>({
-    resolver: zodResolver(nameFormSchema),
+  const { control, submit, sending, formError, done } = useApiForm<{ name: string }>({
+    schema: nameFormSchema,
     defaultValues: { name: user.name },
-  });
-  const sending = form.formState.isSubmitting;
-  const submit = form.handleSubmit(async ({ name }) => {
-    setFormError(null);
-    setSaved(false);
-    try {
+    fields: ['name'],
+    send: async ({ name }) => {
       await profile.mutateAsync({ name: name.trim() });
-      setSaved(true);
-    } catch (error) {
-      setFormError(applyServerErrors(error, ['name'], form.setError));
-    }
+    },
   });
   return (
     <Panel title="You" hint={`Signed in as ${user.email}.`}>
-      <Form onSubmit={() => void submit()} style={styles.form}>
+      <Form onSubmit={submit} style={styles.form}>
         <FormField
-          control={form.control}
+          control={control}
           name="name"
           label="Your name"
           testID="profile-name"
@@ -102,14 +90,14 @@ function NameForm({ user }: { user: User }) {
           editable={!sending}
         />
         <FormError message={formError} />
-        {saved ? (
+        {done ? (
           <Text style={type.small} role="status">
             Saved.
           </Text>
         ) : null}
         <Button
           label={sending ? 'Saving…' : 'Save name'}
-          onPress={() => void submit()}
+          onPress={submit}
           disabled={sending}
           testID="profile-name-submit"
         />
@@ -120,29 +108,23 @@ function NameForm({ user }: { user: User }) {
 
 function PasswordForm() {
   const change = usePasswordChangeMutation();
-  const [formError, setFormError] = useState<string | null>(null);
-  const [saved, setSaved] = useState(false);
-  const form = useForm<{ currentPassword: string; newPassword: string }>({
-    resolver: zodResolver(passwordChangeSchema),
+  const { form, control, submit, sending, formError, done } = useApiForm<{
+    currentPassword: string;
+    newPassword: string;
+  }>({
+    schema: passwordChangeSchema,
     defaultValues: { currentPassword: '', newPassword: '' },
-  });
-  const sending = form.formState.isSubmitting;
-  const submit = form.handleSubmit(async (values) => {
-    setFormError(null);
-    setSaved(false);
-    try {
+    fields: ['currentPassword', 'newPassword'],
+    send: async (values) => {
       await change.mutateAsync(values);
       form.reset({ currentPassword: '', newPassword: '' });
-      setSaved(true);
-    } catch (error) {
-      setFormError(applyServerErrors(error, ['currentPassword', 'newPassword'], form.setError));
-    }
+    },
   });
   return (
     <Panel title="Password" hint="Changing it signs you out on your other devices.">
-      <Form onSubmit={() => void submit()} style={styles.form}>
+      <Form onSubmit={submit} style={styles.form}>
         <FormField
-          control={form.control}
+          control={control}
           name="currentPassword"
           label="Current password"
           testID="profile-current-password"
@@ -151,7 +133,7 @@ function PasswordForm() {
           editable={!sending}
         />
         <FormField
-          control={form.control}
+          control={control}
           name="newPassword"
           label="New password (at least 10 characters)"
           testID="profile-new-password"
@@ -160,14 +142,14 @@ function PasswordForm() {
           editable={!sending}
         />
         <FormError message={formError} />
-        {saved ? (
+        {done ? (
           <Text style={type.small} role="status">
             Password changed; other sessions have ended.
           </Text>
         ) : null}
         <Button
           label={sending ? 'Changing…' : 'Change password'}
-          onPress={() => void submit()}
+          onPress={submit}
           disabled={sending}
           variant="quiet"
           testID="profile-password-submit"

@@ -1,18 +1,9 @@
-import { zodResolver } from '@hookform/resolvers/zod';
 import { useState } from 'react';
-import { Controller, useForm } from 'react-hook-form';
+import { Controller } from 'react-hook-form';
 import { StyleSheet, Text, View } from 'react-native';
 
 import { formatLastSeen } from './format';
-import {
-  Button,
-  Choice,
-  ConfirmButton,
-  Form,
-  FormError,
-  FormField,
-  applyServerErrors,
-} from './forms';
+import { Button, Choice, ConfirmButton, Form, FormError, FormField, useApiForm } from './forms';
 import { sensorSchema } from './forms/schemas';
 import { Notice } from './Notice';
 import { Panel } from './Panel';
@@ -198,21 +189,18 @@ interface NewSensorFormProps {
 
 function NewSensorForm({ shopId, zones, onCreated }: NewSensorFormProps) {
   const create = useSensorCreateMutation(shopId);
-  const [formError, setFormError] = useState<string | null>(null);
-  const form = useForm<{ name: string; zoneId: string }>({
-    resolver: zodResolver(sensorSchema),
+  const { form, control, submit, sending, formError } = useApiForm<{
+    name: string;
+    zoneId: string;
+  }>({
+    schema: sensorSchema,
     defaultValues: { name: '', zoneId: '' },
-  });
-  const sending = form.formState.isSubmitting;
-  const submit = form.handleSubmit(async (values) => {
-    setFormError(null);
-    try {
+    fields: ['name', 'zoneId'],
+    send: async (values) => {
       const created = await create.mutateAsync({ name: values.name.trim(), zoneId: values.zoneId });
       form.reset({ name: '', zoneId: values.zoneId });
       onCreated(created.name, created.token);
-    } catch (error) {
-      setFormError(applyServerErrors(error, ['name', 'zoneId'], form.setError));
-    }
+    },
   });
 
   if (zones.length === 0) {
@@ -224,9 +212,9 @@ function NewSensorForm({ shopId, zones, onCreated }: NewSensorFormProps) {
   }
   return (
     <Panel title="Add a sensor" hint="It gets a token to post readings with, shown once.">
-      <Form onSubmit={() => void submit()} style={styles.form}>
+      <Form onSubmit={submit} style={styles.form}>
         <FormField
-          control={form.control}
+          control={control}
           name="name"
           label="Sensor name"
           testID="sensor-create-name"
@@ -234,7 +222,7 @@ function NewSensorForm({ shopId, zones, onCreated }: NewSensorFormProps) {
           editable={!sending}
         />
         <Controller
-          control={form.control}
+          control={control}
           name="zoneId"
           render={({ field, fieldState }) => (
             <Choice
@@ -251,7 +239,7 @@ function NewSensorForm({ shopId, zones, onCreated }: NewSensorFormProps) {
         <FormError message={formError} />
         <Button
           label={sending ? 'Adding…' : 'Add sensor'}
-          onPress={() => void submit()}
+          onPress={submit}
           disabled={sending}
           testID="sensor-create-submit"
         />

@@ -1,19 +1,9 @@
-import { zodResolver } from '@hookform/resolvers/zod';
 import { useRouter } from 'expo-router';
 import { useState } from 'react';
-import { useForm } from 'react-hook-form';
 import { StyleSheet, Text, View } from 'react-native';
 
 import { deltaInUnit } from './format';
-import {
-  Button,
-  ConfirmButton,
-  Form,
-  FormError,
-  FormField,
-  TextField,
-  applyServerErrors,
-} from './forms';
+import { Button, ConfirmButton, Form, FormError, FormField, TextField, useApiForm } from './forms';
 import { shopSchema, zoneNameSchema } from './forms/schemas';
 import { Panel } from './Panel';
 import {
@@ -82,35 +72,29 @@ function SettingsBody({ shop }: { shop: ShopSummary }) {
 
 function ShopForm({ shop }: { shop: ShopSummary }) {
   const update = useShopUpdateMutation(shop.id);
-  const [formError, setFormError] = useState<string | null>(null);
-  const [saved, setSaved] = useState(false);
-  const form = useForm<{ name: string; timeZone: string }>({
-    resolver: zodResolver(shopSchema),
+  const { control, submit, sending, formError, done } = useApiForm<{
+    name: string;
+    timeZone: string;
+  }>({
+    schema: shopSchema,
     defaultValues: { name: shop.name, timeZone: shop.timeZone },
-  });
-  const sending = form.formState.isSubmitting;
-  const submit = form.handleSubmit(async (values) => {
-    setFormError(null);
-    setSaved(false);
-    try {
+    fields: ['name', 'timeZone'],
+    send: async (values) => {
       await update.mutateAsync({ name: values.name.trim(), timeZone: values.timeZone.trim() });
-      setSaved(true);
-    } catch (error) {
-      setFormError(applyServerErrors(error, ['name', 'timeZone'], form.setError));
-    }
+    },
   });
   return (
     <Panel title="Shop">
-      <Form onSubmit={() => void submit()} style={styles.form}>
+      <Form onSubmit={submit} style={styles.form}>
         <FormField
-          control={form.control}
+          control={control}
           name="name"
           label="Shop name"
           testID="shop-edit-name"
           editable={!sending}
         />
         <FormField
-          control={form.control}
+          control={control}
           name="timeZone"
           label="Time zone (IANA, e.g. America/Chicago)"
           testID="shop-edit-timezone"
@@ -119,14 +103,14 @@ function ShopForm({ shop }: { shop: ShopSummary }) {
           editable={!sending}
         />
         <FormError message={formError} />
-        {saved ? (
+        {done ? (
           <Text style={type.small} role="status">
             Saved.
           </Text>
         ) : null}
         <Button
           label={sending ? 'Saving…' : 'Save shop'}
-          onPress={() => void submit()}
+          onPress={submit}
           disabled={sending}
           testID="shop-edit-submit"
         />
@@ -137,36 +121,30 @@ function ShopForm({ shop }: { shop: ShopSummary }) {
 
 function NewZoneForm({ shopId }: { shopId: string }) {
   const create = useZoneCreateMutation(shopId);
-  const [formError, setFormError] = useState<string | null>(null);
-  const form = useForm<{ name: string }>({
-    resolver: zodResolver(zoneNameSchema),
+  const { form, control, submit, sending, formError } = useApiForm<{ name: string }>({
+    schema: zoneNameSchema,
     defaultValues: { name: '' },
-  });
-  const sending = form.formState.isSubmitting;
-  const submit = form.handleSubmit(async ({ name }) => {
-    setFormError(null);
-    try {
+    fields: ['name'],
+    send: async ({ name }) => {
       await create.mutateAsync({ name: name.trim() });
       form.reset({ name: '' });
-    } catch (error) {
-      setFormError(applyServerErrors(error, ['name'], form.setError));
-    }
+    },
   });
   return (
-    <Form onSubmit={() => void submit()} style={styles.form}>
+    <Form onSubmit={submit} style={styles.form}>
       <FormField
-        control={form.control}
+        control={control}
         name="name"
         label="New zone"
         placeholder="e.g. Machine room"
         testID="zone-create-name"
         editable={!sending}
-        onSubmitEditing={() => void submit()}
+        onSubmitEditing={submit}
       />
       <FormError message={formError} />
       <Button
         label={sending ? 'Adding…' : 'Add zone'}
-        onPress={() => void submit()}
+        onPress={submit}
         disabled={sending}
         testID="zone-create-submit"
       />

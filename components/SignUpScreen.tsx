@@ -1,11 +1,8 @@
-import { zodResolver } from '@hookform/resolvers/zod';
 import { useRouter } from 'expo-router';
-import { useState } from 'react';
-import { useForm } from 'react-hook-form';
 import { StyleSheet, Text } from 'react-native';
 
 import { AuthLayout } from './AuthLayout';
-import { Button, Form, FormError, FormField, applyServerErrors } from './forms';
+import { Button, Form, FormError, FormField, useApiForm } from './forms';
 import { signUpSchema } from './forms/schemas';
 import { useSignUpMutation } from './queries';
 import { space, type } from './theme';
@@ -22,21 +19,14 @@ export function SignUpScreen() {
   useDocumentTitle('Create an account');
   const router = useRouter();
   const signUp = useSignUpMutation();
-  const [formError, setFormError] = useState<string | null>(null);
-  const form = useForm<SignUpValues>({
-    resolver: zodResolver(signUpSchema),
+  const { control, submit, sending, formError } = useApiForm<SignUpValues>({
+    schema: signUpSchema,
     defaultValues: { name: '', email: '', password: '' },
-  });
-  const sending = form.formState.isSubmitting || signUp.isPending;
-
-  const submit = form.handleSubmit(async (values) => {
-    setFormError(null);
-    try {
+    fields: ['name', 'email', 'password'],
+    send: async (values) => {
       await signUp.mutateAsync({ ...values, email: values.email.trim() });
       router.replace('/');
-    } catch (error) {
-      setFormError(applyServerErrors(error, ['name', 'email', 'password'], form.setError));
-    }
+    },
   });
 
   return (
@@ -44,9 +34,9 @@ export function SignUpScreen() {
       title="Create an account"
       links={[{ href: '/sign-in', label: 'I have an account: sign in' }]}
     >
-      <Form onSubmit={() => void submit()} style={styles.form}>
+      <Form onSubmit={submit} style={styles.form}>
         <FormField
-          control={form.control}
+          control={control}
           name="name"
           label="Your name"
           testID="sign-up-name"
@@ -54,7 +44,7 @@ export function SignUpScreen() {
           editable={!sending}
         />
         <FormField
-          control={form.control}
+          control={control}
           name="email"
           label="Email"
           testID="sign-up-email"
@@ -65,19 +55,19 @@ export function SignUpScreen() {
           editable={!sending}
         />
         <FormField
-          control={form.control}
+          control={control}
           name="password"
           label="Password (at least 10 characters)"
           testID="sign-up-password"
           secureTextEntry
           autoComplete="new-password"
           editable={!sending}
-          onSubmitEditing={() => void submit()}
+          onSubmitEditing={submit}
         />
         <FormError message={formError} testID="sign-up-error" />
         <Button
           label={sending ? 'Creating…' : 'Create account'}
-          onPress={() => void submit()}
+          onPress={submit}
           disabled={sending}
           testID="sign-up-submit"
         />

@@ -1,15 +1,20 @@
-import { zodResolver } from '@hookform/resolvers/zod';
-import { useState } from 'react';
-import { useForm } from 'react-hook-form';
 import { StyleSheet, Text, View } from 'react-native';
 
 import { fDeltaToK } from '@/ingest/units';
 
 import { deltaInUnit } from './format';
-import { Button, Form, FormError, FormField, applyServerErrors } from './forms';
+import { Button, Form, FormError, FormField, useApiForm } from './forms';
 import { parseDecimal, zoneLimitsSchema } from './forms/schemas';
 import { useZoneUpdateMutation, type UnitPref, type Zone } from './queries';
 import { space, type } from './theme';
+
+// The server names its fields cautionK/wetK/humidRhPct; the form names them for people.
+const SERVER_FIELDS: Record<string, keyof LimitValues> = {
+  name: 'name',
+  cautionK: 'caution',
+  wetK: 'wet',
+  humidRhPct: 'humid',
+};
 
 interface LimitValues {
   name: string;
@@ -32,59 +37,34 @@ export function ZoneLimitsForm({
   unit: UnitPref;
 }) {
   const update = useZoneUpdateMutation(shopId);
-  const [formError, setFormError] = useState<string | null>(null);
-  const [saved, setSaved] = useState(false);
-  const defaults = {
-    name: zone.name,
-    caution: deltaInUnit(zone.cautionK, unit),
-    wet: deltaInUnit(zone.wetK, unit),
-    humid: String(zone.humidRhPct),
-  };
-  const form = useForm<LimitValues>({
-    resolver: zodResolver(zoneLimitsSchema),
-    defaultValues: defaults,
-  });
-  const sending = form.formState.isSubmitting;
   const toK = (text: string) => {
     const value = parseDecimal(text);
     return unit === 'F' ? fDeltaToK(value) : value;
   };
-  const submit = form.handleSubmit(async (values) => {
-    setFormError(null);
-    setSaved(false);
-    try {
-      await update.mutateAsync({
+  const { control, submit, sending, formError, done } = useApiForm<LimitValues>({
+    schema: zoneLimitsSchema,
+    defaultValues: {
+      name: zone.name,
+      caution: deltaInUnit(zone.cautionK, unit),
+      wet: deltaInUnit(zone.wetK, unit),
+      humid: String(zone.humidRhPct),
+    },
+    fields: ['name', 'caution', 'wet', 'humid'],
+    fieldOf: (path) => SERVER_FIELDS[path],
+    send: (values) =>
+      update.mutateAsync({
         zoneId: zone.id,
         name: values.name.trim(),
         cautionK: toK(values.caution),
         wetK: toK(values.wet),
         humidRhPct: parseDecimal(values.humid),
-      });
-      setSaved(true);
-    } catch (error) {
-      // The server names its fields cautionK/wetK/humidRhPct; the form calls them otherwise.
-      const renamed = {
-        caution: 'cautionK',
-        wet: 'wetK',
-        humid: 'humidRhPct',
-        name: 'name',
-      } as const;
-      const fieldOf = (path: string) =>
-        (Object.keys(renamed) as (keyof typeof renamed)[]).find((k) => renamed[k] === path);
-      const message = applyServerErrors(
-        error,
-        ['name', 'caution', 'wet', 'humid'],
-        form.setError,
-        fieldOf,
-      );
-      setFormError(message);
-    }
+      }),
   });
   const deg = `°${unit}`;
   return (
-    <Form onSubmit={() => void submit()} style={styles.form}>
+    <Form onSubmit={submit} style={styles.form}>
       <FormField
-        control={form.control}
+        control={control}
         name="name"
         label="Zone name"
         testID="zone-edit-name"
@@ -93,7 +73,7 @@ export function ZoneLimitsForm({
       <View style={styles.row}>
         <View style={styles.cell}>
           <FormField
-            control={form.control}
+            control={control}
             name="caution"
             label={`Caution below (${deg})`}
             testID="zone-edit-caution"
@@ -103,7 +83,7 @@ export function ZoneLimitsForm({
         </View>
         <View style={styles.cell}>
           <FormField
-            control={form.control}
+            control={control}
             name="wet"
             label={`Wet at (${deg})`}
             testID="zone-edit-wet"
@@ -113,7 +93,7 @@ export function ZoneLimitsForm({
         </View>
         <View style={styles.cell}>
           <FormField
-            control={form.control}
+            control={control}
             name="humid"
             label="Humid above (% RH)"
             testID="zone-edit-humid"
@@ -127,14 +107,14 @@ export function ZoneLimitsForm({
         wet at or below the wet limit.
       </Text>
       <FormError message={formError} />
-      {saved ? (
+      {done ? (
         <Text style={type.small} role="status">
           Saved.
         </Text>
       ) : null}
       <Button
         label={sending ? 'Saving…' : `Save ${zone.name}`}
-        onPress={() => void submit()}
+        onPress={submit}
         disabled={sending}
         variant="quiet"
         testID="zone-edit-submit"

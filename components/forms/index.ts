@@ -6,3 +6,4 @@ export { applyServerErrors } from './serverErrors';
 export { TextField } from './TextField';
 export { Choice } from './Choice';
 export { ConfirmButton } from './ConfirmButton';
+export { useApiForm } from './useApiForm';
