@@ -1,155 +1,94 @@
-import { Link, Redirect, useLocalSearchParams, useRouter } from 'expo-router';
+import { Redirect, useLocalSearchParams, useRouter } from 'expo-router';
 import { useState } from 'react';
-import { StyleSheet, Text, View } from 'react-native';
+import { StyleSheet, Text } from 'react-native';
 
-import { Button, Form, TextField } from './forms';
+import { AuthLayout } from './AuthLayout';
+import { Button, Form, FormError, FormField, useApiForm } from './forms';
+import { signInSchema } from './forms/schemas';
 import { homeHrefFor } from './hrefs';
-import { Content, FORM_MAX_WIDTH, Screen } from './layout';
-import {
-  isApiError,
-  useFetchMe,
-  useMeQuery,
-  useSignInMutation,
-  type ApiErrorDetail,
-} from './queries';
+import { useFetchMe, useMeQuery, useSignInMutation } from './queries';
 import { Splash } from './Splash';
-import { colors, radius, space, type } from './theme';
+import { space, type } from './theme';
 import { useDocumentTitle } from './useDocumentTitle';
 
-function detailFor(details: ApiErrorDetail[], path: string): string | undefined {
-  return details.find((detail) => detail.path === path)?.message;
+/** A path inside this app to return to after signing in (e.g. an invitation), or null. */
+function localPath(next: unknown): string | null {
+  return typeof next === 'string' && next.startsWith('/') && !next.startsWith('//') ? next : null;
 }
 
-/** E-mail and password; on success, the first shop's overview. */
+/** E-mail and password; on success, where the person came from or their first shop. */
 export function SignInScreen() {
   useDocumentTitle('Sign in');
   const router = useRouter();
-  // Where to go after signing in, when a page sent the person here (e.g. an invitation).
-  const { next } = useLocalSearchParams<{ next?: string }>();
-  const nextPath =
-    typeof next === 'string' && next.startsWith('/') && !next.startsWith('//') ? next : null;
+  const nextPath = localPath(useLocalSearchParams<{ next?: string }>().next);
   const me = useMeQuery();
   const signIn = useSignInMutation();
   const fetchMe = useFetchMe();
-  const [email, setEmail] = useState('');
-  const [password, setPassword] = useState('');
   const [leaving, setLeaving] = useState(false);
-
-  const sending = signIn.isPending || leaving;
-  const error = signIn.error;
-  const details = isApiError(error) ? error.details : [];
-
-  const submit = () => {
-    if (sending) return;
-    signIn.mutate(
-      { email: email.trim(), password },
-      {
-        onSuccess: async () => {
-          setLeaving(true);
-          try {
-            const signedIn = await fetchMe();
-            router.replace(nextPath ?? homeHrefFor(signedIn.shops));
-          } catch {
-            router.replace('/');
-          }
-        },
-      },
-    );
-  };
+  const { control, submit, sending, formError } = useApiForm<{ email: string; password: string }>({
+    schema: signInSchema,
+    defaultValues: { email: '', password: '' },
+    fields: ['email', 'password'],
+    send: async ({ email, password }) => {
+      await signIn.mutateAsync({ email: email.trim(), password });
+      setLeaving(true);
+      try {
+        const signedIn = await fetchMe();
+        router.replace(nextPath ?? homeHrefFor(signedIn.shops));
+      } catch {
+        router.replace('/');
+      }
+    },
+  });
+  const busy = sending || leaving;
 
   if (me.isPending) return <Splash />;
   // Already signed in (e.g. a bookmarked sign-in page): straight to the shop.
-  if (me.isSuccess && !signIn.isPending && !leaving) {
+  if (me.isSuccess && !busy) {
     return <Redirect href={nextPath ?? homeHrefFor(me.data.shops)} />;
   }
 
   return (
-    <Screen>
-      <Content maxWidth={FORM_MAX_WIDTH} style={styles.column}>
-        <View style={styles.brand}>
-          <Text style={type.title}>Drybench</Text>
-          <Text style={type.small}>Dew margin and wood moisture for your shop.</Text>
-        </View>
-        <Form style={styles.card} onSubmit={submit}>
-          <Text style={type.heading} accessibilityRole="header">
-            Sign in
-          </Text>
-          <TextField
-            label="Email"
-            testID="sign-in-email"
-            value={email}
-            onChangeText={setEmail}
-            autoCapitalize="none"
-            autoCorrect={false}
-            autoComplete="email"
-            inputMode="email"
-            keyboardType="email-address"
-            textContentType="emailAddress"
-            editable={!sending}
-            error={detailFor(details, 'email')}
-            returnKeyType="next"
-          />
-          <TextField
-            label="Password"
-            testID="sign-in-password"
-            value={password}
-            onChangeText={setPassword}
-            secureTextEntry
-            autoComplete="current-password"
-            textContentType="password"
-            editable={!sending}
-            error={detailFor(details, 'password')}
-            returnKeyType="go"
-            onSubmitEditing={submit}
-          />
-          {error ? (
-            <Text
-              style={[type.body, styles.error]}
-              testID="sign-in-error"
-              accessibilityLiveRegion="polite"
-              aria-live="polite"
-            >
-              {error.message}
-            </Text>
-          ) : null}
-          <Button
-            label="Sign in"
-            onPress={submit}
-            disabled={sending || email.trim() === '' || password === ''}
-            testID="sign-in-submit"
-          />
-          {sending ? <Text style={type.small}>Signing in…</Text> : null}
-        </Form>
-        <View style={styles.links}>
-          <Link href="/sign-up" style={styles.link} testID="to-sign-up">
-            Create an account
-          </Link>
-          <Link href="/forgot-password" style={styles.link} testID="to-forgot-password">
-            Forgot your password?
-          </Link>
-        </View>
-      </Content>
-    </Screen>
+    <AuthLayout
+      title="Sign in"
+      links={[
+        { href: '/sign-up', label: 'Create an account', testID: 'to-sign-up' },
+        { href: '/forgot-password', label: 'Forgot your password?', testID: 'to-forgot-password' },
+      ]}
+    >
+      <Form onSubmit={submit} style={styles.form}>
+        <FormField
+          control={control}
+          name="email"
+          label="Email"
+          testID="sign-in-email"
+          autoCapitalize="none"
+          autoCorrect={false}
+          autoComplete="email"
+          inputMode="email"
+          keyboardType="email-address"
+          textContentType="emailAddress"
+          editable={!busy}
+          returnKeyType="next"
+        />
+        <FormField
+          control={control}
+          name="password"
+          label="Password"
+          testID="sign-in-password"
+          secureTextEntry
+          autoComplete="current-password"
+          textContentType="password"
+          editable={!busy}
+          returnKeyType="go"
+          onSubmitEditing={submit}
+        />
+        <FormError message={formError} testID="sign-in-error" />
+        <Button label="Sign in" onPress={submit} disabled={busy} testID="sign-in-submit" />
+        {busy ? <Text style={type.small}>Signing in…</Text> : null}
+      </Form>
+    </AuthLayout>
   );
 }
 
-const styles = StyleSheet.create({
-  column: { paddingTop: space.xxl, gap: space.xl },
-  brand: { gap: space.xs },
-  card: {
-    backgroundColor: colors.card,
-    borderColor: colors.border,
-    borderWidth: 1,
-    borderRadius: radius.card,
-    padding: space.xl,
-    gap: space.lg,
-  },
-  error: { color: colors.wet },
-  links: { gap: space.md },
-  link: {
-    ...type.body,
-    color: colors.air,
-    textDecorationLine: 'underline',
-    alignSelf: 'flex-start',
-  },
-});
+const styles = StyleSheet.create({ form: { gap: space.lg } });
