@@ -22,7 +22,7 @@ function linkify(text: string): string {
 const STYLE = `body{margin:0;padding:24px;background:#F5F2EA;color:#1F2427;font:14px/1.5 monospace}
 main{max-width:760px;margin:0 auto}article{background:#FFFDF8;border:1px solid #E2DCCF;
 border-radius:10px;padding:16px;margin:0 0 16px}h1{font-size:18px}h2{font-size:16px;margin:0 0 4px}
-pre{white-space:pre-wrap;margin:12px 0 0}a{color:#2C6E91}.meta{color:#56626B;font-size:12px}`;
+pre{white-space:pre-wrap;overflow-wrap:anywhere;margin:12px 0 0}a{color:#2C6E91}.meta{color:#56626B;font-size:12px}`;
 
 function message(mail: StoredMail): string {
   const html = mail.html ? ` · <a href="/dev/outbox/${mail.id}/html">HTML part</a>` : '';
