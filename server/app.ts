@@ -93,7 +93,7 @@ export function createApp(deps: AppDeps): express.Express {
   api.use('/shops/:shopId/zones/:zoneId/readings', readingsRouter(db, now));
   api.use('/shops/:shopId/zones', zonesRouter(db, tokens));
   api.use('/shops/:shopId/sensors', sensorsRouter(db, tokens));
-  api.use('/shops/:shopId/alarms', alarmsRouter(db, now));
+  api.use('/shops/:shopId/alarms', alarmsRouter(db, deps.pool, now));
   api.use('/shops/:shopId', membersRouter(db));
   api.use(invitationsRouter(people));
   api.use(notFound);

@@ -26,7 +26,7 @@ async function main() {
   const tokens = createSensorTokenCache(db, { listener });
   const writer = createReadingWriter(pool);
   const estimator = createSurfaceEstimator(db);
-  const alarms = createAlarmEngine({ db });
+  const alarms = createAlarmEngine({ db, pool });
   const mail = await startMail(config.mail);
   const app = createApp({
     db,

@@ -6,6 +6,8 @@
  */
 import { and, desc, eq, getTableColumns, inArray, isNull, sql, type SQL } from 'drizzle-orm';
 
+import type pg from 'pg';
+
 import type { MarginSample } from '@/ingest';
 
 import type { Db } from '../index';
@@ -19,12 +21,14 @@ import {
   type AlarmKind,
 } from '../schema';
 
+import { withTransaction } from '../transaction';
+
 import { LIVE_CHANNEL } from './readings';
 
 export type AlarmRow = typeof alarms.$inferSelect;
 export type NewAlarmEvent = typeof alarmEvents.$inferInsert;
-export type Tx = Parameters<Parameters<Db['transaction']>[0]>[0];
-type Executor = Db | Tx;
+/** A Drizzle handle inside a transaction (db/transaction.ts). */
+export type Tx = Db;
 
 /** The columns that describe an alarm's condition; each kind fills its own pair. */
 export const ALARM_VALUE_KEYS = [
@@ -63,7 +67,7 @@ const viewColumns = {
   acknowledgedByName: users.name,
 };
 
-async function selectViews(ex: Executor, where: SQL | undefined, limit = 100) {
+async function selectViews(ex: Db, where: SQL | undefined, limit = 100) {
   const rows = await ex
     .select(viewColumns)
     .from(alarms)
@@ -107,7 +111,7 @@ export function listAlarms(db: Db, shopId: string, state: 'open' | 'all', limit 
   return selectViews(db, and(eq(alarms.shopId, shopId), open), limit);
 }
 
-async function notify(ex: Executor, payloads: string[]) {
+async function notify(ex: Db, payloads: string[]) {
   if (payloads.length === 0) return;
   await ex.execute(
     sql`select pg_notify(${LIVE_CHANNEL}, p) from unnest(${sql.param(payloads)}::text[]) as p`,
@@ -202,11 +206,11 @@ export type AckOutcome =
 
 /** Records who acknowledged an alarm of this shop, when, and what they did; once per alarm. */
 export async function acknowledgeAlarm(
-  db: Db,
+  pool: pg.Pool,
   input: { shopId: string; alarmId: string; userId: string; note: string; at: Date },
   notificationFor: (view: AlarmView) => string,
 ): Promise<AckOutcome> {
-  return db.transaction(async (tx) => {
+  return withTransaction(pool, async (tx) => {
     const inShop = and(eq(alarms.id, input.alarmId), eq(alarms.shopId, input.shopId));
     const [updated] = await tx
       .update(alarms)

@@ -5,6 +5,8 @@
  * their events and the live messages in one transaction. A scheduled sweep (server/jobs) opens
  * sensor-silent alarms, since silence is the absence of a request.
  */
+import type pg from 'pg';
+
 import type { Db } from '@/db';
 import {
   lockZoneState,
@@ -18,6 +20,7 @@ import {
   type Tx,
 } from '@/db/queries/alarms';
 import type { ReadingRow } from '@/db/queries/readings';
+import { withTransaction } from '@/db/transaction';
 import { DEFAULT_TREND } from '@/ingest';
 
 import { alarmMessageJson } from '../live/messages';
@@ -46,8 +49,12 @@ export interface AlarmEngine {
 
 const NO_SAMPLE = { marginK: null, rhPct: null, batteryV: null, minutesToWet: null };
 
-export function createAlarmEngine(deps: { db: Db; log?: (err: unknown) => void }): AlarmEngine {
-  const { db } = deps;
+export function createAlarmEngine(deps: {
+  db: Db;
+  pool: pg.Pool;
+  log?: (err: unknown) => void;
+}): AlarmEngine {
+  const { db, pool } = deps;
   const log = deps.log ?? ((err: unknown) => console.error('alarm engine:', err));
 
   async function applySignals(
@@ -69,7 +76,7 @@ export function createAlarmEngine(deps: { db: Db; log?: (err: unknown) => void }
       if (rows.length === 0) return;
       const where = { shopId: sensor.shopId, zoneId: sensor.zoneId };
       try {
-        await db.transaction(async (tx) => {
+        await withTransaction(pool, async (tx) => {
           const locked = await lockZoneState(tx, where.zoneId, where.shopId);
           if (!locked) return;
           const times = rows.map((r) => r.at.getTime());
@@ -116,7 +123,7 @@ export function createAlarmEngine(deps: { db: Db; log?: (err: unknown) => void }
         const silent = !c.revoked && nowMs - c.lastSeenAt.getTime() > allowedMs;
         if (c.openSilentAlarmId ? !c.revoked : !silent) continue;
         const where = { shopId: c.shopId, zoneId: c.zoneId };
-        const changed = await db.transaction(async (tx) => {
+        const changed = await withTransaction(pool, async (tx) => {
           if (!(await lockZoneState(tx, c.zoneId, c.shopId))) return 0;
           // Judge again under the lock: a reading may have committed since the list was read.
           const seen = await sensorSeen(tx, c.sensorId);

@@ -1,5 +1,6 @@
 /** A shop's alarms: list open (or open and recent) ones, and acknowledge one with a note. */
 import { Router } from 'express';
+import type pg from 'pg';
 import { z } from 'zod';
 
 import type { Db } from '@/db';
@@ -23,7 +24,7 @@ const ackBody = z.object({
  * Mounted at /shops/:shopId/alarms. Who may call it is in server/auth/policy.ts: viewers list,
  * members and owners acknowledge.
  */
-export function alarmsRouter(db: Db, now: () => number): Router {
+export function alarmsRouter(db: Db, pool: pg.Pool, now: () => number): Router {
   const router = Router({ mergeParams: true });
 
   router.get('/', async (req, res) => {
@@ -38,7 +39,7 @@ export function alarmsRouter(db: Db, now: () => number): Router {
     const { note } = parseInput(ackBody, req.body);
     const shopId = shopIdOf(res);
     const outcome = await acknowledgeAlarm(
-      db,
+      pool,
       { shopId, alarmId, userId: userIdOf(res), note, at: new Date(now()) },
       (view) => alarmMessageJson(shopId, view),
     );

@@ -58,7 +58,7 @@ export function makeTestApp(options: TestAppOptions = {}) {
   const tokens = createSensorTokenCache(database.db, { listener });
   const writer = createReadingWriter(database.pool);
   const estimator = createSurfaceEstimator(database.db);
-  const alarms = createAlarmEngine({ db: database.db });
+  const alarms = createAlarmEngine(database);
   const app = createApp({
     ...database,
     sessions,

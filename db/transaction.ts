@@ -1,0 +1,38 @@
+/**
+ * Transactions on a pool client of their own, released as broken when anything fails. Drizzle's
+ * db.transaction() sends BEGIN outside its try block, so a connection that dies at BEGIN (a
+ * database restart) is never released and the pool slowly runs dry; these cannot leak that way.
+ * Notifications sent inside are delivered by PostgreSQL only if the transaction commits.
+ */
+import { drizzle } from 'drizzle-orm/node-postgres';
+import type pg from 'pg';
+
+import type { Db } from './index';
+import * as schema from './schema';
+
+/** `work` runs between BEGIN and COMMIT on one client; any failure rolls back. */
+export async function inTransaction<T>(
+  pool: pg.Pool,
+  work: (client: pg.PoolClient) => Promise<T>,
+): Promise<T> {
+  const client = await pool.connect();
+  let broken = false;
+  try {
+    await client.query('begin');
+    const result = await work(client);
+    await client.query('commit');
+    return result;
+  } catch (err) {
+    broken = true;
+    await client.query('rollback').catch(() => {});
+    throw err;
+  } finally {
+    // A client whose transaction failed may hold a dead connection: drop it from the pool.
+    client.release(broken);
+  }
+}
+
+/** The same, with Drizzle over the transaction's client. */
+export function withTransaction<T>(pool: pg.Pool, work: (tx: Db) => Promise<T>): Promise<T> {
+  return inTransaction(pool, (client) => work(drizzle(client, { schema, casing: 'snake_case' })));
+}
