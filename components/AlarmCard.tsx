@@ -49,7 +49,8 @@ export function AlarmCard({ shopId, alarm, nowMs, timeZone, canAcknowledge }: Al
   const open = alarm.state === 'open';
   const when = (iso: string) => formatAlarmTime(iso, nowMs, timeZone);
   const times = [
-    `since ${when(alarm.sinceAt)}`,
+    // A silent sensor's headline already says since when.
+    open && alarm.kind === 'sensor_silent' ? null : `since ${when(alarm.sinceAt)}`,
     alarm.clearedAt ? `cleared ${when(alarm.clearedAt)}` : null,
     worstOf(alarm),
   ].filter(Boolean);

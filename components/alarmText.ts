@@ -73,9 +73,16 @@ export function alarmSubject(alarm: Alarm): string {
     : alarm.zone.name;
 }
 
-/** One line: what is wrong, where, and how bad. */
+/**
+ * One line: what is wrong, where, and how bad. A cleared alarm names only what it was: its
+ * values at the clear would read as if the iron were still wet.
+ */
 export function alarmHeadline(alarm: Alarm, nowMs: number, timeZone: string): string {
   const subject = alarmSubject(alarm);
+  if (alarm.state === 'cleared') {
+    const what = ALARM_KIND_WORDS[alarm.kind].toLowerCase();
+    return alarm.kind === 'sensor_silent' ? `${subject} was silent` : `${subject}: ${what}`;
+  }
   switch (alarm.kind) {
     case 'dew_risk': {
       const minutes = alarm.minutesToWet;

@@ -72,6 +72,15 @@ describe('alarm words', () => {
     expect(bannerAlarms([answered, humid]).map((a) => a.id)).toEqual(['h', 'w']);
   });
 
+  it('names only what a cleared alarm was', () => {
+    const cleared = { state: 'cleared' as const, clearedAt: '2026-01-14T13:30:00Z' };
+    expect(alarmHeadline(alarm({ kind: 'wet_surface', ...cleared }), NOW_MS, TZ)).toBe(
+      'Machine room: wet surface',
+    );
+    const silent = alarm({ kind: 'sensor_silent', sensor: { id: 's1', name: 'Rack hygrometer' } });
+    expect(alarmHeadline({ ...silent, ...cleared }, NOW_MS, TZ)).toBe('Rack hygrometer was silent');
+  });
+
   it('rounds expected minutes as a person would say them', () => {
     expect([0.2, 7.4, 12, 41.3, 59, 95].map(aboutMinutes)).toEqual([
       'about 1 min',
