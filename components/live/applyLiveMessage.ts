@@ -7,6 +7,7 @@ import type { QueryClient } from '@tanstack/react-query';
 import {
   alarmKeys,
   appendReadingPoint,
+  meKeys,
   patchAlarm,
   patchZoneLatest,
   readingKeys,
@@ -44,6 +45,11 @@ export function applyLiveMessage(queryClient: QueryClient, message: LiveMessage)
         return;
       }
       patchAlarm(queryClient, message.shopId, message.alarm);
+      return;
+    }
+    case 'access': {
+      // The shop list and roles live in /me; a shop no longer listed shows "not found".
+      void queryClient.invalidateQueries({ queryKey: meKeys.all });
       return;
     }
   }

@@ -35,7 +35,13 @@ export interface LiveAlarmMessage {
   partial: boolean;
 }
 
-export type LiveMessage = LiveReadingMessage | LiveAlarmMessage;
+/** This person's shops changed (invited, removed, a role changed): read /me again. */
+export interface LiveAccessMessage {
+  type: 'access';
+  shopIds: string[];
+}
+
+export type LiveMessage = LiveReadingMessage | LiveAlarmMessage | LiveAccessMessage;
 
 const LEVELS: readonly string[] = ['dry', 'close', 'wet', 'unknown'];
 
@@ -127,6 +133,11 @@ export function parseLiveMessage(data: unknown): LiveMessage | null {
     value = JSON.parse(data);
   } catch {
     return null;
+  }
+  if (isObject(value) && value.type === 'access') {
+    const ids = value.shopIds;
+    if (!Array.isArray(ids) || !ids.every((id) => typeof id === 'string')) return null;
+    return { type: 'access', shopIds: ids as string[] };
   }
   if (isObject(value) && value.type === 'alarm') {
     if (typeof value.shopId !== 'string' || !isAlarm(value.alarm)) return null;
