@@ -10,6 +10,8 @@ import pg from 'pg';
 import { createDatabase } from '@/db';
 import { runMigrations } from '@/db/migrate';
 
+import { freePort } from './processes';
+
 export interface BenchDatabase {
   url: string;
   port: number;
@@ -19,12 +21,25 @@ export interface BenchDatabase {
 export async function startBenchDatabase(opts: {
   port: number;
   database: string;
+  onPortTaken?: (wanted: number, used: number) => void;
 }): Promise<BenchDatabase> {
   const dbScript = 'scripts/db.sh';
-  const url = execFileSync('bash', [dbScript, 'start', 'bench', String(opts.port), opts.database], {
-    encoding: 'utf8',
-    stdio: ['ignore', 'pipe', 'inherit'],
-  }).trim();
+  const start = (port: number) =>
+    execFileSync('bash', [dbScript, 'start', 'bench', String(port), opts.database], {
+      encoding: 'utf8',
+      stdio: ['ignore', 'pipe', 'inherit'],
+    }).trim();
+  let url: string;
+  let port = opts.port;
+  try {
+    url = start(port);
+  } catch {
+    // The port lies in Linux's ephemeral range, so on a busy machine another program's
+    // connection (even one in TIME_WAIT) can hold it for a minute: take a free port instead.
+    port = await freePort();
+    opts.onPortTaken?.(opts.port, port);
+    url = start(port);
+  }
   const adminUrl = url.replace(/\/[^/]+$/, '/postgres');
   const stop = () => {
     execFileSync('bash', [dbScript, 'stop', 'bench'], { stdio: 'inherit' });
@@ -39,7 +54,7 @@ export async function startBenchDatabase(opts: {
     const { pool, db } = createDatabase(url, { max: 1 });
     await runMigrations(db);
     await pool.end();
-    return { url, port: opts.port, stop };
+    return { url, port, stop };
   } catch (err) {
     stop();
     throw err;

@@ -29,7 +29,7 @@ export function figuresOf(r: BenchResult): Figures {
     rssMb: round(r.peakRssMb, 0),
     date: r.startedAt.toISOString(),
     cpuCount: r.cpuCount,
-    loadAverage1m: round(r.loadAverage1m, 2),
+    busyCoresBefore: round(r.busyCoresBefore, 2),
     connections: r.options.connections,
     phaseS: r.options.durationS,
     bareExpressReqPerS: r.bare ? round(r.bare.perS, 0) : null,
@@ -73,13 +73,19 @@ export function formatReport(r: BenchResult): string {
   const rows: string[][] = [];
   const row = (name: string, rate: string, p50Ms: number, p99Ms: number, cpu?: CpuCores) =>
     rows.push([name, rate, ms(p50Ms), ms(p99Ms), ...(cpu ? cpuCells(cpu) : [])]);
-  const m = (name: string, x: Measured | undefined, rate: (perS: number) => string) => {
-    if (x) row(name, rate(x.perS), x.latency.p50Ms, x.latency.p99Ms, x.cpu);
+  // CPU per unit (µs per request, row or reading) moves much less with other people's load
+  // than the rates do: it says what a dedicated core would buy.
+  const m = (name: string, x: Measured | undefined, unit: string, perUnit = 1) => {
+    if (!x) return;
+    const unitsPerS = x.perS * perUnit;
+    row(name, `${int(unitsPerS)} ${unit}/s`, x.latency.p50Ms, x.latency.p99Ms, x.cpu);
+    const us = (cores: number) => int((cores / unitsPerS) * 1e6);
+    rows.at(-1)!.push(us(x.cpu.server), us(x.cpu.postgres));
   };
-  m('bare Express 5 POST', r.bare, (v) => `${int(v)} req/s`);
-  m('ingest, 1 reading', r.ingest1, (v) => `${int(v)} req/s`);
-  m(`raw INSERT, ${o.batch} rows`, r.raw, (v) => `${int(v)} rows/s`);
-  m(`ingest, ${o.batch} readings`, r.ingest50, (v) => `${int(v * o.batch)} readings/s`);
+  m('bare Express 5 POST', r.bare, 'req');
+  m('ingest, 1 reading', r.ingest1, 'req');
+  m(`raw INSERT, ${o.batch} rows`, r.raw, 'rows');
+  m(`ingest, ${o.batch} readings`, r.ingest50, 'readings', o.batch);
   for (const [name, l] of [
     ['POST → WS, idle', r.liveIdle],
     ['POST → WS, under load', r.liveLoaded],
@@ -99,7 +105,8 @@ export function formatReport(r: BenchResult): string {
   const out: string[] = [];
   out.push(
     `Drybench bench, ${r.startedAt.toISOString().slice(0, 16)}Z: ${r.cpuCount} cores, ` +
-      `load average ${r.loadAverage1m.toFixed(2)} before the run, Node ${process.versions.node}`,
+      `${r.busyCoresBefore.toFixed(2)} cores busy before the run (others' work), ` +
+      `Node ${process.versions.node}`,
   );
   out.push(
     `${o.connections} connections, ${o.durationS} s measured per phase after ${o.warmupS} s of ` +
@@ -108,11 +115,28 @@ export function formatReport(r: BenchResult): string {
   );
   out.push('');
   out.push(
-    table(['phase', 'rate', 'p50 ms', 'p99 ms', 'server', 'postgres', 'bench', 'other'], rows),
+    table(
+      [
+        'phase',
+        'rate',
+        'p50 ms',
+        'p99 ms',
+        'server',
+        'postgres',
+        'bench',
+        'other',
+        'server µs',
+        'pg µs',
+      ],
+      rows,
+    ),
   );
   out.push(
     `server/postgres/bench/other: CPU used during the phase, in cores (of ${r.cpuCount}). ` +
       'Latency is per request, per statement (commit included) for the raw INSERT, per message for WS.',
+  );
+  out.push(
+    'server µs / pg µs: CPU time of the server and of PostgreSQL per request, row or reading.',
   );
 
   const live: [string, LivePhase | undefined][] = [

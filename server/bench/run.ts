@@ -12,7 +12,7 @@ import { connectLiveClients, measureLiveLatency, type LiveLatencyResult } from '
 import type { BenchOptions, Phase } from './options';
 import { startPacedLoad, type PacedLoadResult } from './pacedLoad';
 import { startBenchDatabase } from './postgres';
-import { freePort, memoryOf, startNodeChild, type Child } from './processes';
+import { freePort, machineCpuSeconds, memoryOf, startNodeChild, type Child } from './processes';
 import { openRawInserter } from './rawInsert';
 import { createReadingSource, type ReadingSource } from './readings';
 import { coresOf, startCpuMeter, type CpuCores } from './usage';
@@ -24,8 +24,8 @@ export interface LivePhase extends LiveLatencyResult {
 export interface BenchResult {
   startedAt: Date;
   options: BenchOptions;
-  /** 1-minute load average before the run: other work on the machine skews everything. */
-  loadAverage1m: number;
+  /** Cores busy in the second before the run: other work on the machine skews everything. */
+  busyCoresBefore: number;
   cpuCount: number;
   bare?: Measured;
   raw?: Measured;
@@ -44,7 +44,7 @@ export async function runBench(
   const result: BenchResult = {
     startedAt: new Date(),
     options,
-    loadAverage1m: os.loadavg()[0]!,
+    busyCoresBefore: await busyCores(1000),
     cpuCount: os.cpus().length,
     peakRssMb: Number.NaN,
   };
@@ -52,7 +52,11 @@ export async function runBench(
   const readings = createReadingSource();
 
   progress(`starting PostgreSQL on 127.0.0.1:${options.pgPort}…`);
-  const database = await startBenchDatabase({ port: options.pgPort, database: options.database });
+  const database = await startBenchDatabase({
+    port: options.pgPort,
+    database: options.database,
+    onPortTaken: (wanted, used) => progress(`port ${wanted} is taken; PostgreSQL uses ${used}`),
+  });
   const children: Child[] = [];
   const closers: (() => Promise<void>)[] = [];
   let stopping = false;
@@ -87,7 +91,7 @@ export async function runBench(
       rounds: options.rounds,
       sliceS: options.durationS / options.rounds,
       warmupS: options.warmupS,
-      pgPort: options.pgPort,
+      pgPort: database.port,
     };
     const ingest = (batch: number): Contender<Phase> => ({
       key: batch === 1 ? 'ingest1' : 'ingest50',
@@ -171,7 +175,15 @@ export async function runBench(
       closers.push(async () => clients.close());
       Object.assign(
         result,
-        await measureLive(options, url, server.pid, fixtures, readings, clients, progress),
+        await measureLive(
+          { ...options, pgPort: database.port },
+          url,
+          server.pid,
+          fixtures,
+          readings,
+          clients,
+          progress,
+        ),
       );
     }
 
@@ -236,4 +248,10 @@ function serverEnv(databaseUrl: string, port: number): NodeJS.ProcessEnv {
   };
   delete env.WEB_DIR;
   return env;
+}
+
+async function busyCores(windowMs: number): Promise<number> {
+  const before = machineCpuSeconds().busyS;
+  await new Promise((resolve) => setTimeout(resolve, windowMs));
+  return (machineCpuSeconds().busyS - before) / (windowMs / 1000);
 }
