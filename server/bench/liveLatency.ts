@@ -1,8 +1,9 @@
 /**
- * POST → WebSocket latency: signed-in browsers hold live sockets to the shop; a probe sensor
- * posts one reading every `intervalMs`; the latency of a delivery is from just before the POST
- * is sent to the moment that socket's message handler runs, so it covers the request, the
- * commit, pg_notify, the hub's fan-out and the client's own event loop.
+ * POST → WebSocket latency: signed-in browsers hold live sockets to the shop; the shop's probe
+ * sensors, in turn, post one reading every `intervalMs`; the latency of a delivery is from just
+ * before the POST is sent to the moment that socket's message handler runs, so it covers the
+ * request (the alarm step included), the commit, pg_notify, the hub's fan-out and the client's
+ * own event loop.
  */
 import { monitorEventLoopDelay } from 'node:perf_hooks';
 
@@ -74,7 +75,7 @@ export interface LiveLatencyResult {
 export async function measureLiveLatency(opts: {
   url: string;
   clients: LiveClients;
-  probeToken: string;
+  probeTokens: string[];
   intervalMs: number;
   durationS: number;
   readings: ReadingSource;
@@ -85,22 +86,26 @@ export async function measureLiveLatency(opts: {
   let failures = 0;
   opts.clients.onMessage((data) => {
     const receivedMs = performance.now();
-    const message = JSON.parse(data) as ReadingMessage;
-    const t0 = sentAtMs.get(message.reading.at);
+    // The hub also sends alarm and access messages; only the probe's readings are timed.
+    const message = JSON.parse(data) as { type: string };
+    if (message.type !== 'reading') return;
+    const t0 = sentAtMs.get((message as ReadingMessage).reading.at);
     if (t0 !== undefined) deliveryMs.push(receivedMs - t0);
   });
 
   const loopDelay = monitorEventLoopDelay({ resolution: 1 });
   loopDelay.enable();
   const posts: Promise<void>[] = [];
+  let turn = 0;
   const probe = async () => {
+    const token = opts.probeTokens[turn++ % opts.probeTokens.length]!;
     const reading = opts.readings.next();
     const t0 = performance.now();
     sentAtMs.set(reading.at, t0);
     const res = await fetch(`${opts.url}/api/v1/ingest`, {
       method: 'POST',
       headers: {
-        authorization: `Bearer ${opts.probeToken}`,
+        authorization: `Bearer ${token}`,
         'content-type': 'application/json',
       },
       body: JSON.stringify(reading),

@@ -66,6 +66,10 @@ export async function startNodeChild(opts: {
   });
   // Keep draining stdout so a chatty child never blocks on a full pipe.
   child.stdout!.resume();
+  // If the bench itself dies, its servers must not live on.
+  const orphanGuard = () => child.kill('SIGKILL');
+  process.once('exit', orphanGuard);
+  child.once('exit', () => process.off('exit', orphanGuard));
   return { pid: child.pid!, stop: (graceMs) => stopChild(child, graceMs) };
 }
 

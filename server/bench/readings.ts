@@ -1,8 +1,10 @@
 /**
  * Reading payloads for the load: every reading gets a time no other reading of the run has, so
- * none is dropped as a duplicate and every phase really inserts. Values wander like a shop's
- * (air 12–24 °C, RH 40–80 %) and always carry a surface value, so the probe path is measured;
- * the estimate path (a database read when a sensor's lag state is cold) is not.
+ * none is dropped as a duplicate and every phase really inserts. Values wander like a dry shop's
+ * (air 12–24 °C, RH 35–60 %, the iron up to 1 K colder than the air, so the dew margin stays
+ * above 5 K): the alarm engine judges every batch but opens no alarm, as on most days. Every
+ * reading carries a surface value, so the probe path is measured; the estimate path (a database
+ * read when a sensor's lag state is cold) is not.
  */
 import { deriveReading, type Derived } from '@/ingest';
 
@@ -41,8 +43,8 @@ export function createReadingSource(startMs = Date.now() - 60 * 24 * 3600 * 1000
     return {
       at: new Date(atMs).toISOString(),
       air,
-      rh: round2(40 + 40 * random()),
-      surface: round2(air - 4 * random()),
+      rh: round2(35 + 25 * random()),
+      surface: round2(air - random()),
       battery: 3.1,
     };
   };

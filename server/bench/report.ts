@@ -27,6 +27,7 @@ export function figuresOf(r: BenchResult): Figures {
     wsP99IdleMs: r.liveIdle ? round(r.liveIdle.delivery.p99Ms) : null,
     wsP99LoadedMs: r.liveLoaded ? round(r.liveLoaded.delivery.p99Ms) : null,
     rssMb: round(r.peakRssMb, 0),
+    rssAtStartMb: round(r.startRssMb, 0),
     date: r.startedAt.toISOString(),
     cpuCount: r.cpuCount,
     busyCoresBefore: round(r.busyCoresBefore, 2),
@@ -111,7 +112,8 @@ export function formatReport(r: BenchResult): string {
   out.push(
     `${o.connections} connections, ${o.durationS} s measured per phase after ${o.warmupS} s of ` +
       `warm-up, a ratio's two sides alternating in ${o.rounds} slices; readings carry a surface ` +
-      `value (the probe path), spread over ${o.loadSensors} sensors`,
+      `value (the probe path) and keep the iron dry, spread over ${o.fleetSensors} sensors ` +
+      `in ${Math.ceil(o.fleetSensors / 5)} zones`,
   );
   out.push('');
   out.push(
@@ -155,7 +157,7 @@ export function formatReport(r: BenchResult): string {
     const b = r.liveLoaded.background;
     out.push(
       `background: ${int(o.backgroundReadingsPerS)} readings/s asked, ${o.backgroundBatch} per ` +
-        `request from ${o.backgroundSensors} sensors of another shop; ${b.failures} failed, ` +
+        `request from the fleet's sensors (not the watched shop); ${b.failures} failed, ` +
         `${b.skipped} not sent (server behind)`,
     );
   }
@@ -179,6 +181,10 @@ export function formatReport(r: BenchResult): string {
     return [key, value === null ? '–' : String(value), goal, met];
   });
   out.push(table(['figure', 'measured', 'target', ''], targetRows));
+  out.push(
+    `server memory: ${int(r.startRssMb)} MB resident once started, ${int(r.peakRssMb)} MB at ` +
+      'its peak (MB = 2^20 bytes; the server runs under tsx, as npm start runs it)',
+  );
   out.push(
     `failures: ${String(f.failures)} (non-2xx, socket errors, missing deliveries; should be 0)`,
   );

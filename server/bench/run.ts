@@ -33,6 +33,8 @@ export interface BenchResult {
   ingest50?: Measured;
   liveIdle?: LivePhase;
   liveLoaded?: LivePhase & { background: PacedLoadResult };
+  /** The Drybench server's resident memory once started and set up, before any load. */
+  startRssMb: number;
   /** The Drybench server's peak resident memory over the whole run. */
   peakRssMb: number;
 }
@@ -46,6 +48,7 @@ export async function runBench(
     options,
     busyCoresBefore: await busyCores(1000),
     cpuCount: os.cpus().length,
+    startRssMb: Number.NaN,
     peakRssMb: Number.NaN,
   };
   const has = (phase: Phase) => options.phases.includes(phase);
@@ -68,8 +71,14 @@ export async function runBench(
     database.stop();
   };
   const onSignal = () => void cleanUp().then(() => process.exit(130));
+  // A throw in a socket handler would otherwise end the process with PostgreSQL still running.
+  const onCrash = (err: unknown) => {
+    console.error(err);
+    void cleanUp().then(() => process.exit(1));
+  };
   process.once('SIGINT', onSignal);
   process.once('SIGTERM', onSignal);
+  process.once('uncaughtException', onCrash);
 
   try {
     const serverPort = await freePort();
@@ -84,9 +93,11 @@ export async function runBench(
 
     progress('creating the shops, sensors and owners through the API…');
     const fixtures = await createFixtures(url, {
-      loadSensors: options.loadSensors,
-      backgroundSensors: options.backgroundSensors,
+      probeSensors: options.probeSensors,
+      fleetSensors: options.fleetSensors,
     });
+    const fleetTokens = fixtures.fleet.map((s) => s.token);
+    result.startRssMb = memoryOf(server.pid).rssMb;
     const timing = {
       rounds: options.rounds,
       sliceS: options.durationS / options.rounds,
@@ -102,7 +113,7 @@ export async function runBench(
             url,
             path: '/api/v1/ingest',
             connections: options.connections,
-            tokens: fixtures.loadTokens,
+            tokens: fleetTokens,
             body: batch === 1 ? readings.singleBody : () => readings.batchBody(batch),
           },
           durationS,
@@ -128,7 +139,7 @@ export async function runBench(
               url: `http://127.0.0.1:${barePort}`,
               path: '/bare',
               connections: options.connections,
-              tokens: fixtures.loadTokens,
+              tokens: fleetTokens,
               body: readings.singleBody,
             },
             durationS,
@@ -148,7 +159,7 @@ export async function runBench(
         databaseUrl: database.url,
         connections: options.connections,
         batch: options.batch,
-        sensors: fixtures.loadSensors,
+        sensors: fixtures.fleet,
         readings,
       });
       closers.push(() => raw.close());
@@ -194,6 +205,7 @@ export async function runBench(
     await cleanUp();
     process.off('SIGINT', onSignal);
     process.off('SIGTERM', onSignal);
+    process.off('uncaughtException', onCrash);
   }
 }
 
@@ -209,7 +221,7 @@ async function measureLive(
   const live = {
     url,
     clients,
-    probeToken: fixtures.probeToken,
+    probeTokens: fixtures.probeTokens,
     intervalMs: options.probeIntervalMs,
     durationS: options.durationS,
     readings,
@@ -224,7 +236,7 @@ async function measureLive(
   );
   const background = startPacedLoad({
     url,
-    tokens: fixtures.backgroundTokens,
+    tokens: fixtures.fleet.map((s) => s.token),
     readingsPerS: options.backgroundReadingsPerS,
     batch: options.backgroundBatch,
     body: (n) => (n === 1 ? readings.singleBody() : readings.batchBody(n)),
