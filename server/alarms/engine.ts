@@ -37,15 +37,17 @@ export interface SweepOutcome {
 export interface AlarmEngine {
   /**
    * Judges one request's newly stored readings (all from one sensor). Never throws: the readings
-   * are committed already, so a failure here is logged and the sensor still gets its 202.
+   * are committed already, so a failure here is logged and the sensor still gets its 202. Resolves
+   * when the alarms are written, or after `maxWaitMs` at the latest (the work goes on), so a
+   * database that hangs cannot hold the sensor's answer.
    */
-  onReadingsStored(
-    sensor: { sensorId: string; zoneId: string; shopId: string },
-    rows: ReadingRow[],
-  ): Promise<void>;
+  onReadingsStored(sensor: ZoneOf, rows: ReadingRow[]): Promise<void>;
   /** Opens sensor-silent alarms as of `nowMs`, and closes those of revoked sensors. */
   sweepSilent(input: { nowMs: number; shopId?: string }): Promise<SweepOutcome>;
 }
+
+/** The sensor whose readings these are, by where it sits. */
+type ZoneOf = { sensorId: string; zoneId: string; shopId: string };
 
 const NO_SAMPLE = { marginK: null, rhPct: null, batteryV: null, minutesToWet: null };
 
@@ -53,9 +55,12 @@ export function createAlarmEngine(deps: {
   db: Db;
   pool: pg.Pool;
   log?: (err: unknown) => void;
+  /** Longest a request waits for its alarms; ordinarily they take milliseconds. */
+  maxWaitMs?: number;
 }): AlarmEngine {
   const { db, pool } = deps;
   const log = deps.log ?? ((err: unknown) => console.error('alarm engine:', err));
+  const maxWaitMs = deps.maxWaitMs ?? 2000;
 
   async function applySignals(
     tx: Tx,
@@ -71,48 +76,56 @@ export function createAlarmEngine(deps: {
     return changes.events.length;
   }
 
+  /** Steps the zone through the rows and writes what changed; failures are logged, not thrown. */
+  async function judge(sensor: ZoneOf, rows: ReadingRow[]): Promise<void> {
+    const where = { shopId: sensor.shopId, zoneId: sensor.zoneId };
+    try {
+      await withTransaction(pool, async (tx) => {
+        const locked = await lockZoneState(tx, where.zoneId, where.shopId);
+        if (!locked) return;
+        const times = rows.map((r) => r.at.getTime());
+        const firstMs = Math.min(...times);
+        const lastMs = Math.max(...times);
+        const margins = rows.some((r) => r.marginK !== null)
+          ? await zoneMargins(
+              tx,
+              where.zoneId,
+              new Date(firstMs - DEFAULT_TREND.windowMs),
+              new Date(lastMs),
+            )
+          : [];
+        const { settings } = locked;
+        const { state, signals } = evaluateZone(
+          readZoneState(locked.state),
+          where.zoneId,
+          rows.map((r) => ({
+            sensorId: r.sensorId,
+            atMs: r.at.getTime(),
+            marginK: r.marginK,
+            rhPct: r.rhPct,
+            batteryV: r.batteryV,
+          })),
+          margins,
+          {
+            limits: { cautionK: settings.cautionK, wetK: settings.wetK },
+            humidRhPct: settings.humidRhPct,
+          },
+        );
+        await saveZoneState(tx, where.zoneId, state);
+        await applySignals(tx, where, signals);
+      });
+    } catch (err) {
+      log(err);
+    }
+  }
+
   return {
-    async onReadingsStored(sensor, rows) {
-      if (rows.length === 0) return;
-      const where = { shopId: sensor.shopId, zoneId: sensor.zoneId };
-      try {
-        await withTransaction(pool, async (tx) => {
-          const locked = await lockZoneState(tx, where.zoneId, where.shopId);
-          if (!locked) return;
-          const times = rows.map((r) => r.at.getTime());
-          const firstMs = Math.min(...times);
-          const lastMs = Math.max(...times);
-          const margins = rows.some((r) => r.marginK !== null)
-            ? await zoneMargins(
-                tx,
-                where.zoneId,
-                new Date(firstMs - DEFAULT_TREND.windowMs),
-                new Date(lastMs),
-              )
-            : [];
-          const { settings } = locked;
-          const { state, signals } = evaluateZone(
-            readZoneState(locked.state),
-            where.zoneId,
-            rows.map((r) => ({
-              sensorId: r.sensorId,
-              atMs: r.at.getTime(),
-              marginK: r.marginK,
-              rhPct: r.rhPct,
-              batteryV: r.batteryV,
-            })),
-            margins,
-            {
-              limits: { cautionK: settings.cautionK, wetK: settings.wetK },
-              humidRhPct: settings.humidRhPct,
-            },
-          );
-          await saveZoneState(tx, where.zoneId, state);
-          await applySignals(tx, where, signals);
-        });
-      } catch (err) {
-        log(err);
-      }
+    onReadingsStored(sensor, rows) {
+      if (rows.length === 0) return Promise.resolve();
+      const work = judge(sensor, rows);
+      let timer: NodeJS.Timeout | undefined;
+      const cap = new Promise<void>((resolve) => (timer = setTimeout(resolve, maxWaitMs)));
+      return Promise.race([work, cap]).finally(() => clearTimeout(timer));
     },
 
     async sweepSilent({ nowMs, shopId }) {

@@ -4,8 +4,7 @@
 // ones that are rules of thumb (no published source) are marked so where they are used.
 import { afterAll, beforeAll, describe, expect, it } from 'vitest';
 
-import type { ReadingRow } from '@/db/queries/readings';
-import { ALARM_RULES, createAlarmEngine, evaluateZone, readZoneState } from '@/server/alarms';
+import { ALARM_RULES } from '@/server/alarms';
 
 import {
   alarmsOf,
@@ -217,72 +216,5 @@ describe('battery low', () => {
       latestBatteryV: 3.05,
     });
     expect(await changeCounts(t.db, low.id)).toMatchObject({ opened: 1, cleared: 1 });
-  });
-});
-
-describe('two instances stepping one zone', () => {
-  it('waits for the zone’s state row and continues from what the other instance wrote', async () => {
-    const o = await ownerWithSensor(t.app);
-    const startMs = seriesStartMs();
-    const row = (i: number): ReadingRow => ({
-      sensorId: o.sensorId,
-      shopId: o.shopId,
-      zoneId: o.zoneId,
-      at: new Date(startMs + i * MINUTE_MS),
-      airC: 20,
-      rhPct: 50,
-      surfaceC: 8.8,
-      surfaceSource: 'probe',
-      batteryV: null,
-      dewPointC: 9.3,
-      marginK: -0.5,
-      emcPct: 9.2,
-      level: 'wet',
-    });
-    const errors: unknown[] = [];
-    const engine = createAlarmEngine({ db: t.db, pool: t.pool, log: (err) => errors.push(err) });
-    await engine.onReadingsStored(o, [{ ...row(0), marginK: 6, level: 'dry' }]);
-
-    // "The other instance" holds the zone's row, steps it through three wet readings (enough
-    // to confirm wet) and commits only after this instance has started waiting for the row.
-    const other = await t.pool.connect();
-    try {
-      await other.query('begin');
-      const held = await other.query<{ state: Record<string, unknown> }>(
-        'select state from alarm_zone_states where zone_id = $1 for update',
-        [o.zoneId],
-      );
-      const stepped = evaluateZone(
-        readZoneState(held.rows[0]!.state),
-        o.zoneId,
-        [1, 2, 3].map((i) => ({ ...row(i), atMs: row(i).at.getTime() })),
-        [],
-        { limits: { cautionK: 3, wetK: 1 }, humidRhPct: 60 },
-      ).state;
-      expect(stepped.level?.level).toBe('wet');
-      const evaluation = engine.onReadingsStored(o, [row(4)]);
-      await expect
-        .poll(async () => {
-          const waiting = await t.pool.query(
-            `select 1 from pg_stat_activity
-             where wait_event_type = 'Lock' and query ilike '%alarm_zone_states%'`,
-          );
-          return waiting.rowCount;
-        })
-        .toBeGreaterThan(0);
-      await other.query('update alarm_zone_states set state = $2 where zone_id = $1', [
-        o.zoneId,
-        JSON.stringify(stepped),
-      ]);
-      await other.query('commit');
-      await evaluation;
-    } finally {
-      other.release();
-    }
-    // This instance saw the confirmed wet level: its one wet reading keeps it wet, so it opens
-    // the alarm. Had it read the row before the other committed, one reading confirms nothing.
-    expect(errors).toEqual([]);
-    const wet = await onlyAlarm(o.agent, o.shopId, 'wet_surface');
-    expect(wet.openedAt).toBe(iso(startMs + 4 * MINUTE_MS));
   });
 });

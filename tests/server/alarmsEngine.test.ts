@@ -1,0 +1,129 @@
+// The engine between instances: each zone's state is a row in PostgreSQL that an evaluation
+// locks, so an instance waits for another's step and continues from it; and a request never
+// waits long for its alarms, even when the row is held.
+import type pg from 'pg';
+import { afterAll, beforeAll, describe, expect, it } from 'vitest';
+
+import type { ReadingRow } from '@/db/queries/readings';
+import { createAlarmEngine, evaluateZone, readZoneState } from '@/server/alarms';
+
+import { alarmsOf, iso, MINUTE_MS, onlyAlarm, seriesStartMs } from '../support/alarms';
+import { makeTestApp, ownerWithSensor, type TestApp } from '../support/app';
+
+let t: TestApp;
+beforeAll(() => void (t = makeTestApp()));
+afterAll(() => t.pool.end());
+
+type Owner = Awaited<ReturnType<typeof ownerWithSensor>>;
+
+/** A stored reading as ingest hands it to the engine: 0.5 K below the dew point (wet). */
+function wetRow(o: Owner, atMs: number): ReadingRow {
+  return {
+    sensorId: o.sensorId,
+    shopId: o.shopId,
+    zoneId: o.zoneId,
+    at: new Date(atMs),
+    airC: 20,
+    rhPct: 50,
+    surfaceC: 8.8,
+    surfaceSource: 'probe',
+    batteryV: null,
+    dewPointC: 9.3,
+    marginK: -0.5,
+    emcPct: 9.2,
+    level: 'wet',
+  };
+}
+
+/** Holds a zone's state row as another instance's evaluation would, until `release`. */
+async function holdZone(zoneId: string) {
+  const other: pg.PoolClient = await t.pool.connect();
+  await other.query('begin');
+  const held = await other.query<{ state: Record<string, unknown> }>(
+    'select state from alarm_zone_states where zone_id = $1 for update',
+    [zoneId],
+  );
+  return {
+    state: held.rows[0]!.state,
+    async release(newState?: object) {
+      if (newState) {
+        await other.query('update alarm_zone_states set state = $2 where zone_id = $1', [
+          zoneId,
+          JSON.stringify(newState),
+        ]);
+      }
+      await other.query('commit');
+      other.release();
+    },
+  };
+}
+
+/** Until some backend waits for a lock on the zone states. */
+async function someoneWaitsForTheRow() {
+  await expect
+    .poll(async () => {
+      const waiting = await t.pool.query(
+        `select 1 from pg_stat_activity
+         where wait_event_type = 'Lock' and query ilike '%alarm_zone_states%'`,
+      );
+      return waiting.rowCount;
+    })
+    .toBeGreaterThan(0);
+}
+
+describe('two instances stepping one zone', () => {
+  it('waits for the zone’s state row and continues from what the other instance wrote', async () => {
+    const o = await ownerWithSensor(t.app);
+    const startMs = seriesStartMs();
+    const errors: unknown[] = [];
+    const engine = createAlarmEngine({ db: t.db, pool: t.pool, log: (err) => errors.push(err) });
+    await engine.onReadingsStored(o, [{ ...wetRow(o, startMs), marginK: 6, level: 'dry' }]);
+
+    // "The other instance" steps the zone through three wet readings (enough to confirm wet)
+    // and commits only after this instance has started waiting for the row.
+    const other = await holdZone(o.zoneId);
+    const stepped = evaluateZone(
+      readZoneState(other.state),
+      o.zoneId,
+      [1, 2, 3].map((i) => ({
+        ...wetRow(o, startMs + i * MINUTE_MS),
+        atMs: startMs + i * MINUTE_MS,
+      })),
+      [],
+      { limits: { cautionK: 3, wetK: 1 }, humidRhPct: 60 },
+    ).state;
+    expect(stepped.level?.level).toBe('wet');
+    const evaluation = engine.onReadingsStored(o, [wetRow(o, startMs + 4 * MINUTE_MS)]);
+    await someoneWaitsForTheRow();
+    await other.release(stepped);
+    await evaluation;
+
+    // This instance saw the confirmed wet level: its one wet reading keeps it wet, so it opens
+    // the alarm. Had it read the row before the other committed, one reading confirms nothing.
+    expect(errors).toEqual([]);
+    const wet = await onlyAlarm(o.agent, o.shopId, 'wet_surface');
+    expect(wet.openedAt).toBe(iso(startMs + 4 * MINUTE_MS));
+  });
+});
+
+describe('a request waiting for its alarms', () => {
+  it('is answered while the zone is held, and the alarms are written once it is free', async () => {
+    const o = await ownerWithSensor(t.app);
+    const startMs = seriesStartMs();
+    const engine = createAlarmEngine({ db: t.db, pool: t.pool, maxWaitMs: 100 });
+    await engine.onReadingsStored(o, [wetRow(o, startMs)]);
+
+    const other = await holdZone(o.zoneId);
+    // Resolves although the row is still held: the answer does not wait on a stuck database.
+    await engine.onReadingsStored(
+      o,
+      [1, 2].map((i) => wetRow(o, startMs + i * MINUTE_MS)),
+    );
+    expect(await alarmsOf(o.agent, o.shopId, { kind: 'wet_surface' })).toEqual([]);
+    await other.release();
+    // The evaluation went on: the third wet reading confirms wet and opens the alarm.
+    await expect
+      .poll(async () => (await alarmsOf(o.agent, o.shopId, { kind: 'wet_surface' })).length)
+      .toBe(1);
+  });
+});
