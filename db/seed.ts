@@ -8,6 +8,7 @@ import { eq } from 'drizzle-orm';
 
 import type { Db } from './index';
 import { memberships, sensors, shops, users, zones } from './schema';
+import { transaction } from './transaction';
 
 export const DEMO_PASSWORD = 'tamarack-demo-1';
 export const DEMO_SHOP = { name: 'Tamarack Street Joinery', timeZone: 'America/Chicago' };
@@ -45,7 +46,7 @@ export async function seedDemo(
   db: Db,
   credentials: SeedCredentials,
 ): Promise<{ created: boolean; shopId: string; tokens: DemoSensorToken[] }> {
-  const created = await db.transaction(async (tx) => {
+  const created = await transaction(db, async (tx) => {
     const [existing] = await tx
       .select({ id: shops.id })
       .from(shops)

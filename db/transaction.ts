@@ -5,7 +5,7 @@
  * Notifications sent inside are delivered by PostgreSQL only if the transaction commits.
  */
 import { drizzle } from 'drizzle-orm/node-postgres';
-import type pg from 'pg';
+import pg from 'pg';
 
 import type { Db } from './index';
 import * as schema from './schema';
@@ -35,4 +35,14 @@ export async function inTransaction<T>(
 /** The same, with Drizzle over the transaction's client. */
 export function withTransaction<T>(pool: pg.Pool, work: (tx: Db) => Promise<T>): Promise<T> {
   return inTransaction(pool, (client) => work(drizzle(client, { schema, casing: 'snake_case' })));
+}
+
+/**
+ * A Drizzle transaction for the query files: on the pool's own client when `db` is the pool
+ * (the leak-proof path above), or Drizzle's nested transaction when `db` is already one.
+ */
+export function transaction<T>(db: Db, work: (tx: Db) => Promise<T>): Promise<T> {
+  const client = (db as { $client?: unknown }).$client;
+  if (client instanceof pg.Pool) return withTransaction(client, work);
+  return db.transaction((tx) => work(tx as unknown as Db));
 }

@@ -31,17 +31,20 @@ export WEB_DIR=dist
 # Mail goes to the server's own SMTP server on loopback; /dev/outbox shows what it received.
 export DEV_OUTBOX=${DEV_OUTBOX:-true}
 
-npx tsx scripts/migrate.ts
-npx tsx scripts/seed.ts "$tokens"
+# Plain node with the tsx loader (not npx): one process each, so $! is the process itself.
+run_ts=(node --import tsx)
+
+"${run_ts[@]}" scripts/migrate.ts
+"${run_ts[@]}" scripts/seed.ts "$tokens"
 bash scripts/build-web.sh
 
-npx tsx server/index.ts &
+"${run_ts[@]}" server/index.ts &
 pids+=($!)
 for _ in $(seq 1 100); do
-  curl -fs "http://127.0.0.1:$PORT/api/v1/health" >/dev/null 2>&1 && break
+  node -e "fetch('http://127.0.0.1:$PORT/api/v1/health').then((r) => process.exit(r.ok ? 0 : 1), () => process.exit(1))" && break
   sleep 0.2
 done
-npx tsx scripts/simulate.ts --url "http://127.0.0.1:$PORT" --tokens "$tokens" &
+"${run_ts[@]}" scripts/simulate.ts --url "http://127.0.0.1:$PORT" --tokens "$tokens" &
 pids+=($!)
 
 echo

@@ -4,6 +4,7 @@ import type { Db } from '../index';
 import { invitations, memberships, shops, users, type Role } from '../schema';
 
 import { notifyAccessChanged } from './memberships';
+import { transaction } from '../transaction';
 
 const listColumns = {
   id: invitations.id,
@@ -25,7 +26,7 @@ export async function createInvitation(
     expiresAt: Date;
   },
 ) {
-  return db.transaction(async (tx) => {
+  return transaction(db, async (tx) => {
     await tx
       .delete(invitations)
       .where(
@@ -96,7 +97,7 @@ export async function acceptInvitation(
   db: Db,
   input: { invitationId: string; userId: string; now: Date },
 ): Promise<{ shopId: string; role: Role } | null> {
-  return db.transaction(async (tx) => {
+  return transaction(db, async (tx) => {
     const [used] = await tx
       .update(invitations)
       .set({ acceptedAt: input.now })

@@ -4,6 +4,7 @@ import type { Db } from '../index';
 import { memberships, shops, users, type Role } from '../schema';
 
 import { LIVE_CHANNEL } from './readings';
+import { transaction } from '../transaction';
 
 type Executor = Pick<Db, 'execute'>;
 
@@ -67,7 +68,7 @@ export async function changeMembership(
   userId: string,
   change: { role: Role } | { remove: true },
 ): Promise<MembershipChange> {
-  return db.transaction(async (tx) => {
+  return transaction(db, async (tx) => {
     const owners = await tx
       .select({ userId: memberships.userId })
       .from(memberships)

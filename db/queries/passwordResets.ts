@@ -2,6 +2,7 @@ import { and, eq, gt, isNull, sql } from 'drizzle-orm';
 
 import type { Db } from '../index';
 import { passwordResets, users } from '../schema';
+import { transaction } from '../transaction';
 
 export async function createPasswordReset(
   db: Db,
@@ -19,7 +20,7 @@ export async function spendPasswordReset(
   db: Db,
   input: { tokenHash: string; passwordHash: string; now: Date },
 ): Promise<{ userId: string; sessionVersion: number } | null> {
-  return db.transaction(async (tx) => {
+  return transaction(db, async (tx) => {
     const [spent] = await tx
       .update(passwordResets)
       .set({ usedAt: input.now })

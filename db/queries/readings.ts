@@ -4,6 +4,7 @@ import type pg from 'pg';
 import type { Level } from '@/ingest';
 
 import type { Db } from '../index';
+import { inTransaction } from '../transaction';
 
 export interface ReadingRow {
   sensorId: string;
@@ -38,10 +39,7 @@ export async function insertReadingGroup(
   rows: ReadingRow[],
   notificationsFor: (insertedKeys: Set<string>) => string[],
 ): Promise<void> {
-  const client = await pool.connect();
-  let broken = false;
-  try {
-    await client.query('begin');
+  await inTransaction(pool, async (client) => {
     const inserted = await client.query<{ sensor_id: string; at: Date }>(
       `insert into readings (sensor_id, at, shop_id, zone_id, air_c, rh_pct, surface_c,
          surface_source, battery_v, dew_point_c, margin_k, emc_pct, level)
@@ -99,15 +97,7 @@ export async function insertReadingGroup(
         payloads,
       ]);
     }
-    await client.query('commit');
-  } catch (err) {
-    broken = true;
-    await client.query('rollback').catch(() => {});
-    throw err;
-  } finally {
-    // A client whose transaction failed may hold a dead connection: drop it from the pool.
-    client.release(broken);
-  }
+  });
 }
 
 /**

@@ -2,6 +2,7 @@ import { and, eq, isNull, sql } from 'drizzle-orm';
 
 import type { Db } from '../index';
 import { sensors, zones } from '../schema';
+import { transaction } from '../transaction';
 
 export async function insertSensor(
   db: Db,
@@ -86,7 +87,7 @@ export async function rotateSensorToken(
   sensorId: string,
   tokenHash: string,
 ): Promise<{ oldTokenHash: string } | null> {
-  return db.transaction(async (tx) => {
+  return transaction(db, async (tx) => {
     const [old] = await tx
       .select({ tokenHash: sensors.tokenHash })
       .from(sensors)

@@ -4,6 +4,7 @@ import type { Db } from '../index';
 import { memberships, shops } from '../schema';
 
 import { notifyAccessChanged } from './memberships';
+import { transaction } from '../transaction';
 
 const shopColumns = { id: shops.id, name: shops.name, timeZone: shops.timeZone };
 
@@ -13,7 +14,7 @@ export async function createShopWithOwner(
   input: { name: string; timeZone: string },
   ownerId: string,
 ) {
-  return db.transaction(async (tx) => {
+  return transaction(db, async (tx) => {
     const [shop] = await tx.insert(shops).values(input).returning(shopColumns);
     if (!shop) throw new Error('shop insert returned no row');
     await tx.insert(memberships).values({ shopId: shop.id, userId: ownerId, role: 'owner' });
@@ -45,7 +46,7 @@ export async function updateShop(
  * its former members' live connections are told to drop it.
  */
 export async function deleteShop(db: Db, shopId: string): Promise<boolean> {
-  return db.transaction(async (tx) => {
+  return transaction(db, async (tx) => {
     const members = await tx
       .select({ userId: memberships.userId })
       .from(memberships)
