@@ -12,6 +12,7 @@ import type pg from 'pg';
 import type { Db } from '@/db';
 
 import type { AlarmEngine } from './alarms';
+import { createAlarmQueue } from './alarms/queue';
 import { authorize } from './auth/middleware';
 import { createRateLimits, DEFAULT_RATE_LIMITS, type RateLimitConfig } from './auth/rateLimits';
 import type { RateLimitOptions } from './auth/sensorRateLimit';
@@ -42,6 +43,8 @@ export interface AppDeps {
   estimator: SurfaceEstimator;
   /** Judges stored readings and opens, updates and clears alarms; omitted, no alarms open. */
   alarms?: AlarmEngine;
+  /** Ingest answers after its readings' alarms are judged (deterministic tests). */
+  awaitAlarms?: boolean;
   /** Per-sensor request limit of the ingest route; the default suits real sensors. */
   sensorRate?: RateLimitOptions;
   mailer: Mailer;
@@ -84,7 +87,8 @@ export function createApp(deps: AppDeps): express.Express {
   // Every API route has a row in server/auth/policy.ts; this checks it before any router runs.
   api.use(authorize({ db, sessions, trustedOrigins: new Set([new URL(deps.publicUrl).origin]) }));
   // Ingest parses its own body (after the token check and with its own limit).
-  api.use('/ingest', ingestRouter({ ...deps, now }));
+  const alarmQueue = deps.alarms && createAlarmQueue(deps.alarms);
+  api.use('/ingest', ingestRouter({ ...deps, alarms: alarmQueue, now }));
   api.use(express.json({ limit: '100kb' }));
   api.use(healthRouter(deps.pool));
   api.use('/auth', authRouter(people));

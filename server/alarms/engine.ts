@@ -16,6 +16,7 @@ import {
   sensorSeen,
   sweepCandidates,
   zoneMargins,
+  type AlarmRow,
   type AlarmView,
   type Tx,
 } from '@/db/queries/alarms';
@@ -42,9 +43,20 @@ export interface AlarmEngine {
    * database that hangs cannot hold the sensor's answer.
    */
   onReadingsStored(sensor: ZoneOf, rows: ReadingRow[]): Promise<void>;
+  /**
+   * Steps one zone through readings (from any of its sensors, oldest first) and writes what
+   * changed, without a time cap. Never throws. The ingest route reaches it through the queue.
+   */
+  judge(where: ZoneOf, rows: ReadingRow[]): Promise<void>;
   /** Opens sensor-silent alarms as of `nowMs`, and closes those of revoked sensors. */
   sweepSilent(input: { nowMs: number; shopId?: string }): Promise<SweepOutcome>;
 }
+
+/**
+ * Called with the alarms a transaction opened, before it commits: what it writes commits with
+ * them or not at all. It must not fail the transaction for its own sake (the alarms matter more).
+ */
+export type AlarmsOpenedHook = (tx: Tx, opened: AlarmRow[]) => Promise<void>;
 
 /** The sensor whose readings these are, by where it sits. */
 type ZoneOf = { sensorId: string; zoneId: string; shopId: string };
@@ -57,6 +69,8 @@ export function createAlarmEngine(deps: {
   log?: (err: unknown) => void;
   /** Longest a request waits for its alarms; ordinarily they take milliseconds. */
   maxWaitMs?: number;
+  /** Runs inside the transaction that opened alarms (it queues their e-mail; server/jobs). */
+  onOpened?: AlarmsOpenedHook;
 }): AlarmEngine {
   const { db, pool } = deps;
   const log = deps.log ?? ((err: unknown) => console.error('alarm engine:', err));
@@ -73,6 +87,7 @@ export function createAlarmEngine(deps: {
     await saveAlarmChanges(tx, changes, (views: AlarmView[]) =>
       views.map((view) => alarmMessageJson(where.shopId, view)),
     );
+    if (changes.inserted.length > 0) await deps.onOpened?.(tx, changes.inserted);
     return changes.events.length;
   }
 
@@ -120,6 +135,7 @@ export function createAlarmEngine(deps: {
   }
 
   return {
+    judge,
     onReadingsStored(sensor, rows) {
       if (rows.length === 0) return Promise.resolve();
       const work = judge(sensor, rows);

@@ -9,7 +9,7 @@ import express, { Router } from 'express';
 import type { SensorIdentity } from '@/db/queries/sensors';
 import { MAX_READINGS_PER_REQUEST, parseEnvelope } from '@/ingest';
 
-import type { AlarmEngine } from '../alarms';
+import type { AlarmQueue } from '../alarms/queue';
 import {
   createSensorRateLimiter,
   DEFAULT_SENSOR_RATE,
@@ -30,11 +30,13 @@ export interface IngestDeps {
   estimator: SurfaceEstimator;
   now: () => number;
   sensorRate?: RateLimitOptions;
-  alarms?: AlarmEngine;
+  alarms?: AlarmQueue;
+  /** Answer only after the alarms are judged too (tests want that order; sensors need not). */
+  awaitAlarms?: boolean;
 }
 
 export function ingestRouter(deps: IngestDeps): Router {
-  const { writer, tokens, estimator, now, sensorRate, alarms } = deps;
+  const { writer, tokens, estimator, now, sensorRate, alarms, awaitAlarms } = deps;
   const router = Router();
   const limiter = createSensorRateLimiter({ ...DEFAULT_SENSOR_RATE, ...sensorRate, now });
 
@@ -114,11 +116,13 @@ export function ingestRouter(deps: IngestDeps): Router {
       const { insertedMs } = await writer.write(rows, (fresh) =>
         JSON.stringify(readingMessage(fresh)),
       );
-      // The rows are committed: the engine logs its own failures and never undoes the 202.
-      await alarms?.onReadingsStored(
+      // The rows are committed, so the 202 need not wait for the alarms: the queue judges them
+      // next, logs its own failures and never undoes the answer.
+      const judged = alarms?.add(
         sensor,
         rows.filter((r) => insertedMs.has(r.at.getTime())),
       );
+      if (awaitAlarms) await judged;
 
       res.status(202).json({
         stored: insertedMs.size,

@@ -68,3 +68,30 @@ describe('the surface estimate across a restart', () => {
     expect(result.margin + result.dewPoint).toBeCloseTo(20 - 10 * Math.exp(-2 / 3), 6);
   });
 });
+
+describe('alarms off the ingest path', () => {
+  it('answers 202 without waiting for the alarms, which follow from the queue', async () => {
+    const t = app({ awaitAlarms: false });
+    const o = await ownerWithSensor(t.app);
+    const start = Date.now() - 10 * 60_000;
+    // Surface 2 K under the dew point of 20 °C / 50 % (9.3 °C): wet, four minutes running.
+    const readings = [0, 1, 2, 3, 4].map((m) => ({
+      at: new Date(start + m * 60_000).toISOString(),
+      air: 20,
+      rh: 50,
+      surface: 7.3,
+    }));
+    await request(t.app)
+      .post('/api/v1/ingest')
+      .set('authorization', `Bearer ${o.token}`)
+      .send({ readings })
+      .expect(202);
+    let kinds: string[] = [];
+    for (let i = 0; i < 100 && !kinds.includes('wet_surface'); i++) {
+      const res = await o.agent.get(`/api/v1/shops/${o.shopId}/alarms?state=open`).expect(200);
+      kinds = (res.body.alarms as { kind: string }[]).map((a) => a.kind);
+      if (!kinds.includes('wet_surface')) await new Promise((r) => setTimeout(r, 20));
+    }
+    expect(kinds).toContain('wet_surface');
+  });
+});

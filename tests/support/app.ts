@@ -5,7 +5,7 @@ import { randomUUID } from 'node:crypto';
 import request from 'supertest';
 
 import { createDatabase } from '@/db';
-import { createAlarmEngine } from '@/server/alarms';
+import { createAlarmEngine, type AlarmsOpenedHook } from '@/server/alarms';
 import { createApp } from '@/server/app';
 import { createSensorTokenCache } from '@/server/auth/sensorTokens';
 import { createSessionSigner } from '@/server/auth/session';
@@ -23,12 +23,16 @@ export interface TestAppOptions {
   listen?: boolean;
   /** Ingest limit per sensor; tests that post hundreds of requests from one sensor raise it. */
   sensorRate?: { ratePerS: number; burst: number };
+  /** Ingest waits for the alarm engine before its 202 (default true, so tests read alarms at once). */
+  awaitAlarms?: boolean;
   /** Another database than the shared test one (fault tests stop and restart their own). */
   databaseUrl?: string;
   /** The app's clock (sessions, link expiry); tests of expiry move it. */
   now?: () => number;
   /** Defaults to TEST_RATE_LIMITS: every test request comes from 127.0.0.1. */
   rateLimits?: RateLimitConfig;
+  /** The engine's hook for opened alarms (alarm mail tests queue pg-boss jobs with it). */
+  onAlarmsOpened?: AlarmsOpenedHook;
 }
 
 /** Where links in test e-mail point; also a trusted origin of the test app. */
@@ -58,7 +62,7 @@ export function makeTestApp(options: TestAppOptions = {}) {
   const tokens = createSensorTokenCache(database.db, { listener });
   const writer = createReadingWriter(database.pool);
   const estimator = createSurfaceEstimator(database.db);
-  const alarms = createAlarmEngine(database);
+  const alarms = createAlarmEngine({ ...database, onOpened: options.onAlarmsOpened });
   const app = createApp({
     ...database,
     sessions,
@@ -66,6 +70,8 @@ export function makeTestApp(options: TestAppOptions = {}) {
     writer,
     estimator,
     alarms,
+    // Tests read alarms right after a 202; in production the 202 does not wait for them.
+    awaitAlarms: options.awaitAlarms ?? true,
     webDir: options.webDir,
     sensorRate: options.sensorRate,
     mailer,
@@ -74,7 +80,19 @@ export function makeTestApp(options: TestAppOptions = {}) {
     now: options.now,
     log: () => {},
   });
-  return { app, ...database, sessions, tokens, writer, estimator, alarms, listener, outbox, smtp };
+  return {
+    app,
+    ...database,
+    sessions,
+    tokens,
+    writer,
+    estimator,
+    alarms,
+    listener,
+    mailer,
+    outbox,
+    smtp,
+  };
 }
 
 export type TestApp = ReturnType<typeof makeTestApp>;
