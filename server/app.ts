@@ -65,6 +65,11 @@ export function createApp(deps: AppDeps): express.Express {
   const app = express();
   app.disable('x-powered-by');
   app.set('query parser', 'simple');
+  // Sensors first: they need neither browser security headers nor the session policy (their
+  // bearer token is checked inside), and this is the hottest route. It parses its own body,
+  // after the token check and with its own limit.
+  const alarmQueue = deps.alarms && createAlarmQueue(deps.alarms);
+  app.use('/api/v1/ingest', ingestRouter({ ...deps, alarms: alarmQueue, now }));
   app.use(
     helmet({
       // The exported Expo app uses inline styles; scripts stay same-origin.
@@ -86,9 +91,6 @@ export function createApp(deps: AppDeps): express.Express {
   const api = express.Router();
   // Every API route has a row in server/auth/policy.ts; this checks it before any router runs.
   api.use(authorize({ db, sessions, trustedOrigins: new Set([new URL(deps.publicUrl).origin]) }));
-  // Ingest parses its own body (after the token check and with its own limit).
-  const alarmQueue = deps.alarms && createAlarmQueue(deps.alarms);
-  api.use('/ingest', ingestRouter({ ...deps, alarms: alarmQueue, now }));
   api.use(express.json({ limit: '100kb' }));
   api.use(healthRouter(deps.pool));
   api.use('/auth', authRouter(people));

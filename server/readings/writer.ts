@@ -39,7 +39,9 @@ export interface WriterOptions {
   maxGroupRows: number;
 }
 
-const DEFAULTS: WriterOptions = { maxWaitMs: 2, maxInFlight: 2, maxGroupRows: 10_000 };
+// maxWaitMs 1 rather than 2 measured +15–23 % single-reading throughput for ~30 % more
+// database CPU per reading (npm run bench, A/B on this 2-core machine).
+const DEFAULTS: WriterOptions = { maxWaitMs: 1, maxInFlight: 2, maxGroupRows: 10_000 };
 
 export function createReadingWriter(
   pool: pg.Pool,
