@@ -12,7 +12,7 @@ import type pg from 'pg';
 import type { Db } from '@/db';
 
 import type { AlarmEngine } from './alarms';
-import { createAlarmQueue } from './alarms/queue';
+import { createAlarmQueue, type AlarmQueueOptions } from './alarms/queue';
 import { authorize } from './auth/middleware';
 import { createRateLimits, DEFAULT_RATE_LIMITS, type RateLimitConfig } from './auth/rateLimits';
 import type { RateLimitOptions } from './auth/sensorRateLimit';
@@ -45,6 +45,7 @@ export interface AppDeps {
   alarms?: AlarmEngine;
   /** Ingest answers after its readings' alarms are judged (deterministic tests). */
   awaitAlarms?: boolean;
+  alarmQueue?: Partial<AlarmQueueOptions>;
   /** Per-sensor request limit of the ingest route; the default suits real sensors. */
   sensorRate?: RateLimitOptions;
   mailer: Mailer;
@@ -68,7 +69,7 @@ export function createApp(deps: AppDeps): express.Express {
   // Sensors first: they need neither browser security headers nor the session policy (their
   // bearer token is checked inside), and this is the hottest route. It parses its own body,
   // after the token check and with its own limit.
-  const alarmQueue = deps.alarms && createAlarmQueue(deps.alarms);
+  const alarmQueue = deps.alarms && createAlarmQueue(deps.alarms, deps.alarmQueue);
   app.use('/api/v1/ingest', ingestRouter({ ...deps, alarms: alarmQueue, now }));
   app.use(
     helmet({

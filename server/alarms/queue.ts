@@ -1,8 +1,8 @@
 /**
  * Alarm judging off the ingest path. A request's readings are durable once committed, so the
  * sensor gets its 202 then; the alarm engine catches up here. Zones waiting their turn gather
- * every reading that arrives meanwhile and are judged once for all of them, and at most
- * `concurrency` zones are judged at a time — so under a burst, alarm work grows with the number
+ * every reading that arrives meanwhile and are judged once for all of them, a zone at most once
+ * per `minIntervalMs`, and at most `concurrency` zones at a time — so under a burst, alarm work grows with the number
  * of busy zones, not the number of requests, and never crowds out ingest itself.
  *
  * Readings still queued when the process stops are not judged here; the zone's next reading
@@ -32,9 +32,21 @@ export interface AlarmQueueOptions {
   concurrency: number;
   /** A zone that falls this far behind keeps only its newest rows (a burst, not history). */
   maxRowsPerZone: number;
+  /**
+   * A zone is judged at most this often; what arrives in between is judged together. Alarms
+   * act on minutes (the early warning looks an hour ahead), so a second's delay costs nothing,
+   * while judging a busy zone per request would cost more CPU than storing the readings.
+   */
+  minIntervalMs: number;
+  now: () => number;
 }
 
-const DEFAULTS: AlarmQueueOptions = { concurrency: 2, maxRowsPerZone: 5000 };
+const DEFAULTS: AlarmQueueOptions = {
+  concurrency: 2,
+  maxRowsPerZone: 5000,
+  minIntervalMs: 1000,
+  now: Date.now,
+};
 
 export function createAlarmQueue(
   engine: AlarmEngine,
@@ -43,12 +55,22 @@ export function createAlarmQueue(
   const opts = { ...DEFAULTS, ...options };
   const pending = new Map<string, Pending>();
   const judging = new Set<string>();
+  const lastStartMs = new Map<string, number>();
+  let wakeUp: NodeJS.Timeout | null = null;
   let idleWaiters: (() => void)[] = [];
 
   function pump() {
+    const nowMs = opts.now();
+    let nextDueMs = Infinity;
     for (const [zoneId, next] of pending) {
       if (judging.size >= opts.concurrency) return;
       if (judging.has(zoneId)) continue;
+      const dueMs = (lastStartMs.get(zoneId) ?? -Infinity) + opts.minIntervalMs;
+      if (dueMs > nowMs) {
+        nextDueMs = Math.min(nextDueMs, dueMs);
+        continue;
+      }
+      lastStartMs.set(zoneId, nowMs);
       pending.delete(zoneId);
       judging.add(zoneId);
       const rows = [...next.rows].sort((a, b) => a.at.getTime() - b.at.getTime());
@@ -61,6 +83,12 @@ export function createAlarmQueue(
         }
         pump();
       });
+    }
+    if (nextDueMs < Infinity && !wakeUp) {
+      wakeUp = setTimeout(() => {
+        wakeUp = null;
+        pump();
+      }, nextDueMs - nowMs);
     }
   }
 
