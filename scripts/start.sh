@@ -37,8 +37,9 @@ run_ts=(node --import tsx)
 "${run_ts[@]}" scripts/migrate.ts
 "${run_ts[@]}" scripts/seed.ts "$tokens"
 bash scripts/build-web.sh
+bash scripts/build-server.sh
 
-"${run_ts[@]}" server/index.ts &
+node --enable-source-maps .build/server.mjs &
 pids+=($!)
 for _ in $(seq 1 100); do
   node -e "fetch('http://127.0.0.1:$PORT/api/v1/health').then((r) => process.exit(r.ok ? 0 : 1), () => process.exit(1))" && break

@@ -26,7 +26,7 @@ export async function freePort(): Promise<number> {
 }
 
 /**
- * Starts `node --import tsx <entry>` (not the tsx CLI, which would put a wrapper process between
+ * Starts `node [--import tsx] <entry>` (not the tsx CLI, which would put a wrapper process between
  * us and the server and hide its memory) and resolves once a stdout line matches `ready`.
  */
 export async function startNodeChild(opts: {
@@ -39,7 +39,13 @@ export async function startNodeChild(opts: {
 }): Promise<Child> {
   const child = spawn(
     process.execPath,
-    [...(opts.nodeArgs ?? []), '--import', 'tsx', opts.entry, ...(opts.args ?? [])],
+    [
+      ...(opts.nodeArgs ?? []),
+      // A bundled entry (.mjs) runs on plain node, as npm start runs the server.
+      ...(opts.entry.endsWith('.mjs') ? [] : ['--import', 'tsx']),
+      opts.entry,
+      ...(opts.args ?? []),
+    ],
     { env: opts.env, stdio: ['ignore', 'pipe', 'pipe'] },
   );
   let output = '';

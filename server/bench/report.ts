@@ -183,7 +183,7 @@ export function formatReport(r: BenchResult): string {
   out.push(table(['figure', 'measured', 'target', ''], targetRows));
   out.push(
     `server memory: ${int(r.startRssMb)} MB resident once started, ${int(r.peakRssMb)} MB at ` +
-      'its peak (MB = 2^20 bytes; the server runs under tsx, as npm start runs it)',
+      'its peak (MB = 2^20 bytes; the server runs bundled on plain node, as npm start runs it)',
   );
   out.push(
     `failures: ${String(f.failures)} (non-2xx, socket errors, missing deliveries; should be 0)`,

@@ -2,6 +2,7 @@
  * One bench run, start to finish: its own PostgreSQL, the servers under test as child processes,
  * the fixtures, each phase for a fixed time, then everything stopped again — also on failure.
  */
+import { execFileSync } from 'node:child_process';
 import { randomBytes } from 'node:crypto';
 import os from 'node:os';
 
@@ -82,8 +83,10 @@ export async function runBench(
 
   try {
     const serverPort = await freePort();
+    // The server as npm start runs it: bundled, on plain node.
+    execFileSync('bash', ['scripts/build-server.sh'], { stdio: 'inherit' });
     const server = await startNodeChild({
-      entry: 'server/index.ts',
+      entry: '.build/server.mjs',
       nodeArgs: options.cpuProfDir ? ['--cpu-prof', `--cpu-prof-dir=${options.cpuProfDir}`] : [],
       env: serverEnv(database.url, serverPort),
       ready: /listening on/,
