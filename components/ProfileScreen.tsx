@@ -1,5 +1,5 @@
 import { useRouter } from 'expo-router';
-import { StyleSheet, Text } from 'react-native';
+import { StyleSheet, Switch, Text, View } from 'react-native';
 import * as z from 'zod/mini';
 
 import { Button, Choice, Form, FormError, FormField, useApiForm } from './forms';
@@ -14,14 +14,14 @@ import {
   type User,
 } from './queries';
 import { ShopFrame } from './ShopPage';
-import { space, type } from './theme';
+import { colors, space, type } from './theme';
 
 const UNIT_OPTIONS: readonly { value: UnitPref; label: string }[] = [
   { value: 'C', label: '°C' },
   { value: 'F', label: '°F' },
 ];
 
-/** The signed-in person: name, temperature units, password, signing out. */
+/** The signed-in person: name, temperature units, alarm e-mails, password, signing out. */
 export function ProfileScreen({ shopId }: { shopId: string }) {
   const me = useMeQuery();
   return (
@@ -52,6 +52,7 @@ function ProfileBody({ user }: { user: User }) {
         />
         <FormError message={profile.error?.message} />
       </Panel>
+      <AlarmMailPanel user={user} />
       <PasswordForm />
       <Panel title="Sign out" hint="Ends your sessions on every device.">
         <Button
@@ -63,6 +64,39 @@ function ProfileBody({ user }: { user: User }) {
         />
       </Panel>
     </>
+  );
+}
+
+const ALARM_MAIL_LABEL = 'E-mail me when an alarm opens';
+
+/** The on/off for alarm e-mails; the server reads it when it sends each one. */
+function AlarmMailPanel({ user }: { user: User }) {
+  const profile = useProfileMutation();
+  return (
+    <Panel
+      title="Alarm e-mails"
+      hint="For shops where you are an owner or member: dew risk, wet surface, a silent sensor or a low battery as soon as it opens; humid air once it has lasted 2 h. At most one mail per zone and kind in 30 minutes."
+    >
+      <View style={styles.switchRow}>
+        <Text style={[type.body, styles.switchLabel]} nativeID="profile-alarm-mail-label">
+          {ALARM_MAIL_LABEL}
+        </Text>
+        <Switch
+          value={user.alarmMail}
+          onValueChange={(alarmMail) => profile.mutate({ alarmMail })}
+          disabled={profile.isPending}
+          accessibilityLabel={ALARM_MAIL_LABEL}
+          aria-labelledby="profile-alarm-mail-label"
+          trackColor={{ false: colors.border, true: colors.dry }}
+          thumbColor={colors.card}
+          testID="profile-alarm-mail"
+        />
+      </View>
+      <Text style={type.small} role="status">
+        {user.alarmMail ? `On: alarm e-mails go to ${user.email}.` : 'Off: no alarm e-mails.'}
+      </Text>
+      <FormError message={profile.error?.message} />
+    </Panel>
   );
 }
 
@@ -159,4 +193,8 @@ function PasswordForm() {
   );
 }
 
-const styles = StyleSheet.create({ form: { gap: space.md } });
+const styles = StyleSheet.create({
+  form: { gap: space.md },
+  switchRow: { flexDirection: 'row', alignItems: 'center', gap: space.md, minHeight: 40 },
+  switchLabel: { flex: 1 },
+});

@@ -12,6 +12,8 @@ export interface User {
   name: string;
   /** How temperatures are shown; the API always speaks °C and K. */
   unitPref: UnitPref;
+  /** Whether alarm e-mails reach this person in shops where they are an owner or member. */
+  alarmMail: boolean;
 }
 
 export interface ShopSummary {
@@ -56,7 +58,7 @@ export function findShop(me: Me | undefined, shopId: string): ShopSummary | unde
 export function useProfileMutation() {
   const queryClient = useQueryClient();
   return useMutation({
-    mutationFn: (input: { name?: string; unitPref?: UnitPref }) =>
+    mutationFn: (input: { name?: string; unitPref?: UnitPref; alarmMail?: boolean }) =>
       apiRequest<{ user: User }>('/api/v1/me', { method: 'PATCH', body: input }),
     onSuccess: ({ user }) =>
       queryClient.setQueryData<Me>(meKeys.all, (me) => (me ? { ...me, user } : me)),

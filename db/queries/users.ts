@@ -8,6 +8,8 @@ export interface PublicUser {
   email: string;
   name: string;
   unitPref: TemperatureUnitPref;
+  /** Whether alarm e-mails reach this person (as an owner or member of a shop). */
+  alarmMail: boolean;
 }
 
 const publicColumns = {
@@ -15,6 +17,7 @@ const publicColumns = {
   email: users.email,
   name: users.name,
   unitPref: users.unitPref,
+  alarmMail: users.alarmMail,
 };
 
 export async function findUserByEmail(db: Db, email: string) {
@@ -68,7 +71,7 @@ export async function findSessionState(db: Db, userId: string, shopId?: string) 
 export async function updateProfile(
   db: Db,
   userId: string,
-  changes: { name?: string; unitPref?: TemperatureUnitPref },
+  changes: { name?: string; unitPref?: TemperatureUnitPref; alarmMail?: boolean },
 ): Promise<PublicUser | null> {
   const [row] = await db
     .update(users)

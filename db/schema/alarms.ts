@@ -113,5 +113,46 @@ export const alarmZoneStates = pgTable('alarm_zone_states', {
   updatedAt: at().notNull().defaultNow(),
 });
 
+/**
+ * What became of an alarm's e-mail: `sending` until every recipient has it (a retry skips those
+ * in `sent_to`), `sent`, or why none went out — `capped` (a mail for the zone and kind went
+ * within the cap), `covered` (dew risk while the zone's surface is wet: the wet mail says more),
+ * `stale` (a backlog's old alarm), `cleared` (over before it was sent), `nobody` (no owner or
+ * member wants alarm mail).
+ */
+export const alarmMailOutcomeEnum = pgEnum('alarm_mail_outcome', [
+  'sending',
+  'sent',
+  'capped',
+  'covered',
+  'stale',
+  'cleared',
+  'nobody',
+]);
+
+/** One row per alarm whose mail was decided; the row is the mail job's claim and its record. */
+export const alarmMails = pgTable(
+  'alarm_mails',
+  {
+    alarmId: uuid()
+      .primaryKey()
+      .references(() => alarms.id, { onDelete: 'cascade' }),
+    shopId: uuid().notNull(),
+    zoneId: uuid().notNull(),
+    kind: alarmKindEnum().notNull(),
+    // The alarm's opening time (its reading's), which the per-zone-and-kind cap compares.
+    openedAt: at().notNull(),
+    outcome: alarmMailOutcomeEnum().notNull(),
+    sentTo: uuid()
+      .array()
+      .notNull()
+      .default(sql`'{}'::uuid[]`),
+    decidedAt: at().notNull(),
+    sentAt: at(),
+  },
+  (t) => [index().on(t.zoneId, t.kind, t.openedAt)],
+);
+
 export type AlarmKind = (typeof alarmKindEnum.enumValues)[number];
+export type AlarmMailOutcome = (typeof alarmMailOutcomeEnum.enumValues)[number];
 export type AlarmChange = (typeof alarmChangeEnum.enumValues)[number];

@@ -1,5 +1,6 @@
 /** People and shops: accounts, shops, who may do what in each, invitations and resets. */
 import {
+  boolean,
   index,
   integer,
   pgEnum,
@@ -26,6 +27,8 @@ export const users = pgTable('users', {
   sessionVersion: integer().notNull().default(0),
   // How the app shows temperatures to this person; the API always speaks °C and K.
   unitPref: temperatureUnitEnum().notNull().default('C'),
+  // Alarm e-mails (server/alarms/mail.ts) go to owners and members unless they turn them off.
+  alarmMail: boolean().notNull().default(true),
   createdAt: createdAt(),
 });
 

@@ -85,7 +85,13 @@ export function authRouter({
     }
     await startSession(res, sessions, found.id, found.sessionVersion);
     res.json({
-      user: { id: found.id, email: found.email, name: found.name, unitPref: found.unitPref },
+      user: {
+        id: found.id,
+        email: found.email,
+        name: found.name,
+        unitPref: found.unitPref,
+        alarmMail: found.alarmMail,
+      },
     });
   });
 

@@ -1,4 +1,7 @@
-/** The signed-in person: GET /me (with their shops), profile changes and password change. */
+/**
+ * The signed-in person: GET /me (with their shops), profile changes (name, units, alarm e-mails)
+ * and password change.
+ */
 import { Router } from 'express';
 import { z } from 'zod';
 
@@ -15,9 +18,16 @@ import { parseInput } from '../validate';
 import { newPasswordField, personNameField, unitPrefField } from './fields';
 
 const profileBody = z
-  .object({ name: personNameField.optional(), unitPref: unitPrefField.optional() })
+  .object({
+    name: personNameField.optional(),
+    unitPref: unitPrefField.optional(),
+    alarmMail: z.boolean('Send true or false').optional(),
+  })
   .strict()
-  .refine((b) => b.name !== undefined || b.unitPref !== undefined, 'Change the name or the units');
+  .refine(
+    (b) => b.name !== undefined || b.unitPref !== undefined || b.alarmMail !== undefined,
+    'Change the name, the units or alarm e-mails',
+  );
 
 const passwordBody = z.object({
   currentPassword: z.string().min(1, 'Enter your current password').max(200),
