@@ -11,7 +11,13 @@ import { createApp } from './app';
 import { createSensorTokenCache } from './auth/sensorTokens';
 import { createSessionSigner } from './auth/session';
 import { readConfig } from './config';
-import { scheduleAlarmSweep, startJobRunner } from './jobs';
+import {
+  createAlarmMailQueue,
+  queueAlarmMails,
+  scheduleAlarmSweep,
+  startJobRunner,
+  workAlarmMails,
+} from './jobs';
 import { startLiveHub } from './live/hub';
 import { startNotificationListener } from './live/listener';
 import { startMail } from './mail';
@@ -26,8 +32,15 @@ async function main() {
   const tokens = createSensorTokenCache(db, { listener });
   const writer = createReadingWriter(pool);
   const estimator = createSurfaceEstimator(db);
-  const alarms = createAlarmEngine({ db, pool });
   const mail = await startMail(config.mail);
+  // pg-boss first: the engine queues each opened alarm's e-mail as a job in its transaction.
+  const jobs = await startJobRunner({ databaseUrl: config.databaseUrl, log: console.log });
+  await createAlarmMailQueue(jobs);
+  const alarms = createAlarmEngine({
+    db,
+    pool,
+    onOpened: queueAlarmMails(jobs, { log: console.log }),
+  });
   const app = createApp({
     db,
     pool,
@@ -44,8 +57,14 @@ async function main() {
   const trustedOrigins = new Set([new URL(config.publicUrl).origin]);
   const hub = startLiveHub({ listener, db, sessions, trustedOrigins });
   await listener.ready;
-  const jobs = await startJobRunner({ databaseUrl: config.databaseUrl, log: console.log });
   await scheduleAlarmSweep(jobs, alarms, { log: console.log });
+  await workAlarmMails(jobs, {
+    db,
+    pool,
+    mailer: mail.mailer,
+    publicUrl: config.publicUrl,
+    log: console.log,
+  });
 
   const server = http.createServer(app);
   hub.attach(server);

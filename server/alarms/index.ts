@@ -1,4 +1,17 @@
 /** The public surface of the alarm engine. */
-export { createAlarmEngine, type AlarmEngine, type SweepOutcome } from './engine';
+export {
+  createAlarmEngine,
+  type AlarmEngine,
+  type AlarmsOpenedHook,
+  type SweepOutcome,
+} from './engine';
 export { evaluateZone, readZoneState, type ZoneAlarmState } from './evaluate';
+export {
+  ALARM_MAIL_RULES,
+  decideAlarmMail,
+  deliverAlarmMail,
+  mailDueAtMs,
+  type AlarmMailDeps,
+  type AlarmMailReport,
+} from './mail';
 export { ALARM_RULES, postingIntervalMs, silentAfterMs } from './rules';

@@ -1,3 +1,11 @@
 /** The public surface of server/jobs: the pg-boss runner and the jobs it runs. */
+export {
+  ALARM_MAIL_QUEUE,
+  createAlarmMailQueue,
+  queueAlarmMails,
+  workAlarmMails,
+  type AlarmMailQueueOptions,
+  type AlarmMailWorkerOptions,
+} from './alarmMail';
 export { ALARM_SWEEP_CRON, ALARM_SWEEP_QUEUE, scheduleAlarmSweep } from './alarmSweep';
 export { startJobRunner, type JobRunnerOptions } from './runner';

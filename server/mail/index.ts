@@ -2,5 +2,6 @@ export { startLocalSmtpServer, type LocalSmtpServer } from './localSmtp';
 export { createMailer, type Mailer, type MailMessage, type SmtpTarget } from './mailer';
 export { createOutbox, type Outbox, type StoredMail } from './outbox';
 export { outboxRouter } from './outboxPage';
+export { alarmMail, type AlarmMailInput } from './alarmMail';
 export { invitationMail, passwordResetMail } from './templates';
 export { startMail, type MailSetup } from './setup';

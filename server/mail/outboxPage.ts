@@ -4,15 +4,8 @@
  */
 import { Router } from 'express';
 
+import { escapeHtml } from './html';
 import type { Outbox, StoredMail } from './outbox';
-
-function escapeHtml(value: string): string {
-  return value
-    .replace(/&/g, '&amp;')
-    .replace(/</g, '&lt;')
-    .replace(/>/g, '&gt;')
-    .replace(/"/g, '&quot;');
-}
 
 /** Escapes the plain-text part and turns its web addresses into links. */
 function linkify(text: string): string {

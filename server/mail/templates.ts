@@ -5,6 +5,7 @@
  */
 import type { Role } from '@/db/schema';
 
+import { escapeHtml, linkButton, mailPage, paragraph } from './html';
 import type { MailMessage } from './mailer';
 
 const ROLE_WORDS: Record<Role, string> = {
@@ -13,28 +14,8 @@ const ROLE_WORDS: Record<Role, string> = {
   viewer: 'a viewer (read only)',
 };
 
-function escapeHtml(value: string): string {
-  return value
-    .replace(/&/g, '&amp;')
-    .replace(/</g, '&lt;')
-    .replace(/>/g, '&gt;')
-    .replace(/"/g, '&quot;')
-    .replace(/'/g, '&#39;');
-}
-
 function page(paragraphs: string[], link: { href: string; label: string }, after: string[]) {
-  const p = (html: string) =>
-    `<p style="margin:0 0 16px;font:15px/1.5 monospace;color:#1F2427">${html}</p>`;
-  return [
-    '<!doctype html><html><body style="margin:0;padding:24px;background:#F5F2EA">',
-    '<div style="max-width:520px;margin:0 auto;padding:24px;background:#FFFDF8;border:1px solid #E2DCCF;border-radius:10px">',
-    ...paragraphs.map(p),
-    `<p style="margin:0 0 16px"><a href="${escapeHtml(link.href)}" style="display:inline-block;padding:12px 18px;background:#1F2427;color:#FFFDF8;border-radius:6px;font:15px monospace;text-decoration:none">${escapeHtml(link.label)}</a></p>`,
-    p(`Or paste this address into your browser:<br>${escapeHtml(link.href)}`),
-    ...after.map(p),
-    '<p style="margin:0;font:12px/1.5 monospace;color:#56626B">— Drybench</p>',
-    '</div></body></html>',
-  ].join('');
+  return mailPage([...paragraphs.map(paragraph), linkButton(link), ...after.map(paragraph)]);
 }
 
 export function invitationMail(input: {
