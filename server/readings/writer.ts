@@ -121,18 +121,18 @@ async function writeGroup(pool: pg.Pool, group: Pending[]): Promise<WriteOutcome
     }
   });
 
-  let outcomes: WriteOutcome[] = [];
-  await insertReadingGroup(pool, rows, (insertedKeys) => {
-    const fresh = group.map((p, i) =>
+  // The rows each request owns and that were new, given the keys the database inserted.
+  const freshOf = (insertedKeys: Set<string>) =>
+    group.map((p, i) =>
       p.rows.filter((r) => {
         const k = readingKey(r.sensorId, r.at.getTime());
         return owner.get(k) === i && insertedKeys.has(k);
       }),
     );
-    outcomes = fresh.map((f) => ({ insertedMs: new Set(f.map((r) => r.at.getTime())) }));
-    return fresh
+  const insertedKeys = await insertReadingGroup(pool, rows, (keys) =>
+    freshOf(keys)
       .map((f, i) => (f.length > 0 ? group[i]!.livePayload(f) : null))
-      .filter((payload): payload is string => payload !== null);
-  });
-  return outcomes;
+      .filter((payload): payload is string => payload !== null),
+  );
+  return freshOf(insertedKeys).map((f) => ({ insertedMs: new Set(f.map((r) => r.at.getTime())) }));
 }

@@ -23,6 +23,11 @@ let instance: Awaited<ReturnType<typeof startInstance>>;
 
 beforeAll(async () => {
   url = (await db('start')).stdout.trim();
+  // A fresh database every run, as for the shared test database.
+  const admin = createDatabase(url.replace(/\/drybench_faults$/, '/postgres'), { max: 1 });
+  await admin.pool.query('drop database if exists drybench_faults with (force)');
+  await admin.pool.query('create database drybench_faults');
+  await admin.pool.end();
   const { pool, db: drizzleDb } = createDatabase(url, { max: 1 });
   await runMigrations(drizzleDb);
   await pool.end();
