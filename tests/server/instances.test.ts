@@ -161,6 +161,38 @@ describe('two instances on one database', () => {
     }
   });
 
+  it('tells about the new readings only when a batch repeats some', async () => {
+    const o = await ownerWithSensor(a.app.app);
+    const cookie = await sessionCookie(b.baseUrl, o.email, o.password);
+    const first = { at: new Date(Date.now() - 120_000).toISOString(), air: 14, rh: 60 };
+    const second = { at: new Date(Date.now() - 60_000).toISOString(), air: 15, rh: 60 };
+    const post = (readings: object[]) =>
+      request(a.baseUrl)
+        .post('/api/v1/ingest')
+        .set('authorization', `Bearer ${o.token}`)
+        .send({ readings });
+    await post([first]).expect(202);
+    const { ws, messages } = await openSocket(b.baseUrl, cookie);
+    try {
+      const res = await post([first, second]).expect(202);
+      expect(res.body).toMatchObject({ stored: 1, duplicates: 1 });
+      const message = await waitFor(
+        () =>
+          messages.find((m) => (m as { type?: string }).type === 'reading') as
+            { count: number; reading: { at: string } } | undefined,
+        2000,
+      );
+      expect(message.count).toBe(1);
+      expect(message.reading.at).toBe(second.at);
+      // An all-duplicate retry tells nobody anything.
+      await post([first, second]).expect(202);
+      await new Promise((r) => setTimeout(r, 300));
+      expect(messages.filter((m) => (m as { type?: string }).type === 'reading')).toHaveLength(1);
+    } finally {
+      ws.close();
+    }
+  });
+
   it('refuses a WebSocket without a session', async () => {
     await expect(openSocket(b.baseUrl, '')).rejects.toThrow(/401/);
   });
