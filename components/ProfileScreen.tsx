@@ -68,15 +68,17 @@ function ProfileBody({ user }: { user: User }) {
 }
 
 const ALARM_MAIL_LABEL = 'E-mail me when an alarm opens';
+// No-break spaces keep "2 h" and "30 minutes" on one line.
+const ALARM_MAIL_HINT =
+  'For shops where you are an owner or member: dew risk, wet surface, a silent sensor or a low battery as soon as it opens; humid air once it has lasted 2\u00a0h. At most one mail per zone and kind in 30\u00a0minutes.';
+// react-native-web paints an "on" thumb its own teal unless told; native ignores the prop.
+const WEB_SWITCH_COLORS: Record<string, string> = { activeThumbColor: colors.card };
 
 /** The on/off for alarm e-mails; the server reads it when it sends each one. */
 function AlarmMailPanel({ user }: { user: User }) {
   const profile = useProfileMutation();
   return (
-    <Panel
-      title="Alarm e-mails"
-      hint="For shops where you are an owner or member: dew risk, wet surface, a silent sensor or a low battery as soon as it opens; humid air once it has lasted 2 h. At most one mail per zone and kind in 30 minutes."
-    >
+    <Panel title="Alarm e-mails" hint={ALARM_MAIL_HINT}>
       <View style={styles.switchRow}>
         <Text style={[type.body, styles.switchLabel]} nativeID="profile-alarm-mail-label">
           {ALARM_MAIL_LABEL}
@@ -89,6 +91,7 @@ function AlarmMailPanel({ user }: { user: User }) {
           aria-labelledby="profile-alarm-mail-label"
           trackColor={{ false: colors.border, true: colors.dry }}
           thumbColor={colors.card}
+          {...WEB_SWITCH_COLORS}
           testID="profile-alarm-mail"
         />
       </View>
