@@ -7,7 +7,18 @@ import globals from 'globals';
 import tseslint from 'typescript-eslint';
 
 export default tseslint.config(
-  { ignores: ['node_modules', 'dist', '.data', '.tmp', '.expo', 'test-results', 'db/migrations'] },
+  {
+    ignores: [
+      'node_modules',
+      'dist',
+      '.build',
+      '.data',
+      '.tmp',
+      '.expo',
+      'test-results',
+      'db/migrations',
+    ],
+  },
   js.configs.recommended,
   ...tseslint.configs.recommended,
   {
