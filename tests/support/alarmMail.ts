@@ -10,7 +10,8 @@ import type { StoredMail } from '@/server/mail';
 import { MINUTE_MS, onlyAlarm, postEach, withMargin } from './alarms';
 import { makeTestApp, ownerWithSensor, signUp, TEST_PUBLIC_URL, type TestApp } from './app';
 
-export const SHOP_NAME = 'Tamarack Street Joinery';
+// Not the demo shop's name: the browser tests find the demo shop by its name in the same database.
+export const SHOP_NAME = 'Birch Lane Woodshop';
 export const SHOP_TIME_ZONE = 'America/Chicago';
 
 /**
