@@ -2,7 +2,7 @@ import { useRouter } from 'expo-router';
 import { StyleSheet, Text } from 'react-native';
 
 import { AuthLayout } from './AuthLayout';
-import { Button, Form, FormError, FormField, useApiForm } from './forms';
+import { Button, Form, FormError, FormField, SubmitButton, useApiForm } from './forms';
 import { acceptNewAccountSchema } from './forms/schemas';
 import { shopHref } from './hrefs';
 import {
@@ -162,10 +162,11 @@ function NewAccountForm({ token, invitation }: { token: string; invitation: Invi
         onSubmitEditing={submit}
       />
       <FormError message={formError} testID="invitation-error" />
-      <Button
-        label={sending ? 'Joining…' : 'Create account and join'}
+      <SubmitButton
+        label="Create account and join"
+        sendingLabel="Joining…"
+        sending={sending}
         onPress={submit}
-        disabled={sending}
         testID="invitation-accept"
       />
     </Form>

@@ -2,7 +2,7 @@ import { useState } from 'react';
 import { StyleSheet, Text, View } from 'react-native';
 
 import { ackNoteProblem, ACK_NOTE_MAX } from './alarmText';
-import { Button, Form, TextField } from './forms';
+import { Button, Form, SubmitButton, TextField } from './forms';
 import { isApiError, useAlarmAckMutation } from './queries';
 import { colors, space, type } from './theme';
 
@@ -48,10 +48,11 @@ export function AlarmAckForm({ shopId, alarmId, onDone }: AlarmAckFormProps) {
         </Text>
       ) : null}
       <View style={styles.buttons}>
-        <Button
-          label={ack.isPending ? 'Saving…' : 'Acknowledge'}
+        <SubmitButton
+          label="Acknowledge"
+          sendingLabel="Saving…"
+          sending={ack.isPending}
           onPress={submit}
-          disabled={ack.isPending}
           testID="alarm-ack-save"
         />
         <Button label="Cancel" variant="quiet" onPress={onDone} testID="alarm-ack-cancel" />

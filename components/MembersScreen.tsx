@@ -2,7 +2,16 @@ import { useState } from 'react';
 import { Controller } from 'react-hook-form';
 import { StyleSheet, Text, View } from 'react-native';
 
-import { Button, Choice, ConfirmButton, Form, FormError, FormField, useApiForm } from './forms';
+import {
+  Button,
+  Choice,
+  ConfirmButton,
+  Form,
+  FormError,
+  FormField,
+  SubmitButton,
+  useApiForm,
+} from './forms';
 import { inviteSchema } from './forms/schemas';
 import { Notice } from './Notice';
 import { Panel } from './Panel';
@@ -175,10 +184,11 @@ function InvitePanel({ shopId }: { shopId: string }) {
             Invitation sent to {sentTo}.
           </Text>
         ) : null}
-        <Button
-          label={sending ? 'Sending…' : 'Send invitation'}
+        <SubmitButton
+          label="Send invitation"
+          sendingLabel="Sending…"
+          sending={sending}
           onPress={submit}
-          disabled={sending}
           testID="invite-submit"
         />
       </Form>

@@ -2,7 +2,7 @@ import { Redirect, useRouter } from 'expo-router';
 import { StyleSheet, Text } from 'react-native';
 
 import { AuthLayout } from './AuthLayout';
-import { Button, Form, FormError, FormField, useApiForm } from './forms';
+import { Form, FormError, FormField, SubmitButton, useApiForm } from './forms';
 import { shopSchema } from './forms/schemas';
 import { shopSectionHref } from './hrefs';
 import { isSignedOut, useMeQuery, useShopCreateMutation } from './queries';
@@ -65,10 +65,11 @@ export function NewShopScreen() {
           onSubmitEditing={submit}
         />
         <FormError message={formError} testID="shop-create-error" />
-        <Button
-          label={sending ? 'Creating…' : 'Create shop'}
+        <SubmitButton
+          label="Create shop"
+          sendingLabel="Creating…"
+          sending={sending}
           onPress={submit}
-          disabled={sending}
           testID="shop-create-submit"
         />
       </Form>

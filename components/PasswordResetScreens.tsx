@@ -2,7 +2,7 @@ import { useRouter } from 'expo-router';
 import { StyleSheet, Text } from 'react-native';
 
 import { AuthLayout } from './AuthLayout';
-import { Button, Form, FormError, FormField, useApiForm } from './forms';
+import { Form, FormError, FormField, SubmitButton, useApiForm } from './forms';
 import { newPasswordFormSchema, resetRequestSchema } from './forms/schemas';
 import { usePasswordResetConfirmMutation, usePasswordResetRequestMutation } from './queries';
 import { space, type } from './theme';
@@ -44,10 +44,11 @@ export function ForgotPasswordScreen() {
             onSubmitEditing={submit}
           />
           <FormError message={formError} />
-          <Button
-            label={sending ? 'Sending…' : 'Send the link'}
+          <SubmitButton
+            label="Send the link"
+            sendingLabel="Sending…"
+            sending={sending}
             onPress={submit}
-            disabled={sending}
             testID="reset-submit"
           />
         </Form>
@@ -103,10 +104,11 @@ export function ResetPasswordScreen({ token }: { token: string }) {
           onSubmitEditing={submit}
         />
         <FormError message={formError} testID="new-password-error" />
-        <Button
-          label={sending ? 'Saving…' : 'Save and sign in'}
+        <SubmitButton
+          label="Save and sign in"
+          sendingLabel="Saving…"
+          sending={sending}
           onPress={submit}
-          disabled={sending}
           testID="new-password-submit"
         />
       </Form>

@@ -3,7 +3,16 @@ import { Controller } from 'react-hook-form';
 import { StyleSheet, Text, View } from 'react-native';
 
 import { formatLastSeen } from './format';
-import { Button, Choice, ConfirmButton, Form, FormError, FormField, useApiForm } from './forms';
+import {
+  Button,
+  Choice,
+  ConfirmButton,
+  Form,
+  FormError,
+  FormField,
+  SubmitButton,
+  useApiForm,
+} from './forms';
 import { sensorSchema } from './forms/schemas';
 import { Notice } from './Notice';
 import { Panel } from './Panel';
@@ -237,10 +246,11 @@ function NewSensorForm({ shopId, zones, onCreated }: NewSensorFormProps) {
           )}
         />
         <FormError message={formError} />
-        <Button
-          label={sending ? 'Adding…' : 'Add sensor'}
+        <SubmitButton
+          label="Add sensor"
+          sendingLabel="Adding…"
+          sending={sending}
           onPress={submit}
-          disabled={sending}
           testID="sensor-create-submit"
         />
       </Form>

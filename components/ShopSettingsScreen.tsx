@@ -3,7 +3,16 @@ import { useState } from 'react';
 import { StyleSheet, Text, View } from 'react-native';
 
 import { deltaInUnit } from './format';
-import { Button, ConfirmButton, Form, FormError, FormField, TextField, useApiForm } from './forms';
+import {
+  Button,
+  ConfirmButton,
+  Form,
+  FormError,
+  FormField,
+  SubmitButton,
+  TextField,
+  useApiForm,
+} from './forms';
 import { shopSchema, zoneNameSchema } from './forms/schemas';
 import { Panel } from './Panel';
 import {
@@ -108,10 +117,11 @@ function ShopForm({ shop }: { shop: ShopSummary }) {
             Saved.
           </Text>
         ) : null}
-        <Button
-          label={sending ? 'Saving…' : 'Save shop'}
+        <SubmitButton
+          label="Save shop"
+          sendingLabel="Saving…"
+          sending={sending}
           onPress={submit}
-          disabled={sending}
           testID="shop-edit-submit"
         />
       </Form>
@@ -142,10 +152,11 @@ function NewZoneForm({ shopId }: { shopId: string }) {
         onSubmitEditing={submit}
       />
       <FormError message={formError} />
-      <Button
-        label={sending ? 'Adding…' : 'Add zone'}
+      <SubmitButton
+        label="Add zone"
+        sendingLabel="Adding…"
+        sending={sending}
         onPress={submit}
-        disabled={sending}
         testID="zone-create-submit"
       />
     </Form>

@@ -2,7 +2,7 @@ import { useRouter } from 'expo-router';
 import { StyleSheet, Text } from 'react-native';
 
 import { AuthLayout } from './AuthLayout';
-import { Button, Form, FormError, FormField, useApiForm } from './forms';
+import { Form, FormError, FormField, SubmitButton, useApiForm } from './forms';
 import { signUpSchema } from './forms/schemas';
 import { useSignUpMutation } from './queries';
 import { space, type } from './theme';
@@ -65,10 +65,11 @@ export function SignUpScreen() {
           onSubmitEditing={submit}
         />
         <FormError message={formError} testID="sign-up-error" />
-        <Button
-          label={sending ? 'Creating…' : 'Create account'}
+        <SubmitButton
+          label="Create account"
+          sendingLabel="Creating…"
+          sending={sending}
           onPress={submit}
-          disabled={sending}
           testID="sign-up-submit"
         />
         <Text style={type.small}>Your e-mail is used to sign in and for password resets.</Text>

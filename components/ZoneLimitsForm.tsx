@@ -3,7 +3,7 @@ import { StyleSheet, Text, View } from 'react-native';
 import { fDeltaToK } from '@/ingest/units';
 
 import { deltaInUnit } from './format';
-import { Button, Form, FormError, FormField, useApiForm } from './forms';
+import { Form, FormError, FormField, SubmitButton, useApiForm } from './forms';
 import { parseDecimal, zoneLimitsSchema } from './forms/schemas';
 import { useZoneUpdateMutation, type UnitPref, type Zone } from './queries';
 import { space, type } from './theme';
@@ -112,10 +112,11 @@ export function ZoneLimitsForm({
           Saved.
         </Text>
       ) : null}
-      <Button
-        label={sending ? 'Saving…' : `Save ${zone.name}`}
+      <SubmitButton
+        label={`Save ${zone.name}`}
+        sendingLabel="Saving…"
+        sending={sending}
         onPress={submit}
-        disabled={sending}
         variant="quiet"
         testID="zone-edit-submit"
       />
