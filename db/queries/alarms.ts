@@ -188,11 +188,13 @@ export async function saveAlarmChanges(
   notificationsFor: (views: AlarmView[]) => string[],
 ) {
   if (changes.events.length === 0) return;
-  if (changes.inserted.length > 0) {
-    await tx.insert(alarms).values(changes.inserted.map(({ createdAt: _, ...row }) => row));
-  }
+  // Clears before opens: a batch that clears an alarm and opens its successor (same subject and
+  // kind) would otherwise meet the one-open-alarm-per-subject index with both open.
   for (const row of changes.updated) {
     await tx.update(alarms).set(engineColumns(row)).where(eq(alarms.id, row.id));
+  }
+  if (changes.inserted.length > 0) {
+    await tx.insert(alarms).values(changes.inserted.map(({ createdAt: _, ...row }) => row));
   }
   await tx.insert(alarmEvents).values(changes.events);
   const ids = [...changes.inserted, ...changes.updated].map((r) => r.id);

@@ -95,3 +95,40 @@ describe('alarms off the ingest path', () => {
     expect(kinds).toContain('wet_surface');
   });
 });
+
+describe('an alarm cleared and opened again within one batch', () => {
+  it('closes the old wet-surface alarm and opens a new one', async () => {
+    const o = await ownerWithSensor(first.app);
+    const t0 = Date.now() - 60 * 60_000;
+    // 20 °C / 50 % RH: dew point 9.3 °C. Surface 7.3 °C is wet (margin −2 K); 16 °C is dry.
+    const at = (minute: number) => new Date(t0 + minute * 60_000).toISOString();
+    const reading = (minute: number, surface: number) => ({
+      at: at(minute),
+      air: 20,
+      rh: 50,
+      surface,
+    });
+    const post = (readings: object[]) =>
+      request(first.app)
+        .post('/api/v1/ingest')
+        .set('authorization', `Bearer ${o.token}`)
+        .send({ readings })
+        .expect(202);
+    await post([0, 1, 2, 3, 4, 5].map((m) => reading(m, 7.3)));
+    const wetAlarms = async () => {
+      const res = await o.agent.get(`/api/v1/shops/${o.shopId}/alarms?state=all`).expect(200);
+      return (res.body.alarms as { kind: string; clearedAt: string | null }[]).filter(
+        (a) => a.kind === 'wet_surface',
+      );
+    };
+    expect(await wetAlarms()).toHaveLength(1);
+    // Twenty dry minutes, then wet again — all in one request.
+    await post([
+      ...Array.from({ length: 20 }, (_, i) => reading(6 + i, 16)),
+      ...[26, 27, 28, 29, 30, 31].map((m) => reading(m, 7.3)),
+    ]);
+    const after = await wetAlarms();
+    expect(after).toHaveLength(2);
+    expect(after.filter((a) => a.clearedAt === null)).toHaveLength(1);
+  });
+});
