@@ -61,6 +61,11 @@ export function ZoneLimitsForm({
       }),
   });
   const deg = `°${unit}`;
+  const limits: { name: Exclude<keyof LimitValues, 'name'>; label: string }[] = [
+    { name: 'caution', label: `Caution below (${deg})` },
+    { name: 'wet', label: `Wet at (${deg})` },
+    { name: 'humid', label: 'Humid above (% RH)' },
+  ];
   return (
     <Form onSubmit={submit} style={styles.form}>
       <FormField
@@ -71,36 +76,18 @@ export function ZoneLimitsForm({
         editable={!sending}
       />
       <View style={styles.row}>
-        <View style={styles.cell}>
-          <FormField
-            control={control}
-            name="caution"
-            label={`Caution below (${deg})`}
-            testID="zone-edit-caution"
-            inputMode="decimal"
-            editable={!sending}
-          />
-        </View>
-        <View style={styles.cell}>
-          <FormField
-            control={control}
-            name="wet"
-            label={`Wet at (${deg})`}
-            testID="zone-edit-wet"
-            inputMode="decimal"
-            editable={!sending}
-          />
-        </View>
-        <View style={styles.cell}>
-          <FormField
-            control={control}
-            name="humid"
-            label="Humid above (% RH)"
-            testID="zone-edit-humid"
-            inputMode="decimal"
-            editable={!sending}
-          />
-        </View>
+        {limits.map((limit) => (
+          <View key={limit.name} style={styles.cell}>
+            <FormField
+              control={control}
+              name={limit.name}
+              label={limit.label}
+              testID={`zone-edit-${limit.name}`}
+              inputMode="decimal"
+              editable={!sending}
+            />
+          </View>
+        ))}
       </View>
       <Text style={type.small}>
         Dew margin limits: close below the caution limit (ISO 8502-4 asks for 3 K before coating),
