@@ -15,7 +15,7 @@ import {
 import { formatMargin, formatPercent } from './format';
 import { Button } from './forms';
 import type { Alarm } from './queries';
-import { colors, fonts, levelColors, radius, space, type } from './theme';
+import { cardSurface, colors, fonts, levelColors, space, type } from './theme';
 
 interface AlarmCardProps {
   shopId: string;
@@ -100,15 +100,7 @@ export function AlarmCard({ shopId, alarm, nowMs, timeZone, canAcknowledge }: Al
 }
 
 const styles = StyleSheet.create({
-  card: {
-    backgroundColor: colors.card,
-    borderColor: colors.border,
-    borderWidth: 1,
-    borderLeftWidth: 5,
-    borderRadius: radius.card,
-    padding: space.lg,
-    gap: space.sm,
-  },
+  card: { ...cardSurface, borderLeftWidth: 5, padding: space.lg, gap: space.sm },
   top: { flexDirection: 'row', justifyContent: 'space-between', gap: space.md },
   kind: { fontFamily: fonts.bold, fontSize: 13, letterSpacing: 0.6, textTransform: 'uppercase' },
   openWord: { color: colors.ink },

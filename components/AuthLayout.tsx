@@ -3,7 +3,7 @@ import type { ReactNode } from 'react';
 import { StyleSheet, Text, View } from 'react-native';
 
 import { Content, FORM_MAX_WIDTH, Screen } from './layout';
-import { colors, radius, space, type } from './theme';
+import { cardSurface, colors, space, type } from './theme';
 
 interface AuthLayoutProps {
   title: string;
@@ -44,14 +44,7 @@ export function AuthLayout({ title, children, links = [] }: AuthLayoutProps) {
 const styles = StyleSheet.create({
   column: { paddingTop: space.xxl, gap: space.xl },
   brand: { gap: space.xs },
-  card: {
-    backgroundColor: colors.card,
-    borderColor: colors.border,
-    borderWidth: 1,
-    borderRadius: radius.card,
-    padding: space.xl,
-    gap: space.lg,
-  },
+  card: { ...cardSurface, padding: space.xl, gap: space.lg },
   links: { gap: space.md },
   link: {
     ...type.body,

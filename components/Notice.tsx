@@ -1,7 +1,7 @@
 import type { ReactNode } from 'react';
 import { StyleSheet, Text, View } from 'react-native';
 
-import { colors, radius, space, type } from './theme';
+import { cardSurface, space, type } from './theme';
 
 interface NoticeProps {
   title: string;
@@ -20,12 +20,5 @@ export function Notice({ title, children, testID }: NoticeProps) {
 }
 
 const styles = StyleSheet.create({
-  panel: {
-    backgroundColor: colors.card,
-    borderColor: colors.border,
-    borderWidth: 1,
-    borderRadius: radius.card,
-    padding: space.lg,
-    gap: space.sm,
-  },
+  panel: { ...cardSurface, padding: space.lg, gap: space.sm },
 });

@@ -1,7 +1,7 @@
 import type { ReactNode } from 'react';
 import { StyleSheet, Text, View } from 'react-native';
 
-import { colors, radius, space, type } from './theme';
+import { cardSurface, space, type } from './theme';
 
 interface PanelProps {
   title?: string;
@@ -27,12 +27,5 @@ export function Panel({ title, hint, children, testID }: PanelProps) {
 }
 
 const styles = StyleSheet.create({
-  panel: {
-    backgroundColor: colors.card,
-    borderColor: colors.border,
-    borderWidth: 1,
-    borderRadius: radius.card,
-    padding: space.lg,
-    gap: space.md,
-  },
+  panel: { ...cardSurface, padding: space.lg, gap: space.md },
 });

@@ -7,7 +7,7 @@ import { Flash } from './Flash';
 import { formatLastSeen, formatMargin, formatPercent, formatTemperature } from './format';
 import { LevelMark } from './LevelMark';
 import { MarginBar } from './MarginBar';
-import { colors, levelColors, levelWords, radius, space, tabular, type } from './theme';
+import { cardSurface, colors, levelColors, levelWords, space, tabular, type } from './theme';
 import { useNow } from './useNow';
 
 interface ZoneCardProps {
@@ -127,13 +127,7 @@ function LastSeen({ at, timeZone }: { at: string | null; timeZone: string }) {
 }
 
 const styles = StyleSheet.create({
-  card: {
-    backgroundColor: colors.card,
-    borderColor: colors.border,
-    borderWidth: 1,
-    borderRadius: radius.card,
-    overflow: 'hidden',
-  },
+  card: { ...cardSurface, overflow: 'hidden' },
   selected: { borderColor: colors.iron },
   inner: {
     paddingVertical: space.lg,

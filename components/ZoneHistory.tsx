@@ -1,8 +1,9 @@
 import { StyleSheet, Text, View } from 'react-native';
 
 import { MarginChart } from './MarginChart';
+import { Panel } from './Panel';
 import { DAY_WINDOW, useReadingsQuery, type Zone } from './queries';
-import { colors, radius, space, type } from './theme';
+import { colors, type } from './theme';
 
 interface ZoneHistoryProps {
   shopId: string;
@@ -11,12 +12,15 @@ interface ZoneHistoryProps {
   chartHeight?: number;
 }
 
-/** The last 24 hours of a zone as a chart, in a card. */
+/**
+ * The last 24 hours of a zone as a chart, in a panel. The heading is its own row rather than the
+ * panel's title, to leave room for "updating…" beside it.
+ */
 export function ZoneHistory({ shopId, zone, timeZone, chartHeight }: ZoneHistoryProps) {
   const readings = useReadingsQuery(shopId, zone.id, DAY_WINDOW);
   const data = readings.data;
   return (
-    <View style={styles.card}>
+    <Panel>
       <View style={styles.head}>
         <Text style={type.heading}>Last 24 hours</Text>
         {readings.isFetching ? <Text style={type.small}>updating…</Text> : null}
@@ -41,19 +45,11 @@ export function ZoneHistory({ shopId, zone, timeZone, chartHeight }: ZoneHistory
           <Text style={type.small}>Loading readings…</Text>
         </View>
       )}
-    </View>
+    </Panel>
   );
 }
 
 const styles = StyleSheet.create({
-  card: {
-    backgroundColor: colors.card,
-    borderColor: colors.border,
-    borderWidth: 1,
-    borderRadius: radius.card,
-    padding: space.lg,
-    gap: space.md,
-  },
   head: { flexDirection: 'row', alignItems: 'baseline', justifyContent: 'space-between' },
   placeholder: { alignItems: 'center', justifyContent: 'center' },
   error: { color: colors.wet },

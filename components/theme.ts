@@ -2,7 +2,7 @@
  * Drybench's colours, type and spacing (see LOOK.md). Every level colour is paired with its
  * word wherever it is shown; colour alone never carries a level.
  */
-import type { TextStyle } from 'react-native';
+import type { TextStyle, ViewStyle } from 'react-native';
 
 import type { Level } from '@/ingest';
 
@@ -45,6 +45,14 @@ export const fonts = {
 export const space = { xs: 4, sm: 8, md: 12, lg: 16, xl: 24, xxl: 32 } as const;
 
 export const radius = { card: 10, control: 6 } as const;
+
+/** What every card and panel stands on (LOOK.md): card paper, a 1 px border, rounded corners. */
+export const cardSurface: ViewStyle = {
+  backgroundColor: colors.card,
+  borderColor: colors.border,
+  borderWidth: 1,
+  borderRadius: radius.card,
+};
 
 /** Numbers that change live keep their width so digits do not jump. */
 export const tabular: TextStyle = { fontVariant: ['tabular-nums'] };
