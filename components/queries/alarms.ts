@@ -11,6 +11,7 @@ import {
 } from '@tanstack/react-query';
 
 import { apiRequest, isApiError } from './api';
+import { shopPath } from './shops';
 
 export type AlarmKind = 'dew_risk' | 'wet_surface' | 'humid_air' | 'sensor_silent' | 'battery_low';
 export type AlarmListState = 'open' | 'all';
@@ -50,10 +51,7 @@ export function alarmsQueryOptions(shopId: string, state: AlarmListState = 'open
   return queryOptions({
     queryKey: alarmKeys.list(shopId, state),
     queryFn: ({ signal }) =>
-      apiRequest<AlarmsResponse>(
-        `/api/v1/shops/${encodeURIComponent(shopId)}/alarms?state=${state}`,
-        { signal },
-      ),
+      apiRequest<AlarmsResponse>(`${shopPath(shopId)}/alarms?state=${state}`, { signal }),
     // Live messages keep the lists fresh; a refetch on focus catches anything missed.
     staleTime: 30_000,
   });
@@ -115,7 +113,7 @@ export function useAlarmAckMutation(shopId: string) {
   return useMutation({
     mutationFn: ({ alarmId, note }: AlarmAckInput) =>
       apiRequest<{ alarm: Alarm }>(
-        `/api/v1/shops/${encodeURIComponent(shopId)}/alarms/${encodeURIComponent(alarmId)}/ack`,
+        `${shopPath(shopId)}/alarms/${encodeURIComponent(alarmId)}/ack`,
         { method: 'POST', body: { note } },
       ),
     onSuccess: ({ alarm }) => patchAlarm(queryClient, shopId, alarm),

@@ -8,6 +8,7 @@ import { queryOptions, useQuery, type QueryClient } from '@tanstack/react-query'
 import type { Level } from '@/ingest';
 
 import { apiRequest } from './api';
+import { zonePath } from './zones';
 
 export interface ReadingPoint {
   at: string;
@@ -60,9 +61,7 @@ export function readingsQueryOptions(
         to: new Date(toMs).toISOString(),
         points: String(window.points),
       });
-      const path =
-        `/api/v1/shops/${encodeURIComponent(shopId)}/zones/${encodeURIComponent(zoneId)}` +
-        `/readings?${params.toString()}`;
+      const path = `${zonePath(shopId, zoneId)}/readings?${params.toString()}`;
       return apiRequest<ReadingsResponse>(path, { signal });
     },
     staleTime: 5 * 60_000,

@@ -10,6 +10,7 @@ import {
 import type { Level } from '@/ingest';
 
 import { apiRequest } from './api';
+import { shopPath } from './shops';
 
 export type SurfaceSource = 'probe' | 'estimate';
 
@@ -40,6 +41,9 @@ export interface ZonesResponse {
   zones: Zone[];
 }
 
+export const zonePath = (shopId: string, zoneId: string) =>
+  `${shopPath(shopId)}/zones/${encodeURIComponent(zoneId)}`;
+
 export const zoneKeys = {
   all: ['zones'] as const,
   shop: (shopId: string) => [...zoneKeys.all, shopId] as const,
@@ -49,8 +53,7 @@ export const zoneKeys = {
 export function zonesQueryOptions(shopId: string) {
   return queryOptions({
     queryKey: zoneKeys.list(shopId),
-    queryFn: ({ signal }) =>
-      apiRequest<ZonesResponse>(`/api/v1/shops/${encodeURIComponent(shopId)}/zones`, { signal }),
+    queryFn: ({ signal }) => apiRequest<ZonesResponse>(`${shopPath(shopId)}/zones`, { signal }),
     // Live messages keep the list fresh; a refetch on focus catches anything missed.
     staleTime: 30_000,
   });
@@ -91,7 +94,7 @@ export function useZoneCreateMutation(shopId: string) {
   const queryClient = useQueryClient();
   return useMutation({
     mutationFn: (input: { name: string }) =>
-      apiRequest<Omit<Zone, 'latest'>>(`/api/v1/shops/${encodeURIComponent(shopId)}/zones`, {
+      apiRequest<Omit<Zone, 'latest'>>(`${shopPath(shopId)}/zones`, {
         method: 'POST',
         body: input,
       }),
@@ -110,10 +113,10 @@ export function useZoneUpdateMutation(shopId: string) {
   const queryClient = useQueryClient();
   return useMutation({
     mutationFn: ({ zoneId, ...changes }: ZoneChanges & { zoneId: string }) =>
-      apiRequest<Omit<Zone, 'latest'>>(
-        `/api/v1/shops/${encodeURIComponent(shopId)}/zones/${encodeURIComponent(zoneId)}`,
-        { method: 'PATCH', body: changes },
-      ),
+      apiRequest<Omit<Zone, 'latest'>>(zonePath(shopId, zoneId), {
+        method: 'PATCH',
+        body: changes,
+      }),
     onSettled: () => queryClient.invalidateQueries({ queryKey: zoneKeys.shop(shopId) }),
   });
 }
