@@ -2,20 +2,10 @@
  * Messages from GET /api/v1/live. Checked by hand rather than with a schema library to keep
  * the web bundle small; anything unexpected is dropped, never thrown.
  */
-import type { Level } from '@/ingest';
-import type { Alarm, SurfaceSource } from '@/components/queries';
+import type { Alarm, LatestReading } from '@/components/queries';
 
-export interface LiveReading {
-  at: string;
-  air: number;
-  rh: number;
-  surface: number | null;
-  dewPoint: number | null;
-  margin: number | null;
-  emc: number | null;
-  level: Level;
-  surfaceSource: SurfaceSource | null;
-}
+/** A zone's newest reading, as the zone list holds it; the sensor travels beside it. */
+export type LiveReading = Omit<LatestReading, 'sensorId'>;
 
 export interface LiveReadingMessage {
   type: 'reading';

@@ -1,18 +1,13 @@
 /** Messages the live hub pushes to browsers; built once, where the data is committed. */
 import type { AlarmView } from '@/db/queries/alarms';
 import type { ReadingRow } from '@/db/queries/readings';
+import type { LatestReading } from '@/db/queries/zones';
 
-export interface LiveReading {
-  at: string;
-  air: number;
-  rh: number;
-  surface: number | null;
-  dewPoint: number | null;
-  margin: number | null;
-  emc: number | null;
-  level: ReadingRow['level'];
-  surfaceSource: ReadingRow['surfaceSource'];
-}
+/**
+ * A zone's newest reading as the zone list shows it, so a client can put it straight into that
+ * list; the sensor travels beside it in the message.
+ */
+export type LiveReading = Omit<LatestReading, 'sensorId'>;
 
 export interface ReadingMessage {
   type: 'reading';
