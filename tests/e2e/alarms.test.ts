@@ -8,7 +8,14 @@ import { afterAll, beforeAll, describe, expect, it } from 'vitest';
 import { DEMO_PASSWORD, DEMO_PEOPLE } from '@/db/seed';
 
 import { MINUTE_MS, withMargin } from '../support/alarms';
-import { SHOTS, signInAs, startBrowserSuite, type BrowserSuite } from '../support/browser';
+import {
+  postReading,
+  SHOTS,
+  signInAs,
+  startBrowserSuite,
+  watchPage,
+  type BrowserSuite,
+} from '../support/browser';
 
 let suite: BrowserSuite;
 let server: BrowserSuite['server'];
@@ -44,15 +51,6 @@ async function zoneWithSensor(wanted: string): Promise<{ name: string; token: st
   return { name, token: sensor.body.token as string };
 }
 
-async function post(token: string, reading: Record<string, unknown>) {
-  const res = await fetch(`${server.baseUrl}/api/v1/ingest`, {
-    method: 'POST',
-    headers: { authorization: `Bearer ${token}`, 'content-type': 'application/json' },
-    body: JSON.stringify(reading),
-  });
-  expect(res.status).toBe(202);
-}
-
 const signIn = (page: Page) => signInAs(page, server.baseUrl, member.email);
 
 describe.each([
@@ -62,22 +60,20 @@ describe.each([
   it('shows a wet reading in the banner within 2 s and records the acknowledgement', async () => {
     const { name: zone, token } = await zoneWithSensor(wanted);
     const page = await browser.newPage({ viewport: { width, height } });
-    page.setDefaultTimeout(10_000);
-    const errors: string[] = [];
-    page.on('pageerror', (err) => errors.push(err.message));
+    const errors = watchPage(page);
     await signIn(page);
     await expect.poll(() => page.getByTestId('live-status').textContent()).toContain('live');
 
     // ingest/hysteresis.ts confirms a level on its third reading (a rule of thumb of ours):
     // two wet readings a minute apart first, then the one the banner must show at once.
     const nowMs = Date.now();
-    await post(token, withMargin(nowMs - 2 * MINUTE_MS, -1.2));
-    await post(token, withMargin(nowMs - MINUTE_MS, -1.2));
+    await postReading(server.baseUrl, token, withMargin(nowMs - 2 * MINUTE_MS, -1.2));
+    await postReading(server.baseUrl, token, withMargin(nowMs - MINUTE_MS, -1.2));
     const banner = page.getByRole('alert');
     const item = banner.getByTestId('alarm-banner-item').filter({ hasText: `${zone}: wet,` });
     expect(await item.count()).toBe(0);
 
-    await post(token, withMargin(nowMs, -1.2));
+    await postReading(server.baseUrl, token, withMargin(nowMs, -1.2));
     const startedMs = Date.now();
     await expect
       .poll(() => item.first().textContent(), { timeout: 2000, interval: 50 })

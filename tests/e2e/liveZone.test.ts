@@ -6,7 +6,14 @@ import { afterAll, beforeAll, describe, expect, it } from 'vitest';
 
 import { DEMO_PEOPLE } from '@/db/seed';
 
-import { SHOTS, signInAs, startBrowserSuite, type BrowserSuite } from '../support/browser';
+import {
+  postReading,
+  SHOTS,
+  signInAs,
+  startBrowserSuite,
+  watchPage,
+  type BrowserSuite,
+} from '../support/browser';
 
 let suite: BrowserSuite;
 let server: BrowserSuite['server'];
@@ -21,28 +28,16 @@ afterAll(() => suite?.close());
 
 const signIn = (page: Page) => signInAs(page, server.baseUrl, DEMO_PEOPLE[0].email);
 
-async function postReading(token: string, reading: Record<string, unknown>) {
-  const res = await fetch(`${server.baseUrl}/api/v1/ingest`, {
-    method: 'POST',
-    headers: { authorization: `Bearer ${token}`, 'content-type': 'application/json' },
-    body: JSON.stringify(reading),
-  });
-  expect(res.status).toBe(202);
-  return (await res.json()) as { results: { dewPoint: number; margin: number; level: string }[] };
-}
-
 describe.each([
   { label: 'phone', width: 390, height: 844, air: 17.4, surface: 9.6 },
   { label: 'wide', width: 1440, height: 900, air: 18.6, surface: 11.2 },
 ])('a zone on a $label screen ($width×$height)', ({ label, width, height, air, surface }) => {
   it('shows a reading posted by a sensor on the card and the chart within 2 s', async () => {
     const page = await browser.newPage({ viewport: { width, height } });
-    page.setDefaultTimeout(10_000);
-    const errors: string[] = [];
-    page.on('pageerror', (err) => errors.push(err.message));
+    const errors = watchPage(page);
     const sensor = server.demo.tokens.find((s) => s.zone === 'Machine room')!;
     // An earlier reading, so the chart has a line before the live one arrives.
-    await postReading(sensor.token, {
+    await postReading(server.baseUrl, sensor.token, {
       at: new Date(Date.now() - 15 * 60_000).toISOString(),
       air: air - 2,
       rh: 60,
@@ -61,7 +56,7 @@ describe.each([
     const countOf = async () => Number(await chart.getByTestId('zone-chart-count').textContent());
     const pointsBefore = await countOf();
 
-    const posted = await postReading(sensor.token, { air, rh: 62, surface });
+    const posted = await postReading(server.baseUrl, sensor.token, { air, rh: 62, surface });
     const expected = posted.results[0]!;
     // Phone: the card heads the zone page; wide: the selected card in the list beside the chart.
     const card = page

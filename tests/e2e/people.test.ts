@@ -7,22 +7,19 @@ import { randomUUID } from 'node:crypto';
 import type { BrowserContext, Page } from 'playwright-core';
 import { afterAll, beforeAll, describe, expect, it } from 'vitest';
 
-import { SHOTS, startBrowserSuite, type BrowserSuite } from '../support/browser';
+import {
+  postReading,
+  SHOTS,
+  startBrowserSuite,
+  watchPage,
+  type BrowserSuite,
+} from '../support/browser';
 
 let suite: BrowserSuite;
 beforeAll(async () => {
   suite = await startBrowserSuite();
 });
 afterAll(() => suite?.close());
-
-async function postReading(token: string, reading: Record<string, unknown>) {
-  const res = await fetch(`${suite.server.baseUrl}/api/v1/ingest`, {
-    method: 'POST',
-    headers: { authorization: `Bearer ${token}`, 'content-type': 'application/json' },
-    body: JSON.stringify(reading),
-  });
-  expect(res.status).toBe(202);
-}
 
 async function shot(page: Page, name: string) {
   await page.screenshot({ path: `${SHOTS}/people-${name}.png`, fullPage: true });
@@ -31,7 +28,7 @@ async function shot(page: Page, name: string) {
 describe('a new owner on a phone (390×844)', () => {
   let context: BrowserContext;
   let page: Page;
-  const errors: string[] = [];
+  let errors: string[] = [];
 
   beforeAll(async () => {
     context = await suite.browser.newContext({
@@ -39,8 +36,7 @@ describe('a new owner on a phone (390×844)', () => {
       permissions: ['clipboard-read', 'clipboard-write'],
     });
     page = await context.newPage();
-    page.setDefaultTimeout(10_000);
-    page.on('pageerror', (err) => errors.push(err.message));
+    errors = watchPage(page);
   });
   afterAll(() => context?.close());
 
@@ -95,7 +91,7 @@ describe('a new owner on a phone (390×844)', () => {
     await shot(page, 'token-phone');
 
     // The sensor (this test) posts with the copied token; the overview shows the reading.
-    await postReading(copied, { air: 16.4, rh: 58, surface: 13.1, battery: 3.05 });
+    await postReading(base, copied, { air: 16.4, rh: 58, surface: 13.1, battery: 3.05 });
     await page.getByTestId('nav-zones').click();
     const card = page.getByTestId('zone-card').filter({ hasText: 'Machine room' });
     await expect.poll(() => card.getByTestId('zone-air').textContent()).toBe('16.4 °C');

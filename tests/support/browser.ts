@@ -1,8 +1,10 @@
 // The browser tests' frame: the exported app on a live server with the demo shop seeded,
-// Debian's Chromium (never a downloaded one), a folder for screenshots, and signing in.
+// Debian's Chromium (never a downloaded one), a folder for screenshots, signing in, watching a
+// page for errors, and posting readings as a sensor would.
 import fs from 'node:fs';
 
 import { chromium, type Browser, type Page } from 'playwright-core';
+import { expect } from 'vitest';
 
 import { DEMO_PASSWORD } from '@/db/seed';
 
@@ -33,6 +35,34 @@ export async function startBrowserSuite(): Promise<BrowserSuite> {
       await server.close();
     },
   };
+}
+
+/** Gives a page the tests' 10 s wait; the list it returns collects the page's uncaught errors. */
+export function watchPage(page: Page): string[] {
+  page.setDefaultTimeout(10_000);
+  const errors: string[] = [];
+  page.on('pageerror', (err) => errors.push(err.message));
+  return errors;
+}
+
+/** What the ingest route answers about each reading it took. */
+export interface IngestAnswer {
+  results: { dewPoint: number; margin: number; level: string }[];
+}
+
+/** Posts a reading over HTTP with a sensor's token, as the sensor would, and expects a 202. */
+export async function postReading(
+  baseUrl: string,
+  token: string,
+  reading: Record<string, unknown>,
+): Promise<IngestAnswer> {
+  const res = await fetch(`${baseUrl}/api/v1/ingest`, {
+    method: 'POST',
+    headers: { authorization: `Bearer ${token}`, 'content-type': 'application/json' },
+    body: JSON.stringify(reading),
+  });
+  expect(res.status).toBe(202);
+  return (await res.json()) as IngestAnswer;
 }
 
 /** Signs a demo person in through the sign-in page and waits for their shop. */
