@@ -5,10 +5,11 @@ import request from 'supertest';
 import { afterAll, beforeAll, describe, expect, it } from 'vitest';
 
 import { DEFAULT_RATE_LIMITS } from '@/server/auth/rateLimits';
-import { SESSION_COOKIE, SESSION_TTL_S } from '@/server/auth/session';
+import { SESSION_TTL_S } from '@/server/auth/session';
 
 import { makeTestApp, signUp, TEST_PUBLIC_URL, type TestApp } from '../support/app';
 import { linkToken, waitForMail } from '../support/mail';
+import { sessionCookieOf } from '../support/sessionCookie';
 
 // The app's clock: tests move it forward to pass expiry times.
 let nowMs = Date.now();
@@ -20,17 +21,10 @@ afterAll(() => t.pool.end());
 
 const MINUTE_MS = 60_000;
 
-function sessionCookie(res: request.Response): string {
-  const raw = ([] as string[]).concat(res.headers['set-cookie'] ?? []);
-  const found = raw.find((c) => c.startsWith(`${SESSION_COOKIE}=`));
-  if (!found) throw new Error('no session cookie');
-  return found.split(';')[0]!;
-}
-
 async function signIn(email: string, password: string) {
   const res = await request(t.app).post('/api/v1/auth/sign-in').send({ email, password });
   expect(res.status, res.text).toBe(200);
-  return sessionCookie(res);
+  return sessionCookieOf(res);
 }
 
 const me = (cookie: string) => request(t.app).get('/api/v1/me').set('Cookie', cookie);
@@ -51,7 +45,7 @@ describe('password reset by e-mail', () => {
       .post('/api/v1/auth/password-reset/confirm')
       .send({ token, password: newPassword })
       .expect(204);
-    await me(sessionCookie(confirm)).expect(200);
+    await me(sessionCookieOf(confirm)).expect(200);
     // The session from before the reset has ended; the old password no longer works.
     await me(before).expect(401);
     await request(t.app).post('/api/v1/auth/sign-in').send({ email, password }).expect(401);
@@ -132,7 +126,7 @@ describe('sessions', () => {
       .set('Cookie', here)
       .send({ currentPassword: password, newPassword: 'changed password 1' })
       .expect(204);
-    await me(sessionCookie(changed)).expect(200);
+    await me(sessionCookieOf(changed)).expect(200);
     await me(elsewhere).expect(401);
     await me(here).expect(401);
   });
@@ -144,7 +138,7 @@ describe('sessions', () => {
       const first = await signIn(email, password);
       nowMs = startMs + (SESSION_TTL_S / 2 + 3600) * 1000;
       const renewedRes = await me(first).expect(200);
-      const renewed = sessionCookie(renewedRes);
+      const renewed = sessionCookieOf(renewedRes);
       expect(renewed).not.toBe(first);
       nowMs = startMs + (SESSION_TTL_S + 3600) * 1000;
       await me(first).expect(401);

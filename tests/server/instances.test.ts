@@ -6,6 +6,7 @@ import WebSocket from 'ws';
 
 import { ownerWithSensor } from '../support/app';
 import { startInstance } from '../support/liveServer';
+import { signInCookie } from '../support/sessionCookie';
 
 type Instance = Awaited<ReturnType<typeof startInstance>>;
 let a: Instance;
@@ -19,13 +20,8 @@ afterAll(async () => {
 });
 
 /** Signs in on an instance and returns the session cookie, as a browser would hold it. */
-async function sessionCookie(baseUrl: string, email: string, password: string): Promise<string> {
-  const res = await request(baseUrl)
-    .post('/api/v1/auth/sign-in')
-    .send({ email, password })
-    .expect(200);
-  return String(res.headers['set-cookie']?.[0] ?? '').split(';')[0]!;
-}
+const sessionCookie = (baseUrl: string, email: string, password: string) =>
+  signInCookie(baseUrl, { email, password });
 
 function openSocket(
   baseUrl: string,

@@ -8,11 +8,11 @@ import request from 'supertest';
 import { afterAll, beforeAll, describe, expect, it } from 'vitest';
 import WebSocket from 'ws';
 
-import { SESSION_COOKIE } from '@/server/auth/session';
 import { startLiveHub } from '@/server/live/hub';
 
 import { makeTestApp, ownerWithSensor, signUp, type TestApp } from '../support/app';
 import { linkToken, waitForMail } from '../support/mail';
+import { signInCookie } from '../support/sessionCookie';
 
 let t: TestApp;
 let server: http.Server;
@@ -43,11 +43,7 @@ interface Socket {
 }
 
 /** A fresh session of this account, as the Cookie header a browser would send. */
-async function cookieOf(person: { email: string; password: string }): Promise<string> {
-  const res = await request(t.app).post('/api/v1/auth/sign-in').send(person).expect(200);
-  const raw = ([] as string[]).concat(res.headers['set-cookie'] ?? []);
-  return raw.find((c) => c.startsWith(`${SESSION_COOKIE}=`))!.split(';')[0]!;
-}
+const cookieOf = (person: { email: string; password: string }) => signInCookie(t.app, person);
 
 function open(cookie: string, origin?: string): Promise<Socket> {
   return new Promise((resolve, reject) => {

@@ -1,6 +1,7 @@
 // A WebSocket client of GET /api/v1/live for API tests, signed in as a browser would be.
-import request from 'supertest';
 import WebSocket from 'ws';
+
+import { signInCookie } from './sessionCookie';
 
 export interface LiveClient {
   /** The first message (already received or still to come) that `match` accepts. */
@@ -12,8 +13,7 @@ export async function connectLive(
   baseUrl: string,
   credentials: { email: string; password: string },
 ): Promise<LiveClient> {
-  const signIn = await request(baseUrl).post('/api/v1/auth/sign-in').send(credentials).expect(200);
-  const cookie = String(signIn.headers['set-cookie']?.[0] ?? '').split(';')[0]!;
+  const cookie = await signInCookie(baseUrl, credentials);
   const received: unknown[] = [];
   const ws = new WebSocket(`${baseUrl.replace(/^http/, 'ws')}/api/v1/live`, {
     headers: { cookie },
