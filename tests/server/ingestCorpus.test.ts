@@ -9,6 +9,7 @@ import request from 'supertest';
 import { afterAll, beforeAll, describe, expect, it } from 'vitest';
 
 import { makeTestApp, ownerWithSensor, type TestApp } from '../support/app';
+import { postIngest } from '../support/ingest';
 
 let t: TestApp;
 let server: http.Server;
@@ -246,8 +247,7 @@ describe('the ingest bad-input corpus', () => {
 
   it('stores nothing twice when the same batch is retried', async () => {
     const batch = { readings: [valid(), valid(), valid()] };
-    const post = () =>
-      request(t.app).post('/api/v1/ingest').set('authorization', `Bearer ${token}`).send(batch);
+    const post = () => postIngest(t.app, token, batch);
     const first = await post().expect(202);
     const results = await Promise.all([post(), post(), post()]);
     expect(first.body).toMatchObject({ stored: 3, duplicates: 0 });

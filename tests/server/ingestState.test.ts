@@ -1,9 +1,9 @@
 // Ingest behaviour that spans requests: the per-sensor limit, and the surface estimate's state
 // surviving a server restart (a new process rebuilds it from the stored readings).
-import request from 'supertest';
 import { afterAll, beforeAll, describe, expect, it } from 'vitest';
 
 import { makeTestApp, ownerWithSensor, type TestApp } from '../support/app';
+import { postIngest } from '../support/ingest';
 
 const apps: TestApp[] = [];
 const app = (options: Parameters<typeof makeTestApp>[0] = {}) => {
@@ -25,11 +25,7 @@ describe('the per-sensor limit', () => {
     const t = app({ sensorRate: { ratePerS: 0.5, burst: 5 } });
     const noisy = await ownerWithSensor(t.app);
     const quiet = await ownerWithSensor(t.app);
-    const post = (token: string) =>
-      request(t.app)
-        .post('/api/v1/ingest')
-        .set('authorization', `Bearer ${token}`)
-        .send({ air: 18, rh: 50 });
+    const post = (token: string) => postIngest(t.app, token, { air: 18, rh: 50 });
     const statuses: number[] = [];
     for (let i = 0; i < 6; i++) statuses.push((await post(noisy.token)).status);
     expect(statuses).toEqual([202, 202, 202, 202, 202, 429]);
@@ -48,11 +44,7 @@ describe('the surface estimate across a restart', () => {
     const hourMs = 3_600_000;
     const t0 = Date.now() - 3 * hourMs;
     const post = (t: TestApp, readings: object[]) =>
-      request(t.app)
-        .post('/api/v1/ingest')
-        .set('authorization', `Bearer ${o.token}`)
-        .send({ readings })
-        .expect(202);
+      postIngest(t.app, o.token, { readings }).expect(202);
     await post(first, [{ at: new Date(t0).toISOString(), air: 10, rh: 50 }]);
     await post(first, [{ at: new Date(t0 + hourMs).toISOString(), air: 20, rh: 50 }]);
 
@@ -81,11 +73,7 @@ describe('alarms off the ingest path', () => {
       rh: 50,
       surface: 7.3,
     }));
-    await request(t.app)
-      .post('/api/v1/ingest')
-      .set('authorization', `Bearer ${o.token}`)
-      .send({ readings })
-      .expect(202);
+    await postIngest(t.app, o.token, { readings }).expect(202);
     let kinds: string[] = [];
     for (let i = 0; i < 100 && !kinds.includes('wet_surface'); i++) {
       const res = await o.agent.get(`/api/v1/shops/${o.shopId}/alarms?state=open`).expect(200);
@@ -108,12 +96,7 @@ describe('an alarm cleared and opened again within one batch', () => {
       rh: 50,
       surface,
     });
-    const post = (readings: object[]) =>
-      request(first.app)
-        .post('/api/v1/ingest')
-        .set('authorization', `Bearer ${o.token}`)
-        .send({ readings })
-        .expect(202);
+    const post = (readings: object[]) => postIngest(first.app, o.token, { readings }).expect(202);
     await post([0, 1, 2, 3, 4, 5].map((m) => reading(m, 7.3)));
     const wetAlarms = async () => {
       const res = await o.agent.get(`/api/v1/shops/${o.shopId}/alarms?state=all`).expect(200);

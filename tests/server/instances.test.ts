@@ -1,10 +1,10 @@
 // Two server instances on one database, as behind a load balancer: live fan-out and token
 // revocation go through PostgreSQL, so neither depends on which instance a request hits.
-import request from 'supertest';
 import { afterAll, beforeAll, describe, expect, it } from 'vitest';
 import WebSocket from 'ws';
 
 import { ownerWithSensor } from '../support/app';
+import { postIngest } from '../support/ingest';
 import { startInstance } from '../support/liveServer';
 import { signInCookie } from '../support/sessionCookie';
 
@@ -57,11 +57,7 @@ describe('two instances on one database', () => {
     const { ws, messages } = await openSocket(b.baseUrl, cookie);
     try {
       const at = new Date(Date.now() - 1000).toISOString();
-      await request(a.baseUrl)
-        .post('/api/v1/ingest')
-        .set('authorization', `Bearer ${o.token}`)
-        .send({ at, air: 16.5, rh: 64, surface: 12 })
-        .expect(202);
+      await postIngest(a.baseUrl, o.token, { at, air: 16.5, rh: 64, surface: 12 }).expect(202);
       const message = await waitFor(
         () =>
           messages.find(
@@ -83,16 +79,8 @@ describe('two instances on one database', () => {
     const cookie = await sessionCookie(b.baseUrl, mine.email, mine.password);
     const { ws, messages } = await openSocket(b.baseUrl, cookie);
     try {
-      await request(a.baseUrl)
-        .post('/api/v1/ingest')
-        .set('authorization', `Bearer ${theirs.token}`)
-        .send({ air: 20, rh: 40 })
-        .expect(202);
-      await request(a.baseUrl)
-        .post('/api/v1/ingest')
-        .set('authorization', `Bearer ${mine.token}`)
-        .send({ air: 21, rh: 41 })
-        .expect(202);
+      await postIngest(a.baseUrl, theirs.token, { air: 20, rh: 40 }).expect(202);
+      await postIngest(a.baseUrl, mine.token, { air: 21, rh: 41 }).expect(202);
       await waitFor(() => messages.find((m) => (m as { type?: string }).type === 'reading'), 2000);
       // Mine arrived after theirs was committed; theirs must not be among what came.
       const shops = messages
@@ -106,11 +94,7 @@ describe('two instances on one database', () => {
 
   it('refuses a token revoked on one instance on the other within 1 s', async () => {
     const o = await ownerWithSensor(a.app.app);
-    const post = () =>
-      request(b.baseUrl)
-        .post('/api/v1/ingest')
-        .set('authorization', `Bearer ${o.token}`)
-        .send({ air: 18, rh: 50 });
+    const post = () => postIngest(b.baseUrl, o.token, { air: 18, rh: 50 });
     // Instance B now holds the token in its cache.
     expect((await post()).status).toBe(202);
     await o.agent.delete(`/api/v1/shops/${o.shopId}/sensors/${o.sensorId}/token`).expect(204);
@@ -133,11 +117,7 @@ describe('two instances on one database', () => {
       air: 20 - minutesAgo,
       rh: 50,
     }));
-    await request(a.baseUrl)
-      .post('/api/v1/ingest')
-      .set('authorization', `Bearer ${o.token}`)
-      .send({ readings: missed })
-      .expect(202);
+    await postIngest(a.baseUrl, o.token, { readings: missed }).expect(202);
     const { ws, messages } = await openSocket(
       b.baseUrl,
       cookie,
@@ -162,11 +142,7 @@ describe('two instances on one database', () => {
     const cookie = await sessionCookie(b.baseUrl, o.email, o.password);
     const first = { at: new Date(Date.now() - 120_000).toISOString(), air: 14, rh: 60 };
     const second = { at: new Date(Date.now() - 60_000).toISOString(), air: 15, rh: 60 };
-    const post = (readings: object[]) =>
-      request(a.baseUrl)
-        .post('/api/v1/ingest')
-        .set('authorization', `Bearer ${o.token}`)
-        .send({ readings });
+    const post = (readings: object[]) => postIngest(a.baseUrl, o.token, { readings });
     await post([first]).expect(202);
     const { ws, messages } = await openSocket(b.baseUrl, cookie);
     try {

@@ -4,13 +4,13 @@
 import http from 'node:http';
 import type { AddressInfo } from 'node:net';
 
-import request from 'supertest';
 import { afterAll, beforeAll, describe, expect, it } from 'vitest';
 import WebSocket from 'ws';
 
 import { startLiveHub } from '@/server/live/hub';
 
 import { makeTestApp, ownerWithSensor, signUp, type TestApp } from '../support/app';
+import { postIngest } from '../support/ingest';
 import { linkToken, waitForMail } from '../support/mail';
 import { signInCookie } from '../support/sessionCookie';
 
@@ -78,12 +78,7 @@ describe('live hub access', () => {
 
     const socket = await open(await cookieOf(m));
     const readings = () => socket.messages.filter((x) => x.type === 'reading').length;
-    const post = () =>
-      request(t.app)
-        .post('/api/v1/ingest')
-        .set('authorization', `Bearer ${o.token}`)
-        .send({ air: 19, rh: 55, surface: 15 })
-        .expect(202);
+    const post = () => postIngest(t.app, o.token, { air: 19, rh: 55, surface: 15 }).expect(202);
     await post();
     await until(() => readings() === 1);
 

@@ -4,6 +4,7 @@ import request from 'supertest';
 import { afterAll, beforeAll, describe, expect, it } from 'vitest';
 
 import { makeTestApp, ownerWithSensor, signUp, uniqueEmail, type TestApp } from '../support/app';
+import { postIngest } from '../support/ingest';
 import { linkToken, waitForMail } from '../support/mail';
 
 let t: TestApp;
@@ -198,11 +199,7 @@ describe('shops', () => {
       .expect(204);
     await o.agent.get(`/api/v1/shops/${o.shopId}`).expect(404);
     // Its sensors went with it.
-    await request(t.app)
-      .post('/api/v1/ingest')
-      .set('authorization', `Bearer ${o.token}`)
-      .send({ air: 20, rh: 50 })
-      .expect(401);
+    await postIngest(t.app, o.token, { air: 20, rh: 50 }).expect(401);
   });
 });
 
@@ -225,22 +222,14 @@ describe('zones and sensors', () => {
     });
     // 20 °C / 50 % RH: dew point 9.26 °C (psychrolib); surface 14 °C → margin 4.7 K, which is
     // dry under the default 3 K caution limit but close under the new 6 K one.
-    const res = await request(t.app)
-      .post('/api/v1/ingest')
-      .set('authorization', `Bearer ${o.token}`)
-      .send({ air: 20, rh: 50, surface: 14 })
-      .expect(202);
+    const res = await postIngest(t.app, o.token, { air: 20, rh: 50, surface: 14 }).expect(202);
     expect(res.body.results[0].level).toBe('close');
   });
 
   it('lists sensors with last seen and battery, rotates, revokes and moves them', async () => {
     const o = await ownerWithSensor(t.app);
     const base = `/api/v1/shops/${o.shopId}/sensors`;
-    await request(t.app)
-      .post('/api/v1/ingest')
-      .set('authorization', `Bearer ${o.token}`)
-      .send({ air: 18, rh: 60, battery: 2.91 })
-      .expect(202);
+    await postIngest(t.app, o.token, { air: 18, rh: 60, battery: 2.91 }).expect(202);
     const listed = await o.agent.get(base).expect(200);
     expect(listed.body.sensors).toEqual([
       expect.objectContaining({ id: o.sensorId, zoneName: 'Machine room', batteryV: 2.91 }),
@@ -249,11 +238,7 @@ describe('zones and sensors', () => {
     expect(JSON.stringify(listed.body)).not.toMatch(/tokenHash|token_hash/);
 
     const rotated = await o.agent.post(`${base}/${o.sensorId}/token`).expect(201);
-    const post = (token: string) =>
-      request(t.app)
-        .post('/api/v1/ingest')
-        .set('authorization', `Bearer ${token}`)
-        .send({ air: 18, rh: 60 });
+    const post = (token: string) => postIngest(t.app, token, { air: 18, rh: 60 });
     expect((await post(o.token)).status).toBe(401);
     expect((await post(rotated.body.token)).status).toBe(202);
 

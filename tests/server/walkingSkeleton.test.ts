@@ -5,6 +5,7 @@ import request from 'supertest';
 import { afterAll, beforeAll, describe, expect, it } from 'vitest';
 
 import { makeTestApp, ownerWithSensor, signUp, type TestApp } from '../support/app';
+import { postIngest } from '../support/ingest';
 
 let t: TestApp;
 beforeAll(() => {
@@ -92,11 +93,9 @@ describe('ingest', () => {
   it('stores a reading and returns the derived values', async () => {
     const o = await ownerWithSensor(t.app);
     const at = new Date(Date.now() - 60_000).toISOString();
-    const res = await request(t.app)
-      .post('/api/v1/ingest')
-      .set('authorization', `Bearer ${o.token}`)
-      .send({ readings: [{ at, air: 20, rh: 50, surface: 12, battery: 3.01 }] })
-      .expect(202);
+    const res = await postIngest(t.app, o.token, {
+      readings: [{ at, air: 20, rh: 50, surface: 12, battery: 3.01 }],
+    }).expect(202);
     expect(res.body).toMatchObject({ stored: 1, duplicates: 0, rejected: [] });
     const result = res.body.results[0];
     // Reference: psychrolib (ASHRAE Handbook — Fundamentals psychrometric functions), 20 °C / 50 %.
@@ -117,37 +116,25 @@ describe('ingest', () => {
     const o = await ownerWithSensor(t.app);
     const atS = Math.floor(Date.now() / 1000) - 120;
     const body = { unit: 'F', at: atS, air: 68, rh: 50, surface: 53.6 };
-    const first = await request(t.app)
-      .post('/api/v1/ingest')
-      .set('authorization', `Bearer ${o.token}`)
-      .send(body)
-      .expect(202);
+    const first = await postIngest(t.app, o.token, body).expect(202);
     expect(first.body.stored).toBe(1);
     // 53.6 °F = 12 °C; 68 °F = 20 °C.
     expect(first.body.results[0].margin).toBeCloseTo(12 - first.body.results[0].dewPoint, 6);
-    const retry = await request(t.app)
-      .post('/api/v1/ingest')
-      .set('authorization', `Bearer ${o.token}`)
-      .send(body)
-      .expect(202);
+    const retry = await postIngest(t.app, o.token, body).expect(202);
     expect(retry.body).toMatchObject({ stored: 0, duplicates: 1 });
   });
 
   it('rejects out-of-range readings one by one and stores the rest', async () => {
     const o = await ownerWithSensor(t.app);
     const base = Date.now() - 10 * 60_000;
-    const res = await request(t.app)
-      .post('/api/v1/ingest')
-      .set('authorization', `Bearer ${o.token}`)
-      .send({
-        readings: [
-          { at: new Date(base).toISOString(), air: 15, rh: 60 },
-          { at: new Date(base + 1000).toISOString(), air: 15, rh: 100.5 },
-          { at: new Date(base + 2000).toISOString(), air: 90, rh: 50 },
-          { at: new Date(Date.now() + 10 * 60_000).toISOString(), air: 15, rh: 50 },
-        ],
-      })
-      .expect(202);
+    const res = await postIngest(t.app, o.token, {
+      readings: [
+        { at: new Date(base).toISOString(), air: 15, rh: 60 },
+        { at: new Date(base + 1000).toISOString(), air: 15, rh: 100.5 },
+        { at: new Date(base + 2000).toISOString(), air: 90, rh: 50 },
+        { at: new Date(Date.now() + 10 * 60_000).toISOString(), air: 15, rh: 50 },
+      ],
+    }).expect(202);
     expect(res.body.stored).toBe(1);
     expect(
       res.body.rejected.map((r: { index: number; code: string }) => [r.index, r.code]),
@@ -165,12 +152,7 @@ describe('ingest', () => {
     const o = await ownerWithSensor(t.app);
     const hourMs = 3_600_000;
     const t0 = Date.now() - 4 * hourMs;
-    const post = (readings: object[]) =>
-      request(t.app)
-        .post('/api/v1/ingest')
-        .set('authorization', `Bearer ${o.token}`)
-        .send({ readings })
-        .expect(202);
+    const post = (readings: object[]) => postIngest(t.app, o.token, { readings }).expect(202);
     // A step of the air from 10 to 20 °C, posted in two requests (the state carries over).
     await post([{ at: new Date(t0).toISOString(), air: 10, rh: 50 }]);
     const res = await post(
@@ -205,33 +187,19 @@ describe('ingest', () => {
       .expect(400);
     expect(broken.body).toMatchObject(errorShape);
     expect(broken.body.error.code).toBe('invalid_json');
-    const wrongType = await request(t.app)
-      .post('/api/v1/ingest')
-      .set('authorization', `Bearer ${o.token}`)
-      .send({ readings: [{ air: '20', rh: 50 }] })
-      .expect(400);
+    const wrongType = await postIngest(t.app, o.token, {
+      readings: [{ air: '20', rh: 50 }],
+    }).expect(400);
     expect(wrongType.body.error.details[0].path).toBe('readings.0.air');
-    const empty = await request(t.app)
-      .post('/api/v1/ingest')
-      .set('authorization', `Bearer ${o.token}`)
-      .send({ readings: [] })
-      .expect(400);
+    const empty = await postIngest(t.app, o.token, { readings: [] }).expect(400);
     expect(empty.body).toMatchObject(errorShape);
   });
 
   it('refuses a revoked token', async () => {
     const o = await ownerWithSensor(t.app);
-    await request(t.app)
-      .post('/api/v1/ingest')
-      .set('authorization', `Bearer ${o.token}`)
-      .send({ air: 20, rh: 50 })
-      .expect(202);
+    await postIngest(t.app, o.token, { air: 20, rh: 50 }).expect(202);
     await o.agent.delete(`/api/v1/shops/${o.shopId}/sensors/${o.sensorId}/token`).expect(204);
-    await request(t.app)
-      .post('/api/v1/ingest')
-      .set('authorization', `Bearer ${o.token}`)
-      .send({ air: 20, rh: 50 })
-      .expect(401);
+    await postIngest(t.app, o.token, { air: 20, rh: 50 }).expect(401);
   });
 });
 
@@ -245,11 +213,7 @@ describe('readings query', () => {
       rh: 55,
       surface: 14,
     }));
-    await request(t.app)
-      .post('/api/v1/ingest')
-      .set('authorization', `Bearer ${o.token}`)
-      .send({ readings })
-      .expect(202);
+    await postIngest(t.app, o.token, { readings }).expect(202);
 
     const series = await o.agent
       .get(`/api/v1/shops/${o.shopId}/zones/${o.zoneId}/readings`)
@@ -280,11 +244,7 @@ describe('readings query', () => {
       rh: 50,
       surface: i === 37 ? 5 : 15,
     }));
-    await request(t.app)
-      .post('/api/v1/ingest')
-      .set('authorization', `Bearer ${o.token}`)
-      .send({ readings })
-      .expect(202);
+    await postIngest(t.app, o.token, { readings }).expect(202);
     const from = new Date(start).toISOString();
     const to = new Date(start + 100 * 60_000).toISOString();
     const res = await o.agent

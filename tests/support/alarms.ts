@@ -1,6 +1,6 @@
 // Helpers for the alarm tests: readings with a chosen dew margin, posted through the real
 // ingest route, and the alarms and their history read back through the API and the database.
-import request from 'supertest';
+import type request from 'supertest';
 import { expect } from 'vitest';
 
 import type { Db } from '@/db';
@@ -9,6 +9,7 @@ import type { AlarmKind } from '@/db/schema';
 import { dewPoint } from '@/ingest';
 
 import type { TestApp } from './app';
+import { postIngest } from './ingest';
 
 type Agent = ReturnType<typeof request.agent>;
 
@@ -59,11 +60,7 @@ export async function postBatch(
   token: string,
   readings: Record<string, unknown>[],
 ): Promise<PostResult> {
-  const res = await request(app)
-    .post('/api/v1/ingest')
-    .set('authorization', `Bearer ${token}`)
-    .send({ readings })
-    .expect(202);
+  const res = await postIngest(app, token, { readings }).expect(202);
   expect(res.body.stored).toBe(readings.length);
   return res.body as PostResult;
 }
