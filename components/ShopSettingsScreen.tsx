@@ -9,6 +9,7 @@ import {
   Form,
   FormError,
   FormField,
+  FormStatus,
   SubmitButton,
   TextField,
   useApiForm,
@@ -112,11 +113,7 @@ function ShopForm({ shop }: { shop: ShopSummary }) {
           editable={!sending}
         />
         <FormError message={formError} />
-        {done ? (
-          <Text style={type.small} role="status">
-            Saved.
-          </Text>
-        ) : null}
+        <FormStatus message={done ? 'Saved.' : null} />
         <SubmitButton
           label="Save shop"
           sendingLabel="Saving…"

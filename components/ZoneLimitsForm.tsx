@@ -3,7 +3,7 @@ import { StyleSheet, Text, View } from 'react-native';
 import { fDeltaToK } from '@/ingest/units';
 
 import { deltaInUnit } from './format';
-import { Form, FormError, FormField, SubmitButton, useApiForm } from './forms';
+import { Form, FormError, FormField, FormStatus, SubmitButton, useApiForm } from './forms';
 import { parseDecimal, zoneLimitsSchema } from './forms/schemas';
 import { useZoneUpdateMutation, type UnitPref, type Zone } from './queries';
 import { space, type } from './theme';
@@ -94,11 +94,7 @@ export function ZoneLimitsForm({
         wet at or below the wet limit.
       </Text>
       <FormError message={formError} />
-      {done ? (
-        <Text style={type.small} role="status">
-          Saved.
-        </Text>
-      ) : null}
+      <FormStatus message={done ? 'Saved.' : null} />
       <SubmitButton
         label={`Save ${zone.name}`}
         sendingLabel="Saving…"

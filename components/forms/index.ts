@@ -2,6 +2,7 @@ export { Button } from './Button';
 export { Form, type FormProps } from './Form';
 export { FormError } from './FormError';
 export { FormField } from './FormField';
+export { FormStatus } from './FormStatus';
 export { SubmitButton } from './SubmitButton';
 export { applyServerErrors } from './serverErrors';
 export { TextField } from './TextField';
