@@ -4,7 +4,7 @@ import { Pressable, StyleSheet, Text, View } from 'react-native';
 
 import { shopHref } from './hrefs';
 import { useMeQuery } from './queries';
-import { colors, fonts, radius, space, type } from './theme';
+import { cardSurface, colors, fonts, space, type } from './theme';
 
 interface ShopSwitcherProps {
   shopId: string;
@@ -82,10 +82,7 @@ const styles = StyleSheet.create({
     left: 0,
     marginTop: space.xs,
     minWidth: 260,
-    backgroundColor: colors.card,
-    borderColor: colors.border,
-    borderWidth: 1,
-    borderRadius: radius.card,
+    ...cardSurface,
     paddingVertical: space.xs,
     shadowColor: colors.ink,
     shadowOpacity: 0.12,
