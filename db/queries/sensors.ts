@@ -53,11 +53,6 @@ export async function revokeSensorToken(db: Db, shopId: string, sensorId: string
   return row?.tokenHash ?? null;
 }
 
-/** Replaces a sensor's token hash (used to re-issue demo tokens) and clears any revocation. */
-export async function replaceSensorToken(db: Db, sensorId: string, tokenHash: string) {
-  await db.update(sensors).set({ tokenHash, revokedAt: null }).where(eq(sensors.id, sensorId));
-}
-
 /** A shop's sensors with where they sit and how they are doing; never the token hash. */
 export async function listSensors(db: Db, shopId: string) {
   return db

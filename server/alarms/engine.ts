@@ -37,15 +37,8 @@ export interface SweepOutcome {
 
 export interface AlarmEngine {
   /**
-   * Judges one request's newly stored readings (all from one sensor). Never throws: the readings
-   * are committed already, so a failure here is logged and the sensor still gets its 202. Resolves
-   * when the alarms are written, or after `maxWaitMs` at the latest (the work goes on), so a
-   * database that hangs cannot hold the sensor's answer.
-   */
-  onReadingsStored(sensor: ZoneOf, rows: ReadingRow[]): Promise<void>;
-  /**
    * Steps one zone through readings (from any of its sensors, oldest first) and writes what
-   * changed, without a time cap. Never throws. The ingest route reaches it through the queue.
+   * changed. Never throws. The ingest route reaches it through the queue.
    */
   judge(where: ZoneOf, rows: ReadingRow[]): Promise<void>;
   /** Opens sensor-silent alarms as of `nowMs`, and closes those of revoked sensors. */
@@ -67,14 +60,11 @@ export function createAlarmEngine(deps: {
   db: Db;
   pool: pg.Pool;
   log?: (err: unknown) => void;
-  /** Longest a request waits for its alarms; ordinarily they take milliseconds. */
-  maxWaitMs?: number;
   /** Runs inside the transaction that opened alarms (it queues their e-mail; server/jobs). */
   onOpened?: AlarmsOpenedHook;
 }): AlarmEngine {
   const { db, pool } = deps;
   const log = deps.log ?? ((err: unknown) => console.error('alarm engine:', err));
-  const maxWaitMs = deps.maxWaitMs ?? 2000;
 
   async function applySignals(
     tx: Tx,
@@ -136,14 +126,6 @@ export function createAlarmEngine(deps: {
 
   return {
     judge,
-    onReadingsStored(sensor, rows) {
-      if (rows.length === 0) return Promise.resolve();
-      const work = judge(sensor, rows);
-      let timer: NodeJS.Timeout | undefined;
-      const cap = new Promise<void>((resolve) => (timer = setTimeout(resolve, maxWaitMs)));
-      return Promise.race([work, cap]).finally(() => clearTimeout(timer));
-    },
-
     async sweepSilent({ nowMs, shopId }) {
       const outcome: SweepOutcome = { opened: 0, cleared: 0 };
       const candidates = await sweepCandidates(db, ALARM_RULES.silent.gaps + 1, shopId);

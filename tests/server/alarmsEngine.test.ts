@@ -7,7 +7,7 @@ import { afterAll, beforeAll, describe, expect, it } from 'vitest';
 import type { ReadingRow } from '@/db/queries/readings';
 import { createAlarmEngine, evaluateZone, readZoneState } from '@/server/alarms';
 
-import { alarmsOf, iso, MINUTE_MS, onlyAlarm, seriesStartMs } from '../support/alarms';
+import { iso, MINUTE_MS, onlyAlarm, seriesStartMs } from '../support/alarms';
 import { makeTestApp, ownerWithSensor, type TestApp } from '../support/app';
 
 let t: TestApp;
@@ -77,7 +77,7 @@ describe('two instances stepping one zone', () => {
     const startMs = seriesStartMs();
     const errors: unknown[] = [];
     const engine = createAlarmEngine({ db: t.db, pool: t.pool, log: (err) => errors.push(err) });
-    await engine.onReadingsStored(o, [{ ...wetRow(o, startMs), marginK: 6, level: 'dry' }]);
+    await engine.judge(o, [{ ...wetRow(o, startMs), marginK: 6, level: 'dry' }]);
 
     // "The other instance" steps the zone through three wet readings (enough to confirm wet)
     // and commits only after this instance has started waiting for the row.
@@ -93,7 +93,7 @@ describe('two instances stepping one zone', () => {
       { limits: { cautionK: 3, wetK: 1 }, humidRhPct: 60 },
     ).state;
     expect(stepped.level?.level).toBe('wet');
-    const evaluation = engine.onReadingsStored(o, [wetRow(o, startMs + 4 * MINUTE_MS)]);
+    const evaluation = engine.judge(o, [wetRow(o, startMs + 4 * MINUTE_MS)]);
     await someoneWaitsForTheRow();
     await other.release(stepped);
     await evaluation;
@@ -103,27 +103,5 @@ describe('two instances stepping one zone', () => {
     expect(errors).toEqual([]);
     const wet = await onlyAlarm(o.agent, o.shopId, 'wet_surface');
     expect(wet.openedAt).toBe(iso(startMs + 4 * MINUTE_MS));
-  });
-});
-
-describe('a request waiting for its alarms', () => {
-  it('is answered while the zone is held, and the alarms are written once it is free', async () => {
-    const o = await ownerWithSensor(t.app);
-    const startMs = seriesStartMs();
-    const engine = createAlarmEngine({ db: t.db, pool: t.pool, maxWaitMs: 100 });
-    await engine.onReadingsStored(o, [wetRow(o, startMs)]);
-
-    const other = await holdZone(o.zoneId);
-    // Resolves although the row is still held: the answer does not wait on a stuck database.
-    await engine.onReadingsStored(
-      o,
-      [1, 2].map((i) => wetRow(o, startMs + i * MINUTE_MS)),
-    );
-    expect(await alarmsOf(o.agent, o.shopId, { kind: 'wet_surface' })).toEqual([]);
-    await other.release();
-    // The evaluation went on: the third wet reading confirms wet and opens the alarm.
-    await expect
-      .poll(async () => (await alarmsOf(o.agent, o.shopId, { kind: 'wet_surface' })).length)
-      .toBe(1);
   });
 });
