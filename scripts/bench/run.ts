@@ -128,7 +128,7 @@ export async function runBench(
     if (has('bare')) {
       const barePort = await freePort();
       const bare = await startNodeChild({
-        entry: 'scripts/bench/bareExpress.ts',
+        entry: 'scripts/bench/bareExpressMain.ts',
         env: { ...process.env, PORT: String(barePort) },
         ready: /listening on/,
       });

@@ -1,5 +1,5 @@
-// npm run bench: ingest throughput and live latency against same-run baselines (server/bench/).
-import { formatReport, readBenchOptions, runBench, USAGE } from '@/server/bench';
+// npm run bench: ingest throughput and live latency against same-run baselines (scripts/bench/).
+import { formatReport, readBenchOptions, runBench, USAGE } from '@/scripts/bench';
 
 async function main() {
   const options = readBenchOptions(process.argv.slice(2));

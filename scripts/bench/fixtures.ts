@@ -11,7 +11,7 @@
  */
 import { randomUUID } from 'node:crypto';
 
-import { SESSION_COOKIE } from '../auth/session';
+import { SESSION_COOKIE } from '@/server/auth/session';
 
 export interface FleetSensor {
   sensorId: string;

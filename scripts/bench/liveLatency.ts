@@ -9,7 +9,7 @@ import { monitorEventLoopDelay } from 'node:perf_hooks';
 
 import { WebSocket } from 'ws';
 
-import type { ReadingMessage } from '../live/messages';
+import type { ReadingMessage } from '@/server/live/messages';
 
 import type { ReadingSource } from './readings';
 import { summarize, type LatencySummary } from './stats';

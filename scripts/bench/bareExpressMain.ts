@@ -1,0 +1,10 @@
+// The bare Express baseline as its own process, started by `npm run bench`; PORT picks the port.
+import { startBareExpress } from '@/scripts/bench';
+
+const port = Number(process.env.PORT ?? 0);
+startBareExpress(port).then((server) => {
+  console.log(`bare express listening on ${port}`);
+  const stop = () => server.close(() => process.exit(0));
+  process.on('SIGTERM', stop);
+  process.on('SIGINT', stop);
+});
