@@ -66,8 +66,3 @@ export function formatLastSeen(atIso: string, nowMs: number, timeZone: string): 
   if (ageH < 12) return `${ageH} h ago`;
   return formatInTimeZone(atMs, timeZone, 'd MMM HH:mm');
 }
-
-/** A clock time in the shop's zone: "06:12". */
-export function formatClock(atMs: number, timeZone: string): string {
-  return formatInTimeZone(atMs, timeZone, 'HH:mm');
-}

@@ -105,11 +105,6 @@ export function saturationVapourPressureIcePa(tempC: number): number {
   return Math.exp(lnSatIcePa(tempC + ZERO_C_IN_K));
 }
 
-/** Water vapour pressure of air, Pa, from RH with respect to liquid water. */
-export function vapourPressurePa(airC: number, rhPct: number): number {
-  return (rhPct / 100) * saturationVapourPressureWaterPa(airC);
-}
-
 /** Dew point over water, °C, for a given ln(vapour pressure / Pa): eq. 6 inverted by Newton. */
 function dewPointFromLnPa(lnPa: number): number {
   const g = lnPa - LN_MAGNUS_WATER_PA;

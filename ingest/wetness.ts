@@ -22,8 +22,6 @@ export const TOW_AIR_ABOVE_C = 0;
 /** A common year (365 d). ISO 9223 states its categories per year without fixing the length. */
 export const HOURS_PER_YEAR = 8760;
 
-const HOUR_MS = 3_600_000;
-
 export function isWetIso9223(airC: number, rhPct: number): boolean {
   return rhPct > TOW_RH_ABOVE_PCT && airC > TOW_AIR_ABOVE_C;
 }
@@ -69,15 +67,6 @@ export function timeOfWetness(
 
 export type TowCategory = 't1' | 't2' | 't3' | 't4' | 't5';
 
-/** How ISO 9223 writes the categories, for display. */
-export const TOW_CATEGORY_LABELS: Readonly<Record<TowCategory, string>> = {
-  t1: 'τ1',
-  t2: 'τ2',
-  t3: 'τ3',
-  t4: 'τ4',
-  t5: 'τ5',
-};
-
 /** ISO 9223:1992, Table 1: the category of an annual time of wetness in hours. */
 export function towCategory(hoursPerYear: number): TowCategory {
   if (hoursPerYear <= 10) return 't1';
@@ -97,9 +86,4 @@ export function annualWetHours(tow: TimeOfWetness): number | null {
 export function annualTowCategory(tow: TimeOfWetness): TowCategory | null {
   const hours = annualWetHours(tow);
   return hours === null ? null : towCategory(hours);
-}
-
-/** Milliseconds as hours, for reports. */
-export function msToHours(ms: number): number {
-  return ms / HOUR_MS;
 }

@@ -8,14 +8,6 @@ import { transaction } from '../transaction';
 
 type Executor = Pick<Db, 'execute'>;
 
-export async function findMembership(db: Db, shopId: string, userId: string) {
-  const [row] = await db
-    .select({ role: memberships.role })
-    .from(memberships)
-    .where(and(eq(memberships.shopId, shopId), eq(memberships.userId, userId)));
-  return row ?? null;
-}
-
 export async function listShopsOfUser(db: Db, userId: string) {
   return db
     .select({ id: shops.id, name: shops.name, timeZone: shops.timeZone, role: memberships.role })

@@ -3,7 +3,7 @@
  * bench process (load generator and WebSocket clients), and everything else — on 2 cores the
  * last is mostly other people's tests, and it is why the baselines run in the same minute.
  */
-import { cpuSecondsOf, machineCpuSeconds, memoryOf, postgresPids } from './processes';
+import { cpuSecondsOf, machineCpuSeconds, postgresPids } from './processes';
 
 /** CPU seconds used over `wallS` seconds; several slices of one phase add up. */
 export interface CpuSeconds {
@@ -70,5 +70,3 @@ export function startCpuMeter(serverPid: number, pgPort: number): CpuMeter {
     },
   };
 }
-
-export const serverRssMb = (pid: number) => memoryOf(pid).rssMb;
