@@ -1,13 +1,13 @@
 /**
- * Turns a sensor's parsed readings into rows to store: the contract's per-reading checks, the
- * surface estimate where there is no probe, and the derived values from ingest/.
+ * Turns a sensor's parsed readings into rows to store: ingest/'s checks and air values, the
+ * surface estimate where there is no probe, then ingest/'s margin and level (ingest/derive.ts).
  */
 import type { ReadingRow } from '@/db/queries/readings';
 import type { SensorIdentity } from '@/db/queries/sensors';
 import {
-  checkReading,
-  deriveReading,
-  dewPoint,
+  deriveAir,
+  deriveMargin,
+  type AirDerived,
   type Rejection,
   type SensorReading,
 } from '@/ingest';
@@ -27,26 +27,19 @@ export async function prepareReadings(
   estimator: SurfaceEstimator,
 ): Promise<Prepared> {
   const rejected: Prepared['rejected'] = [];
-  const accepted: SensorReading[] = [];
+  const accepted: { reading: SensorReading; air: AirDerived }[] = [];
   const seenMs = new Set<number>();
   readings.forEach((reading, index) => {
-    const problem = checkReading(reading, receivedAtMs);
-    if (problem) return void rejected.push({ index, ...problem });
-    if (!dewPoint(reading.airC, reading.rhPct).ok) {
-      return void rejected.push({
-        index,
-        code: 'not_computable',
-        message: 'The dew point cannot be computed from this reading (RH below 0.5 %?).',
-      });
-    }
+    const verdict = deriveAir(reading, receivedAtMs);
+    if (!verdict.ok) return void rejected.push({ index, ...verdict.rejection });
     // The same instant twice in one request is a duplicate too: keep the first.
     if (seenMs.has(reading.atMs)) return;
     seenMs.add(reading.atMs);
-    accepted.push(reading);
+    accepted.push({ reading, air: verdict.air });
   });
 
   // The lag steps forward in time, so estimate over the readings sorted by time.
-  const byTime = [...accepted].sort((a, b) => a.atMs - b.atMs);
+  const byTime = accepted.map((a) => a.reading).sort((a, b) => a.atMs - b.atMs);
   const estimates = new Map<number, number>();
   if (byTime.some((r) => r.surfaceC === null)) {
     const surfaces = await estimator.estimate(
@@ -57,7 +50,7 @@ export async function prepareReadings(
   }
 
   const limits = { cautionK: sensor.cautionK, wetK: sensor.wetK };
-  const rows = accepted.map((reading): ReadingRow => {
+  const rows = accepted.map(({ reading, air }): ReadingRow => {
     const probe = reading.surfaceC !== null;
     const surfaceC = probe ? reading.surfaceC : (estimates.get(reading.atMs) ?? null);
     return {
@@ -70,7 +63,7 @@ export async function prepareReadings(
       surfaceC,
       surfaceSource: probe ? 'probe' : surfaceC === null ? null : 'estimate',
       batteryV: reading.batteryV,
-      ...deriveReading({ ...reading, surfaceC }, limits),
+      ...deriveMargin(air, surfaceC, limits),
     };
   });
   return { rows, rejected };
