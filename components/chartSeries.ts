@@ -71,8 +71,6 @@ export function chartSeries(
       series.air.push({ x, y: null });
       series.surface.push({ x, y: null });
       series.dewPoint.push({ x, y: null });
-      // The band is drawn with the zone's limits of today; a point's level is the one stored with
-      // it when it arrived (ingest/derive.ts), so changing the limits never rewrites history.
       series.closeBand.push({ x, y: null, y0: null });
       series.wetBand.push({ x, y: null, y0: null });
     }
@@ -81,6 +79,8 @@ export function chartSeries(
     series.air.push({ x, y: point.air });
     series.surface.push({ x, y: point.surface });
     series.dewPoint.push({ x, y: dew });
+    // The band is drawn with the zone's limits of today; a point's level is the one stored with
+    // it when it arrived (ingest/derive.ts), so changing the limits never rewrites history.
     series.closeBand.push(
       dew === null
         ? { x, y: null, y0: null }
