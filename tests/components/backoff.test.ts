@@ -1,19 +1,6 @@
 import { describe, expect, it } from 'vitest';
 
-import { getBreakpoints } from '@/components/layout/breakpoints';
 import { backoffDelayMs, liveUrl } from '@/components/live/backoff';
-
-describe('getBreakpoints', () => {
-  it.each([
-    [390, false, false],
-    [640, true, false],
-    [1023, true, false],
-    [1024, true, true],
-    [1440, true, true],
-  ])('%i px: medium %s, wide %s', (width, isMedium, isWide) => {
-    expect(getBreakpoints(width)).toMatchObject({ isMedium, isWide });
-  });
-});
 
 describe('live connection helpers', () => {
   it('backs off from 1 s to at most 30 s, jitter only shortening it', () => {
