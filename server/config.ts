@@ -26,6 +26,9 @@ const envSchema = z.object({
     .enum(['true', 'false'])
     .default('false')
     .transform((v) => v === 'true'),
+  // Open live sockets per account on one instance (default in server/live/hub.ts); the bench
+  // raises it, its hundreds of sockets being one account's.
+  LIVE_SOCKETS_PER_USER: z.coerce.number().int().min(1).optional(),
 });
 
 export interface Config {
@@ -44,6 +47,8 @@ export interface Config {
   /** Origin of the app as people reach it, without a trailing slash. */
   publicUrl: string;
   devOutbox: boolean;
+  /** Absent: the live hub's default. */
+  liveSocketsPerUser?: number;
 }
 
 export function readConfig(env: NodeJS.ProcessEnv = process.env): Config {
@@ -63,5 +68,6 @@ export function readConfig(env: NodeJS.ProcessEnv = process.env): Config {
     mail: { smtpHost: e.SMTP_HOST, smtpPort: e.SMTP_PORT, from: e.MAIL_FROM },
     publicUrl: (e.PUBLIC_URL ?? `http://${e.HOST}:${e.PORT}`).replace(/\/+$/, ''),
     devOutbox: e.DEV_OUTBOX,
+    liveSocketsPerUser: e.LIVE_SOCKETS_PER_USER,
   };
 }

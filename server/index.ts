@@ -55,7 +55,13 @@ async function main() {
     devOutbox: config.devOutbox ? mail.outbox : undefined,
   });
   const trustedOrigins = new Set([new URL(config.publicUrl).origin]);
-  const hub = startLiveHub({ listener, db, sessions, trustedOrigins });
+  const hub = startLiveHub({
+    listener,
+    db,
+    sessions,
+    trustedOrigins,
+    limits: config.liveSocketsPerUser ? { maxSocketsPerUser: config.liveSocketsPerUser } : {},
+  });
   await listener.ready;
   await scheduleAlarmSweep(jobs, alarms, { log: console.log });
   await workAlarmMails(jobs, {

@@ -88,7 +88,7 @@ export async function runBench(
     const server = await startNodeChild({
       entry: '.build/server.mjs',
       nodeArgs: options.cpuProfDir ? ['--cpu-prof', `--cpu-prof-dir=${options.cpuProfDir}`] : [],
-      env: serverEnv(database.url, serverPort),
+      env: serverEnv(database.url, serverPort, options.wsClients),
       ready: /listening on/,
     });
     children.push(server);
@@ -252,14 +252,18 @@ async function measureLive(
   return { liveIdle, liveLoaded: { ...loaded, cpu, background: await background.stop() } };
 }
 
-/** The server's environment: API only (no web app to serve), a throwaway session secret. */
-function serverEnv(databaseUrl: string, port: number): NodeJS.ProcessEnv {
+/**
+ * The server's environment: API only (no web app to serve), a throwaway session secret, and
+ * room for all the bench's sockets, which stand in for a shop's people but share one account.
+ */
+function serverEnv(databaseUrl: string, port: number, wsClients: number): NodeJS.ProcessEnv {
   const env: NodeJS.ProcessEnv = {
     ...process.env,
     DATABASE_URL: databaseUrl,
     PORT: String(port),
     HOST: '127.0.0.1',
     SESSION_SECRET: randomBytes(32).toString('hex'),
+    LIVE_SOCKETS_PER_USER: String(Math.max(wsClients, 1)),
   };
   delete env.WEB_DIR;
   return env;

@@ -14,6 +14,8 @@ export interface SessionClaims {
   userId: string;
   sessionVersion: number;
   issuedAtS: number;
+  /** When the token stops being accepted; the live hub closes a socket opened with it then. */
+  expiresAtS: number;
 }
 
 export interface CookieOptions {
@@ -56,8 +58,14 @@ export function createSessionSigner(
           currentDate: new Date(now()),
         });
         if (typeof payload.sub !== 'string' || typeof payload.iat !== 'number') return null;
+        if (typeof payload.exp !== 'number') return null;
         if (typeof payload.sv !== 'number' || !Number.isInteger(payload.sv)) return null;
-        return { userId: payload.sub, sessionVersion: payload.sv, issuedAtS: payload.iat };
+        return {
+          userId: payload.sub,
+          sessionVersion: payload.sv,
+          issuedAtS: payload.iat,
+          expiresAtS: payload.exp,
+        };
       } catch {
         return null;
       }

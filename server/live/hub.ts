@@ -24,6 +24,27 @@ import { missedMessages } from './replay';
 
 export const LIVE_PATH = '/api/v1/live';
 const HEARTBEAT_MS = 30_000;
+/** setTimeout's longest delay (~24.8 days); sessions last 7 days, so it never cuts one short. */
+const MAX_TIMER_MS = 2 ** 31 - 1;
+
+/** What one client may cost an instance. DEVELOPERS.md gives the reason for each number. */
+export interface LiveLimits {
+  /** Largest frame a client may send; larger ones close the socket with 1009. */
+  maxPayloadBytes: number;
+  /** Open sockets per account on this instance; the next upgrade answers 429. */
+  maxSocketsPerUser: number;
+  /** Unsent bytes a client may fall behind by before it is dropped (it back-fills on return). */
+  maxBufferedBytes: number;
+}
+
+export const DEFAULT_LIVE_LIMITS: LiveLimits = {
+  // Clients send nothing but control frames (pings, close); 4 KiB is far above those.
+  maxPayloadBytes: 4 * 1024,
+  // A person with a phone and a few tabs open; more from one account is a leak or a script.
+  maxSocketsPerUser: 10,
+  // ~2,500 reading messages of ~400 bytes: a client that far behind is better off reconnecting.
+  maxBufferedBytes: 1024 * 1024,
+};
 
 interface Client {
   socket: WebSocket;
@@ -31,6 +52,8 @@ interface Client {
   sessionVersion: number;
   shopIds: Set<string>;
   alive: boolean;
+  /** Closes the socket when the session token it was opened with expires. */
+  expiry: ReturnType<typeof setTimeout>;
 }
 
 /** Sent (inside the committing transaction) when people's shops or sessions changed. */
@@ -39,7 +62,7 @@ interface AccessNotice {
   userIds: string[];
 }
 
-/** Close code for a socket whose session ended (sign-out, password change elsewhere). */
+/** Close code for a socket whose session ended (sign-out, password change elsewhere, expiry). */
 const SESSION_ENDED = 4401;
 
 export interface LiveHub {
@@ -54,10 +77,29 @@ export function startLiveHub(deps: {
   sessions: SessionSigner;
   /** Origins besides the request's own host that may open a socket (PUBLIC_URL). */
   trustedOrigins?: ReadonlySet<string>;
+  limits?: Partial<LiveLimits>;
 }): LiveHub {
   const clients = new Set<Client>();
+  const socketsPerUser = new Map<string, number>();
   const trusted = deps.trustedOrigins ?? new Set<string>();
-  const wss = new WebSocketServer({ noServer: true });
+  const limits: LiveLimits = { ...DEFAULT_LIVE_LIMITS, ...deps.limits };
+  const wss = new WebSocketServer({ noServer: true, maxPayload: limits.maxPayloadBytes });
+
+  /**
+   * Sends unless the client has fallen too far behind (it stopped reading, or its link is too
+   * slow for the stream). Such a client is terminated rather than closed: a close frame would
+   * queue behind the unread megabyte and ws would hold the buffer for its 30 s close timeout.
+   * The app's client reconnects and the server back-fills from its `since=`. This is the only
+   * per-socket work on the delivery path besides the send itself.
+   */
+  function send(client: Client, payload: string) {
+    if (client.socket.readyState !== WebSocket.OPEN) return;
+    if (client.socket.bufferedAmount > limits.maxBufferedBytes) {
+      client.socket.terminate();
+      return;
+    }
+    client.socket.send(payload);
+  }
 
   function deliver(payload: string | undefined) {
     if (!payload) return;
@@ -68,10 +110,10 @@ export function startLiveHub(deps: {
       return;
     }
     if (message.type === 'access') return void recheck(message.userIds);
+    // Each socket gets the same string, which ws encodes and frames once per socket; encoding
+    // it once for all is left to the fan-out work.
     for (const client of clients) {
-      if (client.shopIds.has(message.shopId) && client.socket.readyState === WebSocket.OPEN) {
-        client.socket.send(payload);
-      }
+      if (client.shopIds.has(message.shopId)) send(client, payload);
     }
   }
 
@@ -80,20 +122,20 @@ export function startLiveHub(deps: {
    * socket whose session ended is closed, and its shop list is read again, so a removed
    * member stops receiving a shop's messages as soon as the removal commits.
    */
-  async function recheck(userIds: string[]) {
-    const affected = [...clients].filter((c) => userIds.includes(c.userId));
+  async function recheck(userIds: Iterable<string>) {
+    const wanted = new Set(userIds);
+    const affected = [...clients].filter((c) => wanted.has(c.userId));
     for (const userId of new Set(affected.map((c) => c.userId))) {
       try {
         const state = await findSessionState(deps.db, userId);
         const shopIds = new Set((await listShopsOfUser(deps.db, userId)).map((s) => s.id));
         for (const client of affected.filter((c) => c.userId === userId)) {
           if (state?.sessionVersion !== client.sessionVersion) {
-            client.shopIds = new Set();
-            client.socket.close(SESSION_ENDED, 'session ended');
+            endSession(client);
             continue;
           }
           client.shopIds = shopIds;
-          client.socket.send(JSON.stringify({ type: 'access', shopIds: [...shopIds] }));
+          send(client, JSON.stringify({ type: 'access', shopIds: [...shopIds] }));
         }
       } catch {
         // Database away: stop sending these sockets anything until they reconnect and re-check.
@@ -102,7 +144,14 @@ export function startLiveHub(deps: {
     }
   }
 
+  function endSession(client: Client) {
+    client.shopIds = new Set();
+    client.socket.close(SESSION_ENDED, 'session ended');
+  }
+
   deps.listener.on(LIVE_CHANNEL, deliver);
+  // Access notices sent while the LISTEN connection was down are lost: check everyone again.
+  deps.listener.onReconnect(() => void recheck(new Set([...clients].map((c) => c.userId))));
 
   const heartbeat = setInterval(() => {
     for (const client of clients) {
@@ -136,14 +185,34 @@ export function startLiveHub(deps: {
     } catch {
       return refuse(socket, '503 Service Unavailable');
     }
-    const { userId, sessionVersion } = session.claims;
+    const { userId, sessionVersion, expiresAtS } = session.claims;
+    // No await between this count and handleUpgrade, whose callback runs synchronously (no
+    // verifyClient), so concurrent upgrades of one person cannot all slip under the cap.
+    const open = socketsPerUser.get(userId) ?? 0;
+    if (open >= limits.maxSocketsPerUser) return refuse(socket, '429 Too Many Requests');
     wss.handleUpgrade(req, socket, head, (ws) => {
-      const client: Client = { socket: ws, userId, sessionVersion, shopIds, alive: true };
+      const expiresInMs = Math.min(Math.max(expiresAtS * 1000 - Date.now(), 0), MAX_TIMER_MS);
+      const client: Client = {
+        socket: ws,
+        userId,
+        sessionVersion,
+        shopIds,
+        alive: true,
+        // The upgrade checked the token once; without this a socket would outlive its session.
+        expiry: setTimeout(() => endSession(client), expiresInMs),
+      };
       clients.add(client);
+      socketsPerUser.set(userId, (socketsPerUser.get(userId) ?? 0) + 1);
       ws.on('pong', () => (client.alive = true));
-      ws.on('close', () => clients.delete(client));
+      ws.on('close', () => {
+        clearTimeout(client.expiry);
+        clients.delete(client);
+        const left = (socketsPerUser.get(userId) ?? 1) - 1;
+        if (left > 0) socketsPerUser.set(userId, left);
+        else socketsPerUser.delete(userId);
+      });
       ws.on('error', () => ws.terminate());
-      ws.send(JSON.stringify({ type: 'hello', shopIds: [...shopIds] }));
+      send(client, JSON.stringify({ type: 'hello', shopIds: [...shopIds] }));
       const sinceMs = Date.parse(url.searchParams.get('since') ?? '');
       if (Number.isFinite(sinceMs)) void replay(client, sinceMs);
     });
@@ -155,7 +224,7 @@ export function startLiveHub(deps: {
       const missed = await missedMessages(deps.db, [...client.shopIds], sinceMs, Date.now());
       for (const message of missed) {
         if (client.socket.readyState !== WebSocket.OPEN) return;
-        if (client.shopIds.has(message.shopId)) client.socket.send(JSON.stringify(message));
+        if (client.shopIds.has(message.shopId)) send(client, JSON.stringify(message));
       }
     } catch {
       // The database is away; the client's own refetch on reconnect covers the gap.

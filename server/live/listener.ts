@@ -1,16 +1,22 @@
 /**
  * One LISTEN connection per server instance, shared by everything that reacts to other
  * instances: the live hub (readings, alarms) and the sensor-token cache (revocations). It
- * reconnects after a database restart and re-LISTENs on every channel.
+ * reconnects after a database restart and re-LISTENs on every channel. Whatever was notified
+ * while it was down is lost, so it tells `onReconnect` handlers to catch up by other means.
  */
 import pg from 'pg';
 
 const RECONNECT_MS = 1_000;
 
+/** How the connection shows in pg_stat_activity, so an operator can tell it from the pool. */
+const APPLICATION_NAME = 'drybench-listener';
+
 export type NotificationHandler = (payload: string) => void;
 
 export interface NotificationListener {
   on(channel: string, handler: NotificationHandler): void;
+  /** Called each time a new connection is listening after a lost one (not the first time). */
+  onReconnect(handler: () => void): void;
   /** Resolves once the first connection is listening (or the listener closes). */
   ready: Promise<void>;
   close(): Promise<void>;
@@ -24,6 +30,8 @@ export function startNotificationListener(
   log: (message: string) => void = () => {},
 ): NotificationListener {
   const handlers = new Map<string, NotificationHandler[]>();
+  const reconnectHandlers: (() => void)[] = [];
+  let connectedBefore = false;
   let client: pg.Client | null = null;
   let closed = false;
   let markReady: () => void = () => {};
@@ -35,7 +43,12 @@ export function startNotificationListener(
 
   async function loop(): Promise<void> {
     while (!closed) {
-      const c = new pg.Client({ connectionString: databaseUrl, connectionTimeoutMillis: 3000 });
+      // A fallback, so an application_name in the URL or PGAPPNAME still wins.
+      const c = new pg.Client({
+        connectionString: databaseUrl,
+        connectionTimeoutMillis: 3000,
+        fallback_application_name: APPLICATION_NAME,
+      });
       try {
         await c.connect();
         c.on('notification', (n) => {
@@ -44,6 +57,11 @@ export function startNotificationListener(
         for (const channel of handlers.keys()) await listenOn(c, channel);
         client = c;
         markReady();
+        if (connectedBefore) {
+          log('notification listener: listening again');
+          for (const handler of reconnectHandlers) handler();
+        }
+        connectedBefore = true;
         await new Promise<void>((resolve) => {
           c.on('error', () => resolve());
           c.on('end', () => resolve());
@@ -66,6 +84,9 @@ export function startNotificationListener(
       if (list) return void list.push(handler);
       handlers.set(channel, [handler]);
       if (client) void listenOn(client, channel).catch(() => {});
+    },
+    onReconnect(handler) {
+      reconnectHandlers.push(handler);
     },
     ready,
     async close() {
