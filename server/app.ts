@@ -13,11 +13,13 @@ import type { Db } from '@/db';
 
 import type { AlarmEngine } from './alarms';
 import { createAlarmQueue, type AlarmQueueOptions } from './alarms/queue';
+import { hostCheck, type AllowedHosts } from './auth/hosts';
 import { authorize } from './auth/middleware';
 import { createRateLimits, DEFAULT_RATE_LIMITS, type RateLimitConfig } from './auth/rateLimits';
 import type { RateLimitOptions } from './auth/sensorRateLimit';
 import type { SensorTokenCache } from './auth/sensorTokens';
 import type { SessionSigner } from './auth/session';
+import type { TrustProxy } from './config';
 import type { SurfaceEstimator } from './readings/surfaceEstimates';
 import type { ReadingWriter } from './readings/writer';
 import { errorHandler, notFound } from './errors';
@@ -51,6 +53,10 @@ export interface AppDeps {
   mailer: Mailer;
   /** Where people reach the app (links in e-mail; a trusted origin). */
   publicUrl: string;
+  /** Host header values answered (server/auth/hosts.ts); every other gets 421. */
+  allowedHosts: AllowedHosts;
+  /** Express's `trust proxy`: whose X-Forwarded-For names the client (rate limits). Default off. */
+  trustProxy?: TrustProxy;
   /** The local SMTP server's messages, shown at /dev/outbox; only in development. */
   devOutbox?: Outbox;
   rateLimits?: RateLimitConfig;
@@ -66,7 +72,12 @@ export function createApp(deps: AppDeps): express.Express {
   const app = express();
   app.disable('x-powered-by');
   app.set('query parser', 'simple');
-  // Sensors first: they need neither browser security headers nor the session policy (their
+  // Off unless configured: otherwise anyone could pick the address the rate limits count.
+  app.set('trust proxy', deps.trustProxy ?? false);
+  // Before every router, the sensor route included: a request for another host name (DNS
+  // rebinding) reaches nothing.
+  app.use(hostCheck(deps.allowedHosts));
+  // Sensors next: they need neither browser security headers nor the session policy (their
   // bearer token is checked inside), and this is the hottest route. It parses its own body,
   // after the token check and with its own limit.
   const alarmQueue = deps.alarms && createAlarmQueue(deps.alarms, deps.alarmQueue);

@@ -1,31 +1,72 @@
 /** Server configuration, read from the environment once at start-up and validated. */
+import net from 'node:net';
+
 import { z } from 'zod';
+
+/** What Express's `trust proxy` setting receives: off, every hop, a hop count, or addresses. */
+export type TrustProxy = boolean | number | string[];
+
+// proxy-addr's names for address ranges, accepted in a TRUST_PROXY list as Express accepts them.
+const PROXY_RANGE_NAMES = new Set(['loopback', 'linklocal', 'uniquelocal']);
+
+/** An address (`10.0.0.2`), a subnet (`10.0.0.0/8`, `fd00::/8`) or one of proxy-addr's names. */
+function isProxyAddress(entry: string): boolean {
+  if (PROXY_RANGE_NAMES.has(entry)) return true;
+  const [address = '', prefix, ...rest] = entry.split('/');
+  const family = net.isIP(address);
+  if (family === 0 || rest.length > 0) return false;
+  if (prefix === undefined) return true;
+  if (!/^\d{1,3}$/.test(prefix)) return false;
+  return Number(prefix) <= (family === 4 ? 32 : 128);
+}
+
+const trustProxyField = z
+  .string()
+  .trim()
+  .default('false')
+  .transform((text, ctx): TrustProxy => {
+    if (text === 'false' || text === '') return false;
+    if (text === 'true') return true;
+    if (/^\d+$/.test(text)) return Number(text);
+    const entries = text.split(',').map((e) => e.trim());
+    const bad = entries.filter((e) => !isProxyAddress(e));
+    if (bad.length > 0) {
+      ctx.addIssue({
+        code: 'custom',
+        message:
+          'TRUST_PROXY takes false, true, a hop count or a comma list of addresses and subnets ' +
+          `(e.g. 10.0.0.0/8,loopback); not ${bad.map((b) => JSON.stringify(b)).join(', ')}`,
+      });
+      return z.NEVER;
+    }
+    return entries;
+  });
+
+const booleanText = z.enum(['true', 'false']).transform((v) => v === 'true');
 
 const envSchema = z.object({
   DATABASE_URL: z.string().regex(/^postgres(ql)?:\/\//, 'DATABASE_URL must be a postgres:// URL'),
   PORT: z.coerce.number().int().min(0).max(65535).default(8080),
-  HOST: z.string().default('127.0.0.1'),
+  // Loopback by default: reaching the server from other machines is a decision (README).
+  HOST: z.string().min(1).default('127.0.0.1'),
+  NODE_ENV: z.string().optional(),
   // Signs session tokens; every instance behind one load balancer must share it.
   SESSION_SECRET: z.string().min(32, 'SESSION_SECRET must be at least 32 characters'),
-  // Set when served over HTTPS so the session cookie is marked Secure.
-  COOKIE_SECURE: z
-    .enum(['true', 'false'])
-    .default('false')
-    .transform((v) => v === 'true'),
+  // Secure session cookie; unset, it follows PUBLIC_URL (https → Secure).
+  COOKIE_SECURE: booleanText.optional(),
   WEB_DIR: z.string().optional(),
   // Outgoing mail. Without SMTP_HOST the server runs its own SMTP server on loopback and keeps
   // what it receives in memory (see server/mail/); DEV_OUTBOX=true shows it at /dev/outbox.
   SMTP_HOST: z.string().min(1).optional(),
   SMTP_PORT: z.coerce.number().int().min(0).max(65535).optional(),
   MAIL_FROM: z.string().min(3).default('Drybench <no-reply@drybench.example>'),
-  // Where people reach the app; links in e-mail point here.
+  // Where people reach the app; links in e-mail point here and its host is an allowed Host.
   PUBLIC_URL: z
     .url({ protocol: /^https?$/, error: 'PUBLIC_URL must be an http(s) URL' })
     .optional(),
-  DEV_OUTBOX: z
-    .enum(['true', 'false'])
-    .default('false')
-    .transform((v) => v === 'true'),
+  DEV_OUTBOX: booleanText.default(false),
+  // Which reverse proxies may name the client's address in X-Forwarded-For (rate limits).
+  TRUST_PROXY: trustProxyField,
   // Open live sockets per account on one instance (default in server/live/hub.ts); the bench
   // raises it, its hundreds of sockets being one account's.
   LIVE_SOCKETS_PER_USER: z.coerce.number().int().min(1).optional(),
@@ -35,6 +76,8 @@ export interface Config {
   databaseUrl: string;
   port: number;
   host: string;
+  /** NODE_ENV=production. */
+  production: boolean;
   sessionSecret: string;
   cookieSecure: boolean;
   webDir?: string;
@@ -46,28 +89,75 @@ export interface Config {
   };
   /** Origin of the app as people reach it, without a trailing slash. */
   publicUrl: string;
+  /** PUBLIC_URL was set (not derived from HOST and PORT). */
+  publicUrlSet: boolean;
+  /** Show the local SMTP server's mail at /dev/outbox (asked for, and allowed here). */
   devOutbox: boolean;
+  /** Why DEV_OUTBOX=true was overruled, for the start-up log; null when it was not. */
+  devOutboxRefusal: string | null;
+  trustProxy: TrustProxy;
   /** Absent: the live hub's default. */
   liveSocketsPerUser?: number;
 }
 
-export function readConfig(env: NodeJS.ProcessEnv = process.env): Config {
+/** 127.0.0.0/8, ::1 and the name localhost: addresses only this machine can reach. */
+export function isLoopbackHost(host: string): boolean {
+  const bare = host.replace(/^\[(.*)\]$/, '$1').toLowerCase();
+  if (bare === 'localhost') return true;
+  if (net.isIPv4(bare)) return bare.startsWith('127.');
+  if (net.isIPv6(bare)) {
+    const blocks = new net.BlockList();
+    blocks.addAddress('::1', 'ipv6');
+    blocks.addSubnet('::ffff:127.0.0.0', 104, 'ipv6');
+    return blocks.check(bare, 'ipv6');
+  }
+  return false;
+}
+
+/**
+ * The dev outbox lists every e-mail the server sent, password-reset links included, to anyone
+ * who can load the page: so only on a loopback listen address and never in production.
+ */
+export function devOutboxAllowed(c: { host: string; production: boolean }): boolean {
+  return isLoopbackHost(c.host) && !c.production;
+}
+
+export function readConfig(
+  env: Readonly<Record<string, string | undefined>> = process.env,
+): Config {
   const parsed = envSchema.safeParse(env);
   if (!parsed.success) {
     const lines = parsed.error.issues.map((i) => `  ${i.path.join('.')}: ${i.message}`);
     throw new Error(`Invalid configuration:\n${lines.join('\n')}`);
   }
   const e = parsed.data;
+  const production = e.NODE_ENV === 'production';
+  const publicUrl = (e.PUBLIC_URL ?? `http://${hostInUrl(e.HOST)}:${e.PORT}`).replace(/\/+$/, '');
+  const outboxAllowed = devOutboxAllowed({ host: e.HOST, production });
   return {
     databaseUrl: e.DATABASE_URL,
     port: e.PORT,
     host: e.HOST,
+    production,
     sessionSecret: e.SESSION_SECRET,
-    cookieSecure: e.COOKIE_SECURE,
+    cookieSecure: e.COOKIE_SECURE ?? publicUrl.startsWith('https:'),
     webDir: e.WEB_DIR,
     mail: { smtpHost: e.SMTP_HOST, smtpPort: e.SMTP_PORT, from: e.MAIL_FROM },
-    publicUrl: (e.PUBLIC_URL ?? `http://${e.HOST}:${e.PORT}`).replace(/\/+$/, ''),
-    devOutbox: e.DEV_OUTBOX,
+    publicUrl,
+    publicUrlSet: e.PUBLIC_URL !== undefined,
+    devOutbox: e.DEV_OUTBOX && outboxAllowed,
+    devOutboxRefusal:
+      e.DEV_OUTBOX && !outboxAllowed
+        ? production
+          ? 'DEV_OUTBOX=true ignored: the dev outbox is never shown with NODE_ENV=production.'
+          : `DEV_OUTBOX=true ignored: HOST=${e.HOST} is not a loopback address, and the outbox shows password-reset links to whoever loads it.`
+        : null,
+    trustProxy: e.TRUST_PROXY,
     liveSocketsPerUser: e.LIVE_SOCKETS_PER_USER,
   };
+}
+
+/** An IPv6 literal needs brackets inside a URL. */
+function hostInUrl(host: string): string {
+  return net.isIPv6(host) ? `[${host}]` : host;
 }

@@ -8,6 +8,7 @@ import { createDatabase } from '@/db';
 
 import { createAlarmEngine } from './alarms';
 import { createApp } from './app';
+import { allowedHostsOf } from './auth/hosts';
 import { createSensorTokenCache } from './auth/sensorTokens';
 import { createSessionSigner } from './auth/session';
 import { readConfig } from './config';
@@ -41,6 +42,8 @@ async function main() {
     pool,
     onOpened: queueAlarmMails(jobs, { log: console.log }),
   });
+  // Computed once: PUBLIC_URL's host and this port's loopback names.
+  const allowedHosts = allowedHostsOf(config.port, config.publicUrl);
   const app = createApp({
     db,
     pool,
@@ -52,6 +55,8 @@ async function main() {
     webDir: config.webDir,
     mailer: mail.mailer,
     publicUrl: config.publicUrl,
+    allowedHosts,
+    trustProxy: config.trustProxy,
     devOutbox: config.devOutbox ? mail.outbox : undefined,
   });
   const trustedOrigins = new Set([new URL(config.publicUrl).origin]);
@@ -59,6 +64,7 @@ async function main() {
     listener,
     db,
     sessions,
+    allowedHosts,
     trustedOrigins,
     limits: config.liveSocketsPerUser ? { maxSocketsPerUser: config.liveSocketsPerUser } : {},
   });
@@ -77,6 +83,13 @@ async function main() {
   await new Promise<void>((resolve) => server.listen(config.port, config.host, resolve));
   console.log(`Drybench server listening on http://${config.host}:${config.port}`);
   console.log(`Drybench ${mail.describe}`);
+  if (config.devOutboxRefusal) console.log(config.devOutboxRefusal);
+  if (!config.publicUrlSet && (config.host === '0.0.0.0' || config.host === '::')) {
+    console.log(
+      `HOST=${config.host} without PUBLIC_URL: only this machine's loopback names are answered; ` +
+        'set PUBLIC_URL to the address people and sensors use.',
+    );
+  }
   if (config.devOutbox && mail.outbox) console.log(`Outbox: ${config.publicUrl}/dev/outbox`);
 
   let stopping = false;

@@ -14,7 +14,7 @@ import { ApiError } from '../errors';
 
 import { crossSiteRefusal } from './origin';
 import { isShopRole, POLICY, ROLE_RANK, type PolicyRow } from './policy';
-import { SESSION_COOKIE, type SessionSigner } from './session';
+import { startSession, type SessionSigner } from './session';
 import { isUuid, resolveSession } from './sessionState';
 
 export { isUuid } from './sessionState';
@@ -76,19 +76,26 @@ export function authorize(deps: {
 
     const shopId = isShopRole(row.access) ? found.params.shopId : undefined;
     const cookie = req.headers.cookie;
-    const session =
+    const resolved =
       cookie === undefined
         ? null
         : await resolveSession(db, sessions, cookie, isUuid(shopId) ? shopId : undefined);
+    const session = resolved === 'expired' ? null : resolved;
     if (session) {
-      res.locals.userId = session.claims.userId;
-      res.locals.sessionVersion = session.claims.sessionVersion;
+      const { userId, sessionVersion, authTimeS } = session.claims;
+      res.locals.userId = userId;
+      res.locals.sessionVersion = sessionVersion;
+      // The renewal keeps the sign-in time, so it never reaches past the absolute end.
       if (sessions.wantsRenewal(session.claims)) {
-        const token = await sessions.sign(session.claims.userId, session.claims.sessionVersion);
-        res.cookie(SESSION_COOKIE, token, sessions.cookieOptions);
+        await startSession(res, sessions, userId, sessionVersion, authTimeS);
       }
     }
     if (row.access === 'anyone') return next();
+    if (resolved === 'expired') {
+      return next(
+        new ApiError(401, 'session_expired', 'Your session has ended; sign in again to continue.'),
+      );
+    }
     if (!session) return next(new ApiError(401, 'not_signed_in', 'Sign in to continue.'));
     if (!isShopRole(row.access)) return next();
 

@@ -5,10 +5,16 @@
  * token at once without a server-side session store.
  */
 import type { Response } from 'express';
-import { jwtVerify, SignJWT } from 'jose';
+import { errors, jwtVerify, SignJWT, type JWTPayload } from 'jose';
 
 export const SESSION_COOKIE = 'drybench_session';
+/** Sliding lifetime: a token lives 7 days and is re-issued once past half of that. */
 export const SESSION_TTL_S = 7 * 24 * 60 * 60;
+/**
+ * Absolute lifetime from the sign-in, however often the token was renewed: a cookie kept
+ * fresh by daily use (or by whoever copied it) still ends, and the password is asked again.
+ */
+export const SESSION_ABSOLUTE_S = 30 * 24 * 60 * 60;
 
 export interface SessionClaims {
   userId: string;
@@ -16,6 +22,8 @@ export interface SessionClaims {
   issuedAtS: number;
   /** When the token stops being accepted; the live hub closes a socket opened with it then. */
   expiresAtS: number;
+  /** When the person typed their password; kept across renewals (the `auth_time` claim). */
+  authTimeS: number;
 }
 
 export interface CookieOptions {
@@ -27,11 +35,23 @@ export interface CookieOptions {
 }
 
 export interface SessionSigner {
-  sign(userId: string, sessionVersion: number): Promise<string>;
-  verify(token: string): Promise<SessionClaims | null>;
-  /** True past half the lifetime: the caller re-issues the cookie so active people stay in. */
+  /** A token for this account version; `authTimeS` (a renewal's) defaults to now, a sign-in. */
+  sign(userId: string, sessionVersion: number, authTimeS?: number): Promise<string>;
+  /** The claims of a valid token; 'expired' past the absolute lifetime; null otherwise. */
+  verify(token: string): Promise<SessionClaims | 'expired' | null>;
+  /** True past half the lifetime while renewing still extends it. */
   wantsRenewal(claims: SessionClaims): boolean;
-  cookieOptions: CookieOptions;
+  /** Cookie attributes for a token of this sign-in: Max-Age ends when the token does. */
+  cookieOptions(authTimeS?: number): CookieOptions;
+}
+
+function claimsOf(payload: JWTPayload): SessionClaims | null {
+  const { sub, iat, exp, sv } = payload;
+  const authTime = payload.auth_time ?? iat;
+  if (typeof sub !== 'string' || typeof iat !== 'number' || typeof exp !== 'number') return null;
+  if (typeof sv !== 'number' || !Number.isInteger(sv)) return null;
+  if (typeof authTime !== 'number' || !Number.isInteger(authTime)) return null;
+  return { userId: sub, sessionVersion: sv, issuedAtS: iat, expiresAtS: exp, authTimeS: authTime };
 }
 
 export function createSessionSigner(
@@ -41,14 +61,18 @@ export function createSessionSigner(
 ): SessionSigner {
   const key = new TextEncoder().encode(secret);
   const nowS = () => Math.floor(now() / 1000);
+  // A renewal never reaches past the absolute end of its sign-in.
+  const expiresAtS = (authTimeS: number) =>
+    Math.min(nowS() + SESSION_TTL_S, authTimeS + SESSION_ABSOLUTE_S);
+  const pastAbsoluteEnd = (claims: SessionClaims) =>
+    nowS() >= claims.authTimeS + SESSION_ABSOLUTE_S;
   return {
-    async sign(userId, sessionVersion) {
-      const issuedAtS = nowS();
-      return new SignJWT({ sv: sessionVersion })
+    async sign(userId, sessionVersion, authTimeS = nowS()) {
+      return new SignJWT({ sv: sessionVersion, auth_time: authTimeS })
         .setProtectedHeader({ alg: 'HS256' })
         .setSubject(userId)
-        .setIssuedAt(issuedAtS)
-        .setExpirationTime(issuedAtS + SESSION_TTL_S)
+        .setIssuedAt(nowS())
+        .setExpirationTime(expiresAtS(authTimeS))
         .sign(key);
     },
     async verify(token) {
@@ -57,28 +81,33 @@ export function createSessionSigner(
           algorithms: ['HS256'],
           currentDate: new Date(now()),
         });
-        if (typeof payload.sub !== 'string' || typeof payload.iat !== 'number') return null;
-        if (typeof payload.exp !== 'number') return null;
-        if (typeof payload.sv !== 'number' || !Number.isInteger(payload.sv)) return null;
-        return {
-          userId: payload.sub,
-          sessionVersion: payload.sv,
-          issuedAtS: payload.iat,
-          expiresAtS: payload.exp,
-        };
-      } catch {
+        const claims = claimsOf(payload);
+        // Checked apart from `exp`, so a token whose expiry was not capped ends too.
+        if (claims && pastAbsoluteEnd(claims)) return 'expired';
+        return claims;
+      } catch (err) {
+        // jose checks the signature before the expiry: this payload is one we signed.
+        if (err instanceof errors.JWTExpired) {
+          const claims = claimsOf(err.payload);
+          if (claims && pastAbsoluteEnd(claims)) return 'expired';
+        }
         return null;
       }
     },
     wantsRenewal(claims) {
-      return nowS() - claims.issuedAtS > SESSION_TTL_S / 2;
+      return (
+        nowS() - claims.issuedAtS > SESSION_TTL_S / 2 &&
+        expiresAtS(claims.authTimeS) > claims.expiresAtS
+      );
     },
-    cookieOptions: {
-      httpOnly: true,
-      sameSite: 'lax',
-      secure,
-      path: '/',
-      maxAge: SESSION_TTL_S * 1000,
+    cookieOptions(authTimeS = nowS()) {
+      return {
+        httpOnly: true,
+        sameSite: 'lax',
+        secure,
+        path: '/',
+        maxAge: Math.max(0, expiresAtS(authTimeS) - nowS()) * 1000,
+      };
     },
   };
 }
@@ -100,12 +129,17 @@ export function readCookie(header: string | undefined, name: string): string | n
   return null;
 }
 
-/** Signs a session for this account version and sets it as the cookie. */
+/**
+ * Signs a session for this account version and sets it as the cookie: a new sign-in, or with
+ * `authTimeS` a renewal of an existing one.
+ */
 export async function startSession(
   res: Response,
   sessions: SessionSigner,
   userId: string,
   sessionVersion: number,
+  authTimeS?: number,
 ): Promise<void> {
-  res.cookie(SESSION_COOKIE, await sessions.sign(userId, sessionVersion), sessions.cookieOptions);
+  const token = await sessions.sign(userId, sessionVersion, authTimeS);
+  res.cookie(SESSION_COOKIE, token, sessions.cookieOptions(authTimeS));
 }

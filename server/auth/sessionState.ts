@@ -15,15 +15,17 @@ export interface LiveSession {
   role: Role | null;
 }
 
+/** A live session, 'expired' past its absolute lifetime (sign in again), or null for none. */
 export async function resolveSession(
   db: Db,
   sessions: SessionSigner,
   cookieHeader: string | undefined,
   shopId?: string,
-): Promise<LiveSession | null> {
+): Promise<LiveSession | 'expired' | null> {
   const token = readCookie(cookieHeader, SESSION_COOKIE);
   if (!token) return null;
   const claims = await sessions.verify(token);
+  if (claims === 'expired') return claims;
   if (!claims || !isUuid(claims.userId)) return null;
   const state = await findSessionState(db, claims.userId, shopId);
   // A deleted account, or a token from before a sign-out or a password change.

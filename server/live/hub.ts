@@ -14,6 +14,7 @@ import { listShopsOfUser } from '@/db/queries/memberships';
 import { LIVE_CHANNEL } from '@/db/queries/readings';
 import { findSessionState } from '@/db/queries/users';
 
+import { isAllowedHost, misdirected, type AllowedHosts } from '../auth/hosts';
 import { isTrustedUpgradeOrigin } from '../auth/origin';
 import type { SessionSigner } from '../auth/session';
 import { resolveSession } from '../auth/sessionState';
@@ -75,6 +76,8 @@ export function startLiveHub(deps: {
   listener: NotificationListener;
   db: Db;
   sessions: SessionSigner;
+  /** The same Host rule as every HTTP request (server/auth/hosts.ts). */
+  allowedHosts: AllowedHosts;
   /** Origins besides the request's own host that may open a socket (PUBLIC_URL). */
   trustedOrigins?: ReadonlySet<string>;
   limits?: Partial<LiveLimits>;
@@ -164,12 +167,25 @@ export function startLiveHub(deps: {
     }
   }, HEARTBEAT_MS);
 
-  function refuse(socket: Duplex, status: string) {
-    socket.write(`HTTP/1.1 ${status}\r\nConnection: close\r\nContent-Length: 0\r\n\r\n`);
+  function refuse(socket: Duplex, status: string, body = '') {
+    const type = body ? 'Content-Type: application/json; charset=utf-8\r\n' : '';
+    socket.write(
+      `HTTP/1.1 ${status}\r\nConnection: close\r\n${type}` +
+        `Content-Length: ${Buffer.byteLength(body)}\r\n\r\n${body}`,
+    );
     socket.destroy();
   }
 
   async function onUpgrade(req: IncomingMessage, socket: Duplex, head: Buffer) {
+    // First, as for HTTP: a rebound host name gets nothing, not even a 404.
+    if (!isAllowedHost(req.headers.host, deps.allowedHosts)) {
+      const { code, message, details } = misdirected();
+      return refuse(
+        socket,
+        '421 Misdirected Request',
+        JSON.stringify({ error: { code, message, details } }),
+      );
+    }
     const url = new URL(req.url ?? '/', 'http://localhost');
     if (url.pathname !== LIVE_PATH) return refuse(socket, '404 Not Found');
     // A page on another site must not open a socket with this browser's cookie.
@@ -180,7 +196,7 @@ export function startLiveHub(deps: {
     let shopIds: Set<string>;
     try {
       session = await resolveSession(deps.db, deps.sessions, req.headers.cookie);
-      if (!session) return refuse(socket, '401 Unauthorized');
+      if (!session || session === 'expired') return refuse(socket, '401 Unauthorized');
       shopIds = new Set((await listShopsOfUser(deps.db, session.claims.userId)).map((s) => s.id));
     } catch {
       return refuse(socket, '503 Service Unavailable');

@@ -102,7 +102,7 @@ export function authRouter({
       await bumpSessionVersion(db, userId);
       await notifyAccessChanged(db, [userId]);
     }
-    const { maxAge: _maxAge, ...options } = sessions.cookieOptions;
+    const { maxAge: _maxAge, ...options } = sessions.cookieOptions();
     res.clearCookie(SESSION_COOKIE, options);
     res.status(204).end();
   });

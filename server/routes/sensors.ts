@@ -21,7 +21,9 @@ import { hashToken, newSensorToken, type SensorTokenCache } from '../auth/sensor
 import { ApiError } from '../errors';
 import { parseInput } from '../validate';
 
-const sensorName = z.string().trim().min(1, 'Name the sensor').max(100);
+import { nameField } from './fields';
+
+const sensorName = nameField('Name the sensor');
 const zoneId = z.string().uuid('Pick a zone of this shop');
 
 const createSensorBody = z.object({ name: sensorName, zoneId });

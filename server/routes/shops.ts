@@ -9,6 +9,8 @@ import { roleOf, shopIdOf, userIdOf } from '../auth/middleware';
 import { ApiError } from '../errors';
 import { parseInput } from '../validate';
 
+import { nameField } from './fields';
+
 /** True for a time zone name the runtime's IANA database knows (e.g. Europe/Dublin). */
 function isIanaZone(name: string): boolean {
   try {
@@ -19,7 +21,7 @@ function isIanaZone(name: string): boolean {
   }
 }
 
-const shopName = z.string().trim().min(1, 'Name the shop').max(100);
+const shopName = nameField('Name the shop');
 const timeZone = z
   .string()
   .max(64)

@@ -12,7 +12,9 @@ import type { SensorTokenCache } from '../auth/sensorTokens';
 import { ApiError } from '../errors';
 import { parseInput } from '../validate';
 
-const zoneName = z.string().trim().min(1, 'Name the zone').max(100);
+import { nameField } from './fields';
+
+const zoneName = nameField('Name the zone');
 const createZoneBody = z.object({ name: zoneName });
 
 // Limits in kelvin (a margin is a difference). 20 K and 100 % bound typos, not physics.

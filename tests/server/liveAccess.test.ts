@@ -21,7 +21,12 @@ let wsUrl: string;
 
 beforeAll(async () => {
   t = makeTestApp({ listen: true });
-  hub = startLiveHub({ listener: t.listener!, db: t.db, sessions: t.sessions });
+  hub = startLiveHub({
+    listener: t.listener!,
+    db: t.db,
+    sessions: t.sessions,
+    allowedHosts: t.allowedHosts,
+  });
   await t.listener!.ready;
   server = http.createServer(t.app);
   hub.attach(server);

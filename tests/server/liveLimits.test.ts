@@ -39,6 +39,7 @@ beforeAll(async () => {
     listener,
     db: t.db,
     sessions: t.sessions,
+    allowedHosts: t.allowedHosts,
     limits: { maxSocketsPerUser: SOCKETS_PER_USER },
   });
   await listener.ready;
@@ -153,15 +154,20 @@ describe('live hub limits', () => {
     // Stop reading: the kernel buffers fill, then the server's own send buffer grows.
     (slow.ws as unknown as { _socket: net.Socket })._socket.pause();
 
-    // ~14 MB, far past the kernel buffers of both ends on loopback and the 1 MiB bound.
+    // ~14 MB, far past the kernel buffers of both ends on loopback and the 1 MiB bound. Sent in
+    // steps of ~350 KB that the reading client takes in before the next: it shares this process
+    // with the server, so one burst could outrun its reads on a loaded machine and drop it too.
     const count = 2000;
-    await t.pool.query(
-      `select pg_notify($1, '{"type":"reading","shopId":"' || $2 || '","n":' || g
-         || ',"pad":"' || repeat('x', 7000) || '"}')
-       from generate_series(1, $3::int) as g`,
-      [LIVE_CHANNEL, o.shopId, count],
-    );
-    await until(() => readings(normal) === count, 15_000);
+    const step = 50;
+    for (let sent = 0; sent < count; sent += step) {
+      await t.pool.query(
+        `select pg_notify($1, '{"type":"reading","shopId":"' || $2 || '","n":' || g
+           || ',"pad":"' || repeat('x', 7000) || '"}')
+         from generate_series($3::int + 1, $3::int + $4::int) as g`,
+        [LIVE_CHANNEL, o.shopId, sent, step],
+      );
+      await until(() => readings(normal) === sent + step, 15_000);
+    }
     expect(normal.ws.readyState).toBe(WebSocket.OPEN);
 
     // Reading again, the slow client finds what the kernel held, then the end of the socket.

@@ -7,8 +7,10 @@ import request from 'supertest';
 import { createDatabase } from '@/db';
 import { createAlarmEngine, type AlarmsOpenedHook } from '@/server/alarms';
 import { createApp } from '@/server/app';
+import type { AllowedHosts } from '@/server/auth/hosts';
 import { createSensorTokenCache } from '@/server/auth/sensorTokens';
 import { createSessionSigner } from '@/server/auth/session';
+import type { TrustProxy } from '@/server/config';
 import { startNotificationListener } from '@/server/live/listener';
 import { createMailer, createOutbox, startLocalSmtpServer } from '@/server/mail';
 import { DEFAULT_RATE_LIMITS, type RateLimitConfig } from '@/server/auth/rateLimits';
@@ -33,10 +35,28 @@ export interface TestAppOptions {
   rateLimits?: RateLimitConfig;
   /** The engine's hook for opened alarms (alarm mail tests queue pg-boss jobs with it). */
   onAlarmsOpened?: AlarmsOpenedHook;
+  /** Host header values answered; defaults to TEST_ALLOWED_HOSTS. */
+  allowedHosts?: AllowedHosts;
+  /** Express's `trust proxy` (off by default, as in production). */
+  trustProxy?: TrustProxy;
+  /** Mount /dev/outbox over this app's outbox (server/index.ts decides it from the config). */
+  devOutbox?: boolean;
+  /** The session cookie's Secure attribute (server/index.ts takes it from the config). */
+  cookieSecure?: boolean;
 }
 
 /** Where links in test e-mail point; also a trusted origin of the test app. */
 export const TEST_PUBLIC_URL = 'http://drybench.test';
+
+/**
+ * PUBLIC_URL's host, and any port of a loopback name: supertest serves every request from a
+ * new ephemeral port of 127.0.0.1. Any other name is refused as in production; tests of the
+ * exact production set build it with allowedHostsOf on a real listening server.
+ */
+export const TEST_ALLOWED_HOSTS: AllowedHosts = {
+  hosts: new Set([new URL(TEST_PUBLIC_URL).host]),
+  anyLoopbackPort: true,
+};
 
 /** The production limits per account; per network address high enough for a test file. */
 export const TEST_RATE_LIMITS: RateLimitConfig = {
@@ -50,7 +70,7 @@ export const TEST_RATE_LIMITS: RateLimitConfig = {
 export function makeTestApp(options: TestAppOptions = {}) {
   const url = options.databaseUrl ?? process.env.DATABASE_URL!;
   const database = createDatabase(url, { max: 5 });
-  const sessions = createSessionSigner(TEST_SECRET, false, options.now);
+  const sessions = createSessionSigner(TEST_SECRET, options.cookieSecure ?? false, options.now);
   // A real SMTP server on a free loopback port; what it receives lands in `outbox`.
   const outbox = createOutbox();
   const smtp = startLocalSmtpServer({ outbox });
@@ -78,12 +98,16 @@ export function makeTestApp(options: TestAppOptions = {}) {
     sensorRate: options.sensorRate,
     mailer,
     publicUrl: TEST_PUBLIC_URL,
+    allowedHosts: options.allowedHosts ?? TEST_ALLOWED_HOSTS,
+    trustProxy: options.trustProxy,
+    devOutbox: options.devOutbox ? outbox : undefined,
     rateLimits: options.rateLimits ?? TEST_RATE_LIMITS,
     now: options.now,
     log: () => {},
   });
   return {
     app,
+    allowedHosts: options.allowedHosts ?? TEST_ALLOWED_HOSTS,
     ...database,
     sessions,
     tokens,
@@ -104,7 +128,7 @@ export function uniqueEmail(prefix = 'user'): string {
 }
 
 /** Signs up a new user and returns an agent that carries the session cookie. */
-export async function signUp(app: TestApp['app'], name = 'Test Person') {
+export async function signUp(app: Parameters<typeof request.agent>[0], name = 'Test Person') {
   const agent = request.agent(app);
   const email = uniqueEmail();
   const password = 'correct horse battery';
@@ -118,7 +142,7 @@ export async function signUp(app: TestApp['app'], name = 'Test Person') {
 }
 
 /** A user who owns a shop with one zone and one sensor, all made through the API. */
-export async function ownerWithSensor(app: TestApp['app']) {
+export async function ownerWithSensor(app: Parameters<typeof request.agent>[0]) {
   const owner = await signUp(app, 'Owner');
   const shop = (
     await owner.agent

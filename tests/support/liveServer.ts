@@ -5,20 +5,38 @@ import type { AddressInfo } from 'node:net';
 
 import { seedDemo } from '@/db/seed';
 import { hashPassword } from '@/server/auth/password';
+import { allowedHostsOf } from '@/server/auth/hosts';
 import { hashToken, newSensorToken } from '@/server/auth/sensorTokens';
 import { startLiveHub } from '@/server/live/hub';
 
-import { makeTestApp, type TestAppOptions } from './app';
+import { makeTestApp, TEST_PUBLIC_URL, type TestAppOptions } from './app';
 
-/** One server instance; several of them on one database behave as behind a load balancer. */
-export async function startInstance(options: TestAppOptions = {}) {
-  const t = makeTestApp({ webDir: 'dist', ...options, listen: true });
-  const hub = startLiveHub({ listener: t.listener!, db: t.db, sessions: t.sessions });
-  await t.listener!.ready;
-  const server = http.createServer(t.app);
-  hub.attach(server);
+/**
+ * One server instance; several of them on one database behave as behind a load balancer.
+ * With `strictHosts` it answers exactly the Host values server/index.ts would allow for its
+ * port (browser tests); without, also supertest's ephemeral ports on the same app.
+ */
+export async function startInstance(options: TestAppOptions & { strictHosts?: boolean } = {}) {
+  // Listen first: the port is part of the allowed Host values, computed once, as in production.
+  const server = http.createServer();
   await new Promise<void>((resolve) => server.listen(0, '127.0.0.1', resolve));
   const { port } = server.address() as AddressInfo;
+  const { strictHosts, ...appOptions } = options;
+  const t = makeTestApp({
+    webDir: 'dist',
+    ...appOptions,
+    listen: true,
+    ...(strictHosts ? { allowedHosts: allowedHostsOf(port, TEST_PUBLIC_URL) } : {}),
+  });
+  const hub = startLiveHub({
+    listener: t.listener!,
+    db: t.db,
+    sessions: t.sessions,
+    allowedHosts: t.allowedHosts,
+  });
+  await t.listener!.ready;
+  server.on('request', t.app);
+  hub.attach(server);
   return {
     baseUrl: `http://127.0.0.1:${port}`,
     app: t,
@@ -35,7 +53,7 @@ export async function startInstance(options: TestAppOptions = {}) {
 
 /** An instance with the demo shop seeded (its sensor tokens re-issued), for browser tests. */
 export async function startLiveServer() {
-  const instance = await startInstance();
+  const instance = await startInstance({ strictHosts: true });
   const demo = await seedDemo(instance.app.db, {
     hashPassword,
     newToken: newSensorToken,
