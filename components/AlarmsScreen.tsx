@@ -4,7 +4,7 @@ import { AlarmCard } from './AlarmCard';
 import { bySeverity } from './alarmText';
 import { CONTENT_MAX_WIDTH, SINGLE_COLUMN_MAX_WIDTH, useBreakpoints } from './layout';
 import { Notice } from './Notice';
-import { useAlarmsQuery, type Alarm, type ShopSummary } from './queries';
+import { useAlarmsQuery, useUnitPref, type Alarm, type ShopSummary } from './queries';
 import { ShopFrame } from './ShopPage';
 import { space, type } from './theme';
 import { useNow } from './useNow';
@@ -30,6 +30,7 @@ export function AlarmsScreen({ shopId }: { shopId: string }) {
 function AlarmLists({ shop, wide }: { shop: ShopSummary; wide: boolean }) {
   const alarms = useAlarmsQuery(shop.id, 'all');
   const nowMs = useNow();
+  const unit = useUnitPref();
   if (alarms.isError) {
     return (
       <Notice title="Alarms could not be loaded" testID="alarms-error">
@@ -53,6 +54,7 @@ function AlarmLists({ shop, wide }: { shop: ShopSummary; wide: boolean }) {
           nowMs={nowMs}
           timeZone={shop.timeZone}
           canAcknowledge={shop.role !== 'viewer'}
+          unit={unit}
         />
       ))}
     </View>

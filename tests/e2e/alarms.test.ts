@@ -104,7 +104,10 @@ describe.each([
     await expect
       .poll(() => card.getByTestId('alarm-acknowledged').textContent())
       .toContain(`acknowledged by ${member.name}`);
-    expect(await card.textContent()).toContain('Wipe the iron dry');
+    expect(await card.getByTestId('alarm-step').first().textContent()).toBe(
+      'Wipe the water off the iron and dry it with a clean cloth.',
+    );
+    expect(await card.getByTestId('alarm-safety').textContent()).toContain('unplug it');
     await page.screenshot({ path: `${SHOTS}/alarms-page-${label}.png`, fullPage: true });
     expect(errors).toEqual([]);
     await page.close();
