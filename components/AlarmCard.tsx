@@ -19,6 +19,8 @@ interface AlarmCardProps {
   canAcknowledge: boolean;
   /** The person's temperature unit, for margins. */
   unit: TemperatureUnit;
+  /** A card above already advises on this kind: start with the advice folded. */
+  adviceFolded?: boolean;
 }
 
 /** The worst value an alarm saw, in the words of its kind. */
@@ -46,6 +48,7 @@ export function AlarmCard({
   timeZone,
   canAcknowledge,
   unit,
+  adviceFolded = false,
 }: AlarmCardProps) {
   const [acknowledging, setAcknowledging] = useState(false);
   const tone = levelColors[ALARM_KIND_TONE[alarm.kind]];
@@ -90,7 +93,7 @@ export function AlarmCard({
       ) : (
         <Text style={type.small}>Not acknowledged yet.</Text>
       )}
-      {open ? <AlarmAdvice kind={alarm.kind} /> : null}
+      {open ? <AlarmAdvice kind={alarm.kind} folded={adviceFolded} /> : null}
     </View>
   );
 }

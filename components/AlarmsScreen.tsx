@@ -55,19 +55,21 @@ function AlarmLists({ shop, wide }: { shop: ShopSummary; wide: boolean }) {
           timeZone={shop.timeZone}
           canAcknowledge={shop.role !== 'viewer'}
           unit={unit}
+          adviceFolded={folded.has(alarm.id)}
         />
       ))}
     </View>
   );
   const list = alarms.data.alarms;
+  const open = list.filter((a) => a.state === 'open').sort(bySeverity);
+  // The first open card of each kind spells out what to do and its safety cautions; later ones
+  // of that kind start folded, so a phone is not scrolled through the same block again and again.
+  const folded = new Set(
+    open.filter((a, i) => open.findIndex((b) => b.kind === a.kind) !== i).map((a) => a.id),
+  );
   return (
     <View style={[styles.sections, wide && styles.columns]}>
-      {section(
-        'Open',
-        list.filter((a) => a.state === 'open').sort(bySeverity),
-        'No open alarms: every surface is clear.',
-        'alarms-open',
-      )}
+      {section('Open', open, 'No open alarms: every surface is clear.', 'alarms-open')}
       {section(
         'Recent',
         list.filter((a) => a.state === 'cleared'),

@@ -11,19 +11,18 @@
 import type { AlarmKind } from '../alarmKinds';
 
 export const CAUTIONS = {
-  unplug: 'Switch the machine off and unplug it before you wipe near a blade or cutterhead.',
-  coatingLabel:
-    'Apply any protective coating as its label and safety data sheet say, with the protection they ask for.',
+  unplug: 'Switch off and unplug the machine before wiping near a blade or cutterhead.',
+  coatingLabel: 'Apply coatings as their label and safety data sheet say.',
   ventilate:
-    'Ventilate while you use a spray: aerosols are flammable, so no flames or running heaters nearby.',
+    'Ventilate when spraying: aerosols are flammable, so no flames or running heaters nearby.',
   oilyRags:
-    'Oily rags can heat up by themselves and catch fire: dispose of them as the label says, or lay them flat to dry, or keep them in a closed metal container with water.',
+    'Oily rags can self-heat and catch fire: dispose of them as the label says, or lay them flat to dry, or keep them in a closed metal container with water.',
   fuelHeaters:
     'Unvented fuel-burning heaters (propane, kerosene) add moisture and carbon monoxide to the air: do not dry the shop with one, and never run a heater near finishing vapours or dust.',
   appliancesAndCodes:
-    'Use heaters and dehumidifiers as their makers instruct and follow your local electrical and fire codes; a new circuit or any wiring is work for a licensed electrician.',
+    'Use heaters and dehumidifiers as their makers instruct, and follow local electrical and fire codes; new circuits or wiring are work for a licensed electrician.',
   sensorPower:
-    'Use the batteries or power supply the sensor’s maker names, as its instructions say, and follow your local electrical codes for any mains wiring.',
+    'Use the batteries or power supply the sensor’s maker names, as its instructions say, and follow local electrical codes for any mains wiring.',
 } as const;
 
 export interface AlarmAdvice {

@@ -35,7 +35,7 @@ const alarm = (extra: Partial<Alarm> = {}): Alarm => ({
   ...extra,
 });
 
-function renderCard(a: Alarm, unit: 'C' | 'F' = 'C'): string {
+function renderCard(a: Alarm, unit: 'C' | 'F' = 'C', adviceFolded = false): string {
   return renderToStaticMarkup(
     createElement(AlarmCard, {
       shopId: 'shop1',
@@ -44,6 +44,7 @@ function renderCard(a: Alarm, unit: 'C' | 'F' = 'C'): string {
       timeZone: 'America/Chicago',
       canAcknowledge: false,
       unit,
+      adviceFolded,
     }),
   );
 }
@@ -74,11 +75,19 @@ describe('the alarm card', () => {
 
   it('carries the unplug, label, ventilation, rag and heater cautions on a wet surface', () => {
     const cautions = textsOf(renderCard(alarm()), 'alarm-caution').join(' ');
-    expect(cautions).toMatch(/unplug it before you wipe near a blade or cutterhead/);
+    expect(cautions).toMatch(/unplug the machine before wiping near a blade or cutterhead/);
     expect(cautions).toMatch(/safety data sheet/);
     expect(cautions).toMatch(/aerosols are flammable/);
     expect(cautions).toMatch(/Oily rags/);
     expect(cautions).toMatch(/carbon monoxide/);
+  });
+
+  it('folds a repeated kind’s advice into one button that unfolds steps and cautions together', () => {
+    const html = renderCard(alarm(), 'C', true);
+    expect(textsOf(html, 'alarm-step')).toEqual([]);
+    expect(textsOf(html, 'alarm-caution')).toEqual([]);
+    expect(html).toContain('data-testid="alarm-advice-open"');
+    expect(html).toContain('What to do, and safety');
   });
 
   it('shows no advice once the alarm has cleared', () => {

@@ -158,13 +158,13 @@ describe('advice carries its cautions', () => {
     (kind) => {
       if (!WIPES_OR_COATS.test(stepsOf(kind))) return;
       const cautions = cautionsOf(kind);
-      expect(cautions).toMatch(/switch the machine off and unplug it/i);
+      expect(cautions).toMatch(/switch off and unplug the machine/i);
       expect(cautions).toMatch(/blade or cutterhead/);
       expect(cautions).toMatch(/label and safety data sheet/);
-      expect(cautions).toMatch(/ventilate/i);
+      expect(cautions).toMatch(/ventilate when spraying/i);
       expect(cautions).toMatch(/aerosols are flammable/);
       expect(cautions).toMatch(/no flames or running heaters/);
-      expect(cautions).toMatch(/oily rags can heat up by themselves and catch fire/i);
+      expect(cautions).toMatch(/oily rags can self-heat and catch fire/i);
       expect(cautions).toMatch(/lay them flat to dry/);
       expect(cautions).toMatch(/closed metal container with water/);
     },

@@ -105,21 +105,21 @@ describe('an alarm opening', () => {
     // The safety cautions that go with wiping, coating, warming and drying, in both parts.
     const safety = text.slice(text.indexOf('\nSafety:\n'));
     expect(safety).toMatch(
-      /^\nSafety:\n- Switch the machine off and unplug it before you wipe near a blade/,
+      /^\nSafety:\n- Switch off and unplug the machine before wiping near a blade/,
     );
     for (const caution of [
       /label and safety data sheet/,
-      /Ventilate while you use a spray: aerosols are flammable/,
-      /Oily rags can heat up by themselves and catch fire/,
+      /Ventilate when spraying: aerosols are flammable/,
+      /Oily rags can self-heat and catch fire/,
       /closed metal container with water/,
       /Unvented fuel-burning heaters \(propane, kerosene\) add moisture and carbon monoxide/,
-      /local electrical and fire codes; a new circuit or any wiring is work for a licensed electrician/,
+      /local electrical and fire codes; new circuits or wiring are work for a licensed electrician/,
     ]) {
       expect(safety).toMatch(caution);
       expect(toOwner!.html).toMatch(caution);
     }
     expect(toOwner!.html).toMatch(
-      />Safety<\/p><ul[^>]*><li[^>]*>Switch the machine off and unplug it/,
+      />Safety<\/p><ul[^>]*><li[^>]*>Switch off and unplug the machine/,
     );
     expect(toOwner!.html).toContain(`href="${shopUrl}/alarms"`);
     expect(toOwner!.html).toContain(`<strong>${SHOP_NAME}: Machine room: wet, margin -0.5 °C`);
