@@ -7,7 +7,7 @@ import { acknowledgementLine, alarmHeadline, ALARM_KIND_TONE, bannerAlarms } fro
 import { Button } from './forms';
 import { shopSectionHref } from './hrefs';
 import { Content } from './layout';
-import { useAlarmsQuery, type Alarm } from './queries';
+import { useAlarmsQuery, useUnitPref, type Alarm } from './queries';
 import { colors, fonts, levelColors, space, type } from './theme';
 import { useNow } from './useNow';
 
@@ -26,6 +26,7 @@ interface AlarmBannerProps {
 export function AlarmBanner({ shopId, timeZone, canAcknowledge, maxWidth }: AlarmBannerProps) {
   const alarms = useAlarmsQuery(shopId, 'open');
   const now = useNow();
+  const unit = useUnitPref();
   const [acknowledging, setAcknowledging] = useState<string | null>(null);
   const open = bannerAlarms(alarms.data?.alarms ?? []);
   if (open.length === 0) return null;
@@ -39,7 +40,7 @@ export function AlarmBanner({ shopId, timeZone, canAcknowledge, maxWidth }: Alar
           <AlarmLine
             key={alarm.id}
             alarm={alarm}
-            headline={alarmHeadline(alarm, now, timeZone)}
+            headline={alarmHeadline(alarm, now, timeZone, unit)}
             canAcknowledge={canAcknowledge}
             form={
               acknowledging === alarm.id ? (

@@ -1,18 +1,12 @@
 import { useState } from 'react';
 import { StyleSheet, Text, View } from 'react-native';
 
+import type { TemperatureUnit } from '@/ingest/units';
+import { ALARM_KIND_WORDS, formatMargin, formatPercent, formatVolts } from '@/ingest/words';
+
 import { AlarmAckForm } from './AlarmAckForm';
-import {
-  acknowledgementLine,
-  alarmHeadline,
-  ALARM_ADVICE,
-  ALARM_KIND_TONE,
-  ALARM_KIND_WORDS,
-  APPLIANCE_CAUTION,
-  formatAlarmTime,
-  needsApplianceCaution,
-} from './alarmText';
-import { formatMargin, formatPercent } from './format';
+import { AlarmAdvice } from './AlarmAdvice';
+import { acknowledgementLine, alarmHeadline, ALARM_KIND_TONE, formatAlarmTime } from './alarmText';
 import { Button } from './forms';
 import type { Alarm } from './queries';
 import { cardSurface, colors, fonts, levelColors, space, type } from './theme';
@@ -23,36 +17,50 @@ interface AlarmCardProps {
   nowMs: number;
   timeZone: string;
   canAcknowledge: boolean;
+  /** The person's temperature unit, for margins. */
+  unit: TemperatureUnit;
+  /** A card above already advises on this kind: start with the advice folded. */
+  adviceFolded?: boolean;
 }
 
 /** The worst value an alarm saw, in the words of its kind. */
-function worstOf(alarm: Alarm): string | null {
+function worstOf(alarm: Alarm, unit: TemperatureUnit): string | null {
   switch (alarm.kind) {
     case 'dew_risk':
     case 'wet_surface':
       return alarm.worstMarginK === null
         ? null
-        : `closest margin ${formatMargin(alarm.worstMarginK)}`;
+        : `closest margin ${formatMargin(alarm.worstMarginK, unit)}`;
     case 'humid_air':
       return alarm.peakRhPct === null ? null : `highest ${formatPercent(alarm.peakRhPct)} RH`;
     case 'battery_low':
-      return alarm.lowestBatteryV === null ? null : `lowest ${alarm.lowestBatteryV.toFixed(2)} V`;
+      return alarm.lowestBatteryV === null ? null : `lowest ${formatVolts(alarm.lowestBatteryV)}`;
     case 'sensor_silent':
       return null;
   }
 }
 
 /** One alarm: what, where, since when, how bad it got, who acknowledged it and what they did. */
-export function AlarmCard({ shopId, alarm, nowMs, timeZone, canAcknowledge }: AlarmCardProps) {
+export function AlarmCard({
+  shopId,
+  alarm,
+  nowMs,
+  timeZone,
+  canAcknowledge,
+  unit,
+  adviceFolded = false,
+}: AlarmCardProps) {
   const [acknowledging, setAcknowledging] = useState(false);
   const tone = levelColors[ALARM_KIND_TONE[alarm.kind]];
   const open = alarm.state === 'open';
   const when = (iso: string) => formatAlarmTime(iso, nowMs, timeZone);
   const times = [
-    // A silent sensor's headline already says since when.
-    open && alarm.kind === 'sensor_silent' ? null : `since ${when(alarm.sinceAt)}`,
+    // A silent sensor's and humid air's headlines already say since when.
+    open && (alarm.kind === 'sensor_silent' || alarm.kind === 'humid_air')
+      ? null
+      : `since ${when(alarm.sinceAt)}`,
     alarm.clearedAt ? `cleared ${when(alarm.clearedAt)}` : null,
-    worstOf(alarm),
+    worstOf(alarm, unit),
   ].filter(Boolean);
   const acknowledged = acknowledgementLine(alarm);
 
@@ -63,7 +71,7 @@ export function AlarmCard({ shopId, alarm, nowMs, timeZone, canAcknowledge }: Al
         <Text style={[type.label, open && styles.openWord]}>{open ? 'OPEN' : 'CLEARED'}</Text>
       </View>
       <Text style={type.heading} testID="alarm-headline">
-        {alarmHeadline(alarm, nowMs, timeZone)}
+        {alarmHeadline(alarm, nowMs, timeZone, unit)}
       </Text>
       <Text style={type.small}>{times.join(' · ')}</Text>
       {acknowledged ? (
@@ -85,16 +93,7 @@ export function AlarmCard({ shopId, alarm, nowMs, timeZone, canAcknowledge }: Al
       ) : (
         <Text style={type.small}>Not acknowledged yet.</Text>
       )}
-      {open ? (
-        <View style={styles.advice}>
-          <Text style={type.body}>{ALARM_ADVICE[alarm.kind]}</Text>
-          {needsApplianceCaution(alarm.kind) ? (
-            <Text style={type.small} testID="alarm-caution">
-              {APPLIANCE_CAUTION}
-            </Text>
-          ) : null}
-        </View>
-      ) : null}
+      {open ? <AlarmAdvice kind={alarm.kind} folded={adviceFolded} /> : null}
     </View>
   );
 }
@@ -105,5 +104,4 @@ const styles = StyleSheet.create({
   kind: { fontFamily: fonts.bold, fontSize: 13, letterSpacing: 0.6, textTransform: 'uppercase' },
   openWord: { color: colors.ink },
   action: { flexDirection: 'row' },
-  advice: { gap: space.xs, borderTopWidth: 1, borderTopColor: colors.border, paddingTop: space.sm },
 });

@@ -4,7 +4,7 @@ import { AlarmCard } from './AlarmCard';
 import { bySeverity } from './alarmText';
 import { CONTENT_MAX_WIDTH, SINGLE_COLUMN_MAX_WIDTH, useBreakpoints } from './layout';
 import { Notice } from './Notice';
-import { useAlarmsQuery, type Alarm, type ShopSummary } from './queries';
+import { useAlarmsQuery, useUnitPref, type Alarm, type ShopSummary } from './queries';
 import { ShopFrame } from './ShopPage';
 import { space, type } from './theme';
 import { useNow } from './useNow';
@@ -30,6 +30,7 @@ export function AlarmsScreen({ shopId }: { shopId: string }) {
 function AlarmLists({ shop, wide }: { shop: ShopSummary; wide: boolean }) {
   const alarms = useAlarmsQuery(shop.id, 'all');
   const nowMs = useNow();
+  const unit = useUnitPref();
   if (alarms.isError) {
     return (
       <Notice title="Alarms could not be loaded" testID="alarms-error">
@@ -53,19 +54,22 @@ function AlarmLists({ shop, wide }: { shop: ShopSummary; wide: boolean }) {
           nowMs={nowMs}
           timeZone={shop.timeZone}
           canAcknowledge={shop.role !== 'viewer'}
+          unit={unit}
+          adviceFolded={folded.has(alarm.id)}
         />
       ))}
     </View>
   );
   const list = alarms.data.alarms;
+  const open = list.filter((a) => a.state === 'open').sort(bySeverity);
+  // The first open card of each kind spells out what to do and its safety cautions; later ones
+  // of that kind start folded, so a phone is not scrolled through the same block again and again.
+  const folded = new Set(
+    open.filter((a, i) => open.findIndex((b) => b.kind === a.kind) !== i).map((a) => a.id),
+  );
   return (
     <View style={[styles.sections, wide && styles.columns]}>
-      {section(
-        'Open',
-        list.filter((a) => a.state === 'open').sort(bySeverity),
-        'No open alarms: every surface is clear.',
-        'alarms-open',
-      )}
+      {section('Open', open, 'No open alarms: every surface is clear.', 'alarms-open')}
       {section(
         'Recent',
         list.filter((a) => a.state === 'cleared'),

@@ -3,6 +3,7 @@ import { StyleSheet, Text, View, type LayoutChangeEvent } from 'react-native';
 import { VictoryArea, VictoryAxis, VictoryChart, VictoryContainer, VictoryLine } from 'victory';
 
 import { useUnitPref, type ReadingPoint } from '@/components/queries';
+import { dewPointSeriesLabel } from '@/ingest/words';
 
 import { hourTickLabel, hourTicks } from './chartTicks';
 import { chartSeries, seriesInUnit } from './chartSeries';
@@ -23,7 +24,7 @@ const PADDING = { top: 12, bottom: 32, left: 44, right: 12 };
 const AXIS_TEXT = { fontFamily: fonts.regular, fontSize: 11, fill: colors.iron };
 
 /**
- * Air, surface and dew point over time. The band above the dew point shows how close the
+ * Air, surface and dew point (frost point below 0.01 °C) over time. The band above the dew point shows how close the
  * surface may come: the wet band up to the wet limit, the close band up to the caution limit.
  */
 export function MarginChart({
@@ -40,6 +41,8 @@ export function MarginChart({
   const unit = useUnitPref();
   // Buckets carry how many readings they stand for; raw points count one each.
   const readingCount = points.reduce((n, p) => n + p.count, 0);
+  // Below 0.01 °C the line is a frost point (ingest/psychrometrics.ts); the key says which.
+  const dewWords = useMemo(() => dewPointSeriesLabel(points.map((p) => p.dewPoint)), [points]);
   const series = useMemo(
     () => seriesInUnit(chartSeries(points, { wetK, cautionK }, bucketSeconds), unit),
     [points, wetK, cautionK, bucketSeconds, unit],
@@ -58,12 +61,12 @@ export function MarginChart({
 
   return (
     <View testID="zone-chart" style={styles.box}>
-      <Legend />
+      <Legend dewWords={dewWords} />
       <View
         onLayout={onLayout}
         style={{ height }}
-        accessibilityLabel="Air, surface and dew point over the last 24 hours"
-        aria-label="Air, surface and dew point over the last 24 hours"
+        accessibilityLabel={`Air, surface and ${dewWords} over the last 24 hours`}
+        aria-label={`Air, surface and ${dewWords} over the last 24 hours`}
       >
         {width > 0 && series.hasData ? (
           <VictoryChart
@@ -75,7 +78,7 @@ export function MarginChart({
             containerComponent={
               <VictoryContainer
                 responsive={false}
-                title="Air, surface and dew point"
+                title={`Air, surface and ${dewWords}`}
                 desc={`Last 24 hours, times in ${timeZone}`}
               />
             }
@@ -142,19 +145,26 @@ export function MarginChart({
   );
 }
 
-function Legend() {
+function Legend({ dewWords }: { dewWords: string }) {
   return (
     <View style={styles.legend}>
       <Key color={colors.air} label="air" />
       <Key color={colors.iron} label="surface" />
-      <Key color={colors.dew} label="dew point" />
+      <Key color={colors.dew} label={dewWords} testID="chart-key-dew" />
       <Key color={colors.wet} label="wet band" swatch />
       <Key color={colors.close} label="close band" swatch />
     </View>
   );
 }
 
-function Key({ color, label, swatch = false }: { color: string; label: string; swatch?: boolean }) {
+interface KeyProps {
+  color: string;
+  label: string;
+  swatch?: boolean;
+  testID?: string;
+}
+
+function Key({ color, label, swatch = false, testID }: KeyProps) {
   return (
     <View style={styles.key}>
       <View
@@ -164,7 +174,9 @@ function Key({ color, label, swatch = false }: { color: string; label: string; s
             : [styles.line, { backgroundColor: color }]
         }
       />
-      <Text style={type.small}>{label}</Text>
+      <Text style={type.small} testID={testID}>
+        {label}
+      </Text>
     </View>
   );
 }

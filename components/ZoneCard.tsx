@@ -4,11 +4,12 @@ import { Pressable, StyleSheet, Text, View } from 'react-native';
 import { useUnitPref, type Zone } from '@/components/queries';
 
 import { Flash } from './Flash';
-import { formatLastSeen, formatMargin, formatPercent, formatTemperature } from './format';
+import { formatLastSeen, formatMargin } from './format';
 import { LevelMark } from './LevelMark';
 import { MarginBar } from './MarginBar';
 import { cardSurface, colors, levelColors, levelWords, space, tabular, type } from './theme';
 import { useNow } from './useNow';
+import { ZoneReadings } from './ZoneReadings';
 
 interface ZoneCardProps {
   zone: Zone;
@@ -50,21 +51,7 @@ export function ZoneCard({ zone, timeZone, href, selected = false }: ZoneCardPro
         unit={unit}
       />
 
-      <View style={styles.grid}>
-        <Value
-          label="Dew point"
-          testID="zone-dewpoint"
-          text={formatTemperature(latest?.dewPoint, unit)}
-        />
-        <Value
-          label={latest?.surfaceSource === 'estimate' ? 'Surface (est.)' : 'Surface'}
-          testID="zone-surface"
-          text={formatTemperature(latest?.surface, unit)}
-        />
-        <Value label="Air" testID="zone-air" text={formatTemperature(latest?.air, unit)} />
-        <Value label="RH" testID="zone-rh" text={formatPercent(latest?.rh)} />
-        <Value label="Wood EMC" testID="zone-emc" text={formatPercent(latest?.emc, 1)} />
-      </View>
+      <ZoneReadings latest={latest} unit={unit} />
 
       <LastSeen at={latest?.at ?? null} timeZone={timeZone} />
     </View>
@@ -97,26 +84,6 @@ export function ZoneCard({ zone, timeZone, href, selected = false }: ZoneCardPro
   );
 }
 
-interface ValueProps {
-  label: string;
-  testID: string;
-  /** The value as shown; it flashes only when what a person sees changes. */
-  text: string;
-}
-
-function Value({ label, testID, text }: ValueProps) {
-  return (
-    <View style={styles.cell}>
-      <Text style={type.small}>{label}</Text>
-      <Flash value={text} style={styles.valueFlash}>
-        <Text style={[type.body, tabular, styles.value]} testID={testID}>
-          {text}
-        </Text>
-      </Flash>
-    </View>
-  );
-}
-
 function LastSeen({ at, timeZone }: { at: string | null; timeZone: string }) {
   const now = useNow();
   return (
@@ -139,8 +106,4 @@ const styles = StyleSheet.create({
   top: { flexDirection: 'row', alignItems: 'flex-start', gap: space.md },
   name: { flex: 1 },
   hero: { alignSelf: 'flex-start', paddingHorizontal: space.xs, marginLeft: -space.xs },
-  grid: { flexDirection: 'row', flexWrap: 'wrap', rowGap: space.sm },
-  cell: { width: '50%', gap: 2 },
-  valueFlash: { alignSelf: 'flex-start', paddingHorizontal: 2, marginLeft: -2 },
-  value: { fontSize: 15 },
 });

@@ -9,3 +9,5 @@ export * from './hysteresis';
 export * from './surfaceEstimate';
 export * from './trend';
 export * from './wetness';
+export * from './alarmKinds';
+export * from './words';

@@ -92,7 +92,7 @@ function lnSatIcePa(tempK: number): number {
 
 // Vapour pressure at the triple point, where ice and water curves meet: 611.657 Pa (eq. 6 gives
 // 611.6570, eq. 5 611.6570; Guildner, Johnson & Jones 1976 measured 611.657 Pa).
-const TRIPLE_POINT_C = 0.01;
+export const TRIPLE_POINT_C = 0.01;
 const LN_TRIPLE_POINT_PA = lnSatWaterPa(TRIPLE_POINT_C + ZERO_C_IN_K);
 
 /** Saturation vapour pressure over liquid water (supercooled below 0 °C), Pa. */

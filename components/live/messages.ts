@@ -3,6 +3,7 @@
  * the web bundle small; anything unexpected is dropped, never thrown.
  */
 import type { Alarm, LatestReading } from '@/components/queries';
+import { isAlarmKind } from '@/ingest/alarmKinds';
 
 /** A zone's newest reading, as the zone list holds it; the sensor travels beside it. */
 export type LiveReading = Omit<LatestReading, 'sensorId'>;
@@ -66,13 +67,6 @@ function isReading(value: unknown): value is LiveReading {
   );
 }
 
-const ALARM_KINDS: readonly string[] = [
-  'dew_risk',
-  'wet_surface',
-  'humid_air',
-  'sensor_silent',
-  'battery_low',
-];
 const ALARM_NUMBERS = [
   'worstMarginK',
   'latestMarginK',
@@ -101,8 +95,7 @@ function isAlarm(value: unknown): value is Alarm {
   if (!isObject(value)) return false;
   return (
     typeof value.id === 'string' &&
-    typeof value.kind === 'string' &&
-    ALARM_KINDS.includes(value.kind) &&
+    isAlarmKind(value.kind) &&
     (value.state === 'open' || value.state === 'cleared') &&
     isNamed(value.zone) &&
     (value.sensor === null || isNamed(value.sensor)) &&

@@ -10,10 +10,12 @@ import {
   type QueryClient,
 } from '@tanstack/react-query';
 
+import type { AlarmKind } from '@/ingest/alarmKinds';
+
 import { apiRequest, isApiError } from './api';
 import { shopPath } from './shops';
 
-export type AlarmKind = 'dew_risk' | 'wet_surface' | 'humid_air' | 'sensor_silent' | 'battery_low';
+export type { AlarmKind };
 export type AlarmListState = 'open' | 'all';
 
 /** An alarm as the server describes it. Times ISO 8601, margins K, RH %, battery V. */

@@ -18,17 +18,13 @@ import {
   uuid,
 } from 'drizzle-orm/pg-core';
 
+import { ALARM_KINDS } from '@/ingest/alarmKinds';
+
 import { createdAt } from './columns';
 import { shops, users } from './people';
 import { sensors, zones } from './sensing';
 
-export const alarmKindEnum = pgEnum('alarm_kind', [
-  'dew_risk',
-  'wet_surface',
-  'humid_air',
-  'sensor_silent',
-  'battery_low',
-]);
+export const alarmKindEnum = pgEnum('alarm_kind', ALARM_KINDS);
 export const alarmChangeEnum = pgEnum('alarm_change', [
   'opened',
   'updated',

@@ -25,6 +25,21 @@ export function bulletList(items: readonly string[]): string {
   return `<ul style="margin:0 0 16px;padding-left:20px;${TEXT}">${li.join('')}</ul>`;
 }
 
+/**
+ * Cautions in a box of their own under a "Safety" heading: set apart by a border and by the word,
+ * not by colour alone (some clients drop colours, some readers cannot tell them apart).
+ */
+export function safetyBlock(cautions: readonly string[]): string {
+  if (cautions.length === 0) return '';
+  const li = cautions.map((item) => `<li style="margin:0 0 6px">${escapeHtml(item)}</li>`);
+  return [
+    '<div style="margin:0 0 16px;padding:12px 14px;border:1px solid #56626B;border-left-width:4px;border-radius:6px">',
+    `<p style="margin:0 0 8px;${TEXT};font-weight:bold">Safety</p>`,
+    `<ul style="margin:0;padding-left:20px;${TEXT}">${li.join('')}</ul>`,
+    '</div>',
+  ].join('');
+}
+
 /** Label–value rows of plain text, values in tabular figures. */
 export function valueTable(rows: readonly (readonly [string, string])[]): string {
   const tr = rows.map(

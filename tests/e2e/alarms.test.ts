@@ -104,7 +104,13 @@ describe.each([
     await expect
       .poll(() => card.getByTestId('alarm-acknowledged').textContent())
       .toContain(`acknowledged by ${member.name}`);
-    expect(await card.textContent()).toContain('Wipe the iron dry');
+    // A card below another of its kind starts with its advice folded (AlarmsScreen).
+    const unfold = card.getByTestId('alarm-advice-open');
+    if ((await unfold.count()) > 0) await unfold.click();
+    expect(await card.getByTestId('alarm-step').first().textContent()).toBe(
+      'Wipe the water off the iron and dry it with a clean cloth.',
+    );
+    expect(await card.getByTestId('alarm-safety').textContent()).toContain('unplug the machine');
     await page.screenshot({ path: `${SHOTS}/alarms-page-${label}.png`, fullPage: true });
     expect(errors).toEqual([]);
     await page.close();

@@ -100,9 +100,27 @@ describe('an alarm opening', () => {
     const shopUrl = `${TEST_PUBLIC_URL}/shops/${p.owner.shopId}`;
     expect(text).toContain(`See the alarm and acknowledge it: ${shopUrl}/alarms`);
     expect(text).toContain(`turn them off under Profile: ${shopUrl}/profile`);
-    expect(text).toContain('- Wipe the machine tops dry and cover them');
-    expect(text).toContain('- Run the dehumidifier');
-    expect(text).toContain('use a licensed electrician for new circuits');
+    expect(text).toContain('What to do now:\n- Wipe the water off the iron and dry it');
+    expect(text).toContain('- Once the iron is dry, re-apply its protective coating');
+    // The safety cautions that go with wiping, coating, warming and drying, in both parts.
+    const safety = text.slice(text.indexOf('\nSafety:\n'));
+    expect(safety).toMatch(
+      /^\nSafety:\n- Switch off and unplug the machine before wiping near a blade/,
+    );
+    for (const caution of [
+      /label and safety data sheet/,
+      /Ventilate when spraying: aerosols are flammable/,
+      /Oily rags can self-heat and catch fire/,
+      /closed metal container with water/,
+      /Unvented fuel-burning heaters \(propane, kerosene\) add moisture and carbon monoxide/,
+      /local electrical and fire codes; new circuits or wiring are work for a licensed electrician/,
+    ]) {
+      expect(safety).toMatch(caution);
+      expect(toOwner!.html).toMatch(caution);
+    }
+    expect(toOwner!.html).toMatch(
+      />Safety<\/p><ul[^>]*><li[^>]*>Switch off and unplug the machine/,
+    );
     expect(toOwner!.html).toContain(`href="${shopUrl}/alarms"`);
     expect(toOwner!.html).toContain(`<strong>${SHOP_NAME}: Machine room: wet, margin -0.5 °C`);
     expect((await findAlarmMail(t.db, wet.id))?.sentTo.sort()).toEqual(
@@ -129,6 +147,8 @@ describe('an alarm opening', () => {
     expect(mail!.subject).toBe(`Machine room: wet in about 60 min — ${SHOP_NAME}`);
     expect(mail!.text).toContain(`Dew margin         +${risk.latestMarginK!.toFixed(1)} °C\n`);
     expect(mail!.text).toContain('- Warm the shop slowly');
+    expect(mail!.text).toMatch(/\nSafety:\n- Unvented fuel-burning heaters[^\n]*carbon monoxide/);
+    expect(mail!.html).toContain('carbon monoxide');
 
     // The margin keeps falling: the alarm is updated again and again, but has one job only.
     await postEach(t.app, p.owner.token, falling.slice(22));
@@ -249,6 +269,40 @@ describe('humid air', () => {
       sent: 0,
     });
     expect(mailsTo(t, q.owner.email)).toEqual([]);
+  });
+});
+
+describe('below freezing', () => {
+  it('names the frost point, not the dew point, in the mail', async () => {
+    const p = await shopWithPeople(t);
+    const startMs = seriesStartMs();
+    // Air −5 °C at 80 % RH (over water, the sensors' convention): the vapour saturates over ice
+    // at about −7.0 °C, a frost point (ASHRAE Handbook — Fundamentals 2017, ch. 1, eq. 5,
+    // Hyland–Wexler, in ingest/psychrometrics.ts). Three readings 0.5 K below it confirm wet.
+    const frostC = -7.0248;
+    const posted = await postEach(
+      t.app,
+      p.owner.token,
+      [0, 1, 2].map((i) => ({
+        at: iso(startMs + i * MINUTE_MS),
+        air: -5,
+        rh: 80,
+        surface: frostC - 0.5,
+      })),
+    );
+    const reading = posted[2]!.results[0]! as unknown as { dewPoint: number };
+    expect(reading.dewPoint).toBeCloseTo(frostC, 3);
+    const wet = await onlyAlarm(p.owner.agent, p.owner.shopId, 'wet_surface');
+    expect(await deliverAt(t, wet.id, Date.parse(wet.openedAt) + 30_000)).toMatchObject({
+      outcome: 'sent',
+    });
+    const [toOwner] = mailsTo(t, p.owner.email);
+    const [toMemberF] = mailsTo(t, p.memberF.email);
+    expect(toOwner!.text).toMatch(/\n +Frost point +-7\.0 °C\n/);
+    expect(toOwner!.text).toContain('so frost may be forming on the machine tops');
+    expect(toOwner!.text).not.toContain('Dew point');
+    expect(toOwner!.html).toContain('>Frost point</td>');
+    expect(toMemberF!.text).toMatch(new RegExp(`\\n +Frost point +${f(frostC)} °F\\n`));
   });
 });
 

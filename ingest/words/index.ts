@@ -1,0 +1,5 @@
+/** The words shown to people, the same in the app and in e-mail. */
+export * from './advice';
+export * from './alarms';
+export * from './dewPoint';
+export * from './format';
