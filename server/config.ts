@@ -1,6 +1,9 @@
 /** Server configuration, read from the environment once at start-up and validated. */
 import { z } from 'zod';
 
+export const LOG_LEVELS = ['fatal', 'error', 'warn', 'info', 'debug', 'trace', 'silent'] as const;
+export type LogLevel = (typeof LOG_LEVELS)[number];
+
 const envSchema = z.object({
   DATABASE_URL: z.string().regex(/^postgres(ql)?:\/\//, 'DATABASE_URL must be a postgres:// URL'),
   PORT: z.coerce.number().int().min(0).max(65535).default(8080),
@@ -26,6 +29,13 @@ const envSchema = z.object({
     .enum(['true', 'false'])
     .default('false')
     .transform((v) => v === 'true'),
+  // How much the server logs (server/logger.ts): one JSON line per request at info.
+  LOG_LEVEL: z
+    .string()
+    .trim()
+    .toLowerCase()
+    .pipe(z.enum(LOG_LEVELS, { error: `LOG_LEVEL must be one of ${LOG_LEVELS.join(', ')}` }))
+    .default('info'),
 });
 
 export interface Config {
@@ -44,6 +54,7 @@ export interface Config {
   /** Origin of the app as people reach it, without a trailing slash. */
   publicUrl: string;
   devOutbox: boolean;
+  logLevel: LogLevel;
 }
 
 export function readConfig(env: NodeJS.ProcessEnv = process.env): Config {
@@ -63,5 +74,6 @@ export function readConfig(env: NodeJS.ProcessEnv = process.env): Config {
     mail: { smtpHost: e.SMTP_HOST, smtpPort: e.SMTP_PORT, from: e.MAIL_FROM },
     publicUrl: (e.PUBLIC_URL ?? `http://${e.HOST}:${e.PORT}`).replace(/\/+$/, ''),
     devOutbox: e.DEV_OUTBOX,
+    logLevel: e.LOG_LEVEL,
   };
 }

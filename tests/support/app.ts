@@ -12,6 +12,7 @@ import { createSessionSigner } from '@/server/auth/session';
 import { startNotificationListener } from '@/server/live/listener';
 import { createMailer, createOutbox, startLocalSmtpServer } from '@/server/mail';
 import { DEFAULT_RATE_LIMITS, type RateLimitConfig } from '@/server/auth/rateLimits';
+import { silentLogger, type Logger } from '@/server/logger';
 import { createSurfaceEstimator } from '@/server/readings/surfaceEstimates';
 import { createReadingWriter } from '@/server/readings/writer';
 
@@ -33,6 +34,8 @@ export interface TestAppOptions {
   rateLimits?: RateLimitConfig;
   /** The engine's hook for opened alarms (alarm mail tests queue pg-boss jobs with it). */
   onAlarmsOpened?: AlarmsOpenedHook;
+  /** Where the app logs (tests of the logs pass tests/support/logs.ts); silent by default. */
+  logger?: Logger;
 }
 
 /** Where links in test e-mail point; also a trusted origin of the test app. */
@@ -49,20 +52,25 @@ export const TEST_RATE_LIMITS: RateLimitConfig = {
 
 export function makeTestApp(options: TestAppOptions = {}) {
   const url = options.databaseUrl ?? process.env.DATABASE_URL!;
+  const logger = options.logger ?? silentLogger();
   const database = createDatabase(url, { max: 5 });
   const sessions = createSessionSigner(TEST_SECRET, false, options.now);
   // A real SMTP server on a free loopback port; what it receives lands in `outbox`.
   const outbox = createOutbox();
-  const smtp = startLocalSmtpServer({ outbox });
+  const smtp = startLocalSmtpServer({ outbox, logger });
   const mailer = createMailer({
     from: 'Drybench <no-reply@drybench.example>',
     target: smtp.then((s) => ({ host: s.host, port: s.port, requireTls: false })),
   });
-  const listener = options.listen ? startNotificationListener(url) : undefined;
+  const listener = options.listen ? startNotificationListener(url, logger) : undefined;
   const tokens = createSensorTokenCache(database.db, { listener });
   const writer = createReadingWriter(database.pool);
   const estimator = createSurfaceEstimator(database.db);
-  const alarms = createAlarmEngine({ ...database, onOpened: options.onAlarmsOpened });
+  const alarms = createAlarmEngine({
+    ...database,
+    logger,
+    onOpened: options.onAlarmsOpened,
+  });
   const app = createApp({
     ...database,
     sessions,
@@ -80,7 +88,7 @@ export function makeTestApp(options: TestAppOptions = {}) {
     publicUrl: TEST_PUBLIC_URL,
     rateLimits: options.rateLimits ?? TEST_RATE_LIMITS,
     now: options.now,
-    log: () => {},
+    logger,
   });
   return {
     app,
@@ -94,6 +102,7 @@ export function makeTestApp(options: TestAppOptions = {}) {
     mailer,
     outbox,
     smtp,
+    logger,
   };
 }
 
