@@ -79,7 +79,7 @@ async function main() {
   const server = http.createServer(app);
   hub.attach(server);
   await new Promise<void>((resolve) => server.listen(config.port, config.host, resolve));
-  // scripts/bench waits for "listening on" in this line.
+  // The bench harness (server/bench) waits for "listening on" in this line.
   log.info(
     { host: config.host, port: config.port, logLevel: config.logLevel },
     `Drybench server listening on http://${config.host}:${config.port}`,
@@ -107,6 +107,7 @@ async function main() {
 }
 
 main().catch((err: unknown) => {
-  logger.fatal({ err }, 'Drybench server could not start');
+  // The message says what to fix (an invalid setting, an unreachable database); a stack would not.
+  logger.fatal(`Drybench server could not start: ${err instanceof Error ? err.message : err}`);
   process.exit(1);
 });

@@ -7,6 +7,7 @@ import { afterAll, beforeAll, describe, expect, it } from 'vitest';
 import { createDatabase } from '@/db';
 import type { ReadingRow } from '@/db/queries/readings';
 import { createAlarmEngine, evaluateZone, readZoneState } from '@/server/alarms';
+import { createAlarmQueue } from '@/server/alarms/queue';
 
 import { iso, MINUTE_MS, onlyAlarm, seriesStartMs } from '../support/alarms';
 import { makeTestApp, ownerWithSensor, type TestApp } from '../support/app';
@@ -126,6 +127,31 @@ describe('a zone the engine cannot judge', () => {
         sensorId: o.sensorId,
         msg: 'alarm engine: judging a zone failed',
         err: expect.objectContaining({ message: expect.any(String) }),
+      }),
+    ]);
+  });
+});
+
+describe('a zone that falls behind in the alarm queue', () => {
+  it('warns, as the alarms component, how many readings it skipped judging', async () => {
+    const o = await ownerWithSensor(t.app);
+    const logs = captureLogs();
+    const queue = createAlarmQueue(t.alarms, logs.logger, { maxRowsPerZone: 2, minIntervalMs: 0 });
+    const startMs = seriesStartMs();
+    // The first request's row is being judged; the next three wait, and only two are kept.
+    const first = queue.add(o, [wetRow(o, startMs)]);
+    const rest = queue.add(
+      o,
+      [1, 2, 3].map((i) => wetRow(o, startMs + i * MINUTE_MS)),
+    );
+    await Promise.all([first, rest]);
+    expect(logs.lines()).toEqual([
+      expect.objectContaining({
+        level: 40,
+        component: 'alarms',
+        zoneId: o.zoneId,
+        dropped: 1,
+        kept: 2,
       }),
     ]);
   });
