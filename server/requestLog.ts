@@ -73,9 +73,11 @@ function sensorIdOf(res: ServerResponse): string | undefined {
   return (locals?.sensor as { sensorId?: string } | undefined)?.sensorId;
 }
 
+/** `line` is pino-http's own fresh object for this request; adding to it avoids a copy. */
 function withSensor(res: ServerResponse, line: Record<string, unknown>): object {
   const sensorId = sensorIdOf(res);
-  return sensorId ? { ...line, sensorId } : line;
+  if (sensorId) line.sensorId = sensorId;
+  return line;
 }
 
 export function requestLogger(logger: Logger): HttpLogger {
