@@ -20,6 +20,7 @@ import type { RateLimitOptions } from './auth/sensorRateLimit';
 import type { SensorTokenCache } from './auth/sensorTokens';
 import type { SessionSigner } from './auth/session';
 import type { TrustProxy } from './config';
+import type { Logger } from './logger';
 import type { SurfaceEstimator } from './readings/surfaceEstimates';
 import type { ReadingWriter } from './readings/writer';
 import { errorHandler, notFound } from './errors';
@@ -35,6 +36,7 @@ import { readingsRouter } from './routes/readings';
 import { sensorsRouter } from './routes/sensors';
 import { shopsRouter } from './routes/shops';
 import { zonesRouter } from './routes/zones';
+import { requestLogger } from './requestLog';
 
 export interface AppDeps {
   db: Db;
@@ -63,15 +65,18 @@ export interface AppDeps {
   /** The exported web app (dist/); omitted in API-only tests. */
   webDir?: string;
   now?: () => number;
-  log?: (err: unknown) => void;
+  /** The server's logger (server/logger.ts); requests log through its `http` child. */
+  logger: Logger;
 }
 
 export function createApp(deps: AppDeps): express.Express {
   const now = deps.now ?? Date.now;
-  const log = deps.log ?? ((err: unknown) => console.error(err));
   const app = express();
   app.disable('x-powered-by');
   app.set('query parser', 'simple');
+  // Before everything, ingest included: every response carries X-Request-Id and one log line
+  // (a refused Host too, so an operator sees the attempt).
+  app.use(requestLogger(deps.logger));
   // Off unless configured: otherwise anyone could pick the address the rate limits count.
   app.set('trust proxy', deps.trustProxy ?? false);
   // Before every router, the sensor route included: a request for another host name (DNS
@@ -80,7 +85,7 @@ export function createApp(deps: AppDeps): express.Express {
   // Sensors next: they need neither browser security headers nor the session policy (their
   // bearer token is checked inside), and this is the hottest route. It parses its own body,
   // after the token check and with its own limit.
-  const alarmQueue = deps.alarms && createAlarmQueue(deps.alarms, deps.alarmQueue);
+  const alarmQueue = deps.alarms && createAlarmQueue(deps.alarms, deps.logger, deps.alarmQueue);
   app.use('/api/v1/ingest', ingestRouter({ ...deps, alarms: alarmQueue, now }));
   app.use(
     helmet({
@@ -99,7 +104,7 @@ export function createApp(deps: AppDeps): express.Express {
 
   const { db, sessions, tokens } = deps;
   const limits = createRateLimits(deps.rateLimits ?? DEFAULT_RATE_LIMITS);
-  const people = { ...deps, db, sessions, limits, now, log };
+  const people = { ...deps, db, sessions, limits, now };
   const api = express.Router();
   // Every API route has a row in server/auth/policy.ts; this checks it before any router runs.
   api.use(authorize({ db, sessions, trustedOrigins: new Set([new URL(deps.publicUrl).origin]) }));
@@ -128,6 +133,6 @@ export function createApp(deps: AppDeps): express.Express {
   }
 
   app.use(notFound);
-  app.use(errorHandler(log));
+  app.use(errorHandler());
   return app;
 }

@@ -44,6 +44,9 @@ const trustProxyField = z
 
 const booleanText = z.enum(['true', 'false']).transform((v) => v === 'true');
 
+export const LOG_LEVELS = ['fatal', 'error', 'warn', 'info', 'debug', 'trace', 'silent'] as const;
+export type LogLevel = (typeof LOG_LEVELS)[number];
+
 const envSchema = z.object({
   DATABASE_URL: z.string().regex(/^postgres(ql)?:\/\//, 'DATABASE_URL must be a postgres:// URL'),
   PORT: z.coerce.number().int().min(0).max(65535).default(8080),
@@ -70,6 +73,13 @@ const envSchema = z.object({
   // Open live sockets per account on one instance (default in server/live/hub.ts); the bench
   // raises it, its hundreds of sockets being one account's.
   LIVE_SOCKETS_PER_USER: z.coerce.number().int().min(1).optional(),
+  // How much the server logs (server/logger.ts): one JSON line per request at info.
+  LOG_LEVEL: z
+    .string()
+    .trim()
+    .toLowerCase()
+    .pipe(z.enum(LOG_LEVELS, { error: `LOG_LEVEL must be one of ${LOG_LEVELS.join(', ')}` }))
+    .default('info'),
 });
 
 export interface Config {
@@ -98,6 +108,7 @@ export interface Config {
   trustProxy: TrustProxy;
   /** Absent: the live hub's default. */
   liveSocketsPerUser?: number;
+  logLevel: LogLevel;
 }
 
 /** 127.0.0.0/8, ::1 and the name localhost: addresses only this machine can reach. */
@@ -154,6 +165,7 @@ export function readConfig(
         : null,
     trustProxy: e.TRUST_PROXY,
     liveSocketsPerUser: e.LIVE_SOCKETS_PER_USER,
+    logLevel: e.LOG_LEVEL,
   };
 }
 

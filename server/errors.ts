@@ -109,13 +109,24 @@ export function toApiError(err: unknown): ApiError {
   return new ApiError(500, 'internal', 'Something went wrong on our side; it has been logged.');
 }
 
-export function errorHandler(log: (err: unknown) => void): ErrorRequestHandler {
-  return (err, _req, res, _next) => {
+/**
+ * For a 5xx the request's id goes into `details` (an operator handed the answer finds its log
+ * line by it), and the error itself is attached as `res.err`, which the request's one log line
+ * (server/requestLog.ts) carries with its stack — so nothing is logged twice.
+ */
+export function errorHandler(): ErrorRequestHandler {
+  return (err, req, res, _next) => {
     const apiError = toApiError(err);
-    if (apiError.status >= 500 && apiError.status !== 503) log(err);
+    const failedHere = apiError.status >= 500;
+    if (failedHere) (res as { err?: unknown }).err = err;
     if (res.headersSent) return;
+    const requestId = typeof req.id === 'string' ? req.id : undefined;
+    const details =
+      failedHere && requestId
+        ? [...apiError.details, { path: 'requestId', message: requestId }]
+        : apiError.details;
     res.status(apiError.status).json({
-      error: { code: apiError.code, message: apiError.message, details: apiError.details },
+      error: { code: apiError.code, message: apiError.message, details },
     });
   };
 }

@@ -21,26 +21,35 @@ import {
 } from './jobs';
 import { startLiveHub } from './live/hub';
 import { startNotificationListener } from './live/listener';
+import { createLogger, type Logger } from './logger';
 import { startMail } from './mail';
 import { createSurfaceEstimator } from './readings/surfaceEstimates';
 import { createReadingWriter } from './readings/writer';
 
+// Pretty lines for a person at a terminal; one JSON object per line for everything else.
+const pretty = process.stdout.isTTY === true;
+// Until the configuration names its level (and to report a configuration that is invalid).
+let logger: Logger = createLogger({ level: 'info', pretty });
+
 async function main() {
   const config = readConfig();
+  logger = createLogger({ level: config.logLevel, pretty });
+  const log = logger.child({ component: 'server' });
   const { pool, db } = createDatabase(config.databaseUrl);
   const sessions = createSessionSigner(config.sessionSecret, config.cookieSecure);
-  const listener = startNotificationListener(config.databaseUrl, console.log);
+  const listener = startNotificationListener(config.databaseUrl, logger);
   const tokens = createSensorTokenCache(db, { listener });
   const writer = createReadingWriter(pool);
   const estimator = createSurfaceEstimator(db);
-  const mail = await startMail(config.mail);
+  const mail = await startMail(config.mail, logger);
   // pg-boss first: the engine queues each opened alarm's e-mail as a job in its transaction.
-  const jobs = await startJobRunner({ databaseUrl: config.databaseUrl, log: console.log });
+  const jobs = await startJobRunner({ databaseUrl: config.databaseUrl, logger });
   await createAlarmMailQueue(jobs);
   const alarms = createAlarmEngine({
     db,
     pool,
-    onOpened: queueAlarmMails(jobs, { log: console.log }),
+    logger,
+    onOpened: queueAlarmMails(jobs, { logger }),
   });
   // Computed once: PUBLIC_URL's host and this port's loopback names.
   const allowedHosts = allowedHostsOf(config.port, config.publicUrl);
@@ -58,6 +67,7 @@ async function main() {
     allowedHosts,
     trustProxy: config.trustProxy,
     devOutbox: config.devOutbox ? mail.outbox : undefined,
+    logger,
   });
   const trustedOrigins = new Set([new URL(config.publicUrl).origin]);
   const hub = startLiveHub({
@@ -69,34 +79,38 @@ async function main() {
     limits: config.liveSocketsPerUser ? { maxSocketsPerUser: config.liveSocketsPerUser } : {},
   });
   await listener.ready;
-  await scheduleAlarmSweep(jobs, alarms, { log: console.log });
+  await scheduleAlarmSweep(jobs, alarms, { logger });
   await workAlarmMails(jobs, {
     db,
     pool,
     mailer: mail.mailer,
     publicUrl: config.publicUrl,
-    log: console.log,
+    logger,
   });
 
   const server = http.createServer(app);
   hub.attach(server);
   await new Promise<void>((resolve) => server.listen(config.port, config.host, resolve));
-  console.log(`Drybench server listening on http://${config.host}:${config.port}`);
-  console.log(`Drybench ${mail.describe}`);
-  if (config.devOutboxRefusal) console.log(config.devOutboxRefusal);
+  // The bench harness (scripts/bench) waits for "listening on" in this line.
+  log.info(
+    { host: config.host, port: config.port, logLevel: config.logLevel },
+    `Drybench server listening on http://${config.host}:${config.port}`,
+  );
+  log.info(`Drybench ${mail.describe}`);
+  if (config.devOutboxRefusal) log.warn(config.devOutboxRefusal);
   if (!config.publicUrlSet && (config.host === '0.0.0.0' || config.host === '::')) {
-    console.log(
+    log.warn(
       `HOST=${config.host} without PUBLIC_URL: only this machine's loopback names are answered; ` +
         'set PUBLIC_URL to the address people and sensors use.',
     );
   }
-  if (config.devOutbox && mail.outbox) console.log(`Outbox: ${config.publicUrl}/dev/outbox`);
+  if (config.devOutbox && mail.outbox) log.info(`Outbox: ${config.publicUrl}/dev/outbox`);
 
   let stopping = false;
   const stop = async (signal: string) => {
     if (stopping) return;
     stopping = true;
-    console.log(`Drybench server stopping (${signal})…`);
+    log.info({ signal }, `Drybench server stopping (${signal})…`);
     server.close();
     await writer.close();
     await jobs.stop({ graceful: true, timeout: 10_000 });
@@ -112,6 +126,7 @@ async function main() {
 }
 
 main().catch((err: unknown) => {
-  console.error(err instanceof Error ? err.message : err);
+  // The message says what to fix (an invalid setting, an unreachable database); a stack would not.
+  logger.fatal(`Drybench server could not start: ${err instanceof Error ? err.message : err}`);
   process.exit(1);
 });

@@ -25,6 +25,7 @@ import { withTransaction } from '@/db/transaction';
 import { DEFAULT_TREND } from '@/ingest';
 
 import { alarmMessageJson } from '../live/messages';
+import type { Logger } from '../logger';
 
 import { createAlarmBook } from './book';
 import { evaluateZone, readZoneState, type Signal } from './evaluate';
@@ -59,12 +60,12 @@ const NO_SAMPLE = { marginK: null, rhPct: null, batteryV: null, minutesToWet: nu
 export function createAlarmEngine(deps: {
   db: Db;
   pool: pg.Pool;
-  log?: (err: unknown) => void;
+  logger: Logger;
   /** Runs inside the transaction that opened alarms (it queues their e-mail; server/jobs). */
   onOpened?: AlarmsOpenedHook;
 }): AlarmEngine {
   const { db, pool } = deps;
-  const log = deps.log ?? ((err: unknown) => console.error('alarm engine:', err));
+  const log = deps.logger.child({ component: 'alarms' });
 
   async function applySignals(
     tx: Tx,
@@ -120,7 +121,11 @@ export function createAlarmEngine(deps: {
         await applySignals(tx, where, signals);
       });
     } catch (err) {
-      log(err);
+      // Not thrown: the readings are stored, and the zone's next reading is judged afresh.
+      log.error(
+        { err, zoneId: where.zoneId, sensorId: sensor.sensorId, readings: rows.length },
+        'alarm engine: judging a zone failed',
+      );
     }
   }
 

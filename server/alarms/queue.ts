@@ -10,6 +10,8 @@
  */
 import type { ReadingRow } from '@/db/queries/readings';
 
+import type { Logger } from '../logger';
+
 import type { AlarmEngine } from './engine';
 
 type ZoneOf = Parameters<AlarmEngine['judge']>[0];
@@ -50,9 +52,11 @@ const DEFAULTS: AlarmQueueOptions = {
 
 export function createAlarmQueue(
   engine: AlarmEngine,
+  logger: Logger,
   options: Partial<AlarmQueueOptions> = {},
 ): AlarmQueue {
   const opts = { ...DEFAULTS, ...options };
+  const log = logger.child({ component: 'alarms' });
   const pending = new Map<string, Pending>();
   const judging = new Set<string>();
   const lastStartMs = new Map<string, number>();
@@ -100,7 +104,13 @@ export function createAlarmQueue(
         entry.rows.push(...rows);
         if (entry.rows.length > opts.maxRowsPerZone) {
           entry.rows.sort((a, b) => a.at.getTime() - b.at.getTime());
-          entry.rows.splice(0, entry.rows.length - opts.maxRowsPerZone);
+          const dropped = entry.rows.splice(0, entry.rows.length - opts.maxRowsPerZone).length;
+          // Not an error (the rows are stored; only their alarm steps are skipped), but a zone this
+          // far behind means judging cannot keep up, which an operator should see.
+          log.warn(
+            { zoneId: where.zoneId, dropped, kept: opts.maxRowsPerZone },
+            'alarm queue: zone fell behind; judging only its newest readings',
+          );
         }
         entry.done.push(resolve);
         pending.set(where.zoneId, entry);

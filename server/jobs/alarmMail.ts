@@ -18,6 +18,7 @@ import {
   type AlarmMailDeps,
   type AlarmsOpenedHook,
 } from '../alarms';
+import type { Logger } from '../logger';
 
 export const ALARM_MAIL_QUEUE = 'alarm-mail';
 
@@ -36,7 +37,7 @@ const QUEUE_OPTIONS = {
 } as const;
 
 export interface AlarmMailQueueOptions {
-  log: (message: string) => void;
+  logger: Logger;
   /** Per-job retry settings instead of the queue's (tests retry in a second). */
   retry?: { retryDelay: number; retryBackoff: boolean; retryLimit?: number };
 }
@@ -53,6 +54,7 @@ function transactionClient(tx: Tx): pg.PoolClient {
  * savepoint — if the job cannot be written the alarm still commits (and the failure is logged).
  */
 export function queueAlarmMails(boss: PgBoss, options: AlarmMailQueueOptions): AlarmsOpenedHook {
+  const log = options.logger.child({ component: 'jobs' });
   return async (tx, opened) => {
     const client = transactionClient(tx);
     const db = { executeSql: (text: string, values: unknown[]) => client.query(text, values) };
@@ -70,12 +72,14 @@ export function queueAlarmMails(boss: PgBoss, options: AlarmMailQueueOptions): A
             db,
           },
         );
-        if (id === null) options.log(`alarm mail: no job for alarm ${alarm.id} (queue missing?)`);
+        if (id === null) {
+          log.error({ alarmId: alarm.id }, 'alarm mail: no job queued (is the queue missing?)');
+        }
       }
       await client.query('release savepoint alarm_mail');
     } catch (err) {
       await client.query('rollback to savepoint alarm_mail');
-      options.log(`alarm mail: could not queue: ${err instanceof Error ? err.message : err}`);
+      log.error({ err, alarmIds: opened.map((a) => a.id) }, 'alarm mail: could not queue');
     }
   };
 }
@@ -86,7 +90,7 @@ export async function createAlarmMailQueue(boss: PgBoss): Promise<void> {
 }
 
 export interface AlarmMailWorkerOptions extends AlarmMailDeps {
-  log: (message: string) => void;
+  logger: Logger;
   /** How often an idle worker asks for a job; pg-boss's default is 2 s. */
   pollingIntervalSeconds?: number;
 }
@@ -94,6 +98,7 @@ export interface AlarmMailWorkerOptions extends AlarmMailDeps {
 /** Works the queue on this instance: each job delivers one alarm's mail. */
 export async function workAlarmMails(boss: PgBoss, options: AlarmMailWorkerOptions) {
   await createAlarmMailQueue(boss);
+  const log = options.logger.child({ component: 'jobs' });
   return boss.work<{ alarmId?: unknown }>(
     ALARM_MAIL_QUEUE,
     { pollingIntervalSeconds: options.pollingIntervalSeconds ?? 2, batchSize: 5 },
@@ -105,10 +110,10 @@ export async function workAlarmMails(boss: PgBoss, options: AlarmMailWorkerOptio
         try {
           const report = await deliverAlarmMail(options, alarmId);
           if (report.outcome === 'not_due') throw new Error('not due yet');
-          if (report.sent > 0) options.log(`alarm mail: ${alarmId} sent to ${report.sent}`);
+          if (report.sent > 0) log.info({ alarmId, sent: report.sent }, 'alarm mail: sent');
         } catch (err) {
           const message = err instanceof Error ? err.message : String(err);
-          options.log(`alarm mail: ${alarmId} failed (${message}); it will be retried`);
+          log.warn({ err, alarmId }, 'alarm mail: failed; it will be retried');
           await boss.fail(ALARM_MAIL_QUEUE, job.id, { message });
         }
       }

@@ -6,13 +6,14 @@
 import type PgBoss from 'pg-boss';
 
 import type { AlarmEngine } from '../alarms';
+import type { Logger } from '../logger';
 
 export const ALARM_SWEEP_QUEUE = 'alarm-silent-sweep';
 export const ALARM_SWEEP_CRON = '* * * * *';
 
 export interface AlarmSweepOptions {
   now?: () => number;
-  log: (message: string) => void;
+  logger: Logger;
   /** How often an idle worker asks for a job; pg-boss's default is 2 s. */
   pollingIntervalSeconds?: number;
 }
@@ -23,6 +24,7 @@ export async function scheduleAlarmSweep(
   options: AlarmSweepOptions,
 ): Promise<void> {
   const now = options.now ?? Date.now;
+  const log = options.logger.child({ component: 'jobs' });
   await boss.createQueue(ALARM_SWEEP_QUEUE, {
     name: ALARM_SWEEP_QUEUE,
     policy: 'singleton',
@@ -39,7 +41,7 @@ export async function scheduleAlarmSweep(
         const shopId = typeof job.data?.shopId === 'string' ? job.data.shopId : undefined;
         const outcome = await engine.sweepSilent({ nowMs: now(), shopId });
         if (outcome.opened + outcome.cleared > 0) {
-          options.log(`alarm sweep: ${outcome.opened} silent opened, ${outcome.cleared} cleared`);
+          log.info({ ...outcome, shopId }, 'alarm sweep: sensor-silent alarms changed');
         }
       }
     },

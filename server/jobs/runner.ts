@@ -6,9 +6,11 @@
  */
 import PgBoss from 'pg-boss';
 
+import type { Logger } from '../logger';
+
 export interface JobRunnerOptions {
   databaseUrl: string;
-  log: (message: string) => void;
+  logger: Logger;
   /** PostgreSQL schema for pg-boss's tables. */
   schema?: string;
   /** False: this runner works jobs but never fires schedules (a test beside live data). */
@@ -24,7 +26,8 @@ export async function startJobRunner(options: JobRunnerOptions): Promise<PgBoss>
     schedule: options.cron ?? true,
   });
   // A lost connection or a failed job is reported here; pg-boss retries on its own.
-  boss.on('error', (err) => options.log(`jobs: ${err.message}`));
+  const log = options.logger.child({ component: 'jobs' });
+  boss.on('error', (err) => log.error({ err }, 'jobs: pg-boss reported an error'));
   await boss.start();
   return boss;
 }

@@ -6,6 +6,8 @@
  */
 import pg from 'pg';
 
+import type { Logger } from '../logger';
+
 const RECONNECT_MS = 1_000;
 
 /** How the connection shows in pg_stat_activity, so an operator can tell it from the pool. */
@@ -27,8 +29,10 @@ const CHANNEL_NAME = /^[a-z_][a-z0-9_]*$/;
 
 export function startNotificationListener(
   databaseUrl: string,
-  log: (message: string) => void = () => {},
+  logger: Logger,
 ): NotificationListener {
+  const log = logger.child({ component: 'live' });
+  let lostAtMs: number | null = null;
   const handlers = new Map<string, NotificationHandler[]>();
   const reconnectHandlers: (() => void)[] = [];
   let connectedBefore = false;
@@ -57,18 +61,26 @@ export function startNotificationListener(
         for (const channel of handlers.keys()) await listenOn(c, channel);
         client = c;
         markReady();
-        if (connectedBefore) {
-          log('notification listener: listening again');
-          for (const handler of reconnectHandlers) handler();
+        if (lostAtMs !== null) {
+          log.info({ downMs: Date.now() - lostAtMs }, 'notification listener: listening again');
+          lostAtMs = null;
         }
+        if (connectedBefore) for (const handler of reconnectHandlers) handler();
         connectedBefore = true;
         await new Promise<void>((resolve) => {
           c.on('error', () => resolve());
           c.on('end', () => resolve());
         });
-        if (!closed) log('notification listener: lost its database connection; reconnecting');
-      } catch {
-        // The database is away: try again shortly.
+        if (!closed) {
+          lostAtMs = Date.now();
+          log.warn('notification listener: lost its database connection; reconnecting');
+        }
+      } catch (err) {
+        // The database is away: try again shortly, saying so once per outage, not every second.
+        if (lostAtMs === null && !closed) {
+          lostAtMs = Date.now();
+          log.warn({ err }, 'notification listener: cannot connect; retrying every second');
+        }
       }
       client = null;
       await c.end().catch(() => {});

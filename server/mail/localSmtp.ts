@@ -8,6 +8,8 @@ import type { AddressInfo } from 'node:net';
 import { simpleParser, type AddressObject } from 'mailparser';
 import { SMTPServer } from 'smtp-server';
 
+import type { Logger } from '../logger';
+
 import type { Outbox } from './outbox';
 
 export interface LocalSmtpServer {
@@ -23,11 +25,13 @@ function addresses(field: AddressObject | AddressObject[] | undefined): string[]
 
 export async function startLocalSmtpServer(options: {
   outbox: Outbox;
+  logger: Logger;
   host?: string;
   /** 0 picks a free port. */
   port?: number;
 }): Promise<LocalSmtpServer> {
   const host = options.host ?? '127.0.0.1';
+  const log = options.logger.child({ component: 'mail' });
   const server = new SMTPServer({
     // Loopback only, no certificate: plain SMTP without authentication, like a local relay.
     authOptional: true,
@@ -37,20 +41,30 @@ export async function startLocalSmtpServer(options: {
     onData(stream, _session, callback) {
       simpleParser(stream)
         .then((parsed) => {
-          options.outbox.add({
+          const to = addresses(parsed.to);
+          const stored = options.outbox.add({
             receivedAt: new Date().toISOString(),
             from: addresses(parsed.from)[0] ?? '',
-            to: addresses(parsed.to),
+            to,
             subject: parsed.subject ?? '',
             text: parsed.text ?? '',
             html: typeof parsed.html === 'string' ? parsed.html : null,
           });
+          // Never the text: reset and invitation mails carry their link in it.
+          log.debug(
+            { outboxId: stored.id, recipients: to.length },
+            'local SMTP: kept a message in the outbox',
+          );
           callback();
         })
-        .catch((err: unknown) => callback(err instanceof Error ? err : new Error(String(err))));
+        .catch((err: unknown) => {
+          log.warn({ err }, 'local SMTP: could not parse a message; refused it');
+          callback(err instanceof Error ? err : new Error(String(err)));
+        });
     },
   });
-  server.on('error', () => {});
+  // A client that misbehaves (drops mid-message) costs its own session, not the server.
+  server.on('error', (err) => log.warn({ err }, 'local SMTP: connection error'));
   await new Promise<void>((resolve, reject) => {
     server.server.once('error', reject);
     server.listen(options.port ?? 0, host, () => resolve());

@@ -2,6 +2,8 @@
  * Mail as configured: a relay named by SMTP_HOST, or else our own SMTP server on loopback
  * whose messages stay in memory (and show at /dev/outbox when DEV_OUTBOX=true).
  */
+import type { Logger } from '../logger';
+
 import { startLocalSmtpServer } from './localSmtp';
 import { createMailer, type Mailer } from './mailer';
 import { createOutbox, type Outbox } from './outbox';
@@ -14,11 +16,14 @@ export interface MailSetup {
   close(): Promise<void>;
 }
 
-export async function startMail(config: {
-  smtpHost?: string;
-  smtpPort?: number;
-  from: string;
-}): Promise<MailSetup> {
+export async function startMail(
+  config: {
+    smtpHost?: string;
+    smtpPort?: number;
+    from: string;
+  },
+  logger: Logger,
+): Promise<MailSetup> {
   if (config.smtpHost) {
     const host = config.smtpHost;
     const port = config.smtpPort ?? 587;
@@ -33,7 +38,7 @@ export async function startMail(config: {
     };
   }
   const outbox = createOutbox();
-  const local = await startLocalSmtpServer({ outbox, port: config.smtpPort ?? 0 });
+  const local = await startLocalSmtpServer({ outbox, logger, port: config.smtpPort ?? 0 });
   return {
     mailer: createMailer({
       from: config.from,

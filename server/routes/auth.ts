@@ -16,6 +16,7 @@ import { hashPassword, verifyPassword } from '../auth/password';
 import type { RateLimits } from '../auth/rateLimits';
 import { SESSION_COOKIE, startSession, type SessionSigner } from '../auth/session';
 import { ApiError } from '../errors';
+import type { Logger } from '../logger';
 import { passwordResetMail, type Mailer } from '../mail';
 import { parseInput } from '../validate';
 
@@ -42,7 +43,7 @@ export interface AuthDeps {
   limits: RateLimits;
   publicUrl: string;
   now: () => number;
-  log: (err: unknown) => void;
+  logger: Logger;
 }
 
 export function authRouter({
@@ -52,9 +53,10 @@ export function authRouter({
   limits,
   publicUrl,
   now,
-  log,
+  logger,
 }: AuthDeps): Router {
   const router = Router();
+  const mailLog = logger.child({ component: 'mail' });
 
   router.post('/sign-up', limits.signUp, async (req, res) => {
     const body = parseInput(signUpBody, req.body);
@@ -124,7 +126,11 @@ export function authRouter({
         validMinutes: RESET_VALID_MINUTES,
       });
       // Sent after answering, so the time taken does not tell whether the account exists.
-      void mailer.send(mail).catch(log);
+      void mailer
+        .send(mail)
+        .catch((err: unknown) =>
+          mailLog.error({ err, reqId: req.id }, 'password reset mail could not be sent'),
+        );
     }
     res.status(202).json({ sent: true });
   });

@@ -40,7 +40,7 @@ const linkGone = () =>
     'This invitation link has expired, was already used or was withdrawn. Ask the shop owner for a new one.',
   );
 
-export type InvitationDeps = Omit<AuthDeps, 'log'>;
+export type InvitationDeps = Omit<AuthDeps, 'logger'>;
 
 /** Mounted at /api/v1 itself: it answers /shops/:shopId/invitations and /invitations/:token. */
 export function invitationsRouter(deps: InvitationDeps): Router {

@@ -10,11 +10,13 @@ import { afterAll, beforeAll, describe, expect, it } from 'vitest';
 import { findAlarmMail } from '@/db/queries/alarmMails';
 import { deliverAlarmMail } from '@/server/alarms';
 import { ALARM_MAIL_QUEUE, workAlarmMails } from '@/server/jobs';
+import { silentLogger } from '@/server/logger';
 import { createMailer, createOutbox, startLocalSmtpServer, type Outbox } from '@/server/mail';
 
 import { MINUTE_MS } from '../support/alarms';
 import { openWetAlarm, SHOP_NAME, shopWithPeople, startMailTestApp } from '../support/alarmMail';
 import { TEST_PUBLIC_URL, type TestApp } from '../support/app';
+import { captureLogs } from '../support/logs';
 import { waitForMail } from '../support/mail';
 
 let boss: PgBoss;
@@ -50,6 +52,7 @@ async function smtpDownAtFirst() {
     let taken = 0;
     const server = await startLocalSmtpServer({
       port,
+      logger: silentLogger(),
       outbox: {
         ...outbox,
         add(mail) {
@@ -94,13 +97,13 @@ describe('the mail job while the SMTP server is down', () => {
 describe('through pg-boss', () => {
   it('answers ingest at once while mail is down, retries the job, and mails once the server is back', async () => {
     const smtp = await smtpDownAtFirst();
-    const logs: string[] = [];
+    const logs = captureLogs();
     await workAlarmMails(boss, {
       db: t.db,
       pool: t.pool,
       mailer: smtp.mailer,
       publicUrl: TEST_PUBLIC_URL,
-      log: (m) => logs.push(m),
+      logger: logs.logger,
       pollingIntervalSeconds: 0.5,
     });
     const server = { close: async () => {} };
@@ -120,7 +123,15 @@ describe('through pg-boss', () => {
           interval: 200,
         })
         .toBeGreaterThanOrEqual(1);
-      expect(logs.some((l) => l.startsWith(`alarm mail: ${wet.id} failed`))).toBe(true);
+      // The failure is in the server's log, tagged with the job runner and the alarm.
+      expect(logs.lines()).toContainEqual(
+        expect.objectContaining({
+          component: 'jobs',
+          alarmId: wet.id,
+          msg: 'alarm mail: failed; it will be retried',
+          err: expect.objectContaining({ message: expect.stringMatching(/ECONNREFUSED/) }),
+        }),
+      );
       expect(smtp.outbox.list()).toEqual([]);
 
       server.close = (await smtp.bringUp()).close;

@@ -4,11 +4,14 @@
 import type pg from 'pg';
 import { afterAll, beforeAll, describe, expect, it } from 'vitest';
 
+import { createDatabase } from '@/db';
 import type { ReadingRow } from '@/db/queries/readings';
 import { createAlarmEngine, evaluateZone, readZoneState } from '@/server/alarms';
+import { createAlarmQueue } from '@/server/alarms/queue';
 
 import { iso, MINUTE_MS, onlyAlarm, seriesStartMs } from '../support/alarms';
 import { makeTestApp, ownerWithSensor, type TestApp } from '../support/app';
+import { captureLogs } from '../support/logs';
 
 let t: TestApp;
 beforeAll(() => void (t = makeTestApp()));
@@ -75,8 +78,8 @@ describe('two instances stepping one zone', () => {
   it('waits for the zone’s state row and continues from what the other instance wrote', async () => {
     const o = await ownerWithSensor(t.app);
     const startMs = seriesStartMs();
-    const errors: unknown[] = [];
-    const engine = createAlarmEngine({ db: t.db, pool: t.pool, log: (err) => errors.push(err) });
+    const logs = captureLogs();
+    const engine = createAlarmEngine({ db: t.db, pool: t.pool, logger: logs.logger });
     await engine.judge(o, [{ ...wetRow(o, startMs), marginK: 6, level: 'dry' }]);
 
     // "The other instance" steps the zone through three wet readings (enough to confirm wet)
@@ -100,8 +103,56 @@ describe('two instances stepping one zone', () => {
 
     // This instance saw the confirmed wet level: its one wet reading keeps it wet, so it opens
     // the alarm. Had it read the row before the other committed, one reading confirms nothing.
-    expect(errors).toEqual([]);
+    expect(logs.lines()).toEqual([]);
     const wet = await onlyAlarm(o.agent, o.shopId, 'wet_surface');
     expect(wet.openedAt).toBe(iso(startMs + 4 * MINUTE_MS));
+  });
+});
+
+describe('a zone the engine cannot judge', () => {
+  it('logs the failure as the alarms component, with the zone and sensor, and does not throw', async () => {
+    const o = await ownerWithSensor(t.app);
+    // A pool that has been closed: every query fails, as when the database goes away mid-judge.
+    const closed = createDatabase(process.env.DATABASE_URL!, { max: 1 });
+    await closed.pool.end();
+    const logs = captureLogs();
+    const engine = createAlarmEngine({ ...closed, logger: logs.logger });
+
+    await expect(engine.judge(o, [wetRow(o, seriesStartMs())])).resolves.toBeUndefined();
+    expect(logs.lines()).toEqual([
+      expect.objectContaining({
+        level: 50,
+        component: 'alarms',
+        zoneId: o.zoneId,
+        sensorId: o.sensorId,
+        msg: 'alarm engine: judging a zone failed',
+        err: expect.objectContaining({ message: expect.any(String) }),
+      }),
+    ]);
+  });
+});
+
+describe('a zone that falls behind in the alarm queue', () => {
+  it('warns, as the alarms component, how many readings it skipped judging', async () => {
+    const o = await ownerWithSensor(t.app);
+    const logs = captureLogs();
+    const queue = createAlarmQueue(t.alarms, logs.logger, { maxRowsPerZone: 2, minIntervalMs: 0 });
+    const startMs = seriesStartMs();
+    // The first request's row is being judged; the next three wait, and only two are kept.
+    const first = queue.add(o, [wetRow(o, startMs)]);
+    const rest = queue.add(
+      o,
+      [1, 2, 3].map((i) => wetRow(o, startMs + i * MINUTE_MS)),
+    );
+    await Promise.all([first, rest]);
+    expect(logs.lines()).toEqual([
+      expect.objectContaining({
+        level: 40,
+        component: 'alarms',
+        zoneId: o.zoneId,
+        dropped: 1,
+        kept: 2,
+      }),
+    ]);
   });
 });

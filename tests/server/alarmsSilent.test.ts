@@ -23,6 +23,7 @@ import {
   withMargin,
 } from '../support/alarms';
 import { makeTestApp, ownerWithSensor, type TestApp } from '../support/app';
+import { captureLogs } from '../support/logs';
 
 let t: TestApp;
 beforeAll(() => void (t = makeTestApp()));
@@ -84,14 +85,18 @@ describe('the silent-sensor sweep', () => {
 
 describe('the sweep as a pg-boss job', () => {
   let boss: PgBoss;
+  const logs = captureLogs();
   beforeAll(async () => {
     // Cron off in this runner: a scheduled sweep would judge every test's sensors by the clock.
     boss = await startJobRunner({
       databaseUrl: process.env.DATABASE_URL!,
-      log: () => {},
+      logger: logs.logger,
       cron: false,
     });
-    await scheduleAlarmSweep(boss, t.alarms, { log: () => {}, pollingIntervalSeconds: 0.5 });
+    await scheduleAlarmSweep(boss, t.alarms, {
+      logger: logs.logger,
+      pollingIntervalSeconds: 0.5,
+    });
   });
   afterAll(() => boss?.stop({ graceful: false }));
 
@@ -115,5 +120,14 @@ describe('the sweep as a pg-boss job', () => {
       .toBe(1);
     const silent = await onlyAlarm(o.agent, o.shopId, 'sensor_silent');
     expect(silent).toMatchObject({ state: 'open', sinceAt: series[2]!.at });
+    // The job says what it did, as the job runner's component.
+    expect(logs.lines()).toContainEqual(
+      expect.objectContaining({
+        component: 'jobs',
+        shopId: o.shopId,
+        opened: 1,
+        msg: 'alarm sweep: sensor-silent alarms changed',
+      }),
+    );
   });
 });

@@ -13,6 +13,7 @@ import { LIVE_CHANNEL } from '@/db/queries/readings';
 import { createSessionSigner, SESSION_COOKIE, SESSION_TTL_S } from '@/server/auth/session';
 import { startLiveHub } from '@/server/live/hub';
 import { startNotificationListener } from '@/server/live/listener';
+import { silentLogger } from '@/server/logger';
 
 import { makeTestApp, ownerWithSensor, signUp, TEST_SECRET, type TestApp } from '../support/app';
 import { postIngest } from '../support/ingest';
@@ -34,7 +35,7 @@ beforeAll(async () => {
   t = makeTestApp();
   const url = new URL(process.env.DATABASE_URL!);
   url.searchParams.set('application_name', LISTENER_NAME);
-  listener = startNotificationListener(url.toString());
+  listener = startNotificationListener(url.toString(), silentLogger());
   hub = startLiveHub({
     listener,
     db: t.db,

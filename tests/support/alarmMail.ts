@@ -5,10 +5,12 @@ import type PgBoss from 'pg-boss';
 import { addMember } from '@/db/queries/memberships';
 import { deliverAlarmMail } from '@/server/alarms';
 import { createAlarmMailQueue, queueAlarmMails, startJobRunner } from '@/server/jobs';
+import { silentLogger } from '@/server/logger';
 import type { StoredMail } from '@/server/mail';
 
 import { MINUTE_MS, onlyAlarm, postEach, withMargin } from './alarms';
 import { makeTestApp, ownerWithSensor, signUp, TEST_PUBLIC_URL, type TestApp } from './app';
+import { captureLogs } from './logs';
 
 // Not the demo shop's name: the browser tests find the demo shop by its name in the same database.
 export const SHOP_NAME = 'Birch Lane Woodshop';
@@ -22,22 +24,22 @@ export const SHOP_TIME_ZONE = 'America/Chicago';
 export async function startMailTestApp(schema: string) {
   const boss: PgBoss = await startJobRunner({
     databaseUrl: process.env.DATABASE_URL!,
-    log: () => {},
+    logger: silentLogger(),
     cron: false,
     schema,
   });
   await createAlarmMailQueue(boss);
-  const queueLog: string[] = [];
+  const queueLogs = captureLogs();
   const t = makeTestApp({
     // Series post one request per reading, faster than a real sensor's limit.
     sensorRate: { ratePerS: 1000, burst: 1000 },
     // Retries in a second here, so the outage test does not wait for the real backoff.
     onAlarmsOpened: queueAlarmMails(boss, {
-      log: (m) => queueLog.push(m),
+      logger: queueLogs.logger,
       retry: { retryDelay: 1, retryBackoff: false, retryLimit: 30 },
     }),
   });
-  return { boss, t, queueLog };
+  return { boss, t, queueLogs };
 }
 
 /**

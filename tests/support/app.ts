@@ -14,6 +14,7 @@ import type { TrustProxy } from '@/server/config';
 import { startNotificationListener } from '@/server/live/listener';
 import { createMailer, createOutbox, startLocalSmtpServer } from '@/server/mail';
 import { DEFAULT_RATE_LIMITS, type RateLimitConfig } from '@/server/auth/rateLimits';
+import { silentLogger, type Logger } from '@/server/logger';
 import { createSurfaceEstimator } from '@/server/readings/surfaceEstimates';
 import { createReadingWriter } from '@/server/readings/writer';
 
@@ -43,6 +44,8 @@ export interface TestAppOptions {
   devOutbox?: boolean;
   /** The session cookie's Secure attribute (server/index.ts takes it from the config). */
   cookieSecure?: boolean;
+  /** Where the app logs (tests of the logs pass tests/support/logs.ts); silent by default. */
+  logger?: Logger;
 }
 
 /** Where links in test e-mail point; also a trusted origin of the test app. */
@@ -69,20 +72,25 @@ export const TEST_RATE_LIMITS: RateLimitConfig = {
 
 export function makeTestApp(options: TestAppOptions = {}) {
   const url = options.databaseUrl ?? process.env.DATABASE_URL!;
+  const logger = options.logger ?? silentLogger();
   const database = createDatabase(url, { max: 5 });
   const sessions = createSessionSigner(TEST_SECRET, options.cookieSecure ?? false, options.now);
   // A real SMTP server on a free loopback port; what it receives lands in `outbox`.
   const outbox = createOutbox();
-  const smtp = startLocalSmtpServer({ outbox });
+  const smtp = startLocalSmtpServer({ outbox, logger });
   const mailer = createMailer({
     from: 'Drybench <no-reply@drybench.example>',
     target: smtp.then((s) => ({ host: s.host, port: s.port, requireTls: false })),
   });
-  const listener = options.listen ? startNotificationListener(url) : undefined;
+  const listener = options.listen ? startNotificationListener(url, logger) : undefined;
   const tokens = createSensorTokenCache(database.db, { listener });
   const writer = createReadingWriter(database.pool);
   const estimator = createSurfaceEstimator(database.db);
-  const alarms = createAlarmEngine({ ...database, onOpened: options.onAlarmsOpened });
+  const alarms = createAlarmEngine({
+    ...database,
+    logger,
+    onOpened: options.onAlarmsOpened,
+  });
   const app = createApp({
     ...database,
     sessions,
@@ -103,7 +111,7 @@ export function makeTestApp(options: TestAppOptions = {}) {
     devOutbox: options.devOutbox ? outbox : undefined,
     rateLimits: options.rateLimits ?? TEST_RATE_LIMITS,
     now: options.now,
-    log: () => {},
+    logger,
   });
   return {
     app,
@@ -118,6 +126,7 @@ export function makeTestApp(options: TestAppOptions = {}) {
     mailer,
     outbox,
     smtp,
+    logger,
   };
 }
 
