@@ -1,8 +1,17 @@
 /** Server configuration, read from the environment once at start-up and validated. */
 import { z } from 'zod';
 
+import { DEFAULT_QUERY_TIMEOUT_MS, DEFAULT_STATEMENT_TIMEOUT_MS } from '@/db';
+
+import { DEFAULT_MAX_PENDING_ROWS } from './readings/writer';
+
 const envSchema = z.object({
   DATABASE_URL: z.string().regex(/^postgres(ql)?:\/\//, 'DATABASE_URL must be a postgres:// URL'),
+  // A slow database answers 503 after these instead of holding requests (see db/index.ts).
+  DB_STATEMENT_TIMEOUT_MS: z.coerce.number().int().min(100).default(DEFAULT_STATEMENT_TIMEOUT_MS),
+  DB_QUERY_TIMEOUT_MS: z.coerce.number().int().min(100).default(DEFAULT_QUERY_TIMEOUT_MS),
+  // Readings accepted but not yet committed, at most; past it ingest answers 503 busy.
+  INGEST_MAX_PENDING_ROWS: z.coerce.number().int().min(1000).default(DEFAULT_MAX_PENDING_ROWS),
   PORT: z.coerce.number().int().min(0).max(65535).default(8080),
   HOST: z.string().default('127.0.0.1'),
   // Signs session tokens; every instance behind one load balancer must share it.
@@ -30,6 +39,9 @@ const envSchema = z.object({
 
 export interface Config {
   databaseUrl: string;
+  statementTimeoutMs: number;
+  queryTimeoutMs: number;
+  ingestMaxPendingRows: number;
   port: number;
   host: string;
   sessionSecret: string;
@@ -55,6 +67,9 @@ export function readConfig(env: NodeJS.ProcessEnv = process.env): Config {
   const e = parsed.data;
   return {
     databaseUrl: e.DATABASE_URL,
+    statementTimeoutMs: e.DB_STATEMENT_TIMEOUT_MS,
+    queryTimeoutMs: e.DB_QUERY_TIMEOUT_MS,
+    ingestMaxPendingRows: e.INGEST_MAX_PENDING_ROWS,
     port: e.PORT,
     host: e.HOST,
     sessionSecret: e.SESSION_SECRET,
