@@ -59,6 +59,7 @@ export function ConfirmButton({
 
 const styles = StyleSheet.create({
   start: { alignSelf: 'flex-start' },
-  ask: { gap: space.sm },
+  // Full width: in a row of actions the question takes its own line and wraps.
+  ask: { gap: space.sm, width: '100%' },
   row: { flexDirection: 'row', flexWrap: 'wrap', gap: space.sm },
 });
