@@ -58,8 +58,18 @@ export interface Config {
   devOutbox: boolean;
 }
 
+// The server's statement_timeout should fire first: it cancels the statement on the database
+// too, where the client-side limit only stops waiting for it.
+const checkedEnvSchema = envSchema.refine(
+  (e) => e.DB_STATEMENT_TIMEOUT_MS < e.DB_QUERY_TIMEOUT_MS,
+  {
+    path: ['DB_QUERY_TIMEOUT_MS'],
+    message: 'DB_QUERY_TIMEOUT_MS must be longer than DB_STATEMENT_TIMEOUT_MS',
+  },
+);
+
 export function readConfig(env: NodeJS.ProcessEnv = process.env): Config {
-  const parsed = envSchema.safeParse(env);
+  const parsed = checkedEnvSchema.safeParse(env);
   if (!parsed.success) {
     const lines = parsed.error.issues.map((i) => `  ${i.path.join('.')}: ${i.message}`);
     throw new Error(`Invalid configuration:\n${lines.join('\n')}`);

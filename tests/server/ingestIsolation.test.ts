@@ -108,6 +108,34 @@ describe('a group statement that fails', () => {
     expect(await storedCount(bad.sensorId)).toBe(0);
   });
 
+  it('rejects the whole group, without retrying each request, when the database is away', async () => {
+    // Nothing listens on port 1: every connection is refused at once (ECONNREFUSED).
+    const away = new pg.Pool({
+      connectionString: 'postgres://postgres@127.0.0.1:1/none',
+      connectionTimeoutMillis: 500,
+    });
+    const real = away.query.bind(away) as (...args: unknown[]) => unknown;
+    let statements = 0;
+    (away as unknown as { query: (...args: unknown[]) => unknown }).query = (...args) => {
+      statements++;
+      return real(...args);
+    };
+    const o = await ownerWithSensor(t.app);
+    const writer = createReadingWriter(away);
+    const at = Date.now() - 60_000;
+    const results = await Promise.allSettled([
+      writer.write([row(o, new Date(at))], () => null),
+      writer.write([row(o, new Date(at + 1000))], () => null),
+    ]);
+    await writer.close();
+    await away.end();
+    for (const r of results) {
+      expect(r).toMatchObject({ status: 'rejected', reason: { code: 'ECONNREFUSED' } });
+    }
+    // A transient failure is not the data's fault: one attempt for the group, no retries.
+    expect(statements).toBe(1);
+  });
+
   it('keeps one shop posting year-1 readings from failing another shop: 20 of 20 stored', async () => {
     const attacker = await ownerWithSensor(t.app);
     const victim = await ownerWithSensor(t.app);
