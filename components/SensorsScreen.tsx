@@ -19,6 +19,7 @@ import { Panel } from './Panel';
 import {
   useSensorCreateMutation,
   useSensorMoveMutation,
+  useSensorRemoveMutation,
   useSensorRevokeMutation,
   useSensorRotateMutation,
   useSensorsQuery,
@@ -100,9 +101,10 @@ function SensorCard({ sensor, shop, zones, onToken }: SensorCardProps) {
   const rotate = useSensorRotateMutation(shop.id);
   const revoke = useSensorRevokeMutation(shop.id);
   const move = useSensorMoveMutation(shop.id);
+  const remove = useSensorRemoveMutation(shop.id);
   const [moving, setMoving] = useState(false);
-  const busy = rotate.isPending || revoke.isPending || move.isPending;
-  const error = rotate.error ?? revoke.error ?? move.error;
+  const busy = rotate.isPending || revoke.isPending || move.isPending || remove.isPending;
+  const error = rotate.error ?? revoke.error ?? move.error ?? remove.error;
   const revoked = sensor.revokedAt !== null;
 
   return (
@@ -159,6 +161,14 @@ function SensorCard({ sensor, shop, zones, onToken }: SensorCardProps) {
               testID="sensor-move"
             />
           ) : null}
+          <ConfirmButton
+            label={`Remove ${sensor.name}`}
+            confirmLabel={`Yes, remove ${sensor.name}`}
+            question={`Remove ${sensor.name} from the shop? Its token stops working at once; its readings stay in ${sensor.zoneName}'s history.`}
+            disabled={busy}
+            onConfirm={() => remove.mutate(sensor.id)}
+            testID="sensor-remove"
+          />
         </View>
       ) : null}
       {moving ? (

@@ -11,12 +11,32 @@ export interface Database {
   db: Db;
 }
 
-export function createDatabase(url: string, options: { max?: number } = {}): Database {
+/**
+ * The server's defaults. A statement past 10 s is a lock or an overloaded database: cancelling it
+ * frees the connection and lets the request answer 503 instead of hanging. The client-side limit
+ * is longer, so normally the server cancels first; it still ends a wait for an answer that never
+ * comes (a half-open connection), which no server-side limit can.
+ */
+export const DEFAULT_STATEMENT_TIMEOUT_MS = 10_000;
+export const DEFAULT_QUERY_TIMEOUT_MS = 15_000;
+
+export interface DatabaseOptions {
+  max?: number;
+  /** PostgreSQL's statement_timeout for every connection of the pool; none when omitted. */
+  statementTimeoutMs?: number;
+  /** node-postgres's query_timeout ("Query read timeout"); none when omitted. */
+  queryTimeoutMs?: number;
+}
+
+// Migrations and the seed script call this without timeouts: a long migration is not a fault.
+export function createDatabase(url: string, options: DatabaseOptions = {}): Database {
   const pool = new pg.Pool({
     connectionString: url,
     max: options.max ?? 10,
     // Fail fast when PostgreSQL is down, so requests answer 503 instead of hanging.
     connectionTimeoutMillis: 3000,
+    statement_timeout: options.statementTimeoutMs,
+    query_timeout: options.queryTimeoutMs,
   });
   // A client losing its connection (database restart) must not crash the process: idle ones
   // report on the pool, checked-out ones on themselves. The query in flight still rejects.

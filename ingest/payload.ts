@@ -11,6 +11,12 @@ import { fToC, type TemperatureUnit } from './units';
 
 /** Readings more than this far ahead of the server clock are refused: a sensor clock gone wrong. */
 export const MAX_FUTURE_MS = 5 * 60 * 1000;
+/**
+ * Readings dated before this are refused (the contract's lower bound, 2000-01-01T00:00:00Z): a
+ * sensor that lost its clock reports 1970 or year 1, and PostgreSQL cannot even store some such
+ * instants (timestamptz starts at 4713 BC), so they must never reach the group INSERT.
+ */
+export const MIN_TIME_MS = Date.UTC(2000, 0, 1);
 export const MAX_READINGS_PER_REQUEST = 1000;
 export const TEMPERATURE_MIN_C = -60;
 export const TEMPERATURE_MAX_C = 85;
@@ -106,6 +112,7 @@ function normalizeReading(
 
 export type RejectCode =
   | 'invalid_time'
+  | 'time_too_early'
   | 'time_in_future'
   | 'rh_out_of_range'
   | 'air_out_of_range'
@@ -124,6 +131,13 @@ const inRange = (v: number) => v >= TEMPERATURE_MIN_C && v <= TEMPERATURE_MAX_C;
 export function checkReading(r: SensorReading, nowMs: number): Rejection | null {
   if (!Number.isFinite(r.atMs)) {
     return { code: 'invalid_time', message: 'The time is not a real date.' };
+  }
+  if (r.atMs < MIN_TIME_MS) {
+    return {
+      code: 'time_too_early',
+      message:
+        'The time is before 2000-01-01T00:00:00Z; check the sensor clock (a clock that lost power often reads 1970).',
+    };
   }
   if (r.atMs > nowMs + MAX_FUTURE_MS) {
     return {

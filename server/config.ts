@@ -3,6 +3,10 @@ import net from 'node:net';
 
 import { z } from 'zod';
 
+import { DEFAULT_QUERY_TIMEOUT_MS, DEFAULT_STATEMENT_TIMEOUT_MS } from '@/db';
+
+import { DEFAULT_MAX_PENDING_ROWS } from './readings/writer';
+
 /** What Express's `trust proxy` setting receives: off, every hop, a hop count, or addresses. */
 export type TrustProxy = boolean | number | string[];
 
@@ -49,6 +53,11 @@ export type LogLevel = (typeof LOG_LEVELS)[number];
 
 const envSchema = z.object({
   DATABASE_URL: z.string().regex(/^postgres(ql)?:\/\//, 'DATABASE_URL must be a postgres:// URL'),
+  // A slow database answers 503 after these instead of holding requests (see db/index.ts).
+  DB_STATEMENT_TIMEOUT_MS: z.coerce.number().int().min(100).default(DEFAULT_STATEMENT_TIMEOUT_MS),
+  DB_QUERY_TIMEOUT_MS: z.coerce.number().int().min(100).default(DEFAULT_QUERY_TIMEOUT_MS),
+  // Readings accepted but not yet committed, at most; past it ingest answers 503 busy.
+  INGEST_MAX_PENDING_ROWS: z.coerce.number().int().min(1000).default(DEFAULT_MAX_PENDING_ROWS),
   PORT: z.coerce.number().int().min(0).max(65535).default(8080),
   // Loopback by default: reaching the server from other machines is a decision (README).
   HOST: z.string().min(1).default('127.0.0.1'),
@@ -84,6 +93,9 @@ const envSchema = z.object({
 
 export interface Config {
   databaseUrl: string;
+  statementTimeoutMs: number;
+  queryTimeoutMs: number;
+  ingestMaxPendingRows: number;
   port: number;
   host: string;
   /** NODE_ENV=production. */
@@ -133,10 +145,20 @@ export function devOutboxAllowed(c: { host: string; production: boolean }): bool
   return isLoopbackHost(c.host) && !c.production;
 }
 
+// The server's statement_timeout should fire first: it cancels the statement on the database
+// too, where the client-side limit only stops waiting for it.
+const checkedEnvSchema = envSchema.refine(
+  (e) => e.DB_STATEMENT_TIMEOUT_MS < e.DB_QUERY_TIMEOUT_MS,
+  {
+    path: ['DB_QUERY_TIMEOUT_MS'],
+    message: 'DB_QUERY_TIMEOUT_MS must be longer than DB_STATEMENT_TIMEOUT_MS',
+  },
+);
+
 export function readConfig(
   env: Readonly<Record<string, string | undefined>> = process.env,
 ): Config {
-  const parsed = envSchema.safeParse(env);
+  const parsed = checkedEnvSchema.safeParse(env);
   if (!parsed.success) {
     const lines = parsed.error.issues.map((i) => `  ${i.path.join('.')}: ${i.message}`);
     throw new Error(`Invalid configuration:\n${lines.join('\n')}`);
@@ -147,6 +169,9 @@ export function readConfig(
   const outboxAllowed = devOutboxAllowed({ host: e.HOST, production });
   return {
     databaseUrl: e.DATABASE_URL,
+    statementTimeoutMs: e.DB_STATEMENT_TIMEOUT_MS,
+    queryTimeoutMs: e.DB_QUERY_TIMEOUT_MS,
+    ingestMaxPendingRows: e.INGEST_MAX_PENDING_ROWS,
     port: e.PORT,
     host: e.HOST,
     production,

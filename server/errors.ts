@@ -21,16 +21,35 @@ export class ApiError extends Error {
   }
 }
 
+/** A 503 the caller should repeat after a pause; the answer carries `Retry-After`. */
+export class RetryLaterError extends ApiError {
+  constructor(
+    code: string,
+    message: string,
+    readonly retryAfterS: number,
+  ) {
+    super(503, code, message);
+  }
+}
+
 export function zodDetails(error: ZodError): ErrorDetail[] {
   return error.issues.map((issue) => ({ path: issue.path.join('.'), message: issue.message }));
 }
 
-// Error codes of node-postgres / PostgreSQL that mean "the database is not reachable now".
+// Error codes of node-postgres / PostgreSQL that mean "the database is not reachable now" or
+// "too slow now": each passes by itself, so the caller is told to retry (503), not that we broke.
 const UNAVAILABLE_CODES = new Set([
   'ECONNREFUSED',
   'ECONNRESET',
   'ETIMEDOUT',
   'EPIPE',
+  // The database's host name does not resolve or its network is down (DNS or routing blips).
+  'ENOTFOUND',
+  'EAI_AGAIN',
+  'EHOSTUNREACH',
+  'ENETUNREACH',
+  '53300', // too_many_connections
+  '57014', // query_canceled: our statement_timeout fired (a lock or an overloaded database)
   '57P01', // admin_shutdown
   '57P02', // crash_shutdown
   '57P03', // cannot_connect_now
@@ -39,13 +58,18 @@ const UNAVAILABLE_CODES = new Set([
   '08006',
 ]);
 
-function isDatabaseUnavailable(err: unknown): boolean {
+/**
+ * True when a database error is transient: the database is away, unreachable or too slow now
+ * (also node-postgres's own "Query read timeout" of the pool's query_timeout). Retrying the same
+ * statement later can succeed; nothing is wrong with the data.
+ */
+export function isDatabaseUnavailable(err: unknown): boolean {
   if (typeof err !== 'object' || err === null) return false;
   const e = err as { code?: unknown; message?: unknown; cause?: unknown };
   if (typeof e.code === 'string' && UNAVAILABLE_CODES.has(e.code)) return true;
   if (
     typeof e.message === 'string' &&
-    /timeout exceeded when trying to connect|Connection terminated|connection error and is not queryable|the database system is (starting up|shutting down)/i.test(
+    /timeout exceeded when trying to connect|Query read timeout|Connection terminated|connection error and is not queryable|the database system is (starting up|shutting down)/i.test(
       e.message,
     )
   ) {
@@ -120,6 +144,9 @@ export function errorHandler(): ErrorRequestHandler {
     const failedHere = apiError.status >= 500;
     if (failedHere) (res as { err?: unknown }).err = err;
     if (res.headersSent) return;
+    if (apiError instanceof RetryLaterError) {
+      res.setHeader('Retry-After', String(apiError.retryAfterS));
+    }
     const requestId = typeof req.id === 'string' ? req.id : undefined;
     const details =
       failedHere && requestId

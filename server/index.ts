@@ -35,11 +35,14 @@ async function main() {
   const config = readConfig();
   logger = createLogger({ level: config.logLevel, pretty });
   const log = logger.child({ component: 'server' });
-  const { pool, db } = createDatabase(config.databaseUrl);
+  const { pool, db } = createDatabase(config.databaseUrl, {
+    statementTimeoutMs: config.statementTimeoutMs,
+    queryTimeoutMs: config.queryTimeoutMs,
+  });
   const sessions = createSessionSigner(config.sessionSecret, config.cookieSecure);
   const listener = startNotificationListener(config.databaseUrl, logger);
   const tokens = createSensorTokenCache(db, { listener });
-  const writer = createReadingWriter(pool);
+  const writer = createReadingWriter(pool, { maxPendingRows: config.ingestMaxPendingRows });
   const estimator = createSurfaceEstimator(db);
   const mail = await startMail(config.mail, logger);
   // pg-boss first: the engine queues each opened alarm's e-mail as a job in its transaction.

@@ -10,6 +10,8 @@ interface ConfirmButtonProps {
   /** What will happen, asked before doing it: "Revoke Saw-top probe's token?" */
   question: string;
   onConfirm: () => void;
+  /** The confirming press; "Yes, <label in lower case>" unless given (a name keeps its case). */
+  confirmLabel?: string;
   disabled?: boolean;
   testID?: string;
 }
@@ -19,6 +21,7 @@ export function ConfirmButton({
   label,
   question,
   onConfirm,
+  confirmLabel,
   disabled,
   testID,
 }: ConfirmButtonProps) {
@@ -41,7 +44,7 @@ export function ConfirmButton({
       <Text style={type.body}>{question}</Text>
       <View style={styles.row}>
         <Button
-          label={`Yes, ${label.toLowerCase()}`}
+          label={confirmLabel ?? `Yes, ${label.toLowerCase()}`}
           onPress={() => {
             setAsking(false);
             onConfirm();
@@ -56,6 +59,7 @@ export function ConfirmButton({
 
 const styles = StyleSheet.create({
   start: { alignSelf: 'flex-start' },
-  ask: { gap: space.sm },
+  // Full width: in a row of actions the question takes its own line and wraps.
+  ask: { gap: space.sm, width: '100%' },
   row: { flexDirection: 'row', flexWrap: 'wrap', gap: space.sm },
 });

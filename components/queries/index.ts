@@ -67,6 +67,7 @@ export {
   sensorsQueryOptions,
   useSensorCreateMutation,
   useSensorMoveMutation,
+  useSensorRemoveMutation,
   useSensorRevokeMutation,
   useSensorRotateMutation,
   useSensorsQuery,

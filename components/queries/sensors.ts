@@ -1,4 +1,4 @@
-/** A shop's sensors: list (last seen, battery), create, rotate, revoke, move. */
+/** A shop's sensors: list (last seen, battery), create, rotate, revoke, move, remove. */
 import { queryOptions, useMutation, useQuery, useQueryClient } from '@tanstack/react-query';
 
 import { apiRequest } from './api';
@@ -74,6 +74,15 @@ export function useSensorRotateMutation(shopId: string) {
 export function useSensorRevokeMutation(shopId: string) {
   return useSensorMutation(shopId, (sensorId: string) =>
     apiRequest<void>(`${shopPath(shopId)}/sensors/${encodeURIComponent(sensorId)}/token`, {
+      method: 'DELETE',
+    }),
+  );
+}
+
+/** Removes a sensor from the shop; its readings stay in the zones' history. */
+export function useSensorRemoveMutation(shopId: string) {
+  return useSensorMutation(shopId, (sensorId: string) =>
+    apiRequest<void>(`${shopPath(shopId)}/sensors/${encodeURIComponent(sensorId)}`, {
       method: 'DELETE',
     }),
   );

@@ -39,18 +39,48 @@ export async function findActiveSensorByTokenHash(
     })
     .from(sensors)
     .innerJoin(zones, eq(zones.id, sensors.zoneId))
+    // A removed sensor is revoked too (removeSensor), so this one test covers both.
     .where(and(eq(sensors.tokenHash, tokenHash), isNull(sensors.revokedAt)));
   return row ?? null;
 }
+
+/** A sensor of this shop that has not been removed: removed ones exist only as history. */
+const ofShop = (shopId: string, sensorId: string) =>
+  and(eq(sensors.shopId, shopId), eq(sensors.id, sensorId), isNull(sensors.removedAt));
 
 /** Marks a sensor's token revoked; returns its hash so caches can drop it, or null. */
 export async function revokeSensorToken(db: Db, shopId: string, sensorId: string) {
   const [row] = await db
     .update(sensors)
     .set({ revokedAt: sql`now()` })
-    .where(and(eq(sensors.shopId, shopId), eq(sensors.id, sensorId)))
+    .where(ofShop(shopId, sensorId))
     .returning({ tokenHash: sensors.tokenHash });
   return row?.tokenHash ?? null;
+}
+
+/**
+ * Removes a sensor: it leaves the shop's list and its token stops working, but the row stays
+ * (marked removed and revoked). Readings reference sensors with ON DELETE CASCADE, so deleting
+ * the row would delete its readings — the zone's history, week figures and the evidence behind
+ * past alarms — when what an owner removes is a dead or retired device, not the past. Returns
+ * the token hash so caches drop it at once, or null when no such sensor is in the shop.
+ */
+export async function removeSensor(db: Db, shopId: string, sensorId: string) {
+  const [row] = await db
+    .update(sensors)
+    .set({ removedAt: sql`now()`, revokedAt: sql`coalesce(${sensors.revokedAt}, now())` })
+    .where(ofShop(shopId, sensorId))
+    .returning({ tokenHash: sensors.tokenHash });
+  return row?.tokenHash ?? null;
+}
+
+/** Token hashes of every sensor of a shop, removed ones included: what a shop's deletion ends. */
+export async function tokenHashesOfShop(db: Db, shopId: string): Promise<string[]> {
+  const rows = await db
+    .select({ tokenHash: sensors.tokenHash })
+    .from(sensors)
+    .where(eq(sensors.shopId, shopId));
+  return rows.map((r) => r.tokenHash);
 }
 
 /** A shop's sensors with where they sit and how they are doing; never the token hash. */
@@ -68,7 +98,7 @@ export async function listSensors(db: Db, shopId: string) {
     })
     .from(sensors)
     .innerJoin(zones, eq(zones.id, sensors.zoneId))
-    .where(eq(sensors.shopId, shopId))
+    .where(and(eq(sensors.shopId, shopId), isNull(sensors.removedAt)))
     .orderBy(zones.name, sensors.name);
 }
 
@@ -86,7 +116,7 @@ export async function rotateSensorToken(
     const [old] = await tx
       .select({ tokenHash: sensors.tokenHash })
       .from(sensors)
-      .where(and(eq(sensors.shopId, shopId), eq(sensors.id, sensorId)))
+      .where(ofShop(shopId, sensorId))
       .for('update');
     if (!old) return null;
     await tx.update(sensors).set({ tokenHash, revokedAt: null }).where(eq(sensors.id, sensorId));
@@ -110,7 +140,7 @@ export async function updateSensor(
   const [row] = await db
     .update(sensors)
     .set(changes)
-    .where(and(eq(sensors.shopId, shopId), eq(sensors.id, sensorId), zoneOk))
+    .where(and(ofShop(shopId, sensorId), zoneOk))
     .returning({
       id: sensors.id,
       name: sensors.name,

@@ -4,6 +4,7 @@ import type { Db } from '../index';
 import { memberships, shops } from '../schema';
 
 import { notifyAccessChanged } from './memberships';
+import { tokenHashesOfShop } from './sensors';
 import { transaction } from '../transaction';
 
 const shopColumns = { id: shops.id, name: shops.name, timeZone: shops.timeZone };
@@ -43,19 +44,24 @@ export async function updateShop(
 
 /**
  * Deletes a shop and, by cascade, its zones, sensors, readings, memberships and invitations;
- * its former members' live connections are told to drop it.
+ * its former members' live connections are told to drop it. Returns whether it existed and its
+ * sensors' token hashes, which the caller drops from every instance's token cache.
  */
-export async function deleteShop(db: Db, shopId: string): Promise<boolean> {
+export async function deleteShop(
+  db: Db,
+  shopId: string,
+): Promise<{ deleted: boolean; tokenHashes: string[] }> {
   return transaction(db, async (tx) => {
     const members = await tx
       .select({ userId: memberships.userId })
       .from(memberships)
       .where(eq(memberships.shopId, shopId));
+    const tokenHashes = await tokenHashesOfShop(tx, shopId);
     const deleted = await tx.delete(shops).where(eq(shops.id, shopId)).returning({ id: shops.id });
     await notifyAccessChanged(
       tx,
       members.map((m) => m.userId),
     );
-    return deleted.length > 0;
+    return { deleted: deleted.length > 0, tokenHashes };
   });
 }

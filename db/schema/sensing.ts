@@ -49,6 +49,9 @@ export const sensors = pgTable(
     // SHA-256 of the bearer token, hex. The token itself is shown once and never stored.
     tokenHash: text().notNull().unique(),
     revokedAt: timestamp({ withTimezone: true }),
+    // Removed by an owner: the row stays (revoked too) so its readings keep the zone's history
+    // and old alarms keep its name; lists and token lookups leave it out.
+    removedAt: timestamp({ withTimezone: true }),
     lastSeenAt: timestamp({ withTimezone: true }),
     batteryV: doublePrecision(),
     // How often the sensor posts, learnt from its readings (see insertReadingGroup).

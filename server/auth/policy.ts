@@ -56,6 +56,7 @@ export const POLICY: readonly PolicyRow[] = [
   { method: 'GET', path: '/shops/:shopId/sensors', access: 'viewer' },
   { method: 'POST', path: '/shops/:shopId/sensors', access: 'owner' },
   { method: 'PATCH', path: '/shops/:shopId/sensors/:sensorId', access: 'owner' },
+  { method: 'DELETE', path: '/shops/:shopId/sensors/:sensorId', access: 'owner' },
   { method: 'POST', path: '/shops/:shopId/sensors/:sensorId/token', access: 'owner' },
   { method: 'DELETE', path: '/shops/:shopId/sensors/:sensorId/token', access: 'owner' },
 

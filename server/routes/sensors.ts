@@ -1,7 +1,8 @@
 /**
  * A shop's sensors. Listing shows last seen and battery; creating and rotating answer the
  * token this once (it is stored only as a hash); revoking and moving drop the token from the
- * ingest cache at once so the change applies to the sensor's next post.
+ * ingest cache at once so the change applies to the sensor's next post. Removing takes the sensor
+ * off the list and refuses its token everywhere, but keeps its readings (db/queries/sensors.ts).
  */
 import { Router } from 'express';
 import { z } from 'zod';
@@ -10,6 +11,7 @@ import type { Db } from '@/db';
 import {
   insertSensor,
   listSensors,
+  removeSensor,
   revokeSensorToken,
   rotateSensorToken,
   updateSensor,
@@ -51,12 +53,16 @@ export function sensorsRouter(db: Db, tokens: SensorTokenCache): Router {
     const body = parseInput(createSensorBody, req.body);
     if (!(await findZone(db, shopId, body.zoneId))) throw unknownZone();
     const token = newSensorToken();
+    const tokenHash = hashToken(token);
     const sensor = await insertSensor(db, {
       shopId,
       zoneId: body.zoneId,
       name: body.name,
-      tokenHash: hashToken(token),
+      tokenHash,
     });
+    // A fresh random token is in no cache; this only matters should its hash have been tried
+    // (and remembered as unknown) before, so the new sensor's first post is never refused.
+    await tokens.invalidate(tokenHash);
     // The only time the token leaves the server: it is stored as a hash.
     res.status(201).json({ id: sensor.id, name: sensor.name, zoneId: sensor.zoneId, token });
   });
@@ -77,11 +83,12 @@ export function sensorsRouter(db: Db, tokens: SensorTokenCache): Router {
   router.post('/:sensorId/token', async (req, res) => {
     const sensorId = req.params.sensorId;
     const token = newSensorToken();
+    const tokenHash = hashToken(token);
     const rotated = isUuid(sensorId)
-      ? await rotateSensorToken(db, shopIdOf(res), sensorId, hashToken(token))
+      ? await rotateSensorToken(db, shopIdOf(res), sensorId, tokenHash)
       : null;
     if (!rotated) throw noSensor();
-    await tokens.invalidate(rotated.oldTokenHash);
+    await tokens.invalidate([rotated.oldTokenHash, tokenHash]);
     res.status(201).json({ id: sensorId, token });
   });
 
@@ -90,6 +97,14 @@ export function sensorsRouter(db: Db, tokens: SensorTokenCache): Router {
     const tokenHash = isUuid(sensorId)
       ? await revokeSensorToken(db, shopIdOf(res), sensorId)
       : null;
+    if (!tokenHash) throw noSensor();
+    await tokens.invalidate(tokenHash);
+    res.status(204).end();
+  });
+
+  router.delete('/:sensorId', async (req, res) => {
+    const sensorId = req.params.sensorId;
+    const tokenHash = isUuid(sensorId) ? await removeSensor(db, shopIdOf(res), sensorId) : null;
     if (!tokenHash) throw noSensor();
     await tokens.invalidate(tokenHash);
     res.status(204).end();

@@ -6,6 +6,7 @@ import type { Db } from '@/db';
 import { createShopWithOwner, deleteShop, findShop, updateShop } from '@/db/queries/shops';
 
 import { roleOf, shopIdOf, userIdOf } from '../auth/middleware';
+import type { SensorTokenCache } from '../auth/sensorTokens';
 import { ApiError } from '../errors';
 import { parseInput } from '../validate';
 
@@ -36,7 +37,7 @@ const deleteShopBody = z.object({ confirmName: z.string().max(200) });
 
 const gone = () => new ApiError(404, 'shop_not_found', 'No such shop among yours.');
 
-export function shopsRouter(db: Db): Router {
+export function shopsRouter(db: Db, tokens: SensorTokenCache): Router {
   const router = Router();
 
   router.post('/', async (req, res) => {
@@ -71,7 +72,10 @@ export function shopsRouter(db: Db): Router {
         [{ path: 'confirmName', message: `Type “${shop.name}”` }],
       );
     }
-    await deleteShop(db, shop.id);
+    const { tokenHashes } = await deleteShop(db, shop.id);
+    // The sensors are gone with the shop: their tokens must stop working on every instance now,
+    // not when each instance's cache entry expires.
+    await tokens.invalidate(tokenHashes);
     res.status(204).end();
   });
 

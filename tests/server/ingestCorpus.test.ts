@@ -169,6 +169,13 @@ function readingCases(): Case[] {
     rh: 50,
   });
   rejectedOne('epoch 1e20 seconds', { at: 1e20, air: 10, rh: 50 });
+  // Before 2000-01-01 (the contract's lower bound); PostgreSQL cannot even store some of these,
+  // and once one failed a whole group statement shared with other sensors.
+  rejectedOne('year 1 as ISO', { at: '0001-01-01T00:00:00Z', air: 10, rh: 50 });
+  rejectedOne('year 1 in epoch seconds', { at: -62167219200, air: 10, rh: 50 });
+  rejectedOne('epoch -1e20 seconds', { at: -1e20, air: 10, rh: 50 });
+  rejectedOne('one second before 2000', { at: 946684799, air: 10, rh: 50 });
+  rejectedOne('1999-12-31T23:59:59Z', { at: '1999-12-31T23:59:59Z', air: 10, rh: 50 });
   rejectedOne('impossible date', { at: '2026-02-30T25:61:00Z', air: 10, rh: 50 });
   return cases;
 }

@@ -108,6 +108,36 @@ describe('two instances on one database', () => {
     expect(status).toBe(401);
   });
 
+  /** Posts to instance B until it answers 401 or a second has passed since `sinceMs`. */
+  async function statusWithinOneSecond(post: () => Promise<{ status: number }>, sinceMs: number) {
+    let status = 0;
+    while (Date.now() - sinceMs < 1000) {
+      status = (await post()).status;
+      if (status === 401) break;
+      await new Promise((r) => setTimeout(r, 20));
+    }
+    return status;
+  }
+
+  it('refuses the tokens of a shop deleted on one instance on the other within 1 s', async () => {
+    const o = await ownerWithSensor(a.app.app);
+    const post = () => postIngest(b.baseUrl, o.token, { air: 18, rh: 50 });
+    expect((await post()).status).toBe(202);
+    await o.agent
+      .delete(`/api/v1/shops/${o.shopId}`)
+      .send({ confirmName: 'Test shop' })
+      .expect(204);
+    expect(await statusWithinOneSecond(post, Date.now())).toBe(401);
+  });
+
+  it('refuses the token of a sensor removed on one instance on the other within 1 s', async () => {
+    const o = await ownerWithSensor(a.app.app);
+    const post = () => postIngest(b.baseUrl, o.token, { air: 18, rh: 50 });
+    expect((await post()).status).toBe(202);
+    await o.agent.delete(`/api/v1/shops/${o.shopId}/sensors/${o.sensorId}`).expect(204);
+    expect(await statusWithinOneSecond(post, Date.now())).toBe(401);
+  });
+
   it('sends a reconnecting client, per zone, the newest reading it missed and how many', async () => {
     const o = await ownerWithSensor(a.app.app);
     const cookie = await sessionCookie(b.baseUrl, o.email, o.password);

@@ -74,6 +74,7 @@ const SAMPLES: Record<string, Sample> = {
     body: () => ({ name: 'Renamed probe' }),
     status: { default: 200 },
   },
+  'DELETE /shops/:shopId/sensors/:sensorId': { status: { default: 204 } },
   'POST /shops/:shopId/sensors/:sensorId/token': { status: { default: 201 } },
   'DELETE /shops/:shopId/sensors/:sensorId/token': { status: { default: 204 } },
   'GET /shops/:shopId/members': { status: { default: 200 } },

@@ -4,7 +4,7 @@ import { randomUUID } from 'node:crypto';
 
 import request from 'supertest';
 
-import { createDatabase } from '@/db';
+import { createDatabase, DEFAULT_QUERY_TIMEOUT_MS, DEFAULT_STATEMENT_TIMEOUT_MS } from '@/db';
 import { createAlarmEngine, type AlarmsOpenedHook } from '@/server/alarms';
 import { createApp } from '@/server/app';
 import type { AllowedHosts } from '@/server/auth/hosts';
@@ -16,7 +16,7 @@ import { createMailer, createOutbox, startLocalSmtpServer } from '@/server/mail'
 import { DEFAULT_RATE_LIMITS, type RateLimitConfig } from '@/server/auth/rateLimits';
 import { silentLogger, type Logger } from '@/server/logger';
 import { createSurfaceEstimator } from '@/server/readings/surfaceEstimates';
-import { createReadingWriter } from '@/server/readings/writer';
+import { createReadingWriter, type WriterOptions } from '@/server/readings/writer';
 
 export const TEST_SECRET = 'test-secret-that-is-at-least-32-characters-long';
 
@@ -46,6 +46,11 @@ export interface TestAppOptions {
   cookieSecure?: boolean;
   /** Where the app logs (tests of the logs pass tests/support/logs.ts); silent by default. */
   logger?: Logger;
+  /** The pool's statement_timeout and query_timeout; the server's defaults otherwise. */
+  statementTimeoutMs?: number;
+  queryTimeoutMs?: number;
+  /** The group writer's options (e.g. a small maxPendingRows to test back-pressure). */
+  writer?: Partial<WriterOptions>;
 }
 
 /** Where links in test e-mail point; also a trusted origin of the test app. */
@@ -73,7 +78,11 @@ export const TEST_RATE_LIMITS: RateLimitConfig = {
 export function makeTestApp(options: TestAppOptions = {}) {
   const url = options.databaseUrl ?? process.env.DATABASE_URL!;
   const logger = options.logger ?? silentLogger();
-  const database = createDatabase(url, { max: 5 });
+  const database = createDatabase(url, {
+    max: 5,
+    statementTimeoutMs: options.statementTimeoutMs ?? DEFAULT_STATEMENT_TIMEOUT_MS,
+    queryTimeoutMs: options.queryTimeoutMs ?? DEFAULT_QUERY_TIMEOUT_MS,
+  });
   const sessions = createSessionSigner(TEST_SECRET, options.cookieSecure ?? false, options.now);
   // A real SMTP server on a free loopback port; what it receives lands in `outbox`.
   const outbox = createOutbox();
@@ -84,7 +93,7 @@ export function makeTestApp(options: TestAppOptions = {}) {
   });
   const listener = options.listen ? startNotificationListener(url, logger) : undefined;
   const tokens = createSensorTokenCache(database.db, { listener });
-  const writer = createReadingWriter(database.pool);
+  const writer = createReadingWriter(database.pool, options.writer);
   const estimator = createSurfaceEstimator(database.db);
   const alarms = createAlarmEngine({
     ...database,
