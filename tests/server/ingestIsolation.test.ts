@@ -193,7 +193,12 @@ describe('a slow database', () => {
       for (const r of busy) {
         expect(r.headers['retry-after']).toMatch(/^\d+$/);
         expect(r.body).toMatchObject({
-          error: { code: 'busy', message: expect.stringMatching(/retry/), details: [] },
+          error: {
+            code: 'busy',
+            message: expect.stringMatching(/retry/),
+            // Every 5xx names its request, so an operator can find the log line.
+            details: [{ path: 'requestId', message: r.headers['x-request-id'] }],
+          },
         });
       }
       expect(await storedCount(o.sensorId)).toBe(3);
