@@ -73,7 +73,7 @@ async function someoneWaitsForTheRow() {
 
 describe('two instances stepping one zone', () => {
   it('waits for the zone’s state row and continues from what the other instance wrote', async () => {
-    const o = await ownerWithSensor(t.app);
+    const o = await ownerWithSensor(t);
     const startMs = seriesStartMs();
     const errors: unknown[] = [];
     const engine = createAlarmEngine({ db: t.db, pool: t.pool, log: (err) => errors.push(err) });

@@ -14,6 +14,9 @@ import { createMailer, createOutbox, startLocalSmtpServer } from '@/server/mail'
 import { DEFAULT_RATE_LIMITS, type RateLimitConfig } from '@/server/auth/rateLimits';
 import { createSurfaceEstimator } from '@/server/readings/surfaceEstimates';
 import { createReadingWriter } from '@/server/readings/writer';
+import { VERIFICATION_SUBJECT } from '@/server/mail';
+
+import { linkToken, waitForMail } from './mail';
 
 export const TEST_SECRET = 'test-secret-that-is-at-least-32-characters-long';
 
@@ -44,6 +47,8 @@ export const TEST_RATE_LIMITS: RateLimitConfig = {
   signInPerIp: 10_000,
   signUpPerIp: 10_000,
   resetPerIp: 10_000,
+  resetConfirmPerIp: 10_000,
+  verifyPerIp: 10_000,
   invitationsPerIp: 10_000,
 };
 
@@ -103,12 +108,21 @@ export function uniqueEmail(prefix = 'user'): string {
   return `${prefix}-${randomUUID().slice(0, 8)}@test.example`;
 }
 
-/** Signs up a new user and returns an agent that carries the session cookie. */
-export async function signUp(app: TestApp['app'], name = 'Test Person') {
-  const agent = request.agent(app);
+/**
+ * A new person as the app makes one: signs up, reads the verification mail from the test SMTP
+ * server and opens its link, which proves the address and signs in. Returns an agent carrying
+ * that session.
+ */
+export async function verifiedPerson(t: TestApp, name = 'Test Person') {
+  const agent = request.agent(t.app);
   const email = uniqueEmail();
   const password = 'correct horse battery';
-  const res = await agent.post('/api/v1/auth/sign-up').send({ email, password, name }).expect(201);
+  await agent.post('/api/v1/auth/sign-up').send({ email, password, name }).expect(202);
+  const mail = await waitForMail(t.outbox, email, { subject: VERIFICATION_SUBJECT });
+  const res = await agent
+    .post('/api/v1/auth/verify')
+    .send({ token: linkToken(mail, 'verify') })
+    .expect(200);
   return {
     agent,
     email,
@@ -118,8 +132,8 @@ export async function signUp(app: TestApp['app'], name = 'Test Person') {
 }
 
 /** A user who owns a shop with one zone and one sensor, all made through the API. */
-export async function ownerWithSensor(app: TestApp['app']) {
-  const owner = await signUp(app, 'Owner');
+export async function ownerWithSensor(t: TestApp) {
+  const owner = await verifiedPerson(t, 'Owner');
   const shop = (
     await owner.agent
       .post('/api/v1/shops')
