@@ -127,8 +127,8 @@ function VerificationPanel({ user }: { user: User }) {
       ) : (
         <>
           <Text style={type.body} testID="profile-email-unverified">
-            Not verified yet — alarm and report e-mails wait for it. Open the link we e-mailed you,
-            or ask for a new one.
+            Not verified yet — alarm and report e{'\u2011'}mails wait for it. Open the link we sent
+            you, or ask for a new one.
           </Text>
           <FormStatus
             message={

@@ -109,7 +109,7 @@ export function authRouter({
       throw new ApiError(
         400,
         'verification_link_invalid',
-        'This link was already used or has expired. If your address is not confirmed yet, sign in and send a new link from your profile.',
+        'This link was already used or has expired. If your address is not verified yet, sign in and send a new link from your profile.',
       );
     }
     await startSession(res, sessions, user.id, spent.sessionVersion);

@@ -194,6 +194,12 @@ describe('e-mail verification', () => {
     await waitForMail(t.outbox, email, { subject: VERIFY_SUBJECT });
     const agent = request.agent(t.app);
     await agent.post('/api/v1/auth/sign-in').send({ email, password: PASSWORD }).expect(200);
+    // The route takes no input: anything else is refused and sends nothing.
+    for (const body of [{ email: 'someone-else@test.example' }, ['x'], [{}]]) {
+      const bad = await agent.post('/api/v1/me/verification').send(body);
+      expect(bad.status, JSON.stringify(body)).toBe(400);
+      expect(bad.body.error.code).toBe('invalid_input');
+    }
     const sentBefore = t.outbox.list().filter((m) => m.to.includes(email)).length;
     const resent = await agent.post('/api/v1/me/verification').send({}).expect(202);
     expect(resent.body).toEqual({ status: 'verification_sent', email });
