@@ -2,7 +2,7 @@ import { useRouter } from 'expo-router';
 import { StyleSheet, Switch, Text, View } from 'react-native';
 import * as z from 'zod/mini';
 
-import { Button, Choice, Form, FormError, FormField, useApiForm } from './forms';
+import { Button, Choice, Form, FormError, FormField, FormStatus, useApiForm } from './forms';
 import { nameSchema, passwordChangeSchema } from './forms/schemas';
 import { Panel } from './Panel';
 import {
@@ -10,6 +10,7 @@ import {
   usePasswordChangeMutation,
   useProfileMutation,
   useSignOutMutation,
+  useVerificationResendMutation,
   type UnitPref,
   type User,
 } from './queries';
@@ -21,7 +22,10 @@ const UNIT_OPTIONS: readonly { value: UnitPref; label: string }[] = [
   { value: 'F', label: '°F' },
 ];
 
-/** The signed-in person: name, temperature units, alarm e-mails, password, signing out. */
+/**
+ * The signed-in person: name, whether the address is verified, temperature units, alarm
+ * e-mails, password, signing out.
+ */
 export function ProfileScreen({ shopId }: { shopId: string }) {
   const me = useMeQuery();
   return (
@@ -41,6 +45,7 @@ function ProfileBody({ user }: { user: User }) {
         Profile
       </Text>
       <NameForm user={user} />
+      <VerificationPanel user={user} />
       <Panel title="Units" hint="How temperatures, dew margins and limits are shown to you.">
         <Choice
           label="Temperatures in"
@@ -96,9 +101,52 @@ function AlarmMailPanel({ user }: { user: User }) {
         />
       </View>
       <Text style={type.small} role="status">
-        {user.alarmMail ? `On: alarm e-mails go to ${user.email}.` : 'Off: no alarm e-mails.'}
+        {!user.alarmMail
+          ? 'Off: no alarm e-mails.'
+          : user.emailVerified
+            ? `On: alarm e-mails go to ${user.email}.`
+            : `On: alarm e-mails go to ${user.email} once the address is verified.`}
       </Text>
       <FormError message={profile.error?.message} />
+    </Panel>
+  );
+}
+
+/**
+ * Whether the address is proved. Mail that matters (alarms, reports) waits for it, so an
+ * unverified person is told so and can ask for the link again.
+ */
+function VerificationPanel({ user }: { user: User }) {
+  const resend = useVerificationResendMutation();
+  return (
+    <Panel title="E-mail address" hint={user.email}>
+      {user.emailVerified ? (
+        <Text style={type.body} testID="profile-email-verified">
+          Address verified.
+        </Text>
+      ) : (
+        <>
+          <Text style={type.body} testID="profile-email-unverified">
+            Not verified yet — alarm and report e{'\u2011'}mails wait for it. Open the link we sent
+            you, or ask for a new one.
+          </Text>
+          <FormStatus
+            message={
+              resend.data
+                ? `Sent to ${resend.data.email}. The link works once, for 24\u00a0hours.`
+                : null
+            }
+          />
+          <FormError message={resend.error?.message} />
+          <Button
+            label={resend.isPending ? 'Sending…' : 'Send the link again'}
+            variant="quiet"
+            disabled={resend.isPending}
+            onPress={() => resend.mutate()}
+            testID="profile-verification-resend"
+          />
+        </>
+      )}
     </Panel>
   );
 }

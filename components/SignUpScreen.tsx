@@ -2,10 +2,10 @@ import { useRouter } from 'expo-router';
 import { StyleSheet, Text } from 'react-native';
 
 import { AuthLayout } from './AuthLayout';
-import { Form, FormError, FormField, SubmitButton, useApiForm } from './forms';
+import { Button, Form, FormError, FormField, SubmitButton, useApiForm } from './forms';
 import { signUpSchema } from './forms/schemas';
 import { useSignUpMutation } from './queries';
-import { space, type } from './theme';
+import { fonts, space, type } from './theme';
 import { useDocumentTitle } from './useDocumentTitle';
 
 interface SignUpValues {
@@ -14,10 +14,13 @@ interface SignUpValues {
   password: string;
 }
 
-/** A new account; then the front door, which offers to create a first shop. */
+/**
+ * A new account. Sign-up signs nobody in (its answer is the same for a taken address, so it
+ * cannot): the person is told to check their inbox, where the link confirms the address and
+ * signs them in.
+ */
 export function SignUpScreen() {
   useDocumentTitle('Create an account');
-  const router = useRouter();
   const signUp = useSignUpMutation();
   const { control, submit, sending, formError } = useApiForm<SignUpValues>({
     schema: signUpSchema,
@@ -25,10 +28,10 @@ export function SignUpScreen() {
     fields: ['name', 'email', 'password'],
     send: async (values) => {
       await signUp.mutateAsync({ ...values, email: values.email.trim() });
-      router.replace('/');
     },
   });
 
+  if (signUp.data) return <CheckInbox email={signUp.data.email} />;
   return (
     <AuthLayout
       title="Create an account"
@@ -78,4 +81,31 @@ export function SignUpScreen() {
   );
 }
 
-const styles = StyleSheet.create({ form: { gap: space.lg } });
+/** After sign-up: where the link went, what it does, and the way in without it. */
+function CheckInbox({ email }: { email: string }) {
+  useDocumentTitle('Check your inbox');
+  const router = useRouter();
+  return (
+    <AuthLayout title="Check your inbox">
+      <Text style={type.body} testID="check-inbox" role="status">
+        We sent an e-mail to <Text style={styles.email}>{email}</Text>. Open its link to confirm
+        your address: the link also signs you in. It works once, for 24{'\u00a0'}hours.
+      </Text>
+      <Text style={type.small}>
+        No mail after a few minutes? Look in the spam folder. You can also sign in with your
+        password now and send a new link from your profile.
+      </Text>
+      <Button
+        label="Sign in with your password"
+        variant="quiet"
+        onPress={() => router.replace('/sign-in')}
+        testID="check-inbox-sign-in"
+      />
+    </AuthLayout>
+  );
+}
+
+const styles = StyleSheet.create({
+  form: { gap: space.lg },
+  email: { fontFamily: fonts.bold },
+});

@@ -103,7 +103,7 @@ export function createApp(deps: AppDeps): express.Express {
   );
 
   const { db, sessions, tokens } = deps;
-  const limits = createRateLimits(deps.rateLimits ?? DEFAULT_RATE_LIMITS);
+  const limits = createRateLimits(deps.rateLimits ?? DEFAULT_RATE_LIMITS, now);
   const people = { ...deps, db, sessions, limits, now };
   const api = express.Router();
   // Every API route has a row in server/auth/policy.ts; this checks it before any router runs.
@@ -111,7 +111,7 @@ export function createApp(deps: AppDeps): express.Express {
   api.use(express.json({ limit: '100kb' }));
   api.use(healthRouter(deps.pool));
   api.use('/auth', authRouter(people));
-  api.use('/me', meRouter(db, sessions));
+  api.use('/me', meRouter(people));
   api.use('/shops', shopsRouter(db, tokens));
   api.use('/shops/:shopId/zones/:zoneId/readings', readingsRouter(db, now));
   api.use('/shops/:shopId/zones', zonesRouter(db, tokens));

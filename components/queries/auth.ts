@@ -1,4 +1,7 @@
-/** Accounts without a session: sign-in, sign-up, sign-out and password reset by e-mail. */
+/**
+ * Accounts without a session: sign-in, sign-up, e-mail verification, sign-out and password
+ * reset by e-mail.
+ */
 import { useMutation, useQueryClient, type QueryClient } from '@tanstack/react-query';
 
 import { apiRequest } from './api';
@@ -28,11 +31,26 @@ export function useSignInMutation() {
   });
 }
 
+/** What sign-up answers for a new address and a taken one alike: check the inbox. */
+export interface VerificationSent {
+  status: 'verification_sent';
+  email: string;
+}
+
+/** Sign-up starts no session: the link in the verification mail signs the person in. */
 export function useSignUpMutation() {
-  const queryClient = useQueryClient();
   return useMutation({
     mutationFn: (input: SignUpInput) =>
-      apiRequest<{ user: User }>('/api/v1/auth/sign-up', { method: 'POST', body: input }),
+      apiRequest<VerificationSent>('/api/v1/auth/sign-up', { method: 'POST', body: input }),
+  });
+}
+
+/** Opens a verification link: proves the address and starts a session. */
+export function useVerifyEmailMutation() {
+  const queryClient = useQueryClient();
+  return useMutation({
+    mutationFn: (input: { token: string }) =>
+      apiRequest<{ user: User }>('/api/v1/auth/verify', { method: 'POST', body: input }),
     onSuccess: () => startFreshSession(queryClient),
   });
 }

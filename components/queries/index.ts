@@ -14,8 +14,10 @@ export {
   useSignInMutation,
   useSignOutMutation,
   useSignUpMutation,
+  useVerifyEmailMutation,
   type SignInInput,
   type SignUpInput,
+  type VerificationSent,
 } from './auth';
 export { createQueryClient, shouldRetry } from './client';
 export {
@@ -32,6 +34,7 @@ export {
   usePasswordChangeMutation,
   useProfileMutation,
   useUnitPref,
+  useVerificationResendMutation,
   type Me,
   type Role,
   type ShopSummary,

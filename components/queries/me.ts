@@ -1,4 +1,7 @@
-/** The signed-in person and the shops they belong to: GET /api/v1/me, profile and password. */
+/**
+ * The signed-in person and the shops they belong to: GET /api/v1/me, profile, password and the
+ * verification link sent again.
+ */
 import { queryOptions, useMutation, useQuery, useQueryClient } from '@tanstack/react-query';
 
 import { apiRequest } from './api';
@@ -14,6 +17,8 @@ export interface User {
   unitPref: UnitPref;
   /** Whether alarm e-mails reach this person in shops where they are an owner or member. */
   alarmMail: boolean;
+  /** Whether the address is proved; alarm and report e-mails wait for it. */
+  emailVerified: boolean;
 }
 
 export interface ShopSummary {
@@ -62,6 +67,17 @@ export function useProfileMutation() {
       apiRequest<{ user: User }>('/api/v1/me', { method: 'PATCH', body: input }),
     onSuccess: ({ user }) =>
       queryClient.setQueryData<Me>(meKeys.all, (me) => (me ? { ...me, user } : me)),
+  });
+}
+
+/** Sends the verification link again (the first may be lost or expired). */
+export function useVerificationResendMutation() {
+  return useMutation({
+    mutationFn: () =>
+      apiRequest<{ status: 'verification_sent'; email: string }>('/api/v1/me/verification', {
+        method: 'POST',
+        body: {},
+      }),
   });
 }
 

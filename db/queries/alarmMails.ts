@@ -3,7 +3,7 @@
  * decided under a lock on the alarm's zone and kind so two instances cannot both pass the cap —
  * who has been sent it, the people who want it, and the alarm with the reading behind it.
  */
-import { and, desc, eq, gt, inArray, isNull, lt, lte, sql } from 'drizzle-orm';
+import { and, desc, eq, gt, inArray, isNotNull, isNull, lt, lte, sql } from 'drizzle-orm';
 import type pg from 'pg';
 
 import type { Db } from '../index';
@@ -149,7 +149,10 @@ export async function lockAlarmMail(tx: Tx, alarmId: string): Promise<AlarmMailR
   return row ?? null;
 }
 
-/** Owners and members of the shop who have alarm e-mails on; viewers only look. */
+/**
+ * Owners and members of the shop who have alarm e-mails on and a verified address; viewers only
+ * look, and an unproved address may be someone else's (a typo, or a sign-up in another's name).
+ */
 export function alarmMailRecipients(db: Db, shopId: string) {
   return db
     .select({
@@ -165,6 +168,7 @@ export function alarmMailRecipients(db: Db, shopId: string) {
         eq(memberships.shopId, shopId),
         inArray(memberships.role, ['owner', 'member']),
         eq(users.alarmMail, true),
+        isNotNull(users.emailVerifiedAt),
       ),
     )
     .orderBy(users.email);

@@ -10,6 +10,8 @@ export interface PublicUser {
   unitPref: TemperatureUnitPref;
   /** Whether alarm e-mails reach this person (as an owner or member of a shop). */
   alarmMail: boolean;
+  /** Whether the person proved the address (verification or invitation link); mail waits for it. */
+  emailVerified: boolean;
 }
 
 const publicColumns = {
@@ -18,6 +20,7 @@ const publicColumns = {
   name: users.name,
   unitPref: users.unitPref,
   alarmMail: users.alarmMail,
+  emailVerified: sql<boolean>`${users.emailVerifiedAt} is not null`,
 };
 
 export async function findUserByEmail(db: Db, email: string) {
@@ -39,10 +42,13 @@ export async function findUserSecrets(db: Db, id: string) {
   return row ?? null;
 }
 
-/** Inserts a user; null when the e-mail is taken (the unique index decides, not a pre-check). */
+/**
+ * Inserts a user; null when the e-mail is taken (the unique index decides, not a pre-check).
+ * `emailVerifiedAt` when the address is already proved (an accepted invitation link).
+ */
 export async function insertUser(
   db: Db,
-  input: { email: string; name: string; passwordHash: string },
+  input: { email: string; name: string; passwordHash: string; emailVerifiedAt?: Date },
 ): Promise<(PublicUser & { sessionVersion: number }) | null> {
   const [row] = await db
     .insert(users)
@@ -89,6 +95,30 @@ export async function bumpSessionVersion(db: Db, userId: string): Promise<number
     .where(eq(users.id, userId))
     .returning({ sessionVersion: users.sessionVersion });
   return row?.sessionVersion ?? null;
+}
+
+/**
+ * Stores a re-hash of the same password (new parameters) only if the hash is still the one
+ * that was checked, so a password change racing the sign-in is never undone. Sessions stay.
+ */
+export async function replacePasswordHash(
+  db: Db,
+  input: { userId: string; oldHash: string; newHash: string },
+): Promise<boolean> {
+  const rows = await db
+    .update(users)
+    .set({ passwordHash: input.newHash })
+    .where(and(eq(users.id, input.userId), eq(users.passwordHash, input.oldHash)))
+    .returning({ id: users.id });
+  return rows.length > 0;
+}
+
+/** Records that the person proved the address; an earlier proof keeps its time. */
+export async function markEmailVerified(db: Db, userId: string, at: Date): Promise<void> {
+  await db
+    .update(users)
+    .set({ emailVerifiedAt: sql`coalesce(${users.emailVerifiedAt}, ${at})` })
+    .where(eq(users.id, userId));
 }
 
 /** Sets a new password and ends every older session in the same statement. */

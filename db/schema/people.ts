@@ -1,4 +1,7 @@
-/** People and shops: accounts, shops, who may do what in each, invitations and resets. */
+/**
+ * People and shops: accounts, shops, who may do what in each, invitations, resets and e-mail
+ * verification links.
+ */
 import {
   boolean,
   index,
@@ -29,6 +32,9 @@ export const users = pgTable('users', {
   unitPref: temperatureUnitEnum().notNull().default('C'),
   // Alarm e-mails (server/alarms/mail.ts) go to owners and members unless they turn them off.
   alarmMail: boolean().notNull().default(true),
+  // When the person proved they read this address (a verification or invitation link); null
+  // until then. Alarm e-mails wait for it, so a mistyped address never gets a shop's alarms.
+  emailVerifiedAt: timestamp({ withTimezone: true }),
   createdAt: createdAt(),
 });
 
@@ -77,6 +83,22 @@ export const invitations = pgTable(
 /** A password-reset link: single use, short-lived, stored as a hash like sensor tokens. */
 export const passwordResets = pgTable(
   'password_resets',
+  {
+    id: uuid().primaryKey().defaultRandom(),
+    userId: uuid()
+      .notNull()
+      .references(() => users.id, { onDelete: 'cascade' }),
+    tokenHash: text().notNull().unique(),
+    expiresAt: timestamp({ withTimezone: true }).notNull(),
+    usedAt: timestamp({ withTimezone: true }),
+    createdAt: createdAt(),
+  },
+  (t) => [index().on(t.userId)],
+);
+
+/** A link proving an account's e-mail address: single use, 24 h, stored as a hash. */
+export const emailVerifications = pgTable(
+  'email_verifications',
   {
     id: uuid().primaryKey().defaultRandom(),
     userId: uuid()

@@ -46,17 +46,21 @@ async function call<T>(baseUrl: string, path: string, body: unknown, cookie?: st
   return { body: (await res.json()) as T, setCookies: res.headers.getSetCookie() };
 }
 
-/** Signs up a new owner; returns the session cookie (`name=value`). */
+/**
+ * Signs up a new owner, then signs in with the password (sign-up starts no session: its link
+ * comes by e-mail, and an unverified account may sign in); returns the cookie (`name=value`).
+ */
 async function signUp(baseUrl: string, name: string): Promise<string> {
-  const res = await call<{ user: { id: string } }>(baseUrl, '/auth/sign-up', {
+  const credentials = {
     email: `bench-${randomUUID()}@bench.example`,
     password: 'bench-password-1',
-    name,
-  });
+  };
+  await call(baseUrl, '/auth/sign-up', { ...credentials, name });
+  const res = await call<{ user: { id: string } }>(baseUrl, '/auth/sign-in', credentials);
   const session = res.setCookies
     .map((c) => c.split(';')[0]!)
     .find((c) => c.startsWith(`${SESSION_COOKIE}=`));
-  if (!session) throw new Error('sign-up set no session cookie');
+  if (!session) throw new Error('sign-in set no session cookie');
   return session;
 }
 

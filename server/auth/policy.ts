@@ -35,12 +35,15 @@ export const POLICY: readonly PolicyRow[] = [
   { method: 'POST', path: '/auth/sign-up', access: 'anyone' },
   { method: 'POST', path: '/auth/sign-in', access: 'anyone' },
   { method: 'POST', path: '/auth/sign-out', access: 'anyone' },
+  // The token in the link is the key; opening it signs its account in.
+  { method: 'POST', path: '/auth/verify', access: 'anyone' },
   { method: 'POST', path: '/auth/password-reset', access: 'anyone' },
   { method: 'POST', path: '/auth/password-reset/confirm', access: 'anyone' },
 
   { method: 'GET', path: '/me', access: 'user' },
   { method: 'PATCH', path: '/me', access: 'user' },
   { method: 'POST', path: '/me/password', access: 'user' },
+  { method: 'POST', path: '/me/verification', access: 'user' },
 
   { method: 'POST', path: '/shops', access: 'user' },
   { method: 'GET', path: '/shops/:shopId', access: 'viewer' },

@@ -3,5 +3,11 @@ export { createMailer, type Mailer, type MailMessage, type SmtpTarget } from './
 export { createOutbox, type Outbox, type StoredMail } from './outbox';
 export { outboxRouter } from './outboxPage';
 export { alarmMail, type AlarmMailInput } from './alarmMail';
-export { invitationMail, passwordResetMail } from './templates';
+export {
+  invitationMail,
+  passwordResetMail,
+  signUpAttemptMail,
+  verificationMail,
+  VERIFICATION_SUBJECT,
+} from './templates';
 export { startMail, type MailSetup } from './setup';

@@ -75,3 +75,73 @@ export function passwordResetMail(input: {
   );
   return { to: input.to, subject: 'Reset your Drybench password', text, html };
 }
+
+export const VERIFICATION_SUBJECT = 'Confirm your e-mail address for Drybench';
+
+export function verificationMail(input: {
+  to: string;
+  verifyUrl: string;
+  validHours: number;
+}): MailMessage {
+  const text = [
+    'Welcome to Drybench. Confirm that this is your address:',
+    '',
+    `Confirm and sign in: ${input.verifyUrl}`,
+    '',
+    'Alarm and report e-mails are sent only to confirmed addresses.',
+    `The link works once and for ${input.validHours} hours. If you did not create an account,`,
+    'ignore this message: nothing is sent to this address without it.',
+    '',
+    '— Drybench',
+  ].join('\n');
+  const html = page(
+    [
+      'Welcome to Drybench. Confirm that this is your address.',
+      'Alarm and report e-mails are sent only to confirmed addresses.',
+    ],
+    { href: input.verifyUrl, label: 'Confirm and sign in' },
+    [
+      `The link works once and for ${input.validHours} hours. If you did not create an account, ignore this message: nothing is sent to this address without it.`,
+    ],
+  );
+  return { to: input.to, subject: VERIFICATION_SUBJECT, text, html };
+}
+
+/**
+ * To the owner of an address someone tried to sign up with: the sign-up page answered as for a
+ * new address (it must not reveal who has an account), so the owner hears it here.
+ */
+export function signUpAttemptMail(input: {
+  to: string;
+  signInUrl: string;
+  resetUrl: string;
+}): MailMessage {
+  const text = [
+    'Someone tried to create a Drybench account with this address, which already has one.',
+    '',
+    'If it was you, sign in or reset your password:',
+    `Sign in: ${input.signInUrl}`,
+    `Reset your password: ${input.resetUrl}`,
+    '',
+    'If it was not you, ignore this message: your account and password are unchanged.',
+    '',
+    '— Drybench',
+  ].join('\n');
+  const html = page(
+    [
+      'Someone tried to create a Drybench account with this address, which already has one.',
+      'If it was you, sign in or reset your password.',
+    ],
+    { href: input.signInUrl, label: 'Sign in' },
+    [
+      `Forgot the password? <a href="${escapeHtml(input.resetUrl)}">Reset your password</a>.`,
+      'If it was not you, ignore this message: your account and password are unchanged.',
+    ],
+  );
+  return {
+    to: input.to,
+    subject: 'Someone tried to create a Drybench account with your address',
+    text,
+    html,
+  };
+}

@@ -1,23 +1,35 @@
 /**
- * Accounts without a session: sign-up, sign-in, sign-out and password reset by e-mail.
- * The reset link is single-use, expires after RESET_VALID_MINUTES and is stored as a hash.
+ * Accounts without a session: sign-up, e-mail verification, sign-in, sign-out and password
+ * reset by e-mail. Reset and verification links are single-use, expire and are stored as hashes.
+ *
+ * Neither sign-up nor sign-in tells whether an address has an account: sign-up answers the same
+ * 202 for both and mails the address instead, and sign-in spends the same scrypt work on an
+ * unknown address as on a wrong password before the same 401.
  */
 import { Router } from 'express';
 import { z } from 'zod';
 
 import type { Db } from '@/db';
-import { createPasswordReset, spendPasswordReset } from '@/db/queries/passwordResets';
-import { bumpSessionVersion, findUserByEmail, insertUser } from '@/db/queries/users';
+import { spendEmailVerification } from '@/db/queries/emailVerifications';
 import { notifyAccessChanged } from '@/db/queries/memberships';
+import { createPasswordReset, spendPasswordReset } from '@/db/queries/passwordResets';
+import {
+  bumpSessionVersion,
+  findUserByEmail,
+  findUserById,
+  insertUser,
+  replacePasswordHash,
+} from '@/db/queries/users';
 
+import { issueVerification } from '../auth/emailVerification';
 import { hashToken, newLinkToken } from '../auth/linkTokens';
 import { userIdOf } from '../auth/middleware';
-import { hashPassword, verifyPassword } from '../auth/password';
+import { dummyPasswordHash, hashPassword, isCurrentHash, verifyPassword } from '../auth/password';
 import type { RateLimits } from '../auth/rateLimits';
 import { SESSION_COOKIE, startSession, type SessionSigner } from '../auth/session';
 import { ApiError } from '../errors';
 import type { Logger } from '../logger';
-import { passwordResetMail, type Mailer } from '../mail';
+import { passwordResetMail, signUpAttemptMail, type Mailer } from '../mail';
 import { parseInput } from '../validate';
 
 import { emailField, newPasswordField, personNameField } from './fields';
@@ -35,6 +47,8 @@ const resetConfirmBody = z.object({
   token: z.string().min(10).max(200),
   password: newPasswordField,
 });
+const linkTokenField = z.string('Send the token from the link').min(10).max(200);
+const verifyBody = z.object({ token: linkTokenField });
 
 export interface AuthDeps {
   db: Db;
@@ -57,33 +71,76 @@ export function authRouter({
 }: AuthDeps): Router {
   const router = Router();
   const mailLog = logger.child({ component: 'mail' });
+  // Made now, so the first unknown address does not pay for it (and show in the timing).
+  void dummyPasswordHash();
 
-  router.post('/sign-up', limits.signUp, async (req, res) => {
+  // 202 and the same body whether or not the address has an account; no session either way
+  // (signing in would reveal it). A new account gets a verification link, an existing one a
+  // note that someone tried. Both hash the password, and mail goes out after the answer.
+  router.post('/sign-up', ...limits.signUp, async (req, res) => {
     const body = parseInput(signUpBody, req.body);
     const created = await insertUser(db, {
       email: body.email,
       name: body.name,
       passwordHash: await hashPassword(body.password),
     });
-    if (!created) {
-      throw new ApiError(
-        409,
-        'email_taken',
-        'An account with this e-mail already exists; sign in instead.',
-        [{ path: 'email', message: 'Already registered' }],
+    res.status(202).json({ status: 'verification_sent', email: body.email });
+    // After the answer, so its timing does not depend on which branch runs.
+    const mail = async () =>
+      created
+        ? issueVerification({ db, publicUrl, now }, created)
+        : signUpAttemptMail({
+            to: body.email,
+            signInUrl: `${publicUrl}/sign-in`,
+            resetUrl: `${publicUrl}/forgot-password`,
+          });
+    void mail()
+      .then((m) => mailer.send(m))
+      .catch((err: unknown) =>
+        mailLog.error({ err, reqId: req.id }, 'sign-up mail could not be sent'),
       );
-    }
-    const { sessionVersion, ...user } = created;
-    await startSession(res, sessions, user.id, sessionVersion);
-    res.status(201).json({ user });
   });
 
-  router.post('/sign-in', ...limits.signIn, async (req, res) => {
+  // The link proves the address and signs the person in, like accepting an invitation does.
+  router.post('/verify', limits.verify, async (req, res) => {
+    const body = parseInput(verifyBody, req.body ?? {});
+    const spent = await spendEmailVerification(db, {
+      tokenHash: hashToken(body.token),
+      now: new Date(now()),
+    });
+    const user = spent && (await findUserById(db, spent.userId));
+    if (!spent || !user) {
+      throw new ApiError(
+        400,
+        'verification_link_invalid',
+        'This link was already used or has expired. If your address is not verified yet, sign in and send a new link from your profile.',
+      );
+    }
+    await startSession(res, sessions, user.id, spent.sessionVersion);
+    res.json({ user });
+  });
+
+  router.post('/sign-in', ...limits.signIn, limits.signInBackoff.check, async (req, res) => {
     const body = parseInput(signInBody, req.body);
     const found = await findUserByEmail(db, body.email);
-    // One message for both cases, so the form does not reveal which e-mails have accounts.
-    if (!found || !(await verifyPassword(body.password, found.passwordHash))) {
+    // An unknown address is checked against a dummy hash: the same work, the same answer.
+    const matches = await verifyPassword(
+      body.password,
+      found?.passwordHash ?? (await dummyPasswordHash()),
+    );
+    if (!found || !matches) {
+      limits.signInBackoff.failed(body.email);
+      // One message for both cases, so the form does not reveal which e-mails have accounts.
       throw new ApiError(401, 'invalid_credentials', 'That e-mail and password do not match.');
+    }
+    limits.signInBackoff.succeeded(body.email);
+    if (!isCurrentHash(found.passwordHash)) {
+      // Older scrypt parameters: the password is at hand only now, so upgrade the hash now.
+      await replacePasswordHash(db, {
+        userId: found.id,
+        oldHash: found.passwordHash,
+        newHash: await hashPassword(body.password),
+      });
     }
     await startSession(res, sessions, found.id, found.sessionVersion);
     res.json({
@@ -93,6 +150,7 @@ export function authRouter({
         name: found.name,
         unitPref: found.unitPref,
         alarmMail: found.alarmMail,
+        emailVerified: found.emailVerifiedAt !== null,
       },
     });
   });
@@ -110,7 +168,7 @@ export function authRouter({
   });
 
   // Always 202, whether or not the address has an account: the answer reveals nothing.
-  router.post('/password-reset', limits.reset, async (req, res) => {
+  router.post('/password-reset', ...limits.reset, async (req, res) => {
     const body = parseInput(resetRequestBody, req.body);
     const user = await findUserByEmail(db, body.email);
     if (user) {
@@ -135,7 +193,7 @@ export function authRouter({
     res.status(202).json({ sent: true });
   });
 
-  router.post('/password-reset/confirm', limits.reset, async (req, res) => {
+  router.post('/password-reset/confirm', limits.resetConfirm, async (req, res) => {
     const body = parseInput(resetConfirmBody, req.body);
     const spent = await spendPasswordReset(db, {
       tokenHash: hashToken(body.token),

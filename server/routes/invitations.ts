@@ -1,7 +1,7 @@
 /**
  * Invitations: an owner invites an e-mail address with a role; the e-mailed link (the only
  * copy of the token) accepts once, for the account with that address — signed in already, or
- * created on the spot from the link.
+ * created on the spot from the link. Either way the address counts as verified from then on.
  */
 import { Router } from 'express';
 import { z } from 'zod';
@@ -15,7 +15,7 @@ import {
 } from '@/db/queries/invitations';
 import { listMembers } from '@/db/queries/memberships';
 import { findShop } from '@/db/queries/shops';
-import { findUserById, insertUser } from '@/db/queries/users';
+import { findUserById, insertUser, markEmailVerified } from '@/db/queries/users';
 
 import { hashToken, newLinkToken } from '../auth/linkTokens';
 import { isUuid, shopIdOf, userIdOf } from '../auth/middleware';
@@ -156,6 +156,7 @@ export function invitationsRouter(deps: InvitationDeps): Router {
         email: found.email,
         name: body.name,
         passwordHash: await hashPassword(body.password),
+        emailVerifiedAt: new Date(now()),
       });
       if (!created) throw linkGone();
       userId = created.id;
@@ -168,6 +169,8 @@ export function invitationsRouter(deps: InvitationDeps): Router {
       now: new Date(now()),
     });
     if (!accepted) throw linkGone();
+    // The link came by e-mail to this address: using it proves the address, as verification does.
+    await markEmailVerified(db, userId, new Date(now()));
     res
       .status(status)
       .json({ shop: { id: accepted.shopId, name: found.shopName }, role: accepted.role });

@@ -1,6 +1,6 @@
 /**
- * The signed-in person: GET /me (with their shops), profile changes (name, units, alarm e-mails)
- * and password change.
+ * The signed-in person: GET /me (with their shops and whether the address is verified), profile
+ * changes (name, units, alarm e-mails), password change and sending the verification link again.
  */
 import { Router } from 'express';
 import { z } from 'zod';
@@ -9,10 +9,13 @@ import type { Db } from '@/db';
 import { listShopsOfUser, notifyAccessChanged } from '@/db/queries/memberships';
 import { findUserById, findUserSecrets, setPassword, updateProfile } from '@/db/queries/users';
 
+import { issueVerification } from '../auth/emailVerification';
 import { userIdOf } from '../auth/middleware';
 import { hashPassword, verifyPassword } from '../auth/password';
+import type { RateLimits } from '../auth/rateLimits';
 import { startSession, type SessionSigner } from '../auth/session';
 import { ApiError } from '../errors';
+import type { Mailer } from '../mail';
 import { parseInput } from '../validate';
 
 import { newPasswordField, personNameField, unitPrefField } from './fields';
@@ -36,7 +39,18 @@ const passwordBody = z.object({
 
 const signedOut = () => new ApiError(401, 'not_signed_in', 'Sign in to continue.');
 
-export function meRouter(db: Db, sessions: SessionSigner): Router {
+const verificationBody = z.object({}).strict();
+
+export interface MeDeps {
+  db: Db;
+  sessions: SessionSigner;
+  mailer: Mailer;
+  limits: RateLimits;
+  publicUrl: string;
+  now: () => number;
+}
+
+export function meRouter({ db, sessions, mailer, limits, publicUrl, now }: MeDeps): Router {
   const router = Router();
 
   router.get('/', async (_req, res) => {
@@ -54,7 +68,7 @@ export function meRouter(db: Db, sessions: SessionSigner): Router {
   });
 
   // A new password ends every other session; this one continues with a fresh cookie.
-  router.post('/password', async (req, res) => {
+  router.post('/password', limits.passwordChange, async (req, res) => {
     const body = parseInput(passwordBody, req.body);
     const userId = userIdOf(res);
     const secrets = await findUserSecrets(db, userId);
@@ -69,6 +83,26 @@ export function meRouter(db: Db, sessions: SessionSigner): Router {
     await notifyAccessChanged(db, [userId]);
     await startSession(res, sessions, userId, version);
     res.status(204).end();
+  });
+
+  // The first link may be lost or expired; a new one does not end the older ones.
+  router.post('/verification', limits.verificationMail, async (req, res) => {
+    parseInput(verificationBody, req.body ?? {});
+    const user = await findUserById(db, userIdOf(res));
+    if (!user) throw signedOut();
+    if (user.emailVerified) {
+      throw new ApiError(409, 'already_verified', `${user.email} is already verified.`);
+    }
+    try {
+      await mailer.send(await issueVerification({ db, publicUrl, now }, user));
+    } catch {
+      throw new ApiError(
+        503,
+        'mail_unavailable',
+        'The e-mail could not be sent right now. Try again in a minute.',
+      );
+    }
+    res.status(202).json({ status: 'verification_sent', email: user.email });
   });
 
   return router;

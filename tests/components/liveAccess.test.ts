@@ -12,7 +12,14 @@ describe('an access message from the live hub', () => {
 
     const client = new QueryClient();
     const me: Me = {
-      user: { id: 'u', email: 'u@test.example', name: 'U', unitPref: 'C', alarmMail: true },
+      user: {
+        id: 'u',
+        email: 'u@test.example',
+        name: 'U',
+        unitPref: 'C',
+        alarmMail: true,
+        emailVerified: true,
+      },
       shops: [{ id: 'a', name: 'A', role: 'member', timeZone: 'UTC' }],
     };
     client.setQueryData(meKeys.all, me);

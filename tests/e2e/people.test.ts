@@ -1,4 +1,5 @@
-// A new person's path, in Debian's Chromium against the real server: sign up, create a shop,
+// A new person's path, in Debian's Chromium against the real server: sign up, open the
+// verification link from the server's outbox (which signs her in), create a shop,
 // add a zone and a sensor, copy the sensor's token from the page, post a reading with it from
 // this test (as the sensor would), and see the reading on the shop's overview — then switch
 // the profile to °F and see the same reading in Fahrenheit.
@@ -7,6 +8,8 @@ import { randomUUID } from 'node:crypto';
 import type { BrowserContext, Page } from 'playwright-core';
 import { afterAll, beforeAll, describe, expect, it } from 'vitest';
 
+import { VERIFICATION_SUBJECT } from '@/server/mail';
+
 import {
   postReading,
   SHOTS,
@@ -14,6 +17,7 @@ import {
   watchPage,
   type BrowserSuite,
 } from '../support/browser';
+import { linkToken, waitForMail } from '../support/mail';
 
 let suite: BrowserSuite;
 beforeAll(async () => {
@@ -52,7 +56,8 @@ describe('a new owner on a phone (390×844)', () => {
       .poll(() => page.getByTestId('sign-up-email-error').textContent())
       .toContain('e-mail');
     await page.getByTestId('sign-up-name').fill('Mira Planer');
-    await page.getByTestId('sign-up-email').fill(`mira-${randomUUID().slice(0, 8)}@cedar.example`);
+    const email = `mira-${randomUUID().slice(0, 8)}@cedar.example`;
+    await page.getByTestId('sign-up-email').fill(email);
     await page.getByTestId('sign-up-password').fill('short');
     await page.getByTestId('sign-up-submit').click();
     await expect
@@ -60,6 +65,19 @@ describe('a new owner on a phone (390×844)', () => {
       .toContain('at least 10');
     await page.getByTestId('sign-up-password').fill('cedar loft password');
     await page.getByTestId('sign-up-submit').click();
+
+    // No session yet: the page says where the link went; the link signs her in.
+    await expect.poll(() => page.getByTestId('check-inbox').textContent()).toContain(email);
+    await shot(page, 'check-inbox-phone');
+    const mail = await waitForMail(suite.server.app.outbox, email, {
+      subject: VERIFICATION_SUBJECT,
+    });
+    const token = linkToken(mail, 'verify');
+    // A spent or mistyped link says so plainly.
+    await page.goto(`${base}/verify?token=${token.slice(0, 20)}`);
+    await expect.poll(() => page.getByTestId('verify-error').textContent()).toContain('expired');
+    await shot(page, 'verify-error-phone');
+    await page.goto(`${base}/verify?token=${token}`);
 
     await page.getByTestId('create-shop').click();
     await page.waitForURL(/\/new-shop$/);
@@ -100,6 +118,7 @@ describe('a new owner on a phone (390×844)', () => {
 
     // Fahrenheit: 16.4 °C = 61.5 °F; 13.1 °C = 55.6 °F (°F = °C × 9/5 + 32).
     await page.getByTestId('nav-profile').click();
+    await page.getByTestId('profile-email-verified').waitFor();
     await page.getByRole('radio', { name: '°F' }).click();
     await expect
       .poll(() => page.getByRole('radio', { name: '°F' }).getAttribute('aria-checked'))

@@ -28,7 +28,7 @@ import {
   shopWithPeople,
   startMailTestApp,
 } from '../support/alarmMail';
-import { signUp, TEST_PUBLIC_URL, type TestApp } from '../support/app';
+import { verifiedPerson, TEST_PUBLIC_URL, type TestApp } from '../support/app';
 
 let boss: PgBoss;
 let t: TestApp;
@@ -45,7 +45,7 @@ const fDelta = (k: number) => ((k * 9) / 5).toFixed(1);
 
 describe('the alarm e-mail preference', () => {
   it('is on by default, turns off and on through PATCH /me, and refuses anything but a boolean', async () => {
-    const { agent } = await signUp(t.app, 'Someone');
+    const { agent } = await verifiedPerson(t, 'Someone');
     expect((await agent.get('/api/v1/me').expect(200)).body.user.alarmMail).toBe(true);
     const off = await agent.patch('/api/v1/me').send({ alarmMail: false }).expect(200);
     expect(off.body.user).toMatchObject({ alarmMail: false, unitPref: 'C' });
@@ -58,7 +58,7 @@ describe('the alarm e-mail preference', () => {
 });
 
 describe('an alarm opening', () => {
-  it('mails owners and members, not viewers nor those who turned it off, with the alarm’s numbers in each unit', async () => {
+  it('mails owners and members, not viewers, those who turned it off nor unverified addresses, with the alarm’s numbers in each unit', async () => {
     const p = await shopWithPeople(t);
     const startMs = seriesStartMs();
     const { posted, wet } = await openWetAlarm(t, p.owner, startMs);
@@ -71,6 +71,8 @@ describe('an alarm opening', () => {
     expect(report).toEqual({ outcome: 'sent', sent: 3 });
     expect(mailsTo(t, p.viewer.email)).toEqual([]);
     expect(mailsTo(t, p.quiet.email)).toEqual([]);
+    // Signed up, never opened the link: the address may not be theirs.
+    expect(mailsTo(t, p.unverified.email)).toEqual([]);
     const [toOwner] = mailsTo(t, p.owner.email);
     const [toMember] = mailsTo(t, p.member.email);
     const [toMemberF] = mailsTo(t, p.memberF.email);

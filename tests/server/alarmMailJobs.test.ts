@@ -135,9 +135,9 @@ describe('through pg-boss', () => {
       expect(smtp.outbox.list()).toEqual([]);
 
       server.close = (await smtp.bringUp()).close;
-      const mail = await waitForMail(smtp.outbox, p.owner.email, 15_000);
+      const mail = await waitForMail(smtp.outbox, p.owner.email, { timeoutMs: 15_000 });
       expect(mail.subject).toBe(`Machine room: wet, margin -0.5 °C — ${SHOP_NAME}`);
-      await waitForMail(smtp.outbox, p.memberF.email, 5_000);
+      await waitForMail(smtp.outbox, p.memberF.email, { timeoutMs: 5_000 });
       await expect
         .poll(async () => (await boss.getJobById(ALARM_MAIL_QUEUE, wet.id))?.state, {
           timeout: 10_000,

@@ -30,7 +30,7 @@ const WET_K = 1;
 
 describe('dew risk', () => {
   it('opens once with the expected minutes, updates as the margin falls, clears after recovery', async () => {
-    const o = await ownerWithSensor(t.app);
+    const o = await ownerWithSensor(t);
     const startMs = seriesStartMs();
     const stepMs = 2 * MINUTE_MS;
     // The margin falls 0.1 K per 2 min (0.05 K/min) from 6.05 K: a straight line, so the
@@ -76,7 +76,7 @@ describe('dew risk', () => {
   });
 
   it('opens once on margin noise around the caution limit and does not flap', async () => {
-    const o = await ownerWithSensor(t.app);
+    const o = await ownerWithSensor(t);
     const startMs = seriesStartMs();
     const dry = [5, 5, 5].map((m, i) => withMargin(startMs + i * 2 * MINUTE_MS, m));
     // ±0.2 K around the 3 K caution limit: the ±0.5 K of a typical probe, a flat trend.
@@ -92,7 +92,7 @@ describe('dew risk', () => {
 
 describe('wet surface', () => {
   it('opens on the third wet reading and clears past the wet limit + band', async () => {
-    const o = await ownerWithSensor(t.app);
+    const o = await ownerWithSensor(t);
     const startMs = seriesStartMs();
     const at = (i: number) => startMs + i * 2 * MINUTE_MS;
     // ingest/hysteresis.ts: a level is confirmed after 3 readings (rule of thumb of ours).
@@ -127,7 +127,7 @@ describe('wet surface', () => {
   });
 
   it('does not flap on noise around the wet limit, nor around the clearing threshold', async () => {
-    const o = await ownerWithSensor(t.app);
+    const o = await ownerWithSensor(t);
     const startMs = seriesStartMs();
     // 0.8 / 1.2 K around the 1 K wet limit, then 1.4 / 1.6 K around 1 K + 0.5 K band.
     const series = Array.from({ length: 60 }, (_, i) => {
@@ -145,7 +145,7 @@ describe('wet surface', () => {
 
 describe('humid air', () => {
   it('opens after RH has stayed above the zone limit for the hold and clears below limit − band', async () => {
-    const o = await ownerWithSensor(t.app);
+    const o = await ownerWithSensor(t);
     const startMs = seriesStartMs();
     const at = (min: number) => startMs + min * MINUTE_MS;
     // Surface 30 °C keeps the iron far from the dew point: only the air is humid.
@@ -185,7 +185,7 @@ describe('humid air', () => {
 
 describe('battery low', () => {
   it('opens below 2.7 V held 15 min and clears 0.1 V above after 15 min', async () => {
-    const o = await ownerWithSensor(t.app);
+    const o = await ownerWithSensor(t);
     const startMs = seriesStartMs();
     const at = (min: number) => startMs + min * MINUTE_MS;
     // 2.7 V for a 3 V lithium pair is a rule of thumb of the trade, as is the 0.1 V band.

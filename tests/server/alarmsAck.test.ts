@@ -14,28 +14,27 @@ import {
   seriesStartMs,
   withMargin,
 } from '../support/alarms';
-import { ownerWithSensor, signUp } from '../support/app';
+import { ownerWithSensor, verifiedPerson } from '../support/app';
 import { connectLive } from '../support/liveClient';
 import { startInstance } from '../support/liveServer';
 
 let server: Awaited<ReturnType<typeof startInstance>>;
 let o: Awaited<ReturnType<typeof ownerWithSensor>>;
-let member: Awaited<ReturnType<typeof signUp>>;
-let viewer: Awaited<ReturnType<typeof signUp>>;
+let member: Awaited<ReturnType<typeof verifiedPerson>>;
+let viewer: Awaited<ReturnType<typeof verifiedPerson>>;
 let wet: AlarmView;
 const startMs = seriesStartMs();
 
 beforeAll(async () => {
   server = await startInstance();
-  const app = server.app.app;
-  o = await ownerWithSensor(app);
-  member = await signUp(app, 'Mira Member');
-  viewer = await signUp(app, 'Vic Viewer');
+  o = await ownerWithSensor(server.app);
+  member = await verifiedPerson(server.app, 'Mira Member');
+  viewer = await verifiedPerson(server.app, 'Vic Viewer');
   await addMember(server.app.db, o.shopId, member.user.id, 'member');
   await addMember(server.app.db, o.shopId, viewer.user.id, 'viewer');
   // Three readings 0.5 K below the dew point confirm wet (ingest/hysteresis.ts: 3 readings).
   await postEach(
-    app,
+    server.app.app,
     o.token,
     [0, 1, 2].map((i) => withMargin(startMs + i * MINUTE_MS, -0.5)),
   );
@@ -58,7 +57,7 @@ describe('listing alarms', () => {
     const bad = await viewer.agent.get(`/api/v1/shops/${o.shopId}/alarms?state=closed`).expect(400);
     expect(bad.body.error).toMatchObject({ code: 'invalid_input' });
     expect(bad.body.error.details[0].path).toBe('state');
-    const stranger = await ownerWithSensor(server.app.app);
+    const stranger = await ownerWithSensor(server.app);
     await stranger.agent.get(`/api/v1/shops/${o.shopId}/alarms`).expect(404);
   });
 });
@@ -74,7 +73,7 @@ describe('acknowledging an alarm', () => {
   });
 
   it('answers 404 for another shop, an alarm of another shop and a malformed id', async () => {
-    const stranger = await ownerWithSensor(server.app.app);
+    const stranger = await ownerWithSensor(server.app);
     const body = { note: 'Not my shop' };
     await stranger.agent.post(ackPath(o.shopId, wet.id)).send(body).expect(404);
     const crossed = await stranger.agent

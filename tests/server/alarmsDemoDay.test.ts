@@ -31,7 +31,7 @@ function machineRoomDay(localMidnightMs: number) {
 
 describe('the demo day', () => {
   it('opens dew risk and wet surface in the morning sweat and clears both by noon', async () => {
-    const o = await ownerWithSensor(t.app);
+    const o = await ownerWithSensor(t);
     const dayMs = 24 * HOUR_MS;
     const localMidnightMs =
       Math.floor((Date.now() - 2 * dayMs) / dayMs) * dayMs - UTC_OFFSET_H * HOUR_MS;

@@ -76,7 +76,7 @@ async function someoneWaitsForTheRow() {
 
 describe('two instances stepping one zone', () => {
   it('waits for the zone’s state row and continues from what the other instance wrote', async () => {
-    const o = await ownerWithSensor(t.app);
+    const o = await ownerWithSensor(t);
     const startMs = seriesStartMs();
     const logs = captureLogs();
     const engine = createAlarmEngine({ db: t.db, pool: t.pool, logger: logs.logger });
@@ -111,7 +111,7 @@ describe('two instances stepping one zone', () => {
 
 describe('a zone the engine cannot judge', () => {
   it('logs the failure as the alarms component, with the zone and sensor, and does not throw', async () => {
-    const o = await ownerWithSensor(t.app);
+    const o = await ownerWithSensor(t);
     // A pool that has been closed: every query fails, as when the database goes away mid-judge.
     const closed = createDatabase(process.env.DATABASE_URL!, { max: 1 });
     await closed.pool.end();
@@ -134,7 +134,7 @@ describe('a zone the engine cannot judge', () => {
 
 describe('a zone that falls behind in the alarm queue', () => {
   it('warns, as the alarms component, how many readings it skipped judging', async () => {
-    const o = await ownerWithSensor(t.app);
+    const o = await ownerWithSensor(t);
     const logs = captureLogs();
     const queue = createAlarmQueue(t.alarms, logs.logger, { maxRowsPerZone: 2, minIntervalMs: 0 });
     const startMs = seriesStartMs();

@@ -34,7 +34,7 @@ const sweep = (shopId: string, nowMs: number) => t.alarms.sweepSilent({ nowMs, s
 
 describe('the silent-sensor sweep', () => {
   it('fires after 3 × the sensor’s own interval, once, and clears with its next reading', async () => {
-    const o = await ownerWithSensor(t.app);
+    const o = await ownerWithSensor(t);
     const startMs = seriesStartMs();
     // Every 2 min for 20 min: the median gap is 2 min, so silent after 3 × 2 = 6 min (ours).
     const series = Array.from({ length: 11 }, (_, i) => withMargin(startMs + i * 2 * MINUTE_MS, 6));
@@ -62,7 +62,7 @@ describe('the silent-sensor sweep', () => {
   });
 
   it('uses 5 min as the interval of a sensor with a single reading', async () => {
-    const o = await ownerWithSensor(t.app);
+    const o = await ownerWithSensor(t);
     const lastMs = seriesStartMs();
     await postBatch(t.app, o.token, [withMargin(lastMs, 6)]);
     const allowedMs = ALARM_RULES.silent.factor * ALARM_RULES.silent.defaultIntervalMs;
@@ -72,7 +72,7 @@ describe('the silent-sensor sweep', () => {
   });
 
   it('closes the silent alarm of a sensor whose token was revoked', async () => {
-    const o = await ownerWithSensor(t.app);
+    const o = await ownerWithSensor(t);
     const lastMs = seriesStartMs();
     await postBatch(t.app, o.token, [withMargin(lastMs, 6)]);
     await sweep(o.shopId, lastMs + 20 * MINUTE_MS);
@@ -107,7 +107,7 @@ describe('the sweep as a pg-boss job', () => {
     // Singleton: at most one sweep active at a time, whichever instance fetched it.
     expect(queue?.policy).toBe('singleton');
 
-    const o = await ownerWithSensor(t.app);
+    const o = await ownerWithSensor(t);
     // Last reading an hour ago on a 5-min interval: silent by the real clock.
     const series = [60, 55, 50].map((m) => withMargin(Date.now() - m * MINUTE_MS, 6));
     await postBatch(t.app, o.token, series);

@@ -47,7 +47,7 @@ interface Outcome {
 
 describe('a database outage under load', () => {
   it('answers 503 promptly while PostgreSQL is down and loses no acknowledged reading', async () => {
-    const o = await ownerWithSensor(instance.app.app);
+    const o = await ownerWithSensor(instance.app);
     const outcomes: Outcome[] = [];
     let atMs = Date.now() - 3_600_000;
     let running = true;

@@ -23,7 +23,7 @@ const validAts = new Set<string>();
 
 beforeAll(async () => {
   t = makeTestApp({ sensorRate: { ratePerS: 1e6, burst: 1e6 } });
-  const o = await ownerWithSensor(t.app);
+  const o = await ownerWithSensor(t);
   token = o.token;
   sensorId = o.sensorId;
   // Raw bytes over a real socket: a client library would re-encode what we mean to send.

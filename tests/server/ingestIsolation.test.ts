@@ -80,8 +80,8 @@ async function lockReadings() {
 
 describe('a group statement that fails', () => {
   it("fails only the request whose rows the database refused; the others' rows are stored", async () => {
-    const bad = await ownerWithSensor(t.app);
-    const good = await ownerWithSensor(t.app);
+    const bad = await ownerWithSensor(t);
+    const good = await ownerWithSensor(t);
     const writer = createReadingWriter(t.pool);
     const base = Date.now() - 3_600_000;
     // Before PostgreSQL's timestamptz range (4713 BC): the ingest checks would stop it, so it
@@ -120,7 +120,7 @@ describe('a group statement that fails', () => {
       statements++;
       return real(...args);
     };
-    const o = await ownerWithSensor(t.app);
+    const o = await ownerWithSensor(t);
     const writer = createReadingWriter(away);
     const at = Date.now() - 60_000;
     const results = await Promise.allSettled([
@@ -137,8 +137,8 @@ describe('a group statement that fails', () => {
   });
 
   it('keeps one shop posting year-1 readings from failing another shop: 20 of 20 stored', async () => {
-    const attacker = await ownerWithSensor(t.app);
-    const victim = await ownerWithSensor(t.app);
+    const attacker = await ownerWithSensor(t);
+    const victim = await ownerWithSensor(t);
     const base = Date.now() - 3_600_000;
     const rounds = await Promise.all(
       Array.from({ length: 20 }, (_, i) =>
@@ -167,7 +167,7 @@ describe('a group statement that fails', () => {
 describe('a slow database', () => {
   it('answers 503 busy with Retry-After past the writer bound, and stores what it accepted', async () => {
     const bounded = makeTestApp({ sensorRate: FAST, writer: { maxPendingRows: 3 } });
-    const o = await ownerWithSensor(bounded.app);
+    const o = await ownerWithSensor(bounded);
     const lock = await lockReadings();
     try {
       const base = Date.now() - 3_600_000;
@@ -213,7 +213,7 @@ describe('a slow database', () => {
     ['query_timeout (client side)', { statementTimeoutMs: 60_000, queryTimeoutMs: 300 }],
   ])('answers 503 storage_unavailable within a bound when %s fires', async (_name, timeouts) => {
     const slow = makeTestApp({ sensorRate: FAST, ...timeouts });
-    const o = await ownerWithSensor(slow.app);
+    const o = await ownerWithSensor(slow);
     const lock = await lockReadings();
     // Without a timeout the post would wait for the lock; it goes after 5 s whatever happens.
     const unlock = setTimeout(() => void lock.release(), 5000);

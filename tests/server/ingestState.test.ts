@@ -23,8 +23,8 @@ afterAll(async () => {
 describe('the per-sensor limit', () => {
   it('answers 429 with Retry-After once a sensor spends its burst, and only for that sensor', async () => {
     const t = app({ sensorRate: { ratePerS: 0.5, burst: 5 } });
-    const noisy = await ownerWithSensor(t.app);
-    const quiet = await ownerWithSensor(t.app);
+    const noisy = await ownerWithSensor(t);
+    const quiet = await ownerWithSensor(t);
     const post = (token: string) => postIngest(t.app, token, { air: 18, rh: 50 });
     const statuses: number[] = [];
     for (let i = 0; i < 6; i++) statuses.push((await post(noisy.token)).status);
@@ -40,7 +40,7 @@ describe('the per-sensor limit', () => {
 
 describe('the surface estimate across a restart', () => {
   it('continues the lag from stored readings in a fresh server', async () => {
-    const o = await ownerWithSensor(first.app);
+    const o = await ownerWithSensor(first);
     const hourMs = 3_600_000;
     const t0 = Date.now() - 3 * hourMs;
     const post = (t: TestApp, readings: object[]) =>
@@ -64,7 +64,7 @@ describe('the surface estimate across a restart', () => {
 describe('alarms off the ingest path', () => {
   it('answers 202 without waiting for the alarms, which follow from the queue', async () => {
     const t = app({ awaitAlarms: false });
-    const o = await ownerWithSensor(t.app);
+    const o = await ownerWithSensor(t);
     const start = Date.now() - 10 * 60_000;
     // Surface 2 K under the dew point of 20 °C / 50 % (9.3 °C): wet, four minutes running.
     const readings = [0, 1, 2, 3, 4].map((m) => ({
@@ -86,7 +86,7 @@ describe('alarms off the ingest path', () => {
 
 describe('an alarm cleared and opened again within one batch', () => {
   it('closes the old wet-surface alarm and opens a new one', async () => {
-    const o = await ownerWithSensor(first.app);
+    const o = await ownerWithSensor(first);
     const t0 = Date.now() - 60 * 60_000;
     // 20 °C / 50 % RH: dew point 9.3 °C. Surface 7.3 °C is wet (margin −2 K); 16 °C is dry.
     const at = (minute: number) => new Date(t0 + minute * 60_000).toISOString();

@@ -51,7 +51,7 @@ async function waitFor<T>(probe: () => T | undefined, timeoutMs: number): Promis
 
 describe('two instances on one database', () => {
   it('delivers a reading posted to one instance to a WebSocket client of the other', async () => {
-    const o = await ownerWithSensor(a.app.app);
+    const o = await ownerWithSensor(a.app);
     const cookie = await sessionCookie(b.baseUrl, o.email, o.password);
     expect(cookie).toMatch(/^drybench_session=/);
     const { ws, messages } = await openSocket(b.baseUrl, cookie);
@@ -74,8 +74,8 @@ describe('two instances on one database', () => {
   });
 
   it("never sends a client another shop's readings", async () => {
-    const mine = await ownerWithSensor(a.app.app);
-    const theirs = await ownerWithSensor(a.app.app);
+    const mine = await ownerWithSensor(a.app);
+    const theirs = await ownerWithSensor(a.app);
     const cookie = await sessionCookie(b.baseUrl, mine.email, mine.password);
     const { ws, messages } = await openSocket(b.baseUrl, cookie);
     try {
@@ -93,7 +93,7 @@ describe('two instances on one database', () => {
   });
 
   it('refuses a token revoked on one instance on the other within 1 s', async () => {
-    const o = await ownerWithSensor(a.app.app);
+    const o = await ownerWithSensor(a.app);
     const post = () => postIngest(b.baseUrl, o.token, { air: 18, rh: 50 });
     // Instance B now holds the token in its cache.
     expect((await post()).status).toBe(202);
@@ -120,7 +120,7 @@ describe('two instances on one database', () => {
   }
 
   it('refuses the tokens of a shop deleted on one instance on the other within 1 s', async () => {
-    const o = await ownerWithSensor(a.app.app);
+    const o = await ownerWithSensor(a.app);
     const post = () => postIngest(b.baseUrl, o.token, { air: 18, rh: 50 });
     expect((await post()).status).toBe(202);
     await o.agent
@@ -131,7 +131,7 @@ describe('two instances on one database', () => {
   });
 
   it('refuses the token of a sensor removed on one instance on the other within 1 s', async () => {
-    const o = await ownerWithSensor(a.app.app);
+    const o = await ownerWithSensor(a.app);
     const post = () => postIngest(b.baseUrl, o.token, { air: 18, rh: 50 });
     expect((await post()).status).toBe(202);
     await o.agent.delete(`/api/v1/shops/${o.shopId}/sensors/${o.sensorId}`).expect(204);
@@ -139,7 +139,7 @@ describe('two instances on one database', () => {
   });
 
   it('sends a reconnecting client, per zone, the newest reading it missed and how many', async () => {
-    const o = await ownerWithSensor(a.app.app);
+    const o = await ownerWithSensor(a.app);
     const cookie = await sessionCookie(b.baseUrl, o.email, o.password);
     const lastSeen = new Date(Date.now() - 10 * 60_000);
     const missed = [3, 2, 1].map((minutesAgo) => ({
@@ -168,7 +168,7 @@ describe('two instances on one database', () => {
   });
 
   it('tells about the new readings only when a batch repeats some', async () => {
-    const o = await ownerWithSensor(a.app.app);
+    const o = await ownerWithSensor(a.app);
     const cookie = await sessionCookie(b.baseUrl, o.email, o.password);
     const first = { at: new Date(Date.now() - 120_000).toISOString(), air: 14, rh: 60 };
     const second = { at: new Date(Date.now() - 60_000).toISOString(), air: 15, rh: 60 };

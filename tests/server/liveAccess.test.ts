@@ -9,7 +9,7 @@ import WebSocket from 'ws';
 
 import { startLiveHub } from '@/server/live/hub';
 
-import { makeTestApp, ownerWithSensor, signUp, type TestApp } from '../support/app';
+import { makeTestApp, ownerWithSensor, verifiedPerson, type TestApp } from '../support/app';
 import { postIngest } from '../support/ingest';
 import { linkToken, waitForMail } from '../support/mail';
 import { signInCookie } from '../support/sessionCookie';
@@ -72,8 +72,8 @@ async function until(check: () => boolean, timeoutMs = 2000) {
 
 describe('live hub access', () => {
   it('stops sending a shop to a member once removed', async () => {
-    const o = await ownerWithSensor(t.app);
-    const m = await signUp(t.app, 'Live Member');
+    const o = await ownerWithSensor(t);
+    const m = await verifiedPerson(t, 'Live Member');
     await o.agent
       .post(`/api/v1/shops/${o.shopId}/invitations`)
       .send({ email: m.email, role: 'member' })
@@ -97,7 +97,7 @@ describe('live hub access', () => {
   });
 
   it('closes the socket of a session that signed out', async () => {
-    const o = await ownerWithSensor(t.app);
+    const o = await ownerWithSensor(t);
     const cookie = await cookieOf(o);
     const socket = await open(cookie);
     await o.agent.post('/api/v1/auth/sign-out').expect(204);
@@ -106,7 +106,7 @@ describe('live hub access', () => {
   });
 
   it('refuses a socket opened from another site', async () => {
-    const o = await ownerWithSensor(t.app);
+    const o = await ownerWithSensor(t);
     await expect(open(await cookieOf(o), 'http://evil.example')).rejects.toThrow('refused 403');
   });
 });

@@ -15,7 +15,13 @@ import { startLiveHub } from '@/server/live/hub';
 import { startNotificationListener } from '@/server/live/listener';
 import { silentLogger } from '@/server/logger';
 
-import { makeTestApp, ownerWithSensor, signUp, TEST_SECRET, type TestApp } from '../support/app';
+import {
+  makeTestApp,
+  ownerWithSensor,
+  verifiedPerson,
+  TEST_SECRET,
+  type TestApp,
+} from '../support/app';
 import { postIngest } from '../support/ingest';
 import { linkToken, waitForMail } from '../support/mail';
 import { signInCookie } from '../support/sessionCookie';
@@ -97,8 +103,8 @@ const readings = (socket: Socket) => socket.messages.filter((m) => m.type === 'r
 
 /** An owner's shop with a second person in it as a member, through the invitation routes. */
 async function shopWithMember() {
-  const o = await ownerWithSensor(t.app);
-  const m = await signUp(t.app, 'Live Member');
+  const o = await ownerWithSensor(t);
+  const m = await verifiedPerson(t, 'Live Member');
   await o.agent
     .post(`/api/v1/shops/${o.shopId}/invitations`)
     .send({ email: m.email, role: 'member' })
@@ -110,7 +116,7 @@ async function shopWithMember() {
 
 describe('live hub limits', () => {
   it('closes a client that sends a frame over 4 KiB with 1009 and keeps serving others', async () => {
-    const o = await ownerWithSensor(t.app);
+    const o = await ownerWithSensor(t);
     const big = await open(await cookieOf(o));
     const other = await open(await cookieOf(o));
 
@@ -126,8 +132,8 @@ describe('live hub limits', () => {
   });
 
   it('refuses a person more than the cap of open sockets with 429, and frees a slot on close', async () => {
-    const a = await ownerWithSensor(t.app);
-    const b = await ownerWithSensor(t.app);
+    const a = await ownerWithSensor(t);
+    const b = await ownerWithSensor(t);
     const cookie = await cookieOf(a);
     const sockets: Socket[] = [];
     for (let i = 0; i < SOCKETS_PER_USER; i++) sockets.push(await open(cookie));
@@ -149,7 +155,7 @@ describe('live hub limits', () => {
   });
 
   it('drops a client that stops reading while a burst goes out; a reading client gets it all', async () => {
-    const o = await ownerWithSensor(t.app);
+    const o = await ownerWithSensor(t);
     const slow = await open(await cookieOf(o));
     const normal = await open(await cookieOf(o));
     // Stop reading: the kernel buffers fill, then the server's own send buffer grows.
@@ -179,7 +185,7 @@ describe('live hub limits', () => {
   });
 
   it('closes the socket with 4401 when its session token expires', async () => {
-    const o = await ownerWithSensor(t.app);
+    const o = await ownerWithSensor(t);
     const state = await t.pool.query<{ session_version: number }>(
       'select session_version from users where id = $1',
       [o.user.id],

@@ -90,7 +90,7 @@ describe('request lines', () => {
       '/api/v1/me',
     );
 
-    const o = await ownerWithSensor(t.app);
+    const o = await ownerWithSensor(t);
     keep(
       await postIngest(t.app, o.token, { air: 14.2, rh: 71, surface: 11.9 }).expect(202),
       'POST',
@@ -177,7 +177,7 @@ describe('request lines', () => {
   });
 
   it('keeps a safe X-Request-Id from the caller and replaces any other', async () => {
-    const o = await ownerWithSensor(t.app);
+    const o = await ownerWithSensor(t);
     const kept = await postIngest(t.app, o.token, { air: 14, rh: 60 })
       .set('x-request-id', 'sensor-7.retry_2')
       .expect(202);
@@ -200,7 +200,7 @@ describe('request lines', () => {
 
 describe('a 500', () => {
   it('names its request id in the body, the header and the log line with the error', async () => {
-    const o = await ownerWithSensor(t.app);
+    const o = await ownerWithSensor(t);
     // Storage that fails in a way we do not recognise (not an outage: that answers 503).
     const failingWriter: ReadingWriter = {
       write: () => Promise.reject(new Error('reading writer: disk quota exceeded')),

@@ -12,7 +12,7 @@ let t: TestApp;
 let o: Awaited<ReturnType<typeof ownerWithSensor>>;
 beforeAll(async () => {
   t = makeTestApp();
-  o = await ownerWithSensor(t.app);
+  o = await ownerWithSensor(t);
 });
 afterAll(() => t.pool.end());
 

@@ -220,7 +220,7 @@ describe('a server reached by a name it does not answer to', () => {
   });
 
   it('checks the sensor route by the same rule', async () => {
-    const o = await ownerWithSensor(baseUrl);
+    const o = await ownerWithSensor({ app: baseUrl, outbox: t.outbox });
     const reading = { air: 14.2, rh: 71, surface: 11.9 };
     const forged = await postIngest(baseUrl, o.token, reading).set('Host', 'evil.example');
     expect(forged.status).toBe(421);
@@ -250,7 +250,7 @@ describe('a server reached by a name it does not answer to', () => {
   }
 
   it('refuses the WebSocket upgrade for a forged Host and opens it for ours', async () => {
-    const o = await ownerWithSensor(baseUrl);
+    const o = await ownerWithSensor({ app: baseUrl, outbox: t.outbox });
     const cookie = await signInCookie(baseUrl, o);
     const forged = await upgrade('evil.example', cookie);
     expect(forged.status).toBe(421);

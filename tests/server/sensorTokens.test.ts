@@ -54,12 +54,12 @@ describe('unknown sensor tokens', () => {
   });
 
   it("lets a freshly created sensor's token work at once", async () => {
-    const o = await ownerWithSensor(t.app);
+    const o = await ownerWithSensor(t);
     await postIngest(t.app, o.token, { air: 12, rh: 60, surface: 10 }).expect(202);
   });
 
   it('forgets an unknown hash when a token with that hash is created (invalidate)', async () => {
-    const o = await ownerWithSensor(t.app);
+    const o = await ownerWithSensor(t);
     const tokens = createSensorTokenCache(t.db);
     const token = newSensorToken();
     expect(await tokens.resolve(token)).toBeNull();
@@ -107,7 +107,7 @@ describe('unknown sensor tokens', () => {
 
 describe('removing a sensor', () => {
   it('takes it off the list and refuses its token, but keeps its readings', async () => {
-    const o = await ownerWithSensor(t.app);
+    const o = await ownerWithSensor(t);
     const at = new Date(Date.now() - 60_000).toISOString();
     await postIngest(t.app, o.token, { at, air: 12, rh: 60, surface: 10 }).expect(202);
     const path = `/api/v1/shops/${o.shopId}/sensors/${o.sensorId}`;
@@ -130,7 +130,7 @@ describe('removing a sensor', () => {
   });
 
   it('answers 404 for an id that is not a sensor of the shop', async () => {
-    const o = await ownerWithSensor(t.app);
+    const o = await ownerWithSensor(t);
     await o.agent.delete(`/api/v1/shops/${o.shopId}/sensors/not-a-uuid`).expect(404);
     await o.agent
       .delete(`/api/v1/shops/${o.shopId}/sensors/00000000-0000-4000-8000-000000000000`)

@@ -8,7 +8,7 @@ import { afterAll, beforeAll, describe, expect, it } from 'vitest';
 import { readConfig } from '@/server/config';
 import { SESSION_ABSOLUTE_S, SESSION_COOKIE } from '@/server/auth/session';
 
-import { makeTestApp, signUp, TEST_SECRET, type TestApp } from '../support/app';
+import { makeTestApp, verifiedPerson, TEST_SECRET, type TestApp } from '../support/app';
 import { sessionCookieOf } from '../support/sessionCookie';
 
 const DAY_MS = 24 * 3_600_000;
@@ -29,7 +29,7 @@ const maxAgeSOf = (setCookie: string) => Number(/Max-Age=(\d+)/.exec(setCookie)?
 
 describe('the absolute session lifetime', () => {
   it('ends a session renewed every 3.5+ days at 30 days after the sign-in', async () => {
-    const { email, password } = await signUp(t.app);
+    const { email, password } = await verifiedPerson(t);
     const signedInMs = nowMs;
     const endMs = signedInMs + SESSION_ABSOLUTE_S * 1000;
     try {
@@ -60,7 +60,7 @@ describe('the absolute session lifetime', () => {
   });
 
   it('refuses a token renewed yesterday whose sign-in is 31 days old', async () => {
-    const { user } = await signUp(t.app);
+    const { user } = await verifiedPerson(t);
     const nowS = Math.floor(nowMs / 1000);
     // What an uncapped renewal would have issued: fresh iat and exp, the old sign-in time.
     const token = await new SignJWT({ sv: 0, auth_time: nowS - 31 * 86_400 })
@@ -79,7 +79,7 @@ describe('the absolute session lifetime', () => {
   });
 
   it('keeps an idle session unrenewed past 7 days as signed out, not expired', async () => {
-    const { email, password } = await signUp(t.app);
+    const { email, password } = await verifiedPerson(t);
     const startMs = nowMs;
     try {
       const cookie = sessionCookieOf(
@@ -106,7 +106,7 @@ describe('the Secure cookie attribute', () => {
     const config = readConfig({ ...env, ...vars });
     const local = makeTestApp({ cookieSecure: config.cookieSecure });
     try {
-      const { email, password } = await signUp(local.app);
+      const { email, password } = await verifiedPerson(local);
       const res = await request(local.app)
         .post('/api/v1/auth/sign-in')
         .send({ email, password })

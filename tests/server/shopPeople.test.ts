@@ -3,7 +3,13 @@
 import request from 'supertest';
 import { afterAll, beforeAll, describe, expect, it } from 'vitest';
 
-import { makeTestApp, ownerWithSensor, signUp, uniqueEmail, type TestApp } from '../support/app';
+import {
+  makeTestApp,
+  ownerWithSensor,
+  verifiedPerson,
+  uniqueEmail,
+  type TestApp,
+} from '../support/app';
 import { postIngest } from '../support/ingest';
 import { linkToken, waitForMail } from '../support/mail';
 
@@ -23,7 +29,7 @@ async function invite(owner: Agent, shopId: string, email: string, role: string)
 
 describe('invitations through the SMTP server', () => {
   it('mails a link in plain text and HTML that makes a new account a member, once', async () => {
-    const o = await ownerWithSensor(t.app);
+    const o = await ownerWithSensor(t);
     const email = uniqueEmail('invitee');
     await o.agent
       .post(`/api/v1/shops/${o.shopId}/invitations`)
@@ -67,9 +73,9 @@ describe('invitations through the SMTP server', () => {
   });
 
   it('lets an existing account accept only when signed in as that account', async () => {
-    const o = await ownerWithSensor(t.app);
-    const invitee = await signUp(t.app, 'Existing Person');
-    const other = await signUp(t.app, 'Someone Else');
+    const o = await ownerWithSensor(t);
+    const invitee = await verifiedPerson(t, 'Existing Person');
+    const other = await verifiedPerson(t, 'Someone Else');
     const token = await invite(o.agent, o.shopId, invitee.email, 'viewer');
 
     const peek = await request(t.app).get(`/api/v1/invitations/${token}`).expect(200);
@@ -89,7 +95,7 @@ describe('invitations through the SMTP server', () => {
   });
 
   it('refuses to invite a member again, and withdraws an invitation', async () => {
-    const o = await ownerWithSensor(t.app);
+    const o = await ownerWithSensor(t);
     const taken = await o.agent
       .post(`/api/v1/shops/${o.shopId}/invitations`)
       .send({ email: o.email, role: 'viewer' })
@@ -105,7 +111,7 @@ describe('invitations through the SMTP server', () => {
   it('takes the invitation back and answers 503 when the mail server is down', async () => {
     const local = makeTestApp();
     try {
-      const o = await ownerWithSensor(local.app);
+      const o = await ownerWithSensor(local);
       await (await local.smtp).close();
       const res = await o.agent
         .post(`/api/v1/shops/${o.shopId}/invitations`)
@@ -122,8 +128,8 @@ describe('invitations through the SMTP server', () => {
 
 describe('members', () => {
   async function shopWithMember() {
-    const o = await ownerWithSensor(t.app);
-    const m = await signUp(t.app, 'Member Person');
+    const o = await ownerWithSensor(t);
+    const m = await verifiedPerson(t, 'Member Person');
     const token = await invite(o.agent, o.shopId, m.email, 'member');
     await m.agent.post(`/api/v1/invitations/${token}/accept`).expect(200);
     return { o, m };
@@ -175,7 +181,7 @@ describe('members', () => {
 
 describe('shops', () => {
   it('renames, changes the time zone, and deletes only with the exact name', async () => {
-    const o = await ownerWithSensor(t.app);
+    const o = await ownerWithSensor(t);
     const renamed = await o.agent
       .patch(`/api/v1/shops/${o.shopId}`)
       .send({ name: 'Birch Barn', timeZone: 'America/Denver' })
@@ -205,7 +211,7 @@ describe('shops', () => {
 
 describe('zones and sensors', () => {
   it('sets zone limits (wet below caution) and ingest uses them', async () => {
-    const o = await ownerWithSensor(t.app);
+    const o = await ownerWithSensor(t);
     const zonePath = `/api/v1/shops/${o.shopId}/zones/${o.zoneId}`;
     const bad = await o.agent.patch(zonePath).send({ wetK: 3 }).expect(400);
     expect(bad.body.error.details).toEqual([{ path: 'wetK', message: expect.any(String) }]);
@@ -227,7 +233,7 @@ describe('zones and sensors', () => {
   });
 
   it('lists sensors with last seen and battery, rotates, revokes and moves them', async () => {
-    const o = await ownerWithSensor(t.app);
+    const o = await ownerWithSensor(t);
     const base = `/api/v1/shops/${o.shopId}/sensors`;
     await postIngest(t.app, o.token, { air: 18, rh: 60, battery: 2.91 }).expect(202);
     const listed = await o.agent.get(base).expect(200);
@@ -246,7 +252,7 @@ describe('zones and sensors', () => {
       .post(`/api/v1/shops/${o.shopId}/zones`)
       .send({ name: 'Lumber rack' })
       .expect(201);
-    const elsewhere = await ownerWithSensor(t.app);
+    const elsewhere = await ownerWithSensor(t);
     await o.agent.patch(`${base}/${o.sensorId}`).send({ zoneId: elsewhere.zoneId }).expect(400);
     await o.agent.patch(`${base}/${o.sensorId}`).send({ zoneId: rack.body.id }).expect(200);
     await post(rotated.body.token).expect(202);

@@ -33,8 +33,10 @@ const SAMPLES: Record<string, Sample> = {
   'GET /health': { status: { default: 200 } },
   'POST /auth/sign-up': {
     body: () => ({ email: fresh(), password: 'long enough pass', name: 'New' }),
-    status: { default: 201 },
+    status: { default: 202 },
   },
+  // A well-formed token of no link: refused, whoever asks.
+  'POST /auth/verify': { body: () => ({ token: 'v'.repeat(43) }), status: { default: 400 } },
   'POST /auth/sign-in': {
     body: () => ({ email: fresh(), password: 'wrong password' }),
     status: { default: 401 },
@@ -47,6 +49,8 @@ const SAMPLES: Record<string, Sample> = {
   },
   'GET /me': { status: { default: 200 } },
   'PATCH /me': { body: () => ({ unitPref: 'F' }), status: { default: 200 } },
+  // The matrix's people were never verified, so each may ask for a link.
+  'POST /me/verification': { body: () => ({}), status: { default: 202 } },
   'POST /me/password': {
     body: () => ({ currentPassword: 'not it at all', newPassword: 'another long one' }),
     status: { default: 400 },

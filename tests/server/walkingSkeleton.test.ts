@@ -4,7 +4,7 @@ import psychrolib from 'psychrolib';
 import request from 'supertest';
 import { afterAll, beforeAll, describe, expect, it } from 'vitest';
 
-import { makeTestApp, ownerWithSensor, signUp, type TestApp } from '../support/app';
+import { makeTestApp, ownerWithSensor, verifiedPerson, type TestApp } from '../support/app';
 import { postIngest } from '../support/ingest';
 
 let t: TestApp;
@@ -30,7 +30,7 @@ describe('health', () => {
 
 describe('people', () => {
   it('signs up, reads /me, signs out and signs in again', async () => {
-    const { agent, email, password, user } = await signUp(t.app, 'Ada Planer');
+    const { agent, email, password, user } = await verifiedPerson(t, 'Ada Planer');
     const me = await agent.get('/api/v1/me').expect(200);
     expect(me.body).toEqual({ user, shops: [] });
 
@@ -46,7 +46,7 @@ describe('people', () => {
   });
 
   it('refuses a wrong password with the same message as an unknown e-mail', async () => {
-    const { email } = await signUp(t.app);
+    const { email } = await verifiedPerson(t);
     const wrong = await request(t.app)
       .post('/api/v1/auth/sign-in')
       .send({ email, password: 'not the password' })
@@ -59,17 +59,20 @@ describe('people', () => {
     expect(wrong.body.error.message).toBe(unknown.body.error.message);
   });
 
-  it('refuses a second account on the same e-mail with 409', async () => {
-    const { email } = await signUp(t.app);
+  it('makes no second account on the same e-mail, and says so only to the address', async () => {
+    const { email, password } = await verifiedPerson(t);
     const res = await request(t.app)
       .post('/api/v1/auth/sign-up')
       .send({ email, password: 'another long one', name: 'Twin' })
-      .expect(409);
-    expect(res.body.error.code).toBe('email_taken');
+      .expect(202);
+    expect(res.body).toEqual({ status: 'verification_sent', email });
+    await request(t.app).post('/api/v1/auth/sign-in').send({ email, password }).expect(200);
+    const count = await t.pool.query('select count(*)::int n from users where email = $1', [email]);
+    expect(count.rows[0].n).toBe(1);
   });
 
   it('lists the new shop with the creator as owner and rejects an unknown time zone', async () => {
-    const { agent } = await signUp(t.app);
+    const { agent } = await verifiedPerson(t);
     const shop = await agent
       .post('/api/v1/shops')
       .send({ name: 'Birch Barn', timeZone: 'America/Denver' })
@@ -91,7 +94,7 @@ describe('people', () => {
 
 describe('ingest', () => {
   it('stores a reading and returns the derived values', async () => {
-    const o = await ownerWithSensor(t.app);
+    const o = await ownerWithSensor(t);
     const at = new Date(Date.now() - 60_000).toISOString();
     const res = await postIngest(t.app, o.token, {
       readings: [{ at, air: 20, rh: 50, surface: 12, battery: 3.01 }],
@@ -113,7 +116,7 @@ describe('ingest', () => {
   });
 
   it('accepts a single reading in °F with epoch seconds, and counts a retry as a duplicate', async () => {
-    const o = await ownerWithSensor(t.app);
+    const o = await ownerWithSensor(t);
     const atS = Math.floor(Date.now() / 1000) - 120;
     const body = { unit: 'F', at: atS, air: 68, rh: 50, surface: 53.6 };
     const first = await postIngest(t.app, o.token, body).expect(202);
@@ -125,7 +128,7 @@ describe('ingest', () => {
   });
 
   it('rejects out-of-range readings one by one and stores the rest', async () => {
-    const o = await ownerWithSensor(t.app);
+    const o = await ownerWithSensor(t);
     const base = Date.now() - 10 * 60_000;
     const res = await postIngest(t.app, o.token, {
       readings: [
@@ -149,7 +152,7 @@ describe('ingest', () => {
   });
 
   it('estimates the surface of a sensor without a probe as a first-order lag of the air', async () => {
-    const o = await ownerWithSensor(t.app);
+    const o = await ownerWithSensor(t);
     const hourMs = 3_600_000;
     const t0 = Date.now() - 4 * hourMs;
     const post = (readings: object[]) => postIngest(t.app, o.token, { readings }).expect(202);
@@ -178,7 +181,7 @@ describe('ingest', () => {
   });
 
   it('answers 400 in the error shape to malformed JSON and to wrong types', async () => {
-    const o = await ownerWithSensor(t.app);
+    const o = await ownerWithSensor(t);
     const broken = await request(t.app)
       .post('/api/v1/ingest')
       .set('authorization', `Bearer ${o.token}`)
@@ -196,7 +199,7 @@ describe('ingest', () => {
   });
 
   it('refuses a revoked token', async () => {
-    const o = await ownerWithSensor(t.app);
+    const o = await ownerWithSensor(t);
     await postIngest(t.app, o.token, { air: 20, rh: 50 }).expect(202);
     await o.agent.delete(`/api/v1/shops/${o.shopId}/sensors/${o.sensorId}/token`).expect(204);
     await postIngest(t.app, o.token, { air: 20, rh: 50 }).expect(401);
@@ -205,7 +208,7 @@ describe('ingest', () => {
 
 describe('readings query', () => {
   it('returns what was posted, oldest first, with the zone list showing the newest', async () => {
-    const o = await ownerWithSensor(t.app);
+    const o = await ownerWithSensor(t);
     const start = Date.now() - 30 * 60_000;
     const readings = [0, 1, 2].map((i) => ({
       at: new Date(start + i * 60_000).toISOString(),
@@ -235,7 +238,7 @@ describe('readings query', () => {
   });
 
   it('downsamples into buckets that keep the lowest margin', async () => {
-    const o = await ownerWithSensor(t.app);
+    const o = await ownerWithSensor(t);
     const start = Date.now() - 100 * 60_000;
     // 100 one-minute readings; one dip of the surface to 5 °C must survive the downsampling.
     const readings = Array.from({ length: 100 }, (_, i) => ({
@@ -263,8 +266,8 @@ describe('readings query', () => {
   });
 
   it('hides another shop: 404 for a stranger, 401 without a session', async () => {
-    const o = await ownerWithSensor(t.app);
-    const stranger = await signUp(t.app, 'Stranger');
+    const o = await ownerWithSensor(t);
+    const stranger = await verifiedPerson(t, 'Stranger');
     const res = await stranger.agent
       .get(`/api/v1/shops/${o.shopId}/zones/${o.zoneId}/readings`)
       .expect(404);

@@ -3,13 +3,21 @@
 import type PgBoss from 'pg-boss';
 
 import { addMember } from '@/db/queries/memberships';
+import { insertUser } from '@/db/queries/users';
 import { deliverAlarmMail } from '@/server/alarms';
 import { createAlarmMailQueue, queueAlarmMails, startJobRunner } from '@/server/jobs';
 import { silentLogger } from '@/server/logger';
-import type { StoredMail } from '@/server/mail';
+import { VERIFICATION_SUBJECT, type StoredMail } from '@/server/mail';
 
 import { MINUTE_MS, onlyAlarm, postEach, withMargin } from './alarms';
-import { makeTestApp, ownerWithSensor, signUp, TEST_PUBLIC_URL, type TestApp } from './app';
+import {
+  makeTestApp,
+  ownerWithSensor,
+  TEST_PUBLIC_URL,
+  uniqueEmail,
+  verifiedPerson,
+  type TestApp,
+} from './app';
 import { captureLogs } from './logs';
 
 // Not the demo shop's name: the browser tests find the demo shop by its name in the same database.
@@ -44,26 +52,36 @@ export async function startMailTestApp(schema: string) {
 
 /**
  * A shop (renamed, in Chicago time) with its owner and a sensor, a member in °C, a member in °F,
- * a member who turned alarm mail off and a viewer — the last two set through the API.
+ * a member who turned alarm mail off and a viewer — the last two set through the API — and a
+ * member who never verified the address.
  */
 export async function shopWithPeople(t: TestApp) {
-  const owner = await ownerWithSensor(t.app);
+  const owner = await ownerWithSensor(t);
   await owner.agent
     .patch(`/api/v1/shops/${owner.shopId}`)
     .send({ name: SHOP_NAME, timeZone: SHOP_TIME_ZONE })
     .expect(200);
-  const member = await signUp(t.app, 'Member C');
-  const memberF = await signUp(t.app, 'Member F');
+  const member = await verifiedPerson(t, 'Member C');
+  const memberF = await verifiedPerson(t, 'Member F');
   await memberF.agent.patch('/api/v1/me').send({ unitPref: 'F' }).expect(200);
-  const quiet = await signUp(t.app, 'Member Off');
+  const quiet = await verifiedPerson(t, 'Member Off');
   const off = await quiet.agent.patch('/api/v1/me').send({ alarmMail: false }).expect(200);
   if (off.body.user.alarmMail !== false) throw new Error('alarm mail did not turn off');
-  const viewer = await signUp(t.app, 'Viewer');
+  const viewer = await verifiedPerson(t, 'Viewer');
+  // Made in the database as sign-up makes it (no verified time), without another scrypt hash.
+  const unverified = { email: uniqueEmail('unverified') };
+  const unverifiedUser = await insertUser(t.db, {
+    email: unverified.email,
+    name: 'Unverified',
+    passwordHash: 'scrypt$unusable',
+  });
+  if (!unverifiedUser) throw new Error('insert made no account');
   await addMember(t.db, owner.shopId, member.user.id, 'member');
   await addMember(t.db, owner.shopId, memberF.user.id, 'member');
   await addMember(t.db, owner.shopId, quiet.user.id, 'member');
   await addMember(t.db, owner.shopId, viewer.user.id, 'viewer');
-  return { owner, member, memberF, quiet, viewer };
+  await addMember(t.db, owner.shopId, unverifiedUser.id, 'member');
+  return { owner, member, memberF, quiet, viewer, unverified };
 }
 
 /**
@@ -91,8 +109,9 @@ export function deliverAt(t: TestApp, alarmId: string, nowMs: number) {
   );
 }
 
+/** The mails to an address other than its account's verification link: the alarm mails. */
 export const mailsTo = (t: TestApp, email: string): StoredMail[] =>
-  t.outbox.list().filter((m) => m.to.includes(email));
+  t.outbox.list().filter((m) => m.to.includes(email) && m.subject !== VERIFICATION_SUBJECT);
 
 /** "06:12" in a time zone, by the platform's Intl (not the library the server uses). */
 export function clockIn(atIso: string, timeZone: string): string {

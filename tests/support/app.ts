@@ -17,6 +17,9 @@ import { DEFAULT_RATE_LIMITS, type RateLimitConfig } from '@/server/auth/rateLim
 import { silentLogger, type Logger } from '@/server/logger';
 import { createSurfaceEstimator } from '@/server/readings/surfaceEstimates';
 import { createReadingWriter, type WriterOptions } from '@/server/readings/writer';
+import { VERIFICATION_SUBJECT } from '@/server/mail';
+
+import { linkToken, waitForMail } from './mail';
 
 export const TEST_SECRET = 'test-secret-that-is-at-least-32-characters-long';
 
@@ -72,6 +75,8 @@ export const TEST_RATE_LIMITS: RateLimitConfig = {
   signInPerIp: 10_000,
   signUpPerIp: 10_000,
   resetPerIp: 10_000,
+  resetConfirmPerIp: 10_000,
+  verifyPerIp: 10_000,
   invitationsPerIp: 10_000,
 };
 
@@ -145,12 +150,27 @@ export function uniqueEmail(prefix = 'user'): string {
   return `${prefix}-${randomUUID().slice(0, 8)}@test.example`;
 }
 
-/** Signs up a new user and returns an agent that carries the session cookie. */
-export async function signUp(app: Parameters<typeof request.agent>[0], name = 'Test Person') {
-  const agent = request.agent(app);
+/** Where people are made: an app (or a listening server's URL) and the outbox its mail reaches. */
+export interface PersonMaker {
+  app: Parameters<typeof request.agent>[0];
+  outbox: TestApp['outbox'];
+}
+
+/**
+ * A new person as the app makes one: signs up, reads the verification mail from the test SMTP
+ * server and opens its link, which proves the address and signs in. Returns an agent carrying
+ * that session.
+ */
+export async function verifiedPerson(t: PersonMaker, name = 'Test Person') {
+  const agent = request.agent(t.app);
   const email = uniqueEmail();
   const password = 'correct horse battery';
-  const res = await agent.post('/api/v1/auth/sign-up').send({ email, password, name }).expect(201);
+  await agent.post('/api/v1/auth/sign-up').send({ email, password, name }).expect(202);
+  const mail = await waitForMail(t.outbox, email, { subject: VERIFICATION_SUBJECT });
+  const res = await agent
+    .post('/api/v1/auth/verify')
+    .send({ token: linkToken(mail, 'verify') })
+    .expect(200);
   return {
     agent,
     email,
@@ -160,8 +180,8 @@ export async function signUp(app: Parameters<typeof request.agent>[0], name = 'T
 }
 
 /** A user who owns a shop with one zone and one sensor, all made through the API. */
-export async function ownerWithSensor(app: Parameters<typeof request.agent>[0]) {
-  const owner = await signUp(app, 'Owner');
+export async function ownerWithSensor(t: PersonMaker) {
+  const owner = await verifiedPerson(t, 'Owner');
   const shop = (
     await owner.agent
       .post('/api/v1/shops')

@@ -1,0 +1,8 @@
+import { useLocalSearchParams } from 'expo-router';
+
+import { VerifyEmailScreen } from '@/components/VerifyEmailScreen';
+
+export default function Verify() {
+  const { token } = useLocalSearchParams<{ token?: string }>();
+  return <VerifyEmailScreen token={token} />;
+}
