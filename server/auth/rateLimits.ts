@@ -77,7 +77,8 @@ export interface SignInBackoff {
 export interface RateLimits {
   signIn: RequestHandler[];
   signInBackoff: SignInBackoff;
-  signUp: RequestHandler[];
+  /** Per address before the body is read; per target e-mail only for a valid sign-up. */
+  signUp: { perIp: RequestHandler; perEmail: RequestHandler };
   reset: RequestHandler[];
   resetConfirm: RequestHandler;
   verify: RequestHandler;
@@ -165,10 +166,10 @@ export function createRateLimits(
       failed: (email) => backoff.failed(email),
       succeeded: (email) => backoff.succeeded(email),
     },
-    signUp: [
-      limiter(config.signUpPerIp, 'sign-ups'),
-      perKey(config.signUpPerEmail, 'sign-ups for this address', emailKey),
-    ],
+    signUp: {
+      perIp: limiter(config.signUpPerIp, 'sign-ups'),
+      perEmail: perKey(config.signUpPerEmail, 'sign-ups for this address', emailKey),
+    },
     reset: [
       limiter(config.resetPerIp, 'password-reset requests'),
       perKey(config.resetPerEmail, 'password-reset requests for this address', emailKey),

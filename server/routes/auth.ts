@@ -6,7 +6,7 @@
  * 202 for both and mails the address instead, and sign-in spends the same scrypt work on an
  * unknown address as on a wrong password before the same 401.
  */
-import { Router } from 'express';
+import { Router, type RequestHandler } from 'express';
 import { z } from 'zod';
 
 import type { Db } from '@/db';
@@ -77,29 +77,40 @@ export function authRouter({
   // 202 and the same body whether or not the address has an account; no session either way
   // (signing in would reveal it). A new account gets a verification link, an existing one a
   // note that someone tried. Both hash the password, and mail goes out after the answer.
-  router.post('/sign-up', ...limits.signUp, async (req, res) => {
-    const body = parseInput(signUpBody, req.body);
-    const created = await insertUser(db, {
-      email: body.email,
-      name: body.name,
-      passwordHash: await hashPassword(body.password),
-    });
-    res.status(202).json({ status: 'verification_sent', email: body.email });
-    // After the answer, so its timing does not depend on which branch runs.
-    const mail = async () =>
-      created
-        ? issueVerification({ db, publicUrl, now }, created)
-        : signUpAttemptMail({
-            to: body.email,
-            signInUrl: `${publicUrl}/sign-in`,
-            resetUrl: `${publicUrl}/forgot-password`,
-          });
-    void mail()
-      .then((m) => mailer.send(m))
-      .catch((err: unknown) =>
-        mailLog.error({ err, reqId: req.id }, 'sign-up mail could not be sent'),
-      );
-  });
+  // A refused form (a bad name, a short password) does not use up the address's sign-ups.
+  const checkSignUp: RequestHandler = (req, res, next) => {
+    res.locals.signUp = parseInput(signUpBody, req.body);
+    next();
+  };
+  router.post(
+    '/sign-up',
+    limits.signUp.perIp,
+    checkSignUp,
+    limits.signUp.perEmail,
+    async (req, res) => {
+      const body = res.locals.signUp as z.infer<typeof signUpBody>;
+      const created = await insertUser(db, {
+        email: body.email,
+        name: body.name,
+        passwordHash: await hashPassword(body.password),
+      });
+      res.status(202).json({ status: 'verification_sent', email: body.email });
+      // After the answer, so its timing does not depend on which branch runs.
+      const mail = async () =>
+        created
+          ? issueVerification({ db, publicUrl, now }, created)
+          : signUpAttemptMail({
+              to: body.email,
+              signInUrl: `${publicUrl}/sign-in`,
+              resetUrl: `${publicUrl}/forgot-password`,
+            });
+      void mail()
+        .then((m) => mailer.send(m))
+        .catch((err: unknown) =>
+          mailLog.error({ err, reqId: req.id }, 'sign-up mail could not be sent'),
+        );
+    },
+  );
 
   // The link proves the address and signs the person in, like accepting an invitation does.
   router.post('/verify', limits.verify, async (req, res) => {

@@ -14,6 +14,7 @@ import { readConfig } from '@/server/config';
 import { startNotificationListener } from '@/server/live/listener';
 import { createLogger } from '@/server/logger';
 import type { ReadingWriter } from '@/server/readings/writer';
+import { VERIFICATION_SUBJECT } from '@/server/mail';
 import { safeUrl } from '@/server/requestLog';
 
 import {
@@ -67,13 +68,20 @@ describe('request lines', () => {
       return res;
     };
 
-    const signUp = keep(
+    keep(
       await request(t.app)
         .post('/api/v1/auth/sign-up')
         .send({ email, password, name: 'Log Reader' })
-        .expect(201),
+        .expect(202),
       'POST',
       '/api/v1/auth/sign-up',
+    );
+    const verifyMail = await waitForMail(t.outbox, email, { subject: VERIFICATION_SUBJECT });
+    const verifyToken = linkToken(verifyMail, 'verify');
+    const verified = keep(
+      await request(t.app).post('/api/v1/auth/verify').send({ token: verifyToken }).expect(200),
+      'POST',
+      '/api/v1/auth/verify',
     );
     const signIn = keep(
       await request(t.app).post('/api/v1/auth/sign-in').send({ email, password }).expect(200),
@@ -102,7 +110,7 @@ describe('request lines', () => {
       'POST',
       '/api/v1/auth/password-reset',
     );
-    const mail = await waitForMail(t.outbox, email);
+    const mail = await waitForMail(t.outbox, email, { subject: /reset/i });
     const resetToken = linkToken(mail, 'reset-password');
     const resetLink = `${TEST_PUBLIC_URL}/reset-password/${resetToken}`;
     expect(mail.text).toContain(resetLink);
@@ -147,7 +155,7 @@ describe('request lines', () => {
         }),
       ]);
     }
-    const ingestLine = requestLines(seen[3]!.res.headers['x-request-id'] as string)[0]!;
+    const ingestLine = requestLines(seen[4]!.res.headers['x-request-id'] as string)[0]!;
     expect(ingestLine.sensorId).toBe(o.sensorId);
 
     // The mail module says it kept a message — and nothing of what the message says.
@@ -163,7 +171,8 @@ describe('request lines', () => {
     const secrets = {
       password,
       newPassword,
-      sessionAfterSignUp: sessionCookie(signUp),
+      sessionAfterVerify: sessionCookie(verified),
+      verifyToken,
       sessionAfterSignIn: sessionCookie(signIn),
       sessionAfterReset: sessionCookie(confirm),
       sensorToken: o.token,
