@@ -1,0 +1,96 @@
+// GET …/zones/:zoneId/readings: raw points, downsampled buckets that keep the lowest margin,
+// another shop's zone, and the JSON 404 of unknown API paths.
+import psychrolib from 'psychrolib';
+import request from 'supertest';
+import { afterAll, beforeAll, describe, expect, it } from 'vitest';
+
+import { makeTestApp, ownerWithSensor, verifiedPerson, type TestApp } from '../support/app';
+import { errorShape } from '../support/errorShape';
+import { postIngest } from '../support/ingest';
+
+let t: TestApp;
+beforeAll(() => {
+  t = makeTestApp();
+  psychrolib.SetUnitSystem(psychrolib.SI);
+});
+afterAll(() => t.pool.end());
+
+describe('readings query', () => {
+  it('returns what was posted, oldest first, with the zone list showing the newest', async () => {
+    const o = await ownerWithSensor(t);
+    const start = Date.now() - 30 * 60_000;
+    const readings = [0, 1, 2].map((i) => ({
+      at: new Date(start + i * 60_000).toISOString(),
+      air: 18 + i,
+      rh: 55,
+      surface: 14,
+    }));
+    await postIngest(t.app, o.token, { readings }).expect(202);
+
+    const series = await o.agent
+      .get(`/api/v1/shops/${o.shopId}/zones/${o.zoneId}/readings`)
+      .expect(200);
+    expect(series.body.bucketSeconds).toBe(0);
+    expect(series.body.points.map((p: { at: string; air: number }) => [p.at, p.air])).toEqual(
+      readings.map((r) => [r.at, r.air]),
+    );
+    expect(series.body.points[0]).toMatchObject({ rh: 55, surface: 14, count: 1 });
+
+    const zones = await o.agent.get(`/api/v1/shops/${o.shopId}/zones`).expect(200);
+    expect(zones.body.zones).toHaveLength(1);
+    expect(zones.body.zones[0].latest).toMatchObject({
+      at: readings[2]!.at,
+      air: 20,
+      rh: 55,
+      surface: 14,
+    });
+  });
+
+  it('downsamples into buckets that keep the lowest margin', async () => {
+    const o = await ownerWithSensor(t);
+    const start = Date.now() - 100 * 60_000;
+    // 100 one-minute readings; one dip of the surface to 5 °C must survive the downsampling.
+    const readings = Array.from({ length: 100 }, (_, i) => ({
+      at: new Date(start + i * 60_000).toISOString(),
+      air: 20,
+      rh: 50,
+      surface: i === 37 ? 5 : 15,
+    }));
+    await postIngest(t.app, o.token, { readings }).expect(202);
+    const from = new Date(start).toISOString();
+    const to = new Date(start + 100 * 60_000).toISOString();
+    const res = await o.agent
+      .get(`/api/v1/shops/${o.shopId}/zones/${o.zoneId}/readings`)
+      .query({ from, to, points: 10 })
+      .expect(200);
+    expect(res.body.bucketSeconds).toBe(600);
+    expect(res.body.points).toHaveLength(10);
+    expect(res.body.points.reduce((n: number, p: { count: number }) => n + p.count, 0)).toBe(100);
+    const dip = res.body.points[3];
+    const dewC = psychrolib.GetTDewPointFromRelHum(20, 0.5);
+    expect(dip.marginMin).toBeCloseTo(5 - dewC, 1);
+    expect(dip.level).toBe('wet');
+    // 15 − 9.26 = 5.7 K: dry (≥ 3 K caution limit).
+    expect(res.body.points[2].level).toBe('dry');
+  });
+
+  it('hides another shop: 404 for a stranger, 401 without a session', async () => {
+    const o = await ownerWithSensor(t);
+    const stranger = await verifiedPerson(t, 'Stranger');
+    const res = await stranger.agent
+      .get(`/api/v1/shops/${o.shopId}/zones/${o.zoneId}/readings`)
+      .expect(404);
+    expect(res.body).toMatchObject(errorShape);
+    await stranger.agent.get(`/api/v1/shops/${o.shopId}/zones`).expect(404);
+    await stranger.agent
+      .post(`/api/v1/shops/${o.shopId}/zones`)
+      .send({ name: 'Mine now' })
+      .expect(404);
+    await request(t.app).get(`/api/v1/shops/${o.shopId}/zones`).expect(401);
+  });
+
+  it('answers unknown API paths with a JSON 404', async () => {
+    const res = await request(t.app).get('/api/v1/nothing-here').expect(404);
+    expect(res.body).toMatchObject(errorShape);
+  });
+});
