@@ -20,7 +20,7 @@ export function seriesStartMs(hoursBack = 5): number {
   return Math.floor((Date.now() - hoursBack * 3_600_000) / MINUTE_MS) * MINUTE_MS;
 }
 
-// Air 20 °C at 50 % RH: dew point 9.26 °C (ASHRAE via psychrolib, checked in walkingSkeleton).
+// Air 20 °C at 50 % RH: dew point 9.26 °C (ASHRAE via psychrolib, checked in tests/server/ingest.test.ts).
 const AIR_C = 20;
 const RH_PCT = 50;
 const dew = dewPoint(AIR_C, RH_PCT);
