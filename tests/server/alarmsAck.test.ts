@@ -45,7 +45,41 @@ afterAll(() => server?.close());
 const ackPath = (shopId: string, alarmId: string) =>
   `/api/v1/shops/${shopId}/alarms/${alarmId}/ack`;
 
+/** Every field of the wire shape, checked complete at compile time and against the answers. */
+const ALARM_FIELDS = [
+  'id',
+  'kind',
+  'state',
+  'zone',
+  'sensor',
+  'sinceAt',
+  'openedAt',
+  'updatedAt',
+  'clearedAt',
+  'worstMarginK',
+  'latestMarginK',
+  'minutesToWet',
+  'peakRhPct',
+  'latestRhPct',
+  'lowestBatteryV',
+  'latestBatteryV',
+  'acknowledgement',
+] as const satisfies readonly (keyof Alarm)[];
+const allFieldsListed: Exclude<keyof Alarm, (typeof ALARM_FIELDS)[number]> extends never
+  ? true
+  : false = true;
+
 describe('listing alarms', () => {
+  it('answers each alarm with exactly the fields of the wire shape', async () => {
+    expect(allFieldsListed).toBe(true);
+    const all = await alarmsOf(viewer.agent, o.shopId, { state: 'all' });
+    expect(all.length).toBeGreaterThan(0);
+    for (const alarm of all) {
+      expect(Object.keys(alarm).sort()).toEqual([...ALARM_FIELDS].sort());
+      expect(Object.keys(alarm.zone).sort()).toEqual(['id', 'name']);
+    }
+  });
+
   it('shows viewers the open alarms by default and all of them on request', async () => {
     const open = await viewer.agent.get(`/api/v1/shops/${o.shopId}/alarms`).expect(200);
     const kinds = (open.body.alarms as Alarm[]).map((a) => a.kind).sort();
