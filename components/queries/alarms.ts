@@ -10,38 +10,21 @@ import {
   type QueryClient,
 } from '@tanstack/react-query';
 
-import type { AlarmKind } from '@/ingest/alarmKinds';
+import type { Alarm, AlarmAckResponse, AlarmsResponse } from '@/ingest/wire/alarms';
 
 import { apiRequest, isApiError } from './api';
 import { shopPath } from './shops';
 
-export type { AlarmKind };
+// The shapes are the server's own (ingest/wire/alarms.ts); screens import them from here.
+export type {
+  Alarm,
+  AlarmAcknowledgement,
+  AlarmAckResponse,
+  AlarmKind,
+  AlarmsResponse,
+  AlarmValues,
+} from '@/ingest/wire/alarms';
 export type AlarmListState = 'open' | 'all';
-
-/** An alarm as the server describes it. Times ISO 8601, margins K, RH %, battery V. */
-export interface Alarm {
-  id: string;
-  kind: AlarmKind;
-  state: 'open' | 'cleared';
-  zone: { id: string; name: string };
-  sensor: { id: string; name: string } | null;
-  sinceAt: string;
-  openedAt: string;
-  updatedAt: string;
-  clearedAt: string | null;
-  worstMarginK: number | null;
-  latestMarginK: number | null;
-  minutesToWet: number | null;
-  peakRhPct: number | null;
-  latestRhPct: number | null;
-  lowestBatteryV: number | null;
-  latestBatteryV: number | null;
-  acknowledgement: { by: { id: string; name: string } | null; at: string; note: string } | null;
-}
-
-export interface AlarmsResponse {
-  alarms: Alarm[];
-}
 
 export const alarmKeys = {
   all: ['alarms'] as const,
@@ -114,7 +97,7 @@ export function useAlarmAckMutation(shopId: string) {
   const queryClient = useQueryClient();
   return useMutation({
     mutationFn: ({ alarmId, note }: AlarmAckInput) =>
-      apiRequest<{ alarm: Alarm }>(
+      apiRequest<AlarmAckResponse>(
         `${shopPath(shopId)}/alarms/${encodeURIComponent(alarmId)}/ack`,
         { method: 'POST', body: { note } },
       ),

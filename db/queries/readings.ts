@@ -1,7 +1,7 @@
 import { sql } from 'drizzle-orm';
 import type pg from 'pg';
 
-import type { Level } from '@/ingest';
+import type { Level, MarginSample } from '@/ingest';
 
 import type { Db } from '../index';
 
@@ -287,5 +287,17 @@ export async function latestPerZoneSince(db: Db, shopIds: string[], since: Date)
       level: r.level,
       surfaceSource: r.surface_source,
     },
+  }));
+}
+
+/** A zone's stored dew margins in [from, to], oldest first: the early warning's input. */
+export async function zoneMargins(ex: Db, zoneId: string, from: Date, to: Date) {
+  const rows = await ex.execute<{ at: Date | string; margin_k: number }>(sql`
+    select at, margin_k from readings
+    where zone_id = ${zoneId} and at >= ${from} and at <= ${to} and margin_k is not null
+    order by at`);
+  return rows.rows.map((r): MarginSample => ({
+    atMs: new Date(r.at).getTime(),
+    marginK: Number(r.margin_k),
   }));
 }

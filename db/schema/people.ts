@@ -30,7 +30,7 @@ export const users = pgTable('users', {
   sessionVersion: integer().notNull().default(0),
   // How the app shows temperatures to this person; the API always speaks °C and K.
   unitPref: temperatureUnitEnum().notNull().default('C'),
-  // Alarm e-mails (server/alarms/mail.ts) go to owners and members unless they turn them off.
+  // Alarm e-mails (server/alarms/mailDecision.ts) go to owners and members unless they turn them off.
   alarmMail: boolean().notNull().default(true),
   // When the person proved they read this address (a verification or invitation link); null
   // until then. Alarm e-mails wait for it, so a mistyped address never gets a shop's alarms.

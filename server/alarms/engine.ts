@@ -8,19 +8,15 @@
 import type pg from 'pg';
 
 import type { Db } from '@/db';
+import type { AlarmRow, AlarmViewRow, Tx } from '@/db/queries/alarms';
 import {
   lockZoneState,
   openAlarmsOfZone,
   saveAlarmChanges,
   saveZoneState,
-  sensorSeen,
-  sweepCandidates,
-  zoneMargins,
-  type AlarmRow,
-  type AlarmView,
-  type Tx,
-} from '@/db/queries/alarms';
-import type { ReadingRow } from '@/db/queries/readings';
+} from '@/db/queries/alarmState';
+import { sensorSeen, sweepCandidates } from '@/db/queries/alarmSweep';
+import { zoneMargins, type ReadingRow } from '@/db/queries/readings';
 import { withTransaction } from '@/db/transaction';
 import { DEFAULT_TREND } from '@/ingest';
 
@@ -30,6 +26,7 @@ import type { Logger } from '../logger';
 import { createAlarmBook } from './book';
 import { evaluateZone, readZoneState, type Signal } from './evaluate';
 import { ALARM_RULES, postingIntervalMs, silentAfterMs } from './rules';
+import { alarmOf } from './wire';
 
 export interface SweepOutcome {
   opened: number;
@@ -75,8 +72,8 @@ export function createAlarmEngine(deps: {
     const book = createAlarmBook(where, await openAlarmsOfZone(tx, where.zoneId));
     signals.forEach((signal) => book.apply(signal));
     const changes = book.changes();
-    await saveAlarmChanges(tx, changes, (views: AlarmView[]) =>
-      views.map((view) => alarmMessageJson(where.shopId, view)),
+    await saveAlarmChanges(tx, changes, (rows: AlarmViewRow[]) =>
+      rows.map((row) => alarmMessageJson(where.shopId, alarmOf(row))),
     );
     if (changes.inserted.length > 0) await deps.onOpened?.(tx, changes.inserted);
     return changes.events.length;

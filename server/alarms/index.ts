@@ -13,5 +13,5 @@ export {
   mailDueAtMs,
   type AlarmMailDeps,
   type AlarmMailReport,
-} from './mail';
+} from './mailDecision';
 export { ALARM_RULES, postingIntervalMs, silentAfterMs } from './rules';

@@ -6,6 +6,6 @@ export {
   workAlarmMails,
   type AlarmMailQueueOptions,
   type AlarmMailWorkerOptions,
-} from './alarmMail';
+} from './alarmMailJob';
 export { ALARM_SWEEP_CRON, ALARM_SWEEP_QUEUE, scheduleAlarmSweep } from './alarmSweep';
 export { startJobRunner, type JobRunnerOptions } from './runner';

@@ -1,5 +1,5 @@
 /** Messages the live hub pushes to browsers; built once, where the data is committed. */
-import type { AlarmView } from '@/db/queries/alarms';
+import type { Alarm as AlarmView } from '@/ingest/wire/alarms';
 import type { ReadingRow } from '@/db/queries/readings';
 import type { LatestReading } from '@/db/queries/zones';
 

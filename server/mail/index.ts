@@ -2,7 +2,7 @@ export { startLocalSmtpServer, type LocalSmtpServer } from './localSmtp';
 export { createMailer, type Mailer, type MailMessage, type SmtpTarget } from './mailer';
 export { createOutbox, type Outbox, type StoredMail } from './outbox';
 export { outboxRouter } from './outboxPage';
-export { alarmMail, type AlarmMailInput } from './alarmMail';
+export { alarmMessage, type AlarmMessageInput } from './alarmMessage';
 export {
   invitationMail,
   passwordResetMail,

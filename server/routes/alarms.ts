@@ -5,9 +5,11 @@ import { z } from 'zod';
 
 import type { Db } from '@/db';
 import { acknowledgeAlarm, listAlarms } from '@/db/queries/alarms';
+import type { AlarmAckResponse, AlarmsResponse } from '@/ingest/wire/alarms';
 
 import { isUuid, shopIdOf, userIdOf } from '../auth/middleware';
 import { ApiError } from '../errors';
+import { alarmOf } from '../alarms/wire';
 import { alarmMessageJson } from '../live/messages';
 import { parseInput } from '../validate';
 
@@ -29,7 +31,8 @@ export function alarmsRouter(db: Db, pool: pg.Pool, now: () => number): Router {
 
   router.get('/', async (req, res) => {
     const { state } = parseInput(listQuery, req.query, 'query');
-    res.json({ alarms: await listAlarms(db, shopIdOf(res), state) });
+    const rows = await listAlarms(db, shopIdOf(res), state);
+    res.json({ alarms: rows.map(alarmOf) } satisfies AlarmsResponse);
   });
 
   router.post('/:alarmId/ack', async (req, res) => {
@@ -41,14 +44,15 @@ export function alarmsRouter(db: Db, pool: pg.Pool, now: () => number): Router {
     const outcome = await acknowledgeAlarm(
       pool,
       { shopId, alarmId, userId: userIdOf(res), note, at: new Date(now()) },
-      (view) => alarmMessageJson(shopId, view),
+      (row) => alarmMessageJson(shopId, alarmOf(row)),
     );
-    if (outcome.ok) return void res.json({ alarm: outcome.alarm });
+    if (outcome.ok)
+      return void res.json({ alarm: alarmOf(outcome.alarm) } satisfies AlarmAckResponse);
     if (outcome.reason === 'not_found') throw notFound;
     throw new ApiError(
       409,
       'already_acknowledged',
-      `${outcome.alarm?.acknowledgement?.by?.name ?? 'Someone'} has already acknowledged this alarm.`,
+      `${(outcome.alarm && alarmOf(outcome.alarm))?.acknowledgement?.by?.name ?? 'Someone'} has already acknowledged this alarm.`,
     );
   });
 

@@ -2,7 +2,7 @@
 // another shop's people get 404, and an acknowledgement is stored, returned and pushed live.
 import { afterAll, beforeAll, describe, expect, it } from 'vitest';
 
-import type { AlarmView } from '@/db/queries/alarms';
+import type { Alarm } from '@/ingest/wire/alarms';
 import { addMember } from '@/db/queries/memberships';
 
 import {
@@ -22,7 +22,7 @@ let server: Awaited<ReturnType<typeof startInstance>>;
 let o: Awaited<ReturnType<typeof ownerWithSensor>>;
 let member: Awaited<ReturnType<typeof verifiedPerson>>;
 let viewer: Awaited<ReturnType<typeof verifiedPerson>>;
-let wet: AlarmView;
+let wet: Alarm;
 const startMs = seriesStartMs();
 
 beforeAll(async () => {
@@ -45,10 +45,44 @@ afterAll(() => server?.close());
 const ackPath = (shopId: string, alarmId: string) =>
   `/api/v1/shops/${shopId}/alarms/${alarmId}/ack`;
 
+/** Every field of the wire shape, checked complete at compile time and against the answers. */
+const ALARM_FIELDS = [
+  'id',
+  'kind',
+  'state',
+  'zone',
+  'sensor',
+  'sinceAt',
+  'openedAt',
+  'updatedAt',
+  'clearedAt',
+  'worstMarginK',
+  'latestMarginK',
+  'minutesToWet',
+  'peakRhPct',
+  'latestRhPct',
+  'lowestBatteryV',
+  'latestBatteryV',
+  'acknowledgement',
+] as const satisfies readonly (keyof Alarm)[];
+const allFieldsListed: Exclude<keyof Alarm, (typeof ALARM_FIELDS)[number]> extends never
+  ? true
+  : false = true;
+
 describe('listing alarms', () => {
+  it('answers each alarm with exactly the fields of the wire shape', async () => {
+    expect(allFieldsListed).toBe(true);
+    const all = await alarmsOf(viewer.agent, o.shopId, { state: 'all' });
+    expect(all.length).toBeGreaterThan(0);
+    for (const alarm of all) {
+      expect(Object.keys(alarm).sort()).toEqual([...ALARM_FIELDS].sort());
+      expect(Object.keys(alarm.zone).sort()).toEqual(['id', 'name']);
+    }
+  });
+
   it('shows viewers the open alarms by default and all of them on request', async () => {
     const open = await viewer.agent.get(`/api/v1/shops/${o.shopId}/alarms`).expect(200);
-    const kinds = (open.body.alarms as AlarmView[]).map((a) => a.kind).sort();
+    const kinds = (open.body.alarms as Alarm[]).map((a) => a.kind).sort();
     expect(kinds).toEqual(['dew_risk', 'wet_surface']);
     expect(await alarmsOf(viewer.agent, o.shopId, { state: 'all' })).toHaveLength(2);
   });
@@ -117,7 +151,7 @@ describe('acknowledging an alarm', () => {
       );
       expect(await changeCounts(server.app.db, wet.id)).toMatchObject({ acknowledged: 1 });
 
-      type Pushed = { type: 'alarm'; shopId: string; alarm: AlarmView };
+      type Pushed = { type: 'alarm'; shopId: string; alarm: Alarm };
       const pushed = await live.next(
         (m): m is Pushed =>
           (m as Pushed).type === 'alarm' && (m as Pushed).alarm.acknowledgement !== null,

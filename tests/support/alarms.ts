@@ -4,7 +4,8 @@ import type request from 'supertest';
 import { expect } from 'vitest';
 
 import type { Db } from '@/db';
-import { alarmEventsOf, type AlarmView } from '@/db/queries/alarms';
+import { alarmEventsOf } from '@/db/queries/alarms';
+import type { Alarm } from '@/ingest/wire/alarms';
 import type { AlarmKind } from '@/db/schema';
 import { dewPoint } from '@/ingest';
 
@@ -70,11 +71,11 @@ export async function alarmsOf(
   agent: Agent,
   shopId: string,
   options: { state?: 'open' | 'all'; kind?: AlarmKind } = {},
-): Promise<AlarmView[]> {
+): Promise<Alarm[]> {
   const res = await agent
     .get(`/api/v1/shops/${shopId}/alarms?state=${options.state ?? 'all'}`)
     .expect(200);
-  const alarms = res.body.alarms as AlarmView[];
+  const alarms = res.body.alarms as Alarm[];
   return options.kind ? alarms.filter((a) => a.kind === options.kind) : alarms;
 }
 

@@ -7,14 +7,14 @@ import net from 'node:net';
 import type PgBoss from 'pg-boss';
 import { afterAll, beforeAll, describe, expect, it } from 'vitest';
 
-import { findAlarmMail } from '@/db/queries/alarmMails';
+import { findAlarmMail } from '@/db/queries/alarmMailRecords';
 import { deliverAlarmMail } from '@/server/alarms';
 import { ALARM_MAIL_QUEUE, workAlarmMails } from '@/server/jobs';
 import { silentLogger } from '@/server/logger';
 import { createMailer, createOutbox, startLocalSmtpServer, type Outbox } from '@/server/mail';
 
 import { MINUTE_MS } from '../support/alarms';
-import { openWetAlarm, SHOP_NAME, shopWithPeople, startMailTestApp } from '../support/alarmMail';
+import { openWetAlarm, SHOP_NAME, shopWithPeople, startMailTestApp } from '../support/alarmMailApp';
 import { TEST_PUBLIC_URL, type TestApp } from '../support/app';
 import { captureLogs } from '../support/logs';
 import { waitForMail } from '../support/mail';

@@ -1,11 +1,11 @@
 // Alarm e-mail through the real ingest route, database, pg-boss queue and SMTP server: who gets
 // it, what it says in whose unit, once per alarm, the per-zone-and-kind cap of 30 min (our own
-// rule, server/alarms/mail.ts) and humid air's 2 h wait. The job runs by hand here with an
-// injected clock; alarmMailJobs.test.ts runs it through pg-boss while the SMTP server is down.
+// rule, server/alarms/mailDecision.ts) and humid air's 2 h wait. The job runs by hand here with an
+// injected clock; alarmMailJob.test.ts runs it through pg-boss while the SMTP server is down.
 import type PgBoss from 'pg-boss';
 import { afterAll, beforeAll, describe, expect, it } from 'vitest';
 
-import { findAlarmMail } from '@/db/queries/alarmMails';
+import { findAlarmMail } from '@/db/queries/alarmMailRecords';
 import { ALARM_MAIL_QUEUE } from '@/server/jobs';
 
 import {
@@ -27,7 +27,7 @@ import {
   SHOP_TIME_ZONE,
   shopWithPeople,
   startMailTestApp,
-} from '../support/alarmMail';
+} from '../support/alarmMailApp';
 import { verifiedPerson, TEST_PUBLIC_URL, type TestApp } from '../support/app';
 
 let boss: PgBoss;

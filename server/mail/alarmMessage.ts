@@ -40,7 +40,7 @@ export interface MailedReading extends ReadingFacts {
   at: Date;
 }
 
-export interface AlarmMailInput {
+export interface AlarmMessageInput {
   to: string;
   role: Role;
   unit: TemperatureUnit;
@@ -59,7 +59,7 @@ const clockIn = (at: Date, timeZone: string) => formatInTimeZone(at, timeZone, '
 const shopTime = (at: Date, timeZone: string) =>
   `${formatInTimeZone(at, timeZone, "HH:mm 'on' EEE d MMM")} (${timeZone})`;
 
-export function alarmMail(input: AlarmMailInput): MailMessage {
+export function alarmMessage(input: AlarmMessageInput): MailMessage {
   const { alarm, reading, unit, timeZone } = input;
   // Only open alarms are mailed (a cleared one's job stops before it gets here).
   const facts: AlarmFacts = { ...alarm, cleared: false };

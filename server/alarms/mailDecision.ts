@@ -1,11 +1,12 @@
 /**
- * Alarm e-mails: who hears of which alarm, when, and how often. The engine queues one pg-boss
- * job per opened alarm inside the transaction that opened it (server/jobs/alarmMail.ts); the job
- * calls deliverAlarmMail, which decides once per alarm under a lock (db/queries/alarmMails.ts),
- * then sends one message per recipient in their own unit and records each, so a retry after a
- * mail-server failure continues with the people not yet mailed. A process that dies while
- * sending loses that run's record, and the retry mails those people again: at least once, not
- * exactly once.
+ * Alarm e-mails, the decision: who hears of which alarm, when, and how often. The engine queues
+ * one pg-boss job per opened alarm inside the transaction that opened it (the job:
+ * server/jobs/alarmMailJob.ts); the job calls deliverAlarmMail, which decides once per alarm
+ * under a lock (the record of who got it: db/queries/alarmMailRecords.ts), then sends one
+ * message per recipient in their own unit (the message: server/mail/alarmMessage.ts) and records
+ * each, so a retry after a mail-server failure continues with the people not yet mailed. A
+ * process that dies while sending loses that run's record, and the retry mails those people
+ * again: at least once, not exactly once.
  */
 import type pg from 'pg';
 
@@ -18,12 +19,12 @@ import {
   lockAlarmMail,
   markAlarmMailSentTo,
   readingBehindAlarm,
-} from '@/db/queries/alarmMails';
+} from '@/db/queries/alarmMailRecords';
 import type { AlarmRow } from '@/db/queries/alarms';
 import type { AlarmMailOutcome } from '@/db/schema';
 import { withTransaction } from '@/db/transaction';
 
-import { alarmMail, type Mailer } from '../mail';
+import { alarmMessage, type Mailer } from '../mail';
 
 const MINUTE_MS = 60_000;
 const HOUR_MS = 60 * MINUTE_MS;
@@ -137,7 +138,7 @@ export async function deliverAlarmMail(
     for (const person of everyone.filter((p) => !row.sentTo.includes(p.userId))) {
       try {
         await deps.mailer.send(
-          alarmMail({
+          alarmMessage({
             to: person.email,
             role: person.role,
             unit: person.unitPref,
