@@ -4,7 +4,7 @@
  */
 import { useMutation, useQueryClient, type QueryClient } from '@tanstack/react-query';
 
-import type { Me, UserResponse, VerificationSent } from '@/ingest/wire/people';
+import type { Me, UserResponse, VerificationSent } from '@/ingest/wire';
 
 import { apiRequest } from './api';
 import { meKeys, meQueryOptions } from './me';

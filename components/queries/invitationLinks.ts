@@ -1,7 +1,7 @@
 /** An invitation link as its holder sees it: GET /api/v1/invitations/:token and accepting it. */
 import { useMutation, useQuery, useQueryClient } from '@tanstack/react-query';
 
-import type { InvitationAccepted, InvitationLink } from '@/ingest/wire/people';
+import type { InvitationAccepted, InvitationLink } from '@/ingest/wire';
 
 import { apiRequest } from './api';
 import { meKeys } from './me';

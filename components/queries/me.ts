@@ -12,7 +12,7 @@ import type {
   User,
   UserResponse,
   VerificationSent,
-} from '@/ingest/wire/people';
+} from '@/ingest/wire';
 
 import { apiRequest } from './api';
 

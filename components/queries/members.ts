@@ -8,7 +8,7 @@ import type {
   MemberRole,
   MembersResponse,
   Role,
-} from '@/ingest/wire/people';
+} from '@/ingest/wire';
 
 import { apiRequest } from './api';
 import { meKeys } from './me';

@@ -5,7 +5,7 @@
  */
 import { queryOptions, useQuery, type QueryClient } from '@tanstack/react-query';
 
-import type { ReadingPoint, ReadingsResponse } from '@/ingest/wire/readings';
+import type { ReadingPoint, ReadingsResponse } from '@/ingest/wire';
 
 import { apiRequest } from './api';
 import { zonePath } from './zones';

@@ -7,7 +7,7 @@ import type {
   Sensor,
   SensorPlacement,
   SensorsResponse,
-} from '@/ingest/wire/sensors';
+} from '@/ingest/wire';
 
 import { apiRequest } from './api';
 import { shopPath } from './shops';

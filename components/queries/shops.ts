@@ -1,7 +1,7 @@
 /** Shops: create, rename or move time zone, delete (the body repeats the name). */
 import { useMutation, useQueryClient } from '@tanstack/react-query';
 
-import type { Shop, ShopSummary } from '@/ingest/wire/people';
+import type { Shop, ShopSummary } from '@/ingest/wire';
 
 import { apiRequest } from './api';
 import { meKeys } from './me';
