@@ -11,9 +11,10 @@
  */
 import { z } from 'zod';
 
-export type Level = 'dry' | 'close' | 'wet' | 'unknown';
+import type { Level } from './wire/levels';
 
-export const LEVELS: readonly Level[] = ['dry', 'close', 'wet', 'unknown'];
+// The list itself lives with the wire shapes, which the app imports without zod.
+export { LEVELS, type Level } from './wire/levels';
 
 export interface MarginLimits {
   cautionK: number;

@@ -4,6 +4,7 @@
  */
 import type { Alarm, LatestReading } from '@/components/queries';
 import { isAlarmKind } from '@/ingest/alarmKinds';
+import { LEVELS as LEVEL_LIST } from '@/ingest/wire/levels';
 
 /** A zone's newest reading, as the zone list holds it; the sensor travels beside it. */
 export type LiveReading = Omit<LatestReading, 'sensorId'>;
@@ -34,7 +35,7 @@ export interface LiveAccessMessage {
 
 export type LiveMessage = LiveReadingMessage | LiveAlarmMessage | LiveAccessMessage;
 
-const LEVELS: readonly string[] = ['dry', 'close', 'wet', 'unknown'];
+const LEVELS: readonly string[] = LEVEL_LIST;
 
 function isObject(value: unknown): value is Record<string, unknown> {
   return typeof value === 'object' && value !== null;

@@ -4,8 +4,12 @@
  */
 import { useMutation, useQueryClient, type QueryClient } from '@tanstack/react-query';
 
+import type { Me, UserResponse, VerificationSent } from '@/ingest/wire';
+
 import { apiRequest } from './api';
-import { meKeys, meQueryOptions, type Me, type User } from './me';
+import { meKeys, meQueryOptions } from './me';
+
+export type { VerificationSent };
 
 export interface SignInInput {
   email: string;
@@ -26,15 +30,9 @@ export function useSignInMutation() {
   const queryClient = useQueryClient();
   return useMutation({
     mutationFn: (input: SignInInput) =>
-      apiRequest<{ user: User }>('/api/v1/auth/sign-in', { method: 'POST', body: input }),
+      apiRequest<UserResponse>('/api/v1/auth/sign-in', { method: 'POST', body: input }),
     onSuccess: () => startFreshSession(queryClient),
   });
-}
-
-/** What sign-up answers for a new address and a taken one alike: check the inbox. */
-export interface VerificationSent {
-  status: 'verification_sent';
-  email: string;
 }
 
 /** Sign-up starts no session: the link in the verification mail signs the person in. */
@@ -50,7 +48,7 @@ export function useVerifyEmailMutation() {
   const queryClient = useQueryClient();
   return useMutation({
     mutationFn: (input: { token: string }) =>
-      apiRequest<{ user: User }>('/api/v1/auth/verify', { method: 'POST', body: input }),
+      apiRequest<UserResponse>('/api/v1/auth/verify', { method: 'POST', body: input }),
     onSuccess: () => startFreshSession(queryClient),
   });
 }

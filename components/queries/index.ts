@@ -24,6 +24,7 @@ export {
   invitationLinkKeys,
   useAcceptInvitationMutation,
   useInvitationLinkQuery,
+  type InvitationAccepted,
   type InvitationLink,
 } from './invitationLinks';
 export {
@@ -40,6 +41,7 @@ export {
   type ShopSummary,
   type UnitPref,
   type User,
+  type UserResponse,
 } from './me';
 export {
   memberKeys,
@@ -52,7 +54,10 @@ export {
   useRoleMutation,
   useWithdrawInvitationMutation,
   type Invitation,
+  type InvitationsResponse,
   type Member,
+  type MemberRole,
+  type MembersResponse,
 } from './members';
 export {
   DAY_WINDOW,
@@ -74,14 +79,18 @@ export {
   useSensorRevokeMutation,
   useSensorRotateMutation,
   useSensorsQuery,
+  type CreatedSensor,
   type IssuedToken,
   type Sensor,
+  type SensorPlacement,
+  type SensorsResponse,
 } from './sensors';
 export {
   shopPath,
   useShopCreateMutation,
   useShopDeleteMutation,
   useShopUpdateMutation,
+  type Shop,
 } from './shops';
 export {
   patchZoneLatest,
@@ -95,6 +104,7 @@ export {
   type SurfaceSource,
   type Zone,
   type ZoneChanges,
+  type ZoneSettings,
   type ZonesResponse,
 } from './zones';
 export {

@@ -1,16 +1,13 @@
 /** An invitation link as its holder sees it: GET /api/v1/invitations/:token and accepting it. */
 import { useMutation, useQuery, useQueryClient } from '@tanstack/react-query';
 
-import { apiRequest } from './api';
-import { meKeys, type Role } from './me';
+import type { InvitationAccepted, InvitationLink } from '@/ingest/wire';
 
-export interface InvitationLink {
-  shopName: string;
-  email: string;
-  role: Role;
-  expiresAt: string;
-  accountExists: boolean;
-}
+import { apiRequest } from './api';
+import { meKeys } from './me';
+
+// The shapes the server answers have one home; screens keep importing them from here.
+export type { InvitationAccepted, InvitationLink };
 
 const linkPath = (token: string) => `/api/v1/invitations/${encodeURIComponent(token)}`;
 
@@ -31,7 +28,7 @@ export function useAcceptInvitationMutation(token: string) {
   const queryClient = useQueryClient();
   return useMutation({
     mutationFn: (input: { name?: string; password?: string }) =>
-      apiRequest<{ shop: { id: string; name: string }; role: Role }>(`${linkPath(token)}/accept`, {
+      apiRequest<InvitationAccepted>(`${linkPath(token)}/accept`, {
         method: 'POST',
         body: input,
       }),

@@ -4,35 +4,20 @@
  */
 import { queryOptions, useMutation, useQuery, useQueryClient } from '@tanstack/react-query';
 
+import type {
+  Me,
+  Role,
+  ShopSummary,
+  UnitPref,
+  User,
+  UserResponse,
+  VerificationSent,
+} from '@/ingest/wire';
+
 import { apiRequest } from './api';
 
-export type Role = 'owner' | 'member' | 'viewer';
-export type UnitPref = 'C' | 'F';
-
-export interface User {
-  id: string;
-  email: string;
-  name: string;
-  /** How temperatures are shown; the API always speaks °C and K. */
-  unitPref: UnitPref;
-  /** Whether alarm e-mails reach this person in shops where they are an owner or member. */
-  alarmMail: boolean;
-  /** Whether the address is proved; alarm and report e-mails wait for it. */
-  emailVerified: boolean;
-}
-
-export interface ShopSummary {
-  id: string;
-  name: string;
-  role: Role;
-  /** IANA zone; times on screen are shown in it. */
-  timeZone: string;
-}
-
-export interface Me {
-  user: User;
-  shops: ShopSummary[];
-}
+// The shapes the server answers have one home; screens keep importing them from here.
+export type { Me, Role, ShopSummary, UnitPref, User, UserResponse };
 
 export const meKeys = {
   all: ['me'] as const,
@@ -64,7 +49,7 @@ export function useProfileMutation() {
   const queryClient = useQueryClient();
   return useMutation({
     mutationFn: (input: { name?: string; unitPref?: UnitPref; alarmMail?: boolean }) =>
-      apiRequest<{ user: User }>('/api/v1/me', { method: 'PATCH', body: input }),
+      apiRequest<UserResponse>('/api/v1/me', { method: 'PATCH', body: input }),
     onSuccess: ({ user }) =>
       queryClient.setQueryData<Me>(meKeys.all, (me) => (me ? { ...me, user } : me)),
   });
@@ -74,7 +59,7 @@ export function useProfileMutation() {
 export function useVerificationResendMutation() {
   return useMutation({
     mutationFn: () =>
-      apiRequest<{ status: 'verification_sent'; email: string }>('/api/v1/me/verification', {
+      apiRequest<VerificationSent>('/api/v1/me/verification', {
         method: 'POST',
         body: {},
       }),

@@ -1,25 +1,21 @@
 /** Members of a shop and its open invitations. */
 import { queryOptions, useMutation, useQuery, useQueryClient } from '@tanstack/react-query';
 
+import type {
+  Invitation,
+  InvitationsResponse,
+  Member,
+  MemberRole,
+  MembersResponse,
+  Role,
+} from '@/ingest/wire';
+
 import { apiRequest } from './api';
-import { meKeys, type Role } from './me';
+import { meKeys } from './me';
 import { shopPath } from './shops';
 
-export interface Member {
-  userId: string;
-  name: string;
-  email: string;
-  role: Role;
-  since: string;
-}
-
-export interface Invitation {
-  id: string;
-  email: string;
-  role: Role;
-  expiresAt: string;
-  createdAt: string;
-}
+// The shapes the server answers have one home; screens keep importing them from here.
+export type { Invitation, InvitationsResponse, Member, MemberRole, MembersResponse };
 
 export const memberKeys = {
   all: ['members'] as const,
@@ -31,8 +27,7 @@ export const memberKeys = {
 export function membersQueryOptions(shopId: string) {
   return queryOptions({
     queryKey: memberKeys.list(shopId),
-    queryFn: ({ signal }) =>
-      apiRequest<{ members: Member[] }>(`${shopPath(shopId)}/members`, { signal }),
+    queryFn: ({ signal }) => apiRequest<MembersResponse>(`${shopPath(shopId)}/members`, { signal }),
   });
 }
 
@@ -44,7 +39,7 @@ export function useInvitationsQuery(shopId: string, enabled = true) {
   return useQuery({
     queryKey: memberKeys.invitations(shopId),
     queryFn: ({ signal }) =>
-      apiRequest<{ invitations: Invitation[] }>(`${shopPath(shopId)}/invitations`, { signal }),
+      apiRequest<InvitationsResponse>(`${shopPath(shopId)}/invitations`, { signal }),
     enabled,
   });
 }
@@ -53,7 +48,7 @@ export function useRoleMutation(shopId: string) {
   const queryClient = useQueryClient();
   return useMutation({
     mutationFn: (input: { userId: string; role: Role }) =>
-      apiRequest(`${shopPath(shopId)}/members/${encodeURIComponent(input.userId)}`, {
+      apiRequest<MemberRole>(`${shopPath(shopId)}/members/${encodeURIComponent(input.userId)}`, {
         method: 'PATCH',
         body: { role: input.role },
       }),

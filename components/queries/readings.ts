@@ -5,32 +5,13 @@
  */
 import { queryOptions, useQuery, type QueryClient } from '@tanstack/react-query';
 
-import type { Level } from '@/ingest';
+import type { ReadingPoint, ReadingsResponse } from '@/ingest/wire';
 
 import { apiRequest } from './api';
 import { zonePath } from './zones';
 
-export interface ReadingPoint {
-  at: string;
-  air: number;
-  rh: number;
-  surface: number | null;
-  dewPoint: number | null;
-  margin: number | null;
-  /** The lowest margin inside a bucket; equals `margin` for a raw reading. */
-  marginMin: number | null;
-  emc: number | null;
-  level: Level;
-  count: number;
-}
-
-export interface ReadingsResponse {
-  from: string;
-  to: string;
-  /** 0 means the points are raw readings. */
-  bucketSeconds: number;
-  points: ReadingPoint[];
-}
+// The shapes the server answers have one home; screens keep importing them from here.
+export type { ReadingPoint, ReadingsResponse };
 
 export interface ReadingsWindow {
   hours: number;

@@ -1,26 +1,20 @@
 /** A shop's sensors: list (last seen, battery), create, rotate, revoke, move, remove. */
 import { queryOptions, useMutation, useQuery, useQueryClient } from '@tanstack/react-query';
 
+import type {
+  CreatedSensor,
+  IssuedToken,
+  Sensor,
+  SensorPlacement,
+  SensorsResponse,
+} from '@/ingest/wire';
+
 import { apiRequest } from './api';
 import { shopPath } from './shops';
 import { zoneKeys } from './zones';
 
-export interface Sensor {
-  id: string;
-  name: string;
-  zoneId: string;
-  zoneName: string;
-  lastSeenAt: string | null;
-  batteryV: number | null;
-  revokedAt: string | null;
-  createdAt: string;
-}
-
-/** The one moment a token is visible: right after create or rotate. */
-export interface IssuedToken {
-  id: string;
-  token: string;
-}
+// The shapes the server answers have one home; screens keep importing them from here.
+export type { CreatedSensor, IssuedToken, Sensor, SensorPlacement, SensorsResponse };
 
 export const sensorKeys = {
   all: ['sensors'] as const,
@@ -30,8 +24,7 @@ export const sensorKeys = {
 export function sensorsQueryOptions(shopId: string) {
   return queryOptions({
     queryKey: sensorKeys.list(shopId),
-    queryFn: ({ signal }) =>
-      apiRequest<{ sensors: Sensor[] }>(`${shopPath(shopId)}/sensors`, { signal }),
+    queryFn: ({ signal }) => apiRequest<SensorsResponse>(`${shopPath(shopId)}/sensors`, { signal }),
     // Last seen and battery change with every reading: fresh on each visit, and every
     // 30 s while the page is open (live messages carry readings, not sensor rows).
     staleTime: 0,
@@ -56,7 +49,7 @@ function useSensorMutation<I, O>(shopId: string, fn: (input: I) => Promise<O>) {
 
 export function useSensorCreateMutation(shopId: string) {
   return useSensorMutation(shopId, (input: { name: string; zoneId: string }) =>
-    apiRequest<IssuedToken & { name: string; zoneId: string }>(`${shopPath(shopId)}/sensors`, {
+    apiRequest<CreatedSensor>(`${shopPath(shopId)}/sensors`, {
       method: 'POST',
       body: input,
     }),
@@ -90,9 +83,12 @@ export function useSensorRemoveMutation(shopId: string) {
 
 export function useSensorMoveMutation(shopId: string) {
   return useSensorMutation(shopId, (input: { sensorId: string; zoneId: string }) =>
-    apiRequest(`${shopPath(shopId)}/sensors/${encodeURIComponent(input.sensorId)}`, {
-      method: 'PATCH',
-      body: { zoneId: input.zoneId },
-    }),
+    apiRequest<SensorPlacement>(
+      `${shopPath(shopId)}/sensors/${encodeURIComponent(input.sensorId)}`,
+      {
+        method: 'PATCH',
+        body: { zoneId: input.zoneId },
+      },
+    ),
   );
 }

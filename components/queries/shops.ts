@@ -1,8 +1,12 @@
 /** Shops: create, rename or move time zone, delete (the body repeats the name). */
 import { useMutation, useQueryClient } from '@tanstack/react-query';
 
+import type { Shop, ShopSummary } from '@/ingest/wire';
+
 import { apiRequest } from './api';
-import { meKeys, type ShopSummary } from './me';
+import { meKeys } from './me';
+
+export type { Shop };
 
 const shopPath = (shopId: string) => `/api/v1/shops/${encodeURIComponent(shopId)}`;
 
@@ -10,7 +14,7 @@ export function useShopCreateMutation() {
   const queryClient = useQueryClient();
   return useMutation({
     mutationFn: (input: { name: string; timeZone: string }) =>
-      apiRequest<Omit<ShopSummary, 'role'>>('/api/v1/shops', { method: 'POST', body: input }),
+      apiRequest<Shop>('/api/v1/shops', { method: 'POST', body: input }),
     onSuccess: () => queryClient.invalidateQueries({ queryKey: meKeys.all }),
   });
 }

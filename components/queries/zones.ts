@@ -7,39 +7,19 @@ import {
   type QueryClient,
 } from '@tanstack/react-query';
 
-import type { Level } from '@/ingest';
+import type {
+  LatestReading,
+  SurfaceSource,
+  Zone,
+  ZoneSettings,
+  ZonesResponse,
+} from '@/ingest/wire';
 
 import { apiRequest } from './api';
 import { shopPath } from './shops';
 
-export type SurfaceSource = 'probe' | 'estimate';
-
-/** The newest reading in a zone, with what we derived from it. Temperatures °C, margin K. */
-export interface LatestReading {
-  at: string;
-  air: number;
-  rh: number;
-  surface: number | null;
-  dewPoint: number | null;
-  margin: number | null;
-  emc: number | null;
-  level: Level;
-  surfaceSource: SurfaceSource | null;
-  sensorId: string;
-}
-
-export interface Zone {
-  id: string;
-  name: string;
-  cautionK: number;
-  wetK: number;
-  humidRhPct: number;
-  latest: LatestReading | null;
-}
-
-export interface ZonesResponse {
-  zones: Zone[];
-}
+// The shapes the server answers have one home; screens keep importing them from here.
+export type { LatestReading, SurfaceSource, Zone, ZoneSettings, ZonesResponse };
 
 export const zonePath = (shopId: string, zoneId: string) =>
   `${shopPath(shopId)}/zones/${encodeURIComponent(zoneId)}`;
@@ -94,7 +74,7 @@ export function useZoneCreateMutation(shopId: string) {
   const queryClient = useQueryClient();
   return useMutation({
     mutationFn: (input: { name: string }) =>
-      apiRequest<Omit<Zone, 'latest'>>(`${shopPath(shopId)}/zones`, {
+      apiRequest<ZoneSettings>(`${shopPath(shopId)}/zones`, {
         method: 'POST',
         body: input,
       }),
@@ -113,7 +93,7 @@ export function useZoneUpdateMutation(shopId: string) {
   const queryClient = useQueryClient();
   return useMutation({
     mutationFn: ({ zoneId, ...changes }: ZoneChanges & { zoneId: string }) =>
-      apiRequest<Omit<Zone, 'latest'>>(zonePath(shopId, zoneId), {
+      apiRequest<ZoneSettings>(zonePath(shopId, zoneId), {
         method: 'PATCH',
         body: changes,
       }),

@@ -28,7 +28,7 @@ export async function listMembers(db: Db, shopId: string) {
       name: users.name,
       email: users.email,
       role: memberships.role,
-      since: memberships.createdAt,
+      createdAt: memberships.createdAt,
     })
     .from(memberships)
     .innerJoin(users, eq(users.id, memberships.userId))

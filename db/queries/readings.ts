@@ -137,16 +137,17 @@ function summarizeSensors(rows: ReadingRow[]) {
   });
 }
 
-export interface SeriesPoint {
-  at: string;
-  air: number;
-  rh: number;
-  surface: number | null;
-  dewPoint: number | null;
-  margin: number | null;
-  marginMin: number | null;
-  emc: number | null;
-  level: Level;
+/** A point of a zone's series as stored: one reading, or one bucket's means and lowest margin. */
+export interface SeriesRow {
+  at: Date;
+  airC: number;
+  rhPct: number;
+  surfaceC: number | null;
+  dewPointC: number | null;
+  marginK: number | null;
+  /** The lowest margin inside the bucket; equals `marginK` for a raw reading. */
+  marginMinK: number | null;
+  emcPct: number | null;
   count: number;
 }
 
@@ -154,18 +155,12 @@ export interface SeriesPoint {
  * A zone's series between two times: raw readings when they fit in `points`, else buckets
  * of equal width (date_bin) that average the values but keep each bucket's lowest margin,
  * because the closest approach to the dew point is what a chart must never smooth away.
- * The bucket's level is the level of that lowest margin, decided by the caller's limits.
+ * `bucketSeconds` is 0 for raw readings.
  */
 export async function querySeries(
   db: Db,
-  q: {
-    zoneId: string;
-    from: Date;
-    to: Date;
-    points: number;
-    levelOf: (marginK: number | null) => Level;
-  },
-): Promise<{ bucketSeconds: number; points: SeriesPoint[] }> {
+  q: { zoneId: string; from: Date; to: Date; points: number },
+): Promise<{ bucketSeconds: number; rows: SeriesRow[] }> {
   const countResult = await db.execute<{ n: number }>(sql`
     select count(*)::int as n from readings
     where zone_id = ${q.zoneId} and at >= ${q.from} and at <= ${q.to}`);
@@ -178,7 +173,7 @@ export async function querySeries(
       from readings
       where zone_id = ${q.zoneId} and at >= ${q.from} and at <= ${q.to}
       order by at`);
-    return { bucketSeconds: 0, points: raw.rows.map((r) => toPoint(r, q.levelOf)) };
+    return { bucketSeconds: 0, rows: raw.rows.map(toSeriesRow) };
   }
 
   const spanS = (q.to.getTime() - q.from.getTime()) / 1000;
@@ -192,7 +187,7 @@ export async function querySeries(
     where zone_id = ${q.zoneId} and at >= ${q.from} and at <= ${q.to}
     group by 1
     order by 1`);
-  return { bucketSeconds, points: bucketed.rows.map((r) => toPoint(r, q.levelOf)) };
+  return { bucketSeconds, rows: bucketed.rows.map(toSeriesRow) };
 }
 
 interface RawRow extends Record<string, unknown> {
@@ -211,18 +206,16 @@ interface RawRow extends Record<string, unknown> {
 const num = (v: number | string) => (typeof v === 'number' ? v : Number(v));
 const numOrNull = (v: number | string | null) => (v === null ? null : num(v));
 
-function toPoint(r: RawRow, levelOf: (marginK: number | null) => Level): SeriesPoint {
-  const marginMin = numOrNull(r.margin_min);
+function toSeriesRow(r: RawRow): SeriesRow {
   return {
-    at: new Date(r.at).toISOString(),
-    air: num(r.air_c),
-    rh: num(r.rh_pct),
-    surface: numOrNull(r.surface_c),
-    dewPoint: numOrNull(r.dew_point_c),
-    margin: numOrNull(r.margin_k),
-    marginMin,
-    emc: numOrNull(r.emc_pct),
-    level: levelOf(marginMin),
+    at: new Date(r.at),
+    airC: num(r.air_c),
+    rhPct: num(r.rh_pct),
+    surfaceC: numOrNull(r.surface_c),
+    dewPointC: numOrNull(r.dew_point_c),
+    marginK: numOrNull(r.margin_k),
+    marginMinK: numOrNull(r.margin_min),
+    emcPct: numOrNull(r.emc_pct),
     count: r.n,
   };
 }

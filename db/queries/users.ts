@@ -3,15 +3,16 @@ import { and, eq, sql } from 'drizzle-orm';
 import type { Db } from '../index';
 import { memberships, users, type TemperatureUnitPref } from '../schema';
 
-export interface PublicUser {
+/** An account without its secrets (password hash, session version). */
+export interface UserRow {
   id: string;
   email: string;
   name: string;
   unitPref: TemperatureUnitPref;
   /** Whether alarm e-mails reach this person (as an owner or member of a shop). */
   alarmMail: boolean;
-  /** Whether the person proved the address (verification or invitation link); mail waits for it. */
-  emailVerified: boolean;
+  /** When the person proved the address (verification or invitation link); mail waits for it. */
+  emailVerifiedAt: Date | null;
 }
 
 const publicColumns = {
@@ -20,7 +21,7 @@ const publicColumns = {
   name: users.name,
   unitPref: users.unitPref,
   alarmMail: users.alarmMail,
-  emailVerified: sql<boolean>`${users.emailVerifiedAt} is not null`,
+  emailVerifiedAt: users.emailVerifiedAt,
 };
 
 export async function findUserByEmail(db: Db, email: string) {
@@ -28,7 +29,7 @@ export async function findUserByEmail(db: Db, email: string) {
   return row ?? null;
 }
 
-export async function findUserById(db: Db, id: string): Promise<PublicUser | null> {
+export async function findUserById(db: Db, id: string): Promise<UserRow | null> {
   const [row] = await db.select(publicColumns).from(users).where(eq(users.id, id));
   return row ?? null;
 }
@@ -49,7 +50,7 @@ export async function findUserSecrets(db: Db, id: string) {
 export async function insertUser(
   db: Db,
   input: { email: string; name: string; passwordHash: string; emailVerifiedAt?: Date },
-): Promise<(PublicUser & { sessionVersion: number }) | null> {
+): Promise<(UserRow & { sessionVersion: number }) | null> {
   const [row] = await db
     .insert(users)
     .values({ ...input, email: input.email.toLowerCase() })
@@ -78,7 +79,7 @@ export async function updateProfile(
   db: Db,
   userId: string,
   changes: { name?: string; unitPref?: TemperatureUnitPref; alarmMail?: boolean },
-): Promise<PublicUser | null> {
+): Promise<UserRow | null> {
   const [row] = await db
     .update(users)
     .set(changes)

@@ -1,5 +1,7 @@
 import { and, eq, sql } from 'drizzle-orm';
 
+import type { Level, SurfaceSource } from '@/ingest/wire';
+
 import type { Db } from '../index';
 import { zones } from '../schema';
 
@@ -10,6 +12,15 @@ const zoneColumns = {
   wetK: zones.wetK,
   humidRhPct: zones.humidRhPct,
 };
+
+/** A zone's own columns: name and limits (K, % RH). */
+export interface ZoneRow {
+  id: string;
+  name: string;
+  cautionK: number;
+  wetK: number;
+  humidRhPct: number;
+}
 
 export async function insertZone(db: Db, shopId: string, name: string) {
   const [row] = await db.insert(zones).values({ shopId, name }).returning(zoneColumns);
@@ -39,16 +50,17 @@ export async function updateZone(
   return row ?? null;
 }
 
-export interface LatestReading {
-  at: string;
-  air: number;
-  rh: number;
-  surface: number | null;
-  dewPoint: number | null;
-  margin: number | null;
-  emc: number | null;
-  level: 'dry' | 'close' | 'wet' | 'unknown';
-  surfaceSource: 'probe' | 'estimate' | null;
+/** A zone's newest reading as stored. */
+export interface LatestReadingRow {
+  at: Date;
+  airC: number;
+  rhPct: number;
+  surfaceC: number | null;
+  dewPointC: number | null;
+  marginK: number | null;
+  emcPct: number | null;
+  level: Level;
+  surfaceSource: SurfaceSource | null;
   sensorId: string;
 }
 
@@ -63,13 +75,13 @@ export async function listZonesWithLatest(db: Db, shopId: string) {
     caution_k: number;
     wet_k: number;
     humid_rh_pct: number;
-    latest: LatestReading | null;
+    latest: (Omit<LatestReadingRow, 'at'> & { at: string }) | null;
   }>(sql`
     select z.id, z.name, z.caution_k, z.wet_k, z.humid_rh_pct,
       case when r.at is null then null else json_build_object(
-        'at', r.at, 'air', r.air_c, 'rh', r.rh_pct, 'surface', r.surface_c,
-        'dewPoint', r.dew_point_c, 'margin', r.margin_k, 'emc', r.emc_pct, 'level', r.level,
-        'surfaceSource', r.surface_source, 'sensorId', r.sensor_id) end as latest
+        'at', r.at, 'airC', r.air_c, 'rhPct', r.rh_pct, 'surfaceC', r.surface_c,
+        'dewPointC', r.dew_point_c, 'marginK', r.margin_k, 'emcPct', r.emc_pct,
+        'level', r.level, 'surfaceSource', r.surface_source, 'sensorId', r.sensor_id) end as latest
     from zones z
     left join lateral (
       select * from readings where zone_id = z.id order by at desc limit 1
@@ -82,6 +94,8 @@ export async function listZonesWithLatest(db: Db, shopId: string) {
     cautionK: row.caution_k,
     wetK: row.wet_k,
     humidRhPct: row.humid_rh_pct,
-    latest: row.latest ? { ...row.latest, at: new Date(row.latest.at).toISOString() } : null,
+    latest: row.latest ? { ...row.latest, at: new Date(row.latest.at) } : null,
   }));
 }
+
+export type ZoneWithLatestRow = Awaited<ReturnType<typeof listZonesWithLatest>>[number];

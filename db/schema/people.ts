@@ -14,10 +14,12 @@ import {
   uuid,
 } from 'drizzle-orm/pg-core';
 
+import { ROLES, UNIT_PREFS } from '@/ingest/wire/people';
+
 import { createdAt } from './columns';
 
-export const roleEnum = pgEnum('role', ['owner', 'member', 'viewer']);
-export const temperatureUnitEnum = pgEnum('temperature_unit', ['C', 'F']);
+export const roleEnum = pgEnum('role', ROLES);
+export const temperatureUnitEnum = pgEnum('temperature_unit', UNIT_PREFS);
 
 export const users = pgTable('users', {
   id: uuid().primaryKey().defaultRandom(),

@@ -11,11 +11,13 @@ import {
   uuid,
 } from 'drizzle-orm/pg-core';
 
+import { LEVELS, SURFACE_SOURCES } from '@/ingest/wire/levels';
+
 import { createdAt } from './columns';
 import { shops } from './people';
 
-export const levelEnum = pgEnum('level', ['dry', 'close', 'wet', 'unknown']);
-export const surfaceSourceEnum = pgEnum('surface_source', ['probe', 'estimate']);
+export const levelEnum = pgEnum('level', LEVELS);
+export const surfaceSourceEnum = pgEnum('surface_source', SURFACE_SOURCES);
 
 export const zones = pgTable(
   'zones',

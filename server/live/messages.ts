@@ -1,7 +1,7 @@
 /** Messages the live hub pushes to browsers; built once, where the data is committed. */
 import type { Alarm as AlarmView } from '@/ingest/wire/alarms';
 import type { ReadingRow } from '@/db/queries/readings';
-import type { LatestReading } from '@/db/queries/zones';
+import type { LatestReading } from '@/ingest/wire/zones';
 
 /**
  * A zone's newest reading as the zone list shows it, so a client can put it straight into that

@@ -20,6 +20,7 @@ import {
   insertUser,
   replacePasswordHash,
 } from '@/db/queries/users';
+import type { UserResponse, VerificationSent } from '@/ingest/wire';
 
 import { issueVerification } from '../auth/emailVerification';
 import { hashToken, newLinkToken } from '../auth/linkTokens';
@@ -31,6 +32,7 @@ import { ApiError } from '../errors';
 import type { Logger } from '../logger';
 import { passwordResetMail, signUpAttemptMail, type Mailer } from '../mail';
 import { parseInput } from '../validate';
+import { toUser } from '../wire/people';
 
 import { emailField, newPasswordField, personNameField } from './fields';
 
@@ -94,7 +96,9 @@ export function authRouter({
         name: body.name,
         passwordHash: await hashPassword(body.password),
       });
-      res.status(202).json({ status: 'verification_sent', email: body.email });
+      res
+        .status(202)
+        .json({ status: 'verification_sent', email: body.email } satisfies VerificationSent);
       // After the answer, so its timing does not depend on which branch runs.
       const mail = async () =>
         created
@@ -128,7 +132,7 @@ export function authRouter({
       );
     }
     await startSession(res, sessions, user.id, spent.sessionVersion);
-    res.json({ user });
+    res.json({ user: toUser(user) } satisfies UserResponse);
   });
 
   router.post('/sign-in', ...limits.signIn, limits.signInBackoff.check, async (req, res) => {
@@ -154,16 +158,7 @@ export function authRouter({
       });
     }
     await startSession(res, sessions, found.id, found.sessionVersion);
-    res.json({
-      user: {
-        id: found.id,
-        email: found.email,
-        name: found.name,
-        unitPref: found.unitPref,
-        alarmMail: found.alarmMail,
-        emailVerified: found.emailVerifiedAt !== null,
-      },
-    });
+    res.json({ user: toUser(found) } satisfies UserResponse);
   });
 
   // Signing out ends this account's sessions everywhere, not only this browser's cookie.

@@ -1,6 +1,8 @@
 /** Input fields several routers share, so a rule (e.g. password length) has one home. */
 import { z } from 'zod';
 
+import { ROLES, UNIT_PREFS } from '@/ingest/wire';
+
 export const emailField = z
   .string()
   .trim()
@@ -35,6 +37,6 @@ export function nameField(emptyMessage: string) {
 
 export const personNameField = nameField('Enter your name');
 
-export const roleField = z.enum(['owner', 'member', 'viewer'], 'Pick owner, member or viewer');
+export const roleField = z.enum(ROLES, 'Pick owner, member or viewer');
 
-export const unitPrefField = z.enum(['C', 'F'], 'Pick C or F');
+export const unitPrefField = z.enum(UNIT_PREFS, 'Pick C or F');

@@ -16,6 +16,7 @@ import {
 import { listMembers } from '@/db/queries/memberships';
 import { findShop } from '@/db/queries/shops';
 import { findUserById, insertUser, markEmailVerified } from '@/db/queries/users';
+import type { InvitationsResponse } from '@/ingest/wire';
 
 import { hashToken, newLinkToken } from '../auth/linkTokens';
 import { isUuid, shopIdOf, userIdOf } from '../auth/middleware';
@@ -24,6 +25,7 @@ import { startSession } from '../auth/session';
 import { ApiError } from '../errors';
 import { invitationMail } from '../mail';
 import { parseInput } from '../validate';
+import { toInvitation, toInvitationAccepted, toInvitationLink } from '../wire/people';
 
 import type { AuthDeps } from './auth';
 import { emailField, newPasswordField, personNameField, roleField } from './fields';
@@ -48,7 +50,8 @@ export function invitationsRouter(deps: InvitationDeps): Router {
   const router = Router();
 
   router.get('/shops/:shopId/invitations', async (_req, res) => {
-    res.json({ invitations: await listOpenInvitations(db, shopIdOf(res), new Date(now())) });
+    const rows = await listOpenInvitations(db, shopIdOf(res), new Date(now()));
+    res.json({ invitations: rows.map(toInvitation) } satisfies InvitationsResponse);
   });
 
   router.post('/shops/:shopId/invitations', limits.invitations, async (req, res) => {
@@ -91,7 +94,7 @@ export function invitationsRouter(deps: InvitationDeps): Router {
         'The invitation e-mail could not be sent right now. Try again in a minute.',
       );
     }
-    res.status(201).json(invitation);
+    res.status(201).json(toInvitation(invitation));
   });
 
   router.delete('/shops/:shopId/invitations/:invitationId', async (req, res) => {
@@ -109,13 +112,7 @@ export function invitationsRouter(deps: InvitationDeps): Router {
       new Date(now()),
     );
     if (!found) throw linkGone();
-    res.json({
-      shopName: found.shopName,
-      email: found.email,
-      role: found.role,
-      expiresAt: found.expiresAt,
-      accountExists: found.accountExists,
-    });
+    res.json(toInvitationLink(found));
   });
 
   router.post('/invitations/:token/accept', limits.invitations, async (req, res) => {
@@ -173,7 +170,7 @@ export function invitationsRouter(deps: InvitationDeps): Router {
     await markEmailVerified(db, userId, new Date(now()));
     res
       .status(status)
-      .json({ shop: { id: accepted.shopId, name: found.shopName }, role: accepted.role });
+      .json(toInvitationAccepted({ id: accepted.shopId, name: found.shopName }, accepted.role));
   });
 
   return router;

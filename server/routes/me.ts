@@ -8,6 +8,7 @@ import { z } from 'zod';
 import type { Db } from '@/db';
 import { listShopsOfUser, notifyAccessChanged } from '@/db/queries/memberships';
 import { findUserById, findUserSecrets, setPassword, updateProfile } from '@/db/queries/users';
+import type { Me, UserResponse, VerificationSent } from '@/ingest/wire';
 
 import { issueVerification } from '../auth/emailVerification';
 import { userIdOf } from '../auth/middleware';
@@ -17,6 +18,7 @@ import { startSession, type SessionSigner } from '../auth/session';
 import { ApiError } from '../errors';
 import type { Mailer } from '../mail';
 import { parseInput } from '../validate';
+import { toShopSummary, toUser } from '../wire/people';
 
 import { newPasswordField, personNameField, unitPrefField } from './fields';
 
@@ -57,14 +59,15 @@ export function meRouter({ db, sessions, mailer, limits, publicUrl, now }: MeDep
     const userId = userIdOf(res);
     const user = await findUserById(db, userId);
     if (!user) throw signedOut();
-    res.json({ user, shops: await listShopsOfUser(db, userId) });
+    const shops = await listShopsOfUser(db, userId);
+    res.json({ user: toUser(user), shops: shops.map(toShopSummary) } satisfies Me);
   });
 
   router.patch('/', async (req, res) => {
     const body = parseInput(profileBody, req.body);
     const user = await updateProfile(db, userIdOf(res), body);
     if (!user) throw signedOut();
-    res.json({ user });
+    res.json({ user: toUser(user) } satisfies UserResponse);
   });
 
   // A new password ends every other session; this one continues with a fresh cookie.
@@ -90,7 +93,7 @@ export function meRouter({ db, sessions, mailer, limits, publicUrl, now }: MeDep
     parseInput(verificationBody, req.body ?? {});
     const user = await findUserById(db, userIdOf(res));
     if (!user) throw signedOut();
-    if (user.emailVerified) {
+    if (user.emailVerifiedAt !== null) {
       throw new ApiError(409, 'already_verified', `${user.email} is already verified.`);
     }
     try {
@@ -102,7 +105,9 @@ export function meRouter({ db, sessions, mailer, limits, publicUrl, now }: MeDep
         'The e-mail could not be sent right now. Try again in a minute.',
       );
     }
-    res.status(202).json({ status: 'verification_sent', email: user.email });
+    res
+      .status(202)
+      .json({ status: 'verification_sent', email: user.email } satisfies VerificationSent);
   });
 
   return router;

@@ -7,10 +7,12 @@ import { z } from 'zod';
 
 import type { Db } from '@/db';
 import { changeMembership, listMembers, type MembershipChange } from '@/db/queries/memberships';
+import type { MemberRole, MembersResponse } from '@/ingest/wire';
 
 import { isUuid, shopIdOf, userIdOf } from '../auth/middleware';
 import { ApiError } from '../errors';
 import { parseInput } from '../validate';
+import { toMember } from '../wire/people';
 
 import { roleField } from './fields';
 
@@ -33,7 +35,8 @@ export function membersRouter(db: Db): Router {
   const router = Router({ mergeParams: true });
 
   router.get('/members', async (_req, res) => {
-    res.json({ members: await listMembers(db, shopIdOf(res)) });
+    const rows = await listMembers(db, shopIdOf(res));
+    res.json({ members: rows.map(toMember) } satisfies MembersResponse);
   });
 
   router.patch('/members/:userId', async (req, res) => {
@@ -41,7 +44,7 @@ export function membersRouter(db: Db): Router {
     const userId = req.params.userId;
     if (!isUuid(userId)) check({ ok: false, reason: 'not_a_member' });
     check(await changeMembership(db, shopIdOf(res), userId, { role: body.role }));
-    res.json({ userId, role: body.role });
+    res.json({ userId, role: body.role } satisfies MemberRole);
   });
 
   router.delete('/members/:userId', async (req, res) => {

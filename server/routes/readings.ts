@@ -4,11 +4,12 @@ import { z } from 'zod';
 import type { Db } from '@/db';
 import { querySeries } from '@/db/queries/readings';
 import { findZone } from '@/db/queries/zones';
-import { levelFor } from '@/ingest';
+import type { ReadingsResponse } from '@/ingest/wire';
 
 import { isUuid, shopIdOf } from '../auth/middleware';
 import { ApiError } from '../errors';
 import { parseInput } from '../validate';
+import { toReadingPoint } from '../wire/readings';
 
 const DAY_MS = 24 * 60 * 60 * 1000;
 // A year of one-minute data in one request would be half a million rows; 31 days is plenty
@@ -47,14 +48,13 @@ export function readingsRouter(db: Db, now: () => number): Router {
     if (!zone) throw new ApiError(404, 'not_found', 'No such zone in this shop.');
 
     const limits = { cautionK: zone.cautionK, wetK: zone.wetK };
-    const series = await querySeries(db, {
-      zoneId: zone.id,
-      from,
-      to,
-      points: q.points,
-      levelOf: (marginK) => levelFor(marginK, limits),
-    });
-    res.json({ from: from.toISOString(), to: to.toISOString(), ...series });
+    const series = await querySeries(db, { zoneId: zone.id, from, to, points: q.points });
+    res.json({
+      from: from.toISOString(),
+      to: to.toISOString(),
+      bucketSeconds: series.bucketSeconds,
+      points: series.rows.map((row) => toReadingPoint(row, limits)),
+    } satisfies ReadingsResponse);
   });
 
   return router;

@@ -17,11 +17,13 @@ import {
   updateSensor,
 } from '@/db/queries/sensors';
 import { findZone } from '@/db/queries/zones';
+import type { IssuedToken, SensorsResponse } from '@/ingest/wire';
 
 import { isUuid, shopIdOf } from '../auth/middleware';
 import { hashToken, newSensorToken, type SensorTokenCache } from '../auth/sensorTokens';
 import { ApiError } from '../errors';
 import { parseInput } from '../validate';
+import { toCreatedSensor, toSensor, toSensorPlacement } from '../wire/sensors';
 
 import { nameField } from './fields';
 
@@ -45,7 +47,8 @@ export function sensorsRouter(db: Db, tokens: SensorTokenCache): Router {
   const router = Router({ mergeParams: true });
 
   router.get('/', async (_req, res) => {
-    res.json({ sensors: await listSensors(db, shopIdOf(res)) });
+    const rows = await listSensors(db, shopIdOf(res));
+    res.json({ sensors: rows.map(toSensor) } satisfies SensorsResponse);
   });
 
   router.post('/', async (req, res) => {
@@ -64,7 +67,7 @@ export function sensorsRouter(db: Db, tokens: SensorTokenCache): Router {
     // (and remembered as unknown) before, so the new sensor's first post is never refused.
     await tokens.invalidate(tokenHash);
     // The only time the token leaves the server: it is stored as a hash.
-    res.status(201).json({ id: sensor.id, name: sensor.name, zoneId: sensor.zoneId, token });
+    res.status(201).json(toCreatedSensor(sensor, token));
   });
 
   router.patch('/:sensorId', async (req, res) => {
@@ -76,7 +79,7 @@ export function sensorsRouter(db: Db, tokens: SensorTokenCache): Router {
     const updated = await updateSensor(db, shopId, sensorId, body);
     if (!updated) throw noSensor();
     await tokens.invalidate(updated.tokenHash);
-    res.json({ id: updated.id, name: updated.name, zoneId: updated.zoneId });
+    res.json(toSensorPlacement(updated));
   });
 
   // Rotation: a new token now, the old one refused from the next post on.
@@ -89,7 +92,7 @@ export function sensorsRouter(db: Db, tokens: SensorTokenCache): Router {
       : null;
     if (!rotated) throw noSensor();
     await tokens.invalidate([rotated.oldTokenHash, tokenHash]);
-    res.status(201).json({ id: sensorId, token });
+    res.status(201).json({ id: sensorId, token } satisfies IssuedToken);
   });
 
   router.delete('/:sensorId/token', async (req, res) => {

@@ -9,6 +9,7 @@ import { roleOf, shopIdOf, userIdOf } from '../auth/middleware';
 import type { SensorTokenCache } from '../auth/sensorTokens';
 import { ApiError } from '../errors';
 import { parseInput } from '../validate';
+import { toShop, toShopSummary } from '../wire/people';
 
 import { nameField } from './fields';
 
@@ -43,20 +44,20 @@ export function shopsRouter(db: Db, tokens: SensorTokenCache): Router {
   router.post('/', async (req, res) => {
     const body = parseInput(createShopBody, req.body);
     const shop = await createShopWithOwner(db, body, userIdOf(res));
-    res.status(201).json(shop);
+    res.status(201).json(toShop(shop));
   });
 
   router.get('/:shopId', async (_req, res) => {
     const shop = await findShop(db, shopIdOf(res));
     if (!shop) throw gone();
-    res.json({ ...shop, role: roleOf(res) });
+    res.json(toShopSummary({ ...shop, role: roleOf(res) }));
   });
 
   router.patch('/:shopId', async (req, res) => {
     const body = parseInput(updateShopBody, req.body);
     const shop = await updateShop(db, shopIdOf(res), body);
     if (!shop) throw gone();
-    res.json({ ...shop, role: roleOf(res) });
+    res.json(toShopSummary({ ...shop, role: roleOf(res) }));
   });
 
   // Deleting takes every zone, sensor and reading with it: the body must repeat the name.

@@ -6,11 +6,13 @@ import type { Db } from '@/db';
 import { tokenHashesOfZone } from '@/db/queries/sensors';
 import { findZone, insertZone, listZonesWithLatest, updateZone } from '@/db/queries/zones';
 import { marginLimitsSchema } from '@/ingest';
+import type { ZonesResponse } from '@/ingest/wire';
 
 import { isUuid, shopIdOf } from '../auth/middleware';
 import type { SensorTokenCache } from '../auth/sensorTokens';
 import { ApiError } from '../errors';
 import { parseInput } from '../validate';
+import { toZone, toZoneSettings } from '../wire/zones';
 
 import { nameField } from './fields';
 
@@ -34,13 +36,14 @@ export function zonesRouter(db: Db, tokens: SensorTokenCache): Router {
   const router = Router({ mergeParams: true });
 
   router.get('/', async (_req, res) => {
-    res.json({ zones: await listZonesWithLatest(db, shopIdOf(res)) });
+    const rows = await listZonesWithLatest(db, shopIdOf(res));
+    res.json({ zones: rows.map(toZone) } satisfies ZonesResponse);
   });
 
   router.post('/', async (req, res) => {
     const body = parseInput(createZoneBody, req.body);
     const zone = await insertZone(db, shopIdOf(res), body.name);
-    res.status(201).json(zone);
+    res.status(201).json(toZoneSettings(zone));
   });
 
   router.patch('/:zoneId', async (req, res) => {
@@ -58,7 +61,7 @@ export function zonesRouter(db: Db, tokens: SensorTokenCache): Router {
     if (!updated) throw noZone();
     // Sensors in this zone carry its limits in the ingest cache: forget them.
     for (const hash of await tokenHashesOfZone(db, zone.id)) await tokens.invalidate(hash);
-    res.json(updated);
+    res.json(toZoneSettings(updated));
   });
 
   return router;

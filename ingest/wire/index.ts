@@ -1,0 +1,9 @@
+/**
+ * What the HTTP API answers, one file per resource: type-only, plus small constant lists, so
+ * the server types its answers and the app imports the same shapes without bundling server code.
+ */
+export * from './levels';
+export * from './people';
+export * from './readings';
+export * from './sensors';
+export * from './zones';
