@@ -2,6 +2,7 @@
  * What the HTTP API answers, one file per resource: type-only, plus small constant lists, so
  * the server types its answers and the app imports the same shapes without bundling server code.
  */
+export * from './alarms';
 export * from './levels';
 export * from './people';
 export * from './readings';
