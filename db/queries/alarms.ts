@@ -21,9 +21,8 @@ import {
   type AlarmKind,
 } from '../schema';
 
+import { LIVE_CHANNEL, notify as notifyOn } from '../notify';
 import { withTransaction } from '../transaction';
-
-import { LIVE_CHANNEL } from './readings';
 
 export type AlarmRow = typeof alarms.$inferSelect;
 export type NewAlarmEvent = typeof alarmEvents.$inferInsert;
@@ -111,11 +110,8 @@ export function listAlarms(db: Db, shopId: string, state: 'open' | 'all', limit 
   return selectViews(db, and(eq(alarms.shopId, shopId), open), limit);
 }
 
-async function notify(ex: Db, payloads: string[]) {
-  if (payloads.length === 0) return;
-  await ex.execute(
-    sql`select pg_notify(${LIVE_CHANNEL}, p) from unnest(${sql.param(payloads)}::text[]) as p`,
-  );
+function notify(ex: Db, payloads: string[]) {
+  return notifyOn(ex, LIVE_CHANNEL, payloads);
 }
 
 export interface ZoneAlarmSettings {
