@@ -5,6 +5,7 @@
 import http from 'node:http';
 
 import { createDatabase } from '@/db';
+import { startNotificationListener } from '@/db/listener';
 
 import { createAlarmEngine } from './alarms';
 import { createApp } from './app';
@@ -20,7 +21,6 @@ import {
   workAlarmMails,
 } from './jobs';
 import { startLiveHub } from './live/hub';
-import { startNotificationListener } from './live/listener';
 import { createLogger, type Logger } from './logger';
 import { startMail } from './mail';
 import { createSurfaceEstimator } from './readings/surfaceEstimates';

@@ -1,3 +1,5 @@
+import { LIVE_PATH } from '@/ingest/wire/live';
+
 /**
  * Reconnect delays: doubling from 1 s up to 30 s, with up to 30 % jitter so a restarted
  * server is not hit by every open dashboard in the same instant.
@@ -13,5 +15,5 @@ export function backoffDelayMs(attempt: number, random: () => number = Math.rand
 /** ws:// or wss:// on the page's own host, so the session cookie goes along. */
 export function liveUrl(location: { protocol: string; host: string }): string {
   const scheme = location.protocol === 'https:' ? 'wss:' : 'ws:';
-  return `${scheme}//${location.host}/api/v1/live`;
+  return `${scheme}//${location.host}${LIVE_PATH}`;
 }

@@ -1,38 +1,34 @@
 /**
- * Messages from GET /api/v1/live. Checked by hand rather than with a schema library to keep
- * the web bundle small; anything unexpected is dropped, never thrown.
+ * Messages from GET /api/v1/live, whose shapes are ingest/wire/live.ts (the server builds them
+ * with the same types); the rest of the app imports them from here. Checked by hand rather
+ * than with a schema library to keep the web bundle small; anything unexpected is dropped,
+ * never thrown.
  */
-import type { Alarm, LatestReading } from '@/components/queries';
 import { isAlarmKind } from '@/ingest/alarmKinds';
+import type {
+  AccessMessage,
+  AlarmMessage,
+  LiveAlarm,
+  LiveReading,
+  ReadingMessage,
+} from '@/ingest/wire/live';
 import { LEVELS as LEVEL_LIST } from '@/ingest/wire/levels';
 
-/** A zone's newest reading, as the zone list holds it; the sensor travels beside it. */
-export type LiveReading = Omit<LatestReading, 'sensorId'>;
+export type { LiveAlarm, LiveReading };
 
-export interface LiveReadingMessage {
-  type: 'reading';
-  shopId: string;
-  zoneId: string;
-  sensorId: string;
-  reading: LiveReading;
-  /** How many readings the batch stored; only the newest travels in `reading`. */
+/** As parsed: `count` is left out when a message lacks it (then it counts as one). */
+export interface LiveReadingMessage extends Omit<ReadingMessage, 'count'> {
   count?: number;
 }
 
-export interface LiveAlarmMessage {
-  type: 'alarm';
-  shopId: string;
-  alarm: Alarm;
-  /** The server cut the alarm to fit the notification: refetch rather than patch. */
+/** As parsed: `partial` is always there; true means refetch rather than patch. */
+export interface LiveAlarmMessage extends Omit<AlarmMessage, 'partial'> {
   partial: boolean;
 }
 
-/** This person's shops changed (invited, removed, a role changed): read /me again. */
-export interface LiveAccessMessage {
-  type: 'access';
-  shopIds: string[];
-}
+export type LiveAccessMessage = AccessMessage;
 
+/** The messages the app acts on; `hello` and anything newer are dropped. */
 export type LiveMessage = LiveReadingMessage | LiveAlarmMessage | LiveAccessMessage;
 
 const LEVELS: readonly string[] = LEVEL_LIST;
@@ -92,7 +88,7 @@ function isAcknowledgement(value: unknown): boolean {
   );
 }
 
-function isAlarm(value: unknown): value is Alarm {
+function isAlarm(value: unknown): value is LiveAlarm {
   if (!isObject(value)) return false;
   return (
     typeof value.id === 'string' &&

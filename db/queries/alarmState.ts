@@ -9,7 +9,6 @@ import { alarms, alarmEvents, alarmZoneStates, zones } from '../schema';
 
 import {
   alarmValuesOf,
-  notify,
   selectAlarmViewRows,
   type AlarmRow,
   type AlarmViewRow,
@@ -66,15 +65,14 @@ function engineColumns(row: AlarmRow) {
 }
 
 /**
- * Writes what the engine changed — new alarms, changed ones, their events — and pushes one live
- * message per changed alarm, built by `notificationsFor` from the alarms as now stored.
+ * Writes what the engine changed — new alarms, changed ones, their events — and returns the
+ * changed alarms as now stored, with their names, for the caller's live messages.
  */
 export async function saveAlarmChanges(
   tx: Tx,
   changes: { inserted: AlarmRow[]; updated: AlarmRow[]; events: NewAlarmEvent[] },
-  notificationsFor: (rows: AlarmViewRow[]) => string[],
-) {
-  if (changes.events.length === 0) return;
+): Promise<AlarmViewRow[]> {
+  if (changes.events.length === 0) return [];
   // Clears before opens: a batch that clears an alarm and opens its successor (same subject and
   // kind) would otherwise meet the one-open-alarm-per-subject index with both open.
   for (const row of changes.updated) {
@@ -85,6 +83,5 @@ export async function saveAlarmChanges(
   }
   await tx.insert(alarmEvents).values(changes.events);
   const ids = [...changes.inserted, ...changes.updated].map((r) => r.id);
-  const rows = await selectAlarmViewRows(tx, inArray(alarms.id, ids), ids.length);
-  await notify(tx, notificationsFor(rows));
+  return selectAlarmViewRows(tx, inArray(alarms.id, ids), ids.length);
 }

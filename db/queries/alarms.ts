@@ -12,9 +12,8 @@ import type pg from 'pg';
 import type { Db } from '../index';
 import { alarmEvents, alarms, sensors, users, zones } from '../schema';
 
+import { LIVE_CHANNEL, notify as notifyOn } from '../notify';
 import { withTransaction } from '../transaction';
-
-import { LIVE_CHANNEL } from './readings';
 
 export type AlarmRow = typeof alarms.$inferSelect;
 export type NewAlarmEvent = typeof alarmEvents.$inferInsert;
@@ -78,11 +77,8 @@ export function listAlarms(db: Db, shopId: string, state: 'open' | 'all', limit 
 }
 
 /** Sends live messages on commit of the transaction `ex` belongs to. */
-export async function notify(ex: Db, payloads: string[]) {
-  if (payloads.length === 0) return;
-  await ex.execute(
-    sql`select pg_notify(${LIVE_CHANNEL}, p) from unnest(${sql.param(payloads)}::text[]) as p`,
-  );
+export function notify(ex: Db, payloads: string[]) {
+  return notifyOn(ex, LIVE_CHANNEL, payloads);
 }
 
 export type AckOutcome =

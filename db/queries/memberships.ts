@@ -1,9 +1,9 @@
-import { and, eq, sql } from 'drizzle-orm';
+import { and, eq } from 'drizzle-orm';
 
 import type { Db } from '../index';
 import { memberships, shops, users, type Role } from '../schema';
 
-import { LIVE_CHANNEL } from './readings';
+import { LIVE_CHANNEL, notify } from '../notify';
 import { transaction } from '../transaction';
 
 type Executor = Pick<Db, 'execute'>;
@@ -44,7 +44,7 @@ export async function listMembers(db: Db, shopId: string) {
 export async function notifyAccessChanged(executor: Executor, userIds: string[]) {
   if (userIds.length === 0) return;
   const payload = JSON.stringify({ type: 'access', userIds });
-  await executor.execute(sql`select pg_notify(${LIVE_CHANNEL}, ${payload})`);
+  await notify(executor, LIVE_CHANNEL, payload);
 }
 
 export type MembershipChange = { ok: true } | { ok: false; reason: 'not_a_member' | 'last_owner' };

@@ -4,6 +4,7 @@ import type pg from 'pg';
 import type { Level, MarginSample } from '@/ingest';
 
 import type { Db } from '../index';
+import { LIVE_CHANNEL } from '../notify';
 
 export interface ReadingRow {
   sensorId: string;
@@ -21,9 +22,6 @@ export interface ReadingRow {
   level: Level;
 }
 
-/** The channel every server instance LISTENs on for live fan-out. */
-export const LIVE_CHANNEL = 'drybench_live';
-
 /** Identifies a reading: a sensor posts at most one reading per instant. */
 export const readingKey = (sensorId: string, atMs: number) => `${sensorId}|${atMs}`;
 
@@ -31,18 +29,19 @@ export const readingKey = (sensorId: string, atMs: number) => `${sensorId}|${atM
  * Inserts a group of readings in ONE statement — a round trip instead of five, with no
  * explicit transaction: the multi-row INSERT through unnest (a fixed set of array parameters
  * whatever the row count), the sensors' last-seen, battery and interval, and the live
- * notifications, which PostgreSQL delivers only when the statement commits. The notifications
- * are built for "every row was new", the usual case; when some rows were duplicates the
- * statement sends none and a second one sends those `notificationsFor` builds from the keys
- * that really were new. The (sensor, at) key makes retries harmless. Returns the keys inserted.
+ * notifications, which PostgreSQL delivers only when the statement commits, so a stored
+ * reading's message is never lost and a refused one's never sent.
+ *
+ * `notifyIfAllNew` are the caller's LIVE_CHANNEL payloads for "every row was new", the usual
+ * case; when some rows were duplicates the statement sends none of them, and the caller sends
+ * its own for the rows that really were new (db/notify.ts). The (sensor, at) key makes retries
+ * harmless. Returns the keys (readingKey) inserted.
  */
 export async function insertReadingGroup(
   pool: pg.Pool,
   rows: ReadingRow[],
-  notificationsFor: (insertedKeys: Set<string>) => string[],
+  notifyIfAllNew: readonly string[],
 ): Promise<Set<string>> {
-  const allKeys = new Set(rows.map((r) => readingKey(r.sensorId, r.at.getTime())));
-  const hopeful = notificationsFor(allKeys);
   const latest = summarizeSensors(rows);
   const inserted = await pool.query<{ sensor_id: string; at: Date }>(
     `with ins as (
@@ -93,21 +92,11 @@ export async function insertReadingGroup(
       latest.map((r) => r.batteryV),
       latest.map((r) => r.batchIntervalS),
       LIVE_CHANNEL,
-      hopeful,
+      notifyIfAllNew,
       rows.length,
     ],
   );
-  const insertedKeys = new Set(inserted.rows.map((r) => readingKey(r.sensor_id, r.at.getTime())));
-  if (insertedKeys.size === rows.length || insertedKeys.size === 0) return insertedKeys;
-  // Some were duplicates: the statement above sent nothing; tell about the new ones only.
-  const payloads = notificationsFor(insertedKeys);
-  if (payloads.length > 0) {
-    await pool.query('select pg_notify($1, p) from unnest($2::text[]) as p', [
-      LIVE_CHANNEL,
-      payloads,
-    ]);
-  }
-  return insertedKeys;
+  return new Set(inserted.rows.map((r) => readingKey(r.sensor_id, r.at.getTime())));
 }
 
 /**

@@ -4,6 +4,7 @@
  */
 export * from './alarms';
 export * from './levels';
+export * from './live';
 export * from './people';
 export * from './readings';
 export * from './sensors';

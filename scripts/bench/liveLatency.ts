@@ -9,12 +9,11 @@ import { monitorEventLoopDelay } from 'node:perf_hooks';
 
 import { WebSocket } from 'ws';
 
-import type { ReadingMessage } from '@/server/live/messages';
+import { LIVE_PATH, type ReadingMessage } from '@/ingest/wire/live';
 
 import type { ReadingSource } from './readings';
 import { summarize, type LatencySummary } from './stats';
 
-const LIVE_PATH = '/api/v1/live';
 // Connecting all at once would measure the upgrade stampede, not the steady state.
 const CONNECT_WAVE = 25;
 

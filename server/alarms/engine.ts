@@ -8,7 +8,7 @@
 import type pg from 'pg';
 
 import type { Db } from '@/db';
-import type { AlarmRow, AlarmViewRow, Tx } from '@/db/queries/alarms';
+import { notify, type AlarmRow, type Tx } from '@/db/queries/alarms';
 import {
   lockZoneState,
   openAlarmsOfZone,
@@ -36,7 +36,7 @@ export interface SweepOutcome {
 export interface AlarmEngine {
   /**
    * Steps one zone through readings (from any of its sensors, oldest first) and writes what
-   * changed. Never throws. The ingest route reaches it through the queue.
+   * changed. Never throws. Ingest reaches it through the alarm queue (server/readings/ingestReadings.ts).
    */
   judge(where: ZoneOf, rows: ReadingRow[]): Promise<void>;
   /** Opens sensor-silent alarms as of `nowMs`, and closes those of revoked sensors. */
@@ -72,8 +72,11 @@ export function createAlarmEngine(deps: {
     const book = createAlarmBook(where, await openAlarmsOfZone(tx, where.zoneId));
     signals.forEach((signal) => book.apply(signal));
     const changes = book.changes();
-    await saveAlarmChanges(tx, changes, (rows: AlarmViewRow[]) =>
-      rows.map((row) => alarmMessageJson(where.shopId, alarmOf(row))),
+    const changed = await saveAlarmChanges(tx, changes);
+    // Sent on commit, with the alarms as stored: a rolled-back change is never announced.
+    await notify(
+      tx,
+      changed.map((row) => alarmMessageJson(where.shopId, alarmOf(row))),
     );
     if (changes.inserted.length > 0) await deps.onOpened?.(tx, changes.inserted);
     return changes.events.length;

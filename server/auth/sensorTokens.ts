@@ -13,14 +13,10 @@
  */
 import { createHash, randomBytes } from 'node:crypto';
 
-import { sql } from 'drizzle-orm';
-
 import type { Db } from '@/db';
+import type { NotificationListener } from '@/db/listener';
+import { notify, TOKEN_CHANNEL } from '@/db/notify';
 import { findActiveSensorByTokenHash, type SensorIdentity } from '@/db/queries/sensors';
-
-import type { NotificationListener } from '../live/listener';
-
-export const TOKEN_CHANNEL = 'drybench_tokens';
 
 export function newSensorToken(): string {
   return `dbs_${randomBytes(32).toString('base64url')}`;
@@ -118,9 +114,7 @@ export function createSensorTokenCache(db: Db, options: TokenCacheOptions = {}):
       const hashes = typeof tokenHashes === 'string' ? [tokenHashes] : [...tokenHashes];
       if (hashes.length === 0) return;
       hashes.forEach(forget);
-      await db.execute(
-        sql`select pg_notify(${TOKEN_CHANNEL}, h) from unnest(${sql.param(hashes)}::text[]) as h`,
-      );
+      await notify(db, TOKEN_CHANNEL, hashes);
     },
   };
 }

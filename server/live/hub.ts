@@ -11,19 +11,24 @@ import { WebSocket, WebSocketServer } from 'ws';
 
 import type { Db } from '@/db';
 import { listShopsOfUser } from '@/db/queries/memberships';
-import { LIVE_CHANNEL } from '@/db/queries/readings';
+import type { NotificationListener } from '@/db/listener';
+import { LIVE_CHANNEL } from '@/db/notify';
 import { findSessionState } from '@/db/queries/users';
+import {
+  LIVE_PATH,
+  type AccessMessage,
+  type HelloMessage,
+  type AlarmMessage,
+  type ReadingMessage,
+} from '@/ingest/wire/live';
 
 import { isAllowedHost, misdirected, type AllowedHosts } from '../auth/hosts';
 import { isTrustedUpgradeOrigin } from '../auth/origin';
 import type { SessionSigner } from '../auth/session';
 import { resolveSession } from '../auth/sessionState';
 
-import type { NotificationListener } from './listener';
-import type { LiveMessage } from './messages';
 import { missedMessages } from './replay';
 
-export const LIVE_PATH = '/api/v1/live';
 const HEARTBEAT_MS = 30_000;
 /** setTimeout's longest delay (~24.8 days); sessions last 7 days, so it never cuts one short. */
 const MAX_TIMER_MS = 2 ** 31 - 1;
@@ -57,7 +62,10 @@ interface Client {
   expiry: ReturnType<typeof setTimeout>;
 }
 
-/** Sent (inside the committing transaction) when people's shops or sessions changed. */
+/**
+ * Between instances only, on LIVE_CHANNEL (db/queries/memberships.ts sends it inside the
+ * committing transaction): these people's shops or sessions changed. Never sent to a browser.
+ */
 interface AccessNotice {
   type: 'access';
   userIds: string[];
@@ -106,9 +114,9 @@ export function startLiveHub(deps: {
 
   function deliver(payload: string | undefined) {
     if (!payload) return;
-    let message: LiveMessage | AccessNotice;
+    let message: ReadingMessage | AlarmMessage | AccessNotice;
     try {
-      message = JSON.parse(payload) as LiveMessage | AccessNotice;
+      message = JSON.parse(payload) as ReadingMessage | AlarmMessage | AccessNotice;
     } catch {
       return;
     }
@@ -138,7 +146,8 @@ export function startLiveHub(deps: {
             continue;
           }
           client.shopIds = shopIds;
-          send(client, JSON.stringify({ type: 'access', shopIds: [...shopIds] }));
+          const access: AccessMessage = { type: 'access', shopIds: [...shopIds] };
+          send(client, JSON.stringify(access));
         }
       } catch {
         // Database away: stop sending these sockets anything until they reconnect and re-check.
@@ -228,7 +237,8 @@ export function startLiveHub(deps: {
         else socketsPerUser.delete(userId);
       });
       ws.on('error', () => ws.terminate());
-      send(client, JSON.stringify({ type: 'hello', shopIds: [...shopIds] }));
+      const hello: HelloMessage = { type: 'hello', shopIds: [...shopIds] };
+      send(client, JSON.stringify(hello));
       const sinceMs = Date.parse(url.searchParams.get('since') ?? '');
       if (Number.isFinite(sinceMs)) void replay(client, sinceMs);
     });

@@ -1,38 +1,20 @@
-/** Messages the live hub pushes to browsers; built once, where the data is committed. */
+/**
+ * The live messages the server builds, once, where the data is committed; their shapes are
+ * ingest/wire/live.ts, which the app reads them with too.
+ */
+import { NOTIFY_MAX_BYTES } from '@/db/notify';
 import type { Alarm as AlarmView } from '@/ingest/wire/alarms';
 import type { ReadingRow } from '@/db/queries/readings';
-import type { LatestReading } from '@/ingest/wire/zones';
+import type { AlarmMessage, ReadingMessage } from '@/ingest/wire/live';
 
-/**
- * A zone's newest reading as the zone list shows it, so a client can put it straight into that
- * list; the sensor travels beside it in the message.
- */
-export type LiveReading = Omit<LatestReading, 'sensorId'>;
-
-export interface ReadingMessage {
-  type: 'reading';
-  shopId: string;
-  zoneId: string;
-  sensorId: string;
-  /** The newest reading of the batch: what a card shows. */
-  reading: LiveReading;
-  /** How many readings the batch stored; a chart refetches when more than one arrived. */
-  count: number;
-}
-
-/** An alarm as it stands after a change (opened, updated, acknowledged, cleared). */
-export interface AlarmMessage {
-  type: 'alarm';
-  shopId: string;
-  alarm: AlarmView;
-  /** Set when the alarm did not fit pg_notify's cap and was cut: the client refetches. */
-  partial?: true;
-}
-
-export type LiveMessage = ReadingMessage | AlarmMessage;
-
-/** pg_notify refuses payloads of 8,000 bytes or more; keep a margin for the channel name. */
-const NOTIFY_MAX_BYTES = 7_900;
+export type {
+  AccessMessage,
+  AlarmMessage,
+  HelloMessage,
+  LiveMessage,
+  LiveReading,
+  ReadingMessage,
+} from '@/ingest/wire/live';
 
 /**
  * The alarm message as JSON. A long note and long names could pass the cap (a 500-character
@@ -62,7 +44,7 @@ export function alarmMessageJson(shopId: string, alarm: AlarmView): string {
   } satisfies AlarmMessage);
 }
 
-/** One message per stored batch keeps the payload far below pg_notify's 8,000-byte cap. */
+/** One message per stored batch keeps the payload far below pg_notify's cap (db/notify.ts). */
 export function readingMessage(fresh: ReadingRow[]): ReadingMessage {
   const newest = fresh.reduce((a, b) => (b.at > a.at ? b : a));
   return {

@@ -1,9 +1,14 @@
 /**
  * Group commit for readings. Requests that arrive while a write is in flight wait a moment and
- * go into the next statement together: one multi-row INSERT (through unnest, so the statement
- * has a fixed 13 parameters whatever the row count), one sensor update and one pg_notify per
- * request, all in one transaction (db/queries/readings.ts). Each request's promise settles only after that commit, so
- * a 202 always means the rows are durable.
+ * go into the next statement together: one statement inserts every row (through unnest, so it
+ * has a fixed 20 parameters whatever the row count), updates the sensors and sends each
+ * request's live message, committed as one (db/queries/readings.ts). Each request's promise
+ * settles only after that commit, so a 202 always means the rows are durable.
+ *
+ * Live messages: the writer builds one reading message per request (server/live/messages.ts)
+ * before the statement, for the usual case that every row is new, and hands the statement the
+ * strings. When some rows turn out to be duplicates the statement sends none, and the writer
+ * sends the messages of the rows that were new right after, before the request settles.
  *
  * Isolation: one request's rows must never fail another's. When a group statement fails for a
  * reason that is not transient (the database refused some row, not "the database is away"),
@@ -16,9 +21,11 @@
  */
 import type pg from 'pg';
 
+import { LIVE_CHANNEL, notify } from '@/db/notify';
 import { insertReadingGroup, readingKey, type ReadingRow } from '@/db/queries/readings';
 
 import { ApiError, isDatabaseUnavailable, RetryLaterError } from '../errors';
+import { readingMessage } from '../live/messages';
 
 export interface WriteOutcome {
   /** `at` (epoch ms) of the rows this request inserted; the others were duplicates. */
@@ -26,17 +33,13 @@ export interface WriteOutcome {
 }
 
 export interface ReadingWriter {
-  /** `livePayload` builds the notification from the rows that were new, or null for none. */
-  write(
-    rows: ReadingRow[],
-    livePayload: (fresh: ReadingRow[]) => string | null,
-  ): Promise<WriteOutcome>;
+  /** Stores one request's rows (and sends their live message); settles after the commit. */
+  write(rows: ReadingRow[]): Promise<WriteOutcome>;
   close(): Promise<void>;
 }
 
 interface Pending {
   rows: ReadingRow[];
-  livePayload: (fresh: ReadingRow[]) => string | null;
   resolve: (outcome: WriteOutcome) => void;
   reject: (err: unknown) => void;
 }
@@ -54,7 +57,7 @@ export interface WriterOptions {
 
 /**
  * 50,000 rows is ~2.5 s of the group writer's measured rate (~19,000 readings/s) and a few tens
- * of MB of rows and closures: a backlog a healthy database clears quickly, and a bound on memory
+ * of MB of rows: a backlog a healthy database clears quickly, and a bound on memory
  * when it cannot. Operators change it with INGEST_MAX_PENDING_ROWS (server/config.ts).
  */
 export const DEFAULT_MAX_PENDING_ROWS = 50_000;
@@ -156,7 +159,7 @@ export function createReadingWriter(
   }
 
   return {
-    write(rows, livePayload) {
+    write(rows) {
       if (rows.length === 0) return Promise.resolve({ insertedMs: new Set() });
       // A lone request larger than the bound still goes through when nothing else is pending.
       if (pendingRows > 0 && pendingRows + rows.length > opts.maxPendingRows) {
@@ -171,7 +174,7 @@ export function createReadingWriter(
       pendingRows += rows.length;
       queuedRows += rows.length;
       return new Promise<WriteOutcome>((resolve, reject) => {
-        queue.push({ rows, livePayload, resolve, reject });
+        queue.push({ rows, resolve, reject });
         if (queuedRows >= opts.maxGroupRows) void flush();
         else schedule();
       });
@@ -202,17 +205,22 @@ async function writeGroup(pool: pg.Pool, group: Pending[]): Promise<WriteOutcome
   });
 
   // The rows each request owns and that were new, given the keys the database inserted.
-  const freshOf = (insertedKeys: Set<string>) =>
+  const freshOf = (insertedKeys: { has(key: string): boolean }) =>
     group.map((p, i) =>
       p.rows.filter((r) => {
         const k = readingKey(r.sensorId, r.at.getTime());
         return owner.get(k) === i && insertedKeys.has(k);
       }),
     );
-  const insertedKeys = await insertReadingGroup(pool, rows, (keys) =>
-    freshOf(keys)
-      .map((f, i) => (f.length > 0 ? group[i]!.livePayload(f) : null))
-      .filter((payload): payload is string => payload !== null),
-  );
-  return freshOf(insertedKeys).map((f) => ({ insertedMs: new Set(f.map((r) => r.at.getTime())) }));
+  const liveMessages = (fresh: ReadingRow[][]) =>
+    fresh.filter((f) => f.length > 0).map((f) => JSON.stringify(readingMessage(f)));
+
+  const insertedKeys = await insertReadingGroup(pool, rows, liveMessages(freshOf(owner)));
+  const fresh = freshOf(insertedKeys);
+  // Some rows were duplicates, so the statement sent nothing: tell about the new ones only.
+  // The rows are committed already, so this goes out after the commit, never for a lost row.
+  if (insertedKeys.size > 0 && insertedKeys.size < rows.length) {
+    await notify(pool, LIVE_CHANNEL, liveMessages(fresh));
+  }
+  return fresh.map((f) => ({ insertedMs: new Set(f.map((r) => r.at.getTime())) }));
 }

@@ -1,15 +1,15 @@
 /**
  * POST /api/v1/ingest — sensors post one reading or a batch with a bearer token.
- * The route validates the envelope (400), checks each reading (listed in `rejected`),
- * derives dew point, margin, EMC and level in ingest/, and answers 202 only after the rows
- * are committed, so an acknowledged reading is never lost.
+ * The route is the HTTP side only: the token (401), the sensor's rate (429), the content type
+ * (415), the body's size and envelope (413, 400). storeReadings (server/readings/) checks,
+ * derives and stores the readings, and the route answers 202 only after the rows are
+ * committed, so an acknowledged reading is never lost.
  */
 import express, { Router } from 'express';
 
 import type { SensorIdentity } from '@/db/queries/sensors';
 import { MAX_READINGS_PER_REQUEST, parseEnvelope } from '@/ingest';
 
-import type { AlarmQueue } from '../alarms/queue';
 import {
   createSensorRateLimiter,
   DEFAULT_SENSOR_RATE,
@@ -17,26 +17,18 @@ import {
 } from '../auth/sensorRateLimit';
 import type { SensorTokenCache } from '../auth/sensorTokens';
 import { ApiError } from '../errors';
-import { readingMessage } from '../live/messages';
-import { prepareReadings } from '../readings/prepare';
-import type { SurfaceEstimator } from '../readings/surfaceEstimates';
-import type { ReadingWriter } from '../readings/writer';
+import { storeReadings, type StoreReadingsDeps } from '../readings/ingestReadings';
 
 const BEARER = /^Bearer\s+(\S+)$/i;
 
-export interface IngestDeps {
-  writer: ReadingWriter;
+export interface IngestDeps extends StoreReadingsDeps {
   tokens: SensorTokenCache;
-  estimator: SurfaceEstimator;
   now: () => number;
   sensorRate?: RateLimitOptions;
-  alarms?: AlarmQueue;
-  /** Answer only after the alarms are judged too (tests want that order; sensors need not). */
-  awaitAlarms?: boolean;
 }
 
 export function ingestRouter(deps: IngestDeps): Router {
-  const { writer, tokens, estimator, now, sensorRate, alarms, awaitAlarms } = deps;
+  const { tokens, now, sensorRate } = deps;
   const router = Router();
   const limiter = createSensorRateLimiter({ ...DEFAULT_SENSOR_RATE, ...sensorRate, now });
 
@@ -107,36 +99,7 @@ export function ingestRouter(deps: IngestDeps): Router {
         );
       }
 
-      const { rows, rejected } = await prepareReadings(
-        sensor,
-        envelope.readings,
-        receivedAtMs,
-        estimator,
-      );
-      const { insertedMs } = await writer.write(rows, (fresh) =>
-        JSON.stringify(readingMessage(fresh)),
-      );
-      // The rows are committed, so the 202 need not wait for the alarms: the queue judges them
-      // next, logs its own failures and never undoes the answer.
-      const judged = alarms?.add(
-        sensor,
-        rows.filter((r) => insertedMs.has(r.at.getTime())),
-      );
-      if (awaitAlarms) await judged;
-
-      res.status(202).json({
-        stored: insertedMs.size,
-        duplicates: rows.length - insertedMs.size,
-        rejected,
-        results: rows.map((r) => ({
-          at: r.at.toISOString(),
-          dewPoint: r.dewPointC,
-          margin: r.marginK,
-          emc: r.emcPct,
-          level: r.level,
-          surfaceSource: r.surfaceSource,
-        })),
-      });
+      res.status(202).json(await storeReadings(deps, sensor, envelope.readings, receivedAtMs));
     },
   );
 

@@ -9,10 +9,10 @@ import type net from 'node:net';
 import { afterAll, beforeAll, describe, expect, it } from 'vitest';
 import WebSocket from 'ws';
 
-import { LIVE_CHANNEL } from '@/db/queries/readings';
+import { LIVE_CHANNEL } from '@/db/notify';
 import { createSessionSigner, SESSION_COOKIE, SESSION_TTL_S } from '@/server/auth/session';
 import { startLiveHub } from '@/server/live/hub';
-import { startNotificationListener } from '@/server/live/listener';
+import { startNotificationListener } from '@/db/listener';
 import { silentLogger } from '@/server/logger';
 
 import {

@@ -11,7 +11,7 @@ import { afterAll, beforeAll, describe, expect, it } from 'vitest';
 import { createApp } from '@/server/app';
 import { SESSION_COOKIE } from '@/server/auth/session';
 import { readConfig } from '@/server/config';
-import { startNotificationListener } from '@/server/live/listener';
+import { startNotificationListener } from '@/db/listener';
 import { createLogger } from '@/server/logger';
 import type { ReadingWriter } from '@/server/readings/writer';
 import { VERIFICATION_SUBJECT } from '@/server/mail';

@@ -11,7 +11,7 @@ import type { AllowedHosts } from '@/server/auth/hosts';
 import { createSensorTokenCache } from '@/server/auth/sensorTokens';
 import { createSessionSigner } from '@/server/auth/session';
 import type { TrustProxy } from '@/server/config';
-import { startNotificationListener } from '@/server/live/listener';
+import { startNotificationListener } from '@/db/listener';
 import { createMailer, createOutbox, startLocalSmtpServer } from '@/server/mail';
 import { DEFAULT_RATE_LIMITS, type RateLimitConfig } from '@/server/auth/rateLimits';
 import { silentLogger, type Logger } from '@/server/logger';

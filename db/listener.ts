@@ -3,10 +3,10 @@
  * instances: the live hub (readings, alarms) and the sensor-token cache (revocations). It
  * reconnects after a database restart and re-LISTENs on every channel. Whatever was notified
  * while it was down is lost, so it tells `onReconnect` handlers to catch up by other means.
+ * The channel names and the sending side are in db/notify.ts.
  */
 import pg from 'pg';
-
-import type { Logger } from '../logger';
+import type { Logger } from 'pino';
 
 const RECONNECT_MS = 1_000;
 
