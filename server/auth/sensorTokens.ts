@@ -68,6 +68,12 @@ export function createSensorTokenCache(db: Db, options: TokenCacheOptions = {}):
     unknown.delete(tokenHash);
   };
   options.listener?.on(TOKEN_CHANNEL, forget);
+  // A revocation sent while the LISTEN connection was down was never heard: start over, so a
+  // revoked token is refused from the reconnect on rather than after its entry's TTL.
+  options.listener?.onReconnect(() => {
+    entries.clear();
+    unknown.clear();
+  });
 
   function rememberUnknown(tokenHash: string) {
     unknown.delete(tokenHash);

@@ -1,9 +1,13 @@
 // The sensor token cache: an unknown token costs one query per interval, not one per post; a
 // token created afterwards works at once; removing a sensor keeps its readings as history.
+import { randomUUID } from 'node:crypto';
+
 import { afterAll, beforeAll, describe, expect, it } from 'vitest';
 
+import { startNotificationListener } from '@/db/listener';
 import { insertSensor } from '@/db/queries/sensors';
 import { createSensorTokenCache, hashToken, newSensorToken } from '@/server/auth/sensorTokens';
+import { silentLogger } from '@/server/logger';
 
 import { makeTestApp, ownerWithSensor, type TestApp } from '../support/app';
 import { postIngest } from '../support/ingest';
@@ -135,5 +139,37 @@ describe('removing a sensor', () => {
     await o.agent
       .delete(`/api/v1/shops/${o.shopId}/sensors/00000000-0000-4000-8000-000000000000`)
       .expect(404);
+  });
+});
+
+describe('after the LISTEN connection comes back', () => {
+  it('forgets cached tokens, so a revocation sent while it was down takes effect', async () => {
+    const name = `drybench-tokens-${randomUUID().slice(0, 8)}`;
+    const url = new URL(process.env.DATABASE_URL!);
+    url.searchParams.set('application_name', name);
+    const listener = startNotificationListener(url.toString(), silentLogger());
+    try {
+      await listener.ready;
+      // A long TTL: without the reconnect rule the revoked token would be served from cache.
+      const cache = createSensorTokenCache(t.db, { listener, ttlMs: 3_600_000 });
+      const o = await ownerWithSensor(t);
+      expect(await cache.resolve(o.token)).not.toBeNull();
+
+      const backends = () =>
+        t.pool.query('select pid from pg_stat_activity where application_name = $1', [name]);
+      const before = (await backends()).rows[0]?.pid as number;
+      await t.pool.query('select pg_terminate_backend($1)', [before]);
+      // Revoked while nobody listens: no notification reaches this instance.
+      await t.pool.query('update sensors set revoked_at = now() where id = $1', [o.sensorId]);
+      const deadline = Date.now() + 10_000;
+      for (;;) {
+        const pid = (await backends()).rows[0]?.pid as number | undefined;
+        if (pid !== undefined && pid !== before && (await cache.resolve(o.token)) === null) break;
+        if (Date.now() > deadline) throw new Error('the revoked token was still served');
+        await new Promise((r) => setTimeout(r, 50));
+      }
+    } finally {
+      await listener.close();
+    }
   });
 });
