@@ -1,6 +1,6 @@
 import { useLocalSearchParams } from 'expo-router';
 
-import { ProfileScreen } from '@/components/ProfileScreen';
+import { ProfileScreen } from '@/components/people/ProfileScreen';
 
 export default function Profile() {
   const { shopId } = useLocalSearchParams<{ shopId: string }>();

@@ -1,6 +1,6 @@
 import { useLocalSearchParams } from 'expo-router';
 
-import { SensorsScreen } from '@/components/SensorsScreen';
+import { SensorsScreen } from '@/components/sensors/SensorsScreen';
 
 export default function Sensors() {
   const { shopId } = useLocalSearchParams<{ shopId: string }>();

@@ -1,6 +1,6 @@
 import { useLocalSearchParams } from 'expo-router';
 
-import { ShopSettingsScreen } from '@/components/ShopSettingsScreen';
+import { ShopSettingsScreen } from '@/components/shop/ShopSettingsScreen';
 
 export default function ShopSettings() {
   const { shopId } = useLocalSearchParams<{ shopId: string }>();
