@@ -1,10 +1,10 @@
 import { StyleSheet, Text, View } from 'react-native';
 
-import { CONTENT_MAX_WIDTH, SINGLE_COLUMN_MAX_WIDTH, useBreakpoints } from '@/components/layout';
+import { useBreakpoints } from '@/components/layout';
 import { useAlarmsQuery, useUnitPref, type Alarm, type ShopSummary } from '@/components/queries';
-import { ShopFrame } from '@/components/shop/ShopFrame';
+import { useFrameShop } from '@/components/shop/ShopFrame';
 import { space, type } from '@/components/theme';
-import { Notice, useNow } from '@/components/ui';
+import { Notice, useDocumentTitle, useNow } from '@/components/ui';
 
 import { AlarmCard } from './AlarmCard';
 import { bySeverity } from './alarmText';
@@ -13,18 +13,11 @@ import { bySeverity } from './alarmText';
  * A shop's alarms: the open ones with what to do, and the recent ones with who acknowledged
  * them and what they did. Phone: one column; wide: open and recent side by side.
  */
-export function AlarmsScreen({ shopId }: { shopId: string }) {
+export function AlarmsScreen() {
+  const shop = useFrameShop();
   const { isWide } = useBreakpoints();
-  return (
-    <ShopFrame
-      shopId={shopId}
-      active="alarms"
-      title="Alarms"
-      maxWidth={isWide ? CONTENT_MAX_WIDTH : SINGLE_COLUMN_MAX_WIDTH}
-    >
-      {(shop) => <AlarmLists shop={shop} wide={isWide} />}
-    </ShopFrame>
-  );
+  useDocumentTitle('Alarms', shop.name);
+  return <AlarmLists shop={shop} wide={isWide} />;
 }
 
 function AlarmLists({ shop, wide }: { shop: ShopSummary; wide: boolean }) {

@@ -25,10 +25,10 @@ import {
   type Role,
   type ShopSummary,
 } from '@/components/queries';
-import { ShopFrame } from '@/components/shop/ShopFrame';
+import { useFrameShop } from '@/components/shop/ShopFrame';
 import { ShopTabs } from '@/components/shop/ShopTabs';
 import { space, type } from '@/components/theme';
-import { Notice, Panel } from '@/components/ui';
+import { Notice, Panel, useDocumentTitle } from '@/components/ui';
 
 const ROLE_OPTIONS: readonly { value: Role; label: string }[] = [
   { value: 'owner', label: 'Owner' },
@@ -37,12 +37,10 @@ const ROLE_OPTIONS: readonly { value: Role; label: string }[] = [
 ];
 
 /** Who is in the shop and with which role; owners invite, change roles and remove. */
-export function MembersScreen({ shopId }: { shopId: string }) {
-  return (
-    <ShopFrame shopId={shopId} active="shop" title="Members">
-      {(shop) => <MembersBody shop={shop} />}
-    </ShopFrame>
-  );
+export function MembersScreen() {
+  const shop = useFrameShop();
+  useDocumentTitle('Members', shop.name);
+  return <MembersBody shop={shop} />;
 }
 
 function MembersBody({ shop }: { shop: ShopSummary }) {

@@ -21,9 +21,9 @@ import {
   type UnitPref,
   type User,
 } from '@/components/queries';
-import { ShopFrame } from '@/components/shop/ShopFrame';
+import { useFrameShop } from '@/components/shop/ShopFrame';
 import { colors, space, type } from '@/components/theme';
-import { Panel } from '@/components/ui';
+import { Panel, useDocumentTitle } from '@/components/ui';
 
 const UNIT_OPTIONS: readonly { value: UnitPref; label: string }[] = [
   { value: 'C', label: '°C' },
@@ -34,13 +34,11 @@ const UNIT_OPTIONS: readonly { value: UnitPref; label: string }[] = [
  * The signed-in person: name, whether the address is verified, temperature units, alarm
  * e-mails, password, signing out.
  */
-export function ProfileScreen({ shopId }: { shopId: string }) {
+export function ProfileScreen() {
+  const shop = useFrameShop();
   const me = useMeQuery();
-  return (
-    <ShopFrame shopId={shopId} active="profile" title="Profile">
-      {() => (me.data ? <ProfileBody user={me.data.user} /> : null)}
-    </ShopFrame>
-  );
+  useDocumentTitle('Profile', shop.name);
+  return me.data ? <ProfileBody user={me.data.user} /> : null;
 }
 
 function ProfileBody({ user }: { user: User }) {

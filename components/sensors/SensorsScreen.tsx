@@ -26,19 +26,17 @@ import {
   type ShopSummary,
   type Zone,
 } from '@/components/queries';
-import { ShopFrame } from '@/components/shop/ShopFrame';
+import { useFrameShop } from '@/components/shop/ShopFrame';
 import { colors, space, tabular, type } from '@/components/theme';
-import { Notice, Panel, useNow } from '@/components/ui';
+import { Notice, Panel, useDocumentTitle, useNow } from '@/components/ui';
 
 import { TokenReveal } from './TokenReveal';
 
 /** A shop's sensors: where each sits, when it was last heard, its battery; owners manage them. */
-export function SensorsScreen({ shopId }: { shopId: string }) {
-  return (
-    <ShopFrame shopId={shopId} active="sensors" title="Sensors">
-      {(shop) => <SensorsBody shop={shop} />}
-    </ShopFrame>
-  );
+export function SensorsScreen() {
+  const shop = useFrameShop();
+  useDocumentTitle('Sensors', shop.name);
+  return <SensorsBody shop={shop} />;
 }
 
 function SensorsBody({ shop }: { shop: ShopSummary }) {

@@ -25,19 +25,17 @@ import {
   type ShopSummary,
 } from '@/components/queries';
 import { colors, space, type } from '@/components/theme';
-import { Panel } from '@/components/ui';
+import { Panel, useDocumentTitle } from '@/components/ui';
 
-import { ShopFrame } from './ShopFrame';
+import { useFrameShop } from './ShopFrame';
 import { ShopTabs } from './ShopTabs';
 import { ZoneLimitsForm } from './ZoneLimitsForm';
 
 /** The shop's name and time zone, its zones and their limits, leaving and deleting it. */
-export function ShopSettingsScreen({ shopId }: { shopId: string }) {
-  return (
-    <ShopFrame shopId={shopId} active="shop" title="Shop settings">
-      {(shop) => <SettingsBody shop={shop} />}
-    </ShopFrame>
-  );
+export function ShopSettingsScreen() {
+  const shop = useFrameShop();
+  useDocumentTitle('Shop settings', shop.name);
+  return <SettingsBody shop={shop} />;
 }
 
 function SettingsBody({ shop }: { shop: ShopSummary }) {

@@ -2,69 +2,38 @@ import { Link, Redirect } from 'expo-router';
 import type { ReactNode } from 'react';
 import { StyleSheet, Text, View } from 'react-native';
 
-import { AlarmBanner } from '@/components/alarms/AlarmBanner';
 import { shopHref } from '@/components/hrefs';
-import {
-  Content,
-  CONTENT_MAX_WIDTH,
-  LIST_COLUMN_WIDTH,
-  Screen,
-  SINGLE_COLUMN_MAX_WIDTH,
-  useBreakpoints,
-} from '@/components/layout';
-import { findShop, isSignedOut, useMeQuery, useZonesQuery, type Zone } from '@/components/queries';
-import { ShopPage } from '@/components/shop/ShopFrame';
+import { LIST_COLUMN_WIDTH, useBreakpoints } from '@/components/layout';
+import { isSignedOut, useZonesQuery, type Zone } from '@/components/queries';
+import { useFrameShop } from '@/components/shop/ShopFrame';
 import { colors, space, type } from '@/components/theme';
-import { Notice, Splash, useDocumentTitle } from '@/components/ui';
+import { Notice, useDocumentTitle } from '@/components/ui';
 
 import { ZoneCard } from './ZoneCard';
 import { ZoneHistory } from './ZoneHistory';
 import { ZoneList } from './ZoneList';
 
 interface ZonesScreenProps {
-  shopId: string;
   /** The zone to show; without it a phone shows the list and a wide screen the first zone. */
   zoneId?: string;
 }
 
 /**
  * A shop's zones. Phone: the list, or one zone with its chart. Wide: the list in a left column
- * beside the selected zone's chart.
+ * beside the selected zone's chart. The shop frame around it pins the open alarms above.
  */
-export function ZonesScreen({ shopId, zoneId }: ZonesScreenProps) {
-  const me = useMeQuery();
+export function ZonesScreen({ zoneId }: ZonesScreenProps) {
+  const shop = useFrameShop();
+  const shopId = shop.id;
   const zones = useZonesQuery(shopId);
   const { isWide } = useBreakpoints();
-  const shop = findShop(me.data, shopId);
   const zoneList = zones.data?.zones;
   const selected = zoneId ? zoneList?.find((zone) => zone.id === zoneId) : undefined;
-  useDocumentTitle(selected?.name, shop?.name);
+  useDocumentTitle(selected?.name, shop.name);
 
-  if (me.isPending) return <Splash />;
-  if (isSignedOut(me.error) || isSignedOut(zones.error)) return <Redirect href="/sign-in" />;
-  if (!shop) {
-    return (
-      <Screen>
-        <Content>
-          <Notice title="Shop not found" testID="shop-not-found">
-            {me.isError ? (
-              <Text style={type.body}>{me.error.message}</Text>
-            ) : (
-              <Text style={type.body}>
-                This shop does not exist or you are not one of its members.{' '}
-                <Link href="/" style={styles.link}>
-                  Go to your shops
-                </Link>
-              </Text>
-            )}
-          </Notice>
-        </Content>
-      </Screen>
-    );
-  }
+  if (isSignedOut(zones.error)) return <Redirect href="/sign-in" />;
 
   const timeZone = shop.timeZone;
-  const columnWidth = isWide ? CONTENT_MAX_WIDTH : SINGLE_COLUMN_MAX_WIDTH;
   let body: ReactNode;
   if (!zoneList) {
     body = zones.isError ? (
@@ -124,23 +93,7 @@ export function ZonesScreen({ shopId, zoneId }: ZonesScreenProps) {
     body = <ZoneList shopId={shopId} zones={zoneList} timeZone={timeZone} />;
   }
 
-  return (
-    <ShopPage
-      shop={shop}
-      active="zones"
-      maxWidth={columnWidth}
-      banner={
-        <AlarmBanner
-          shopId={shopId}
-          timeZone={timeZone}
-          canAcknowledge={shop.role !== 'viewer'}
-          maxWidth={columnWidth}
-        />
-      }
-    >
-      {body}
-    </ShopPage>
-  );
+  return body;
 }
 
 const styles = StyleSheet.create({
