@@ -3,7 +3,7 @@
 // session shows the error with a retry that recovers, a shop the person is not in shows "Shop
 // not found" with a link home, and no session sends the person to sign in.
 import type { Page } from 'playwright-core';
-import { afterAll, beforeAll, describe, expect, it } from 'vitest';
+import { afterAll, afterEach, beforeAll, describe, expect, it } from 'vitest';
 
 import { DEMO_PEOPLE } from '@/db/seed';
 
@@ -33,6 +33,8 @@ describe('the shop frame (390×844)', () => {
     shopUrl = `${suite.server.baseUrl}/shops/${suite.server.demo.shopId}`;
   });
   afterAll(() => page?.close());
+  // A failed case must not leave /me failing for the next one.
+  afterEach(() => page.unroute('**/api/v1/me'));
 
   it.each(ERROR_PAGES)('shows the error with a retry when /me fails on %s', async (path) => {
     // The server is up but answers /me with a 503, as when PostgreSQL is away.
@@ -70,6 +72,25 @@ describe('the shop frame (390×844)', () => {
       expect(errors).toEqual([]);
     },
   );
+
+  it('starts the next page at the top, as a page of its own would', async () => {
+    // The frame stays mounted from page to page; its scrolling area must not keep the offset.
+    const scrolled = () =>
+      page.evaluate(() =>
+        Math.max(...Array.from(document.querySelectorAll('div'), (el) => el.scrollTop)),
+      );
+    await page.goto(`${shopUrl}/settings`);
+    await page.getByTestId('shop-nav-bar').waitFor();
+    await page.getByText('Zones and limits').waitFor();
+    await page.mouse.move(195, 500);
+    await page.mouse.wheel(0, 1500);
+    await expect.poll(scrolled).toBeGreaterThan(0);
+    await page.getByTestId('nav-sensors').click();
+    await page.waitForURL(`${shopUrl}/sensors`);
+    await page.getByRole('heading', { name: 'Sensors' }).waitFor();
+    await expect.poll(scrolled).toBe(0);
+    expect(errors).toEqual([]);
+  });
 
   it('sends a person without a session to sign in from any page', async () => {
     const fresh = await suite.browser.newPage({ viewport: { width: 390, height: 844 } });
