@@ -1,4 +1,4 @@
-import { ForgotPasswordScreen } from '@/components/PasswordResetScreens';
+import { ForgotPasswordScreen } from '@/components/people/PasswordResetScreens';
 
 export default function ForgotPassword() {
   return <ForgotPasswordScreen />;

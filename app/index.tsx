@@ -1,4 +1,4 @@
-import { HomeScreen } from '@/components/HomeScreen';
+import { HomeScreen } from '@/components/people/HomeScreen';
 
 export default function Index() {
   return <HomeScreen />;

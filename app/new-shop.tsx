@@ -1,4 +1,4 @@
-import { NewShopScreen } from '@/components/NewShopScreen';
+import { NewShopScreen } from '@/components/shop/NewShopScreen';
 
 export default function NewShop() {
   return <NewShopScreen />;

@@ -1,4 +1,4 @@
-import { SignInScreen } from '@/components/SignInScreen';
+import { SignInScreen } from '@/components/people/SignInScreen';
 
 export default function SignIn() {
   return <SignInScreen />;

@@ -1,4 +1,4 @@
-import { SignUpScreen } from '@/components/SignUpScreen';
+import { SignUpScreen } from '@/components/people/SignUpScreen';
 
 export default function SignUp() {
   return <SignUpScreen />;

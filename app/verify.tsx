@@ -1,6 +1,6 @@
 import { useLocalSearchParams } from 'expo-router';
 
-import { VerifyEmailScreen } from '@/components/VerifyEmailScreen';
+import { VerifyEmailScreen } from '@/components/people/VerifyEmailScreen';
 
 export default function Verify() {
   const { token } = useLocalSearchParams<{ token?: string }>();

@@ -7,9 +7,9 @@ import { useFonts } from 'expo-font';
 import { useState, type ReactNode } from 'react';
 import { SafeAreaProvider } from 'react-native-safe-area-context';
 
-import { LiveProvider } from './live';
-import { createQueryClient } from './queries';
-import { Splash } from './Splash';
+import { LiveProvider } from '@/components/live';
+import { createQueryClient } from '@/components/queries';
+import { Splash } from '@/components/ui';
 
 /**
  * Everything the screens rely on: the query cache, safe-area insets, the live connection and

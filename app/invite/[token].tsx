@@ -1,6 +1,6 @@
 import { useLocalSearchParams } from 'expo-router';
 
-import { AcceptInvitationScreen } from '@/components/AcceptInvitationScreen';
+import { AcceptInvitationScreen } from '@/components/people/AcceptInvitationScreen';
 
 export default function Invite() {
   const { token } = useLocalSearchParams<{ token: string }>();

@@ -1,6 +1,6 @@
 import { useLocalSearchParams } from 'expo-router';
 
-import { ResetPasswordScreen } from '@/components/PasswordResetScreens';
+import { ResetPasswordScreen } from '@/components/people/PasswordResetScreens';
 
 export default function ResetPassword() {
   const { token } = useLocalSearchParams<{ token: string }>();

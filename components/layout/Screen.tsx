@@ -1,4 +1,4 @@
-import type { ReactNode } from 'react';
+import { useEffect, useRef, type ReactNode } from 'react';
 import { ScrollView, StyleSheet, View } from 'react-native';
 import { useSafeAreaInsets } from 'react-native-safe-area-context';
 
@@ -12,12 +12,18 @@ interface ScreenProps {
   /** Below the scrolling area, full width (the bottom bar on a phone). */
   footer?: ReactNode;
   children: ReactNode;
+  /** A frame kept across pages (the shop's layout) scrolls back to the top when this changes. */
+  scrollKey?: string;
   testID?: string;
 }
 
 /** A page: paper background, safe-area padding, optional fixed header, rail and footer. */
-export function Screen({ header, rail, footer, children, testID }: ScreenProps) {
+export function Screen({ header, rail, footer, children, scrollKey, testID }: ScreenProps) {
   const insets = useSafeAreaInsets();
+  const scroll = useRef<ScrollView>(null);
+  useEffect(() => {
+    scroll.current?.scrollTo({ x: 0, y: 0, animated: false });
+  }, [scrollKey]);
   return (
     <View
       style={[styles.page, { paddingTop: insets.top, paddingBottom: footer ? 0 : undefined }]}
@@ -29,6 +35,7 @@ export function Screen({ header, rail, footer, children, testID }: ScreenProps) 
         <View style={styles.column}>
           {header}
           <ScrollView
+            ref={scroll}
             style={styles.scroll}
             contentContainerStyle={[
               styles.scrollContent,

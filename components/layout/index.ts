@@ -9,4 +9,6 @@ export {
   type Breakpoints,
 } from './breakpoints';
 export { Content } from './Content';
+export { NotFoundScreen } from './NotFoundScreen';
 export { Screen } from './Screen';
+export { ShopNav } from './ShopNav';

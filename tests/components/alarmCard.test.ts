@@ -6,9 +6,9 @@ import { createElement } from 'react';
 import { renderToStaticMarkup } from 'react-dom/server';
 import { describe, expect, it } from 'vitest';
 
-import { AlarmCard } from '@/components/AlarmCard';
+import { AlarmCard } from '@/components/alarms/AlarmCard';
 import type { Alarm } from '@/components/queries';
-import { ZoneReadings } from '@/components/ZoneReadings';
+import { ZoneReadings } from '@/components/zones/ZoneReadings';
 import { ALARM_KINDS } from '@/ingest/alarmKinds';
 import { ALARM_ADVICE } from '@/ingest/words';
 

@@ -6,7 +6,7 @@ import {
   acknowledgementLine,
   alarmHeadline,
   bannerAlarms,
-} from '@/components/alarmText';
+} from '@/components/alarms/alarmText';
 import { applyLiveMessage, parseLiveMessage } from '@/components/live';
 import { alarmKeys, withAlarm, type Alarm, type AlarmsResponse } from '@/components/queries';
 

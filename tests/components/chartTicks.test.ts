@@ -1,6 +1,6 @@
 import { describe, expect, it } from 'vitest';
 
-import { hourTickLabel, hourTicks } from '@/components/chartTicks';
+import { hourTickLabel, hourTicks } from '@/components/zones/chartTicks';
 
 const iso = (ms: number) => new Date(ms).toISOString();
 

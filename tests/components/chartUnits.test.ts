@@ -1,6 +1,6 @@
 import { describe, expect, it } from 'vitest';
 
-import { chartSeries, seriesInUnit } from '@/components/chartSeries';
+import { chartSeries, seriesInUnit } from '@/components/zones/chartSeries';
 import type { ReadingPoint } from '@/components/queries';
 
 const point: ReadingPoint = {

@@ -1,6 +1,6 @@
 import { describe, expect, it } from 'vitest';
 
-import { marginScale } from '@/components/marginScale';
+import { marginScale } from '@/components/zones/marginScale';
 
 describe('marginScale', () => {
   it('puts the limits at thirds and clamps the marker', () => {

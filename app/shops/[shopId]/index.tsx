@@ -1,8 +1,5 @@
-import { useLocalSearchParams } from 'expo-router';
-
-import { ShopScreen } from '@/components/ShopScreen';
+import { ZonesScreen } from '@/components/zones/ZonesScreen';
 
 export default function ShopOverview() {
-  const { shopId } = useLocalSearchParams<{ shopId: string }>();
-  return <ShopScreen shopId={shopId} />;
+  return <ZonesScreen />;
 }

@@ -1,8 +1,5 @@
-import { useLocalSearchParams } from 'expo-router';
-
-import { ProfileScreen } from '@/components/ProfileScreen';
+import { ProfileScreen } from '@/components/people/ProfileScreen';
 
 export default function Profile() {
-  const { shopId } = useLocalSearchParams<{ shopId: string }>();
-  return <ProfileScreen shopId={shopId} />;
+  return <ProfileScreen />;
 }

@@ -1,8 +1,5 @@
-import { useLocalSearchParams } from 'expo-router';
-
-import { SensorsScreen } from '@/components/SensorsScreen';
+import { SensorsScreen } from '@/components/sensors/SensorsScreen';
 
 export default function Sensors() {
-  const { shopId } = useLocalSearchParams<{ shopId: string }>();
-  return <SensorsScreen shopId={shopId} />;
+  return <SensorsScreen />;
 }

@@ -1,8 +1,8 @@
 import { useLocalSearchParams } from 'expo-router';
 
-import { ShopScreen } from '@/components/ShopScreen';
+import { ZonesScreen } from '@/components/zones/ZonesScreen';
 
 export default function ZoneDetail() {
-  const { shopId, zoneId } = useLocalSearchParams<{ shopId: string; zoneId: string }>();
-  return <ShopScreen shopId={shopId} zoneId={zoneId} />;
+  const { zoneId } = useLocalSearchParams<{ zoneId: string }>();
+  return <ZonesScreen zoneId={zoneId} />;
 }

@@ -1,0 +1,90 @@
+/**
+ * Alarms on screen. The words themselves (kind names, headlines, advice and cautions) live in
+ * ingest/words, shared with the alarm e-mails; this file maps the API's alarm onto them, writes
+ * times in the shop's zone, and orders the banner. Pure: the time, zone and unit come in.
+ */
+import { formatInTimeZone } from 'date-fns-tz';
+
+import { ALARM_KIND_LEVEL, ALARM_KIND_RANK } from '@/ingest/alarmKinds';
+import type { TemperatureUnit } from '@/ingest/units';
+import { alarmHeadline as headlineWords, type AlarmFacts } from '@/ingest/words';
+
+import type { Alarm } from '@/components/queries';
+
+/** The level colour an alarm borrows; the words beside it carry the meaning. */
+export const ALARM_KIND_TONE = ALARM_KIND_LEVEL;
+
+export function bySeverity(a: Alarm, b: Alarm): number {
+  return (
+    ALARM_KIND_RANK[a.kind] - ALARM_KIND_RANK[b.kind] ||
+    Date.parse(b.openedAt) - Date.parse(a.openedAt)
+  );
+}
+
+/**
+ * The banner's lines: those nobody has answered yet first, each group worst first. A zone that
+ * is wet already says so; its dew-risk warning would only repeat it there (the Alarms page
+ * keeps both).
+ */
+export function bannerAlarms(open: readonly Alarm[]): Alarm[] {
+  const wetZones = new Set(open.filter((a) => a.kind === 'wet_surface').map((a) => a.zone.id));
+  const answered = (a: Alarm) => (a.acknowledgement ? 1 : 0);
+  return open
+    .filter((a) => !(a.kind === 'dew_risk' && wetZones.has(a.zone.id)))
+    .sort((a, b) => answered(a) - answered(b) || bySeverity(a, b));
+}
+
+/** A time in the shop's zone: the clock within the last 18 hours, else the date as well. */
+export function formatAlarmTime(atIso: string, nowMs: number, timeZone: string): string {
+  const atMs = Date.parse(atIso);
+  const pattern = nowMs - atMs < 18 * 3_600_000 ? 'HH:mm' : 'd MMM HH:mm';
+  return formatInTimeZone(atMs, timeZone, pattern);
+}
+
+/** The API's alarm as the shared words take it. */
+export function alarmFacts(alarm: Alarm): AlarmFacts {
+  return {
+    kind: alarm.kind,
+    cleared: alarm.state === 'cleared',
+    zoneName: alarm.zone.name,
+    sensorName: alarm.sensor?.name ?? null,
+    minutesToWet: alarm.minutesToWet,
+    worstMarginK: alarm.worstMarginK,
+    latestMarginK: alarm.latestMarginK,
+    peakRhPct: alarm.peakRhPct,
+    latestRhPct: alarm.latestRhPct,
+    lowestBatteryV: alarm.lowestBatteryV,
+    latestBatteryV: alarm.latestBatteryV,
+  };
+}
+
+/** One line: what is wrong, where, and how bad, in the person's unit. */
+export function alarmHeadline(
+  alarm: Alarm,
+  nowMs: number,
+  timeZone: string,
+  unit: TemperatureUnit = 'C',
+): string {
+  return headlineWords(alarmFacts(alarm), {
+    unit,
+    since: formatAlarmTime(alarm.sinceAt, nowMs, timeZone),
+  });
+}
+
+/** "Wiped and covered — acknowledged by Ana", or null before anyone has. */
+export function acknowledgementLine(alarm: Alarm): string | null {
+  const ack = alarm.acknowledgement;
+  if (!ack) return null;
+  const who = ack.by?.name ?? 'a former member';
+  return ack.note ? `${ack.note} — acknowledged by ${who}` : `Acknowledged by ${who}`;
+}
+
+export const ACK_NOTE_MAX = 500;
+
+/** The server's rule for a note (1–500 characters after trimming), said before it is sent. */
+export function ackNoteProblem(note: string): string | null {
+  const trimmed = note.trim();
+  if (trimmed.length === 0) return 'Say in a few words what was done.';
+  if (trimmed.length > ACK_NOTE_MAX) return `Keep the note to ${ACK_NOTE_MAX} characters.`;
+  return null;
+}

@@ -1,0 +1,277 @@
+import { useState } from 'react';
+import { Controller } from 'react-hook-form';
+import { StyleSheet, Text, View } from 'react-native';
+
+import { formatLastSeen } from '@/components/format';
+import {
+  Button,
+  Choice,
+  ConfirmButton,
+  Form,
+  FormError,
+  FormField,
+  SubmitButton,
+  useApiForm,
+} from '@/components/forms';
+import { sensorSchema } from '@/components/forms/schemas';
+import {
+  useSensorCreateMutation,
+  useSensorMoveMutation,
+  useSensorRemoveMutation,
+  useSensorRevokeMutation,
+  useSensorRotateMutation,
+  useSensorsQuery,
+  useZonesQuery,
+  type Sensor,
+  type ShopSummary,
+  type Zone,
+} from '@/components/queries';
+import { useFrameShop } from '@/components/shop/ShopFrame';
+import { colors, space, tabular, type } from '@/components/theme';
+import { Notice, Panel, useDocumentTitle, useNow } from '@/components/ui';
+
+import { TokenReveal } from './TokenReveal';
+
+/** A shop's sensors: where each sits, when it was last heard, its battery; owners manage them. */
+export function SensorsScreen() {
+  const shop = useFrameShop();
+  useDocumentTitle('Sensors', shop.name);
+  return <SensorsBody shop={shop} />;
+}
+
+function SensorsBody({ shop }: { shop: ShopSummary }) {
+  const sensors = useSensorsQuery(shop.id);
+  const zones = useZonesQuery(shop.id);
+  const [issued, setIssued] = useState<{ sensorName: string; token: string } | null>(null);
+  const owner = shop.role === 'owner';
+  const zoneList = zones.data?.zones ?? [];
+
+  return (
+    <>
+      <Text style={type.title} role="heading" aria-level={1}>
+        Sensors
+      </Text>
+      {issued ? <TokenReveal {...issued} onDone={() => setIssued(null)} /> : null}
+      {sensors.isError ? (
+        <Notice title="Sensors could not be loaded">{sensors.error.message}</Notice>
+      ) : !sensors.data ? (
+        <Notice title="Loading sensors…" />
+      ) : sensors.data.sensors.length === 0 ? (
+        <Notice title="No sensors yet" testID="sensors-empty">
+          {owner
+            ? 'Add a sensor below; it gets a token to post its readings with.'
+            : 'The shop owner adds sensors.'}
+        </Notice>
+      ) : (
+        <View style={styles.list} testID="sensor-list">
+          {sensors.data.sensors.map((sensor) => (
+            <SensorCard
+              key={sensor.id}
+              sensor={sensor}
+              shop={shop}
+              zones={zoneList}
+              onToken={(token) => setIssued({ sensorName: sensor.name, token })}
+            />
+          ))}
+        </View>
+      )}
+      {owner ? (
+        <NewSensorForm
+          shopId={shop.id}
+          zones={zoneList}
+          onCreated={(sensorName, token) => setIssued({ sensorName, token })}
+        />
+      ) : null}
+    </>
+  );
+}
+
+interface SensorCardProps {
+  sensor: Sensor;
+  shop: ShopSummary;
+  zones: Zone[];
+  onToken: (token: string) => void;
+}
+
+function SensorCard({ sensor, shop, zones, onToken }: SensorCardProps) {
+  const now = useNow();
+  const rotate = useSensorRotateMutation(shop.id);
+  const revoke = useSensorRevokeMutation(shop.id);
+  const move = useSensorMoveMutation(shop.id);
+  const remove = useSensorRemoveMutation(shop.id);
+  const [moving, setMoving] = useState(false);
+  const busy = rotate.isPending || revoke.isPending || move.isPending || remove.isPending;
+  const error = rotate.error ?? revoke.error ?? move.error ?? remove.error;
+  const revoked = sensor.revokedAt !== null;
+
+  return (
+    <Panel testID="sensor-card">
+      <View style={styles.cardTop}>
+        <Text style={[type.heading, styles.grow]} testID="sensor-name">
+          {sensor.name}
+        </Text>
+        {revoked ? (
+          <Text style={[type.label, styles.revoked]} testID="sensor-revoked">
+            token revoked
+          </Text>
+        ) : null}
+      </View>
+      <View style={styles.facts}>
+        <Fact label="Zone" value={sensor.zoneName} />
+        <Fact
+          label="Last seen"
+          value={
+            sensor.lastSeenAt ? formatLastSeen(sensor.lastSeenAt, now, shop.timeZone) : 'never'
+          }
+          testID="sensor-last-seen"
+        />
+        <Fact
+          label="Battery"
+          value={sensor.batteryV === null ? '—' : `${sensor.batteryV.toFixed(2)} V`}
+          testID="sensor-battery"
+        />
+      </View>
+      {shop.role === 'owner' ? (
+        <View style={styles.actions}>
+          <ConfirmButton
+            label={revoked ? 'Issue a token' : 'New token'}
+            question={`Give ${sensor.name} a new token? The old one stops working at once.`}
+            disabled={busy}
+            onConfirm={() => rotate.mutate(sensor.id, { onSuccess: (r) => onToken(r.token) })}
+            testID="sensor-rotate"
+          />
+          {revoked ? null : (
+            <ConfirmButton
+              label="Revoke"
+              question={`Revoke ${sensor.name}'s token? Its posts are refused until it gets a new one.`}
+              disabled={busy}
+              onConfirm={() => revoke.mutate(sensor.id)}
+              testID="sensor-revoke"
+            />
+          )}
+          {zones.length > 1 ? (
+            <Button
+              label={moving ? 'Keep it here' : 'Move…'}
+              variant="quiet"
+              disabled={busy}
+              onPress={() => setMoving((m) => !m)}
+              testID="sensor-move"
+            />
+          ) : null}
+          <ConfirmButton
+            label={`Remove ${sensor.name}`}
+            confirmLabel={`Yes, remove ${sensor.name}`}
+            question={`Remove ${sensor.name} from the shop? Its token stops working at once; its readings stay in ${sensor.zoneName}'s history.`}
+            disabled={busy}
+            onConfirm={() => remove.mutate(sensor.id)}
+            testID="sensor-remove"
+          />
+        </View>
+      ) : null}
+      {moving ? (
+        <Choice
+          label={`Move ${sensor.name} to`}
+          options={zones.map((z) => ({ value: z.id, label: z.name }))}
+          value={sensor.zoneId}
+          disabled={busy}
+          onChange={(zoneId) =>
+            zoneId !== sensor.zoneId &&
+            move.mutate({ sensorId: sensor.id, zoneId }, { onSuccess: () => setMoving(false) })
+          }
+          testID="sensor-move-zone"
+        />
+      ) : null}
+      <FormError message={error?.message} />
+    </Panel>
+  );
+}
+
+function Fact({ label, value, testID }: { label: string; value: string; testID?: string }) {
+  return (
+    <View style={styles.fact}>
+      <Text style={type.small}>{label}</Text>
+      <Text style={[type.body, tabular]} testID={testID}>
+        {value}
+      </Text>
+    </View>
+  );
+}
+
+interface NewSensorFormProps {
+  shopId: string;
+  zones: Zone[];
+  onCreated: (sensorName: string, token: string) => void;
+}
+
+function NewSensorForm({ shopId, zones, onCreated }: NewSensorFormProps) {
+  const create = useSensorCreateMutation(shopId);
+  const { form, control, submit, sending, formError } = useApiForm<{
+    name: string;
+    zoneId: string;
+  }>({
+    schema: sensorSchema,
+    defaultValues: { name: '', zoneId: '' },
+    fields: ['name', 'zoneId'],
+    send: async (values) => {
+      const created = await create.mutateAsync({ name: values.name.trim(), zoneId: values.zoneId });
+      form.reset({ name: '', zoneId: values.zoneId });
+      onCreated(created.name, created.token);
+    },
+  });
+
+  if (zones.length === 0) {
+    return (
+      <Notice title="Add a zone first">
+        A sensor sits in a zone. Add zones under Shop, then come back here.
+      </Notice>
+    );
+  }
+  return (
+    <Panel title="Add a sensor" hint="It gets a token to post readings with, shown once.">
+      <Form onSubmit={submit} style={styles.form}>
+        <FormField
+          control={control}
+          name="name"
+          label="Sensor name"
+          testID="sensor-create-name"
+          placeholder="e.g. Saw-top probe"
+          editable={!sending}
+        />
+        <Controller
+          control={control}
+          name="zoneId"
+          render={({ field, fieldState }) => (
+            <Choice
+              label="Zone"
+              options={zones.map((z) => ({ value: z.id, label: z.name }))}
+              value={field.value || null}
+              onChange={field.onChange}
+              disabled={sending}
+              error={fieldState.error?.message}
+              testID="sensor-create-zone"
+            />
+          )}
+        />
+        <FormError message={formError} />
+        <SubmitButton
+          label="Add sensor"
+          sendingLabel="Adding…"
+          sending={sending}
+          onPress={submit}
+          testID="sensor-create-submit"
+        />
+      </Form>
+    </Panel>
+  );
+}
+
+const styles = StyleSheet.create({
+  list: { gap: space.md },
+  cardTop: { flexDirection: 'row', alignItems: 'flex-start', gap: space.md },
+  grow: { flex: 1 },
+  revoked: { color: colors.wet },
+  facts: { flexDirection: 'row', flexWrap: 'wrap', rowGap: space.sm },
+  fact: { width: '33%', minWidth: 110, gap: 2 },
+  actions: { flexDirection: 'row', flexWrap: 'wrap', gap: space.sm },
+  form: { gap: space.lg },
+});

@@ -1,0 +1,157 @@
+import { Link, Redirect } from 'expo-router';
+import { createContext, useContext, type ReactNode } from 'react';
+import { StyleSheet, Text, View } from 'react-native';
+
+import { AlarmBanner } from '@/components/alarms/AlarmBanner';
+import { Button } from '@/components/forms';
+import type { ShopSection } from '@/components/hrefs';
+import {
+  CONTENT_MAX_WIDTH,
+  Content,
+  SINGLE_COLUMN_MAX_WIDTH,
+  Screen,
+  ShopNav,
+  useBreakpoints,
+} from '@/components/layout';
+import { findShop, isSignedOut, useMeQuery, type ShopSummary } from '@/components/queries';
+import { colors, space, type } from '@/components/theme';
+import { Notice, Splash, useDocumentTitle } from '@/components/ui';
+
+import { ShopHeader } from './ShopHeader';
+
+/** How the frame dresses one page of a shop. */
+export interface ShopFramePage {
+  /** The navigation entry lit for it. */
+  active: ShopSection;
+  /** Names the browser tab while the shop is not shown yet; the page names it once it is. */
+  title?: string;
+  /** On a wide screen the column takes the content width (list beside detail); else one phone column. */
+  wide: boolean;
+  /** Pins the open alarms under the header. */
+  banner: boolean;
+}
+
+const ZONES_PAGE: ShopFramePage = { active: 'zones', wide: true, banner: true };
+
+/** The pages under app/shops/[shopId]/, by their first path segment after the shop id. */
+const SHOP_PAGES: Record<string, ShopFramePage> = {
+  index: ZONES_PAGE,
+  zones: ZONES_PAGE,
+  alarms: { active: 'alarms', title: 'Alarms', wide: true, banner: false },
+  sensors: { active: 'sensors', title: 'Sensors', wide: false, banner: false },
+  settings: { active: 'shop', title: 'Shop settings', wide: false, banner: false },
+  members: { active: 'shop', title: 'Members', wide: false, banner: false },
+  profile: { active: 'profile', title: 'Profile', wide: false, banner: false },
+};
+
+/** The frame's settings for the page whose path segment follows the shop id (none: the overview). */
+export function shopFramePageOf(segment: string | undefined): ShopFramePage {
+  return SHOP_PAGES[segment ?? 'index'] ?? ZONES_PAGE;
+}
+
+const ShopContext = createContext<ShopSummary | undefined>(undefined);
+
+/** The shop the surrounding frame shows; the frame renders its pages only once it has one. */
+export function useFrameShop(): ShopSummary {
+  const shop = useContext(ShopContext);
+  if (!shop) throw new Error('useFrameShop is called outside the shop frame');
+  return shop;
+}
+
+/** The page column's width for a page: the content width for wide pages on a wide screen. */
+export function useShopColumnWidth(page: ShopFramePage): number {
+  const { isWide } = useBreakpoints();
+  return page.wide && isWide ? CONTENT_MAX_WIDTH : SINGLE_COLUMN_MAX_WIDTH;
+}
+
+interface ShopFrameProps {
+  shopId: string;
+  page: ShopFramePage;
+  /** The path, so the page scrolls back to the top when it changes, as a new page would. */
+  path: string;
+  children: ReactNode;
+}
+
+/**
+ * Every page of a shop (app/shops/[shopId]/_layout.tsx): waits for /me, sends the signed-out to
+ * sign in, shows an error with a retry when /me fails otherwise, and "Shop not found" when the
+ * shop is not one of the person's; else the header with the shop switcher, the navigation (bar
+ * or rail) and a column around the page, which reads the shop with useFrameShop().
+ */
+export function ShopFrame({ shopId, page, path, children }: ShopFrameProps) {
+  const me = useMeQuery();
+  const shop = findShop(me.data, shopId);
+  const maxWidth = useShopColumnWidth(page);
+  const { isWide } = useBreakpoints();
+
+  if (me.isPending) return <Unready title={page.title} body={<Splash />} />;
+  if (isSignedOut(me.error)) return <Redirect href="/sign-in" />;
+  if (!shop) {
+    return (
+      <Unready
+        title={page.title}
+        body={
+          <Screen>
+            <Content>
+              {me.isError ? (
+                <Notice title="Drybench cannot load right now" testID="shop-error">
+                  <Text style={type.body}>{me.error.message}</Text>
+                  <Button label="Try again" variant="quiet" onPress={() => void me.refetch()} />
+                </Notice>
+              ) : (
+                <Notice title="Shop not found" testID="shop-not-found">
+                  <Text style={type.body}>
+                    This shop does not exist or you are not one of its members.{' '}
+                    <Link href="/" style={styles.link}>
+                      Go to your shops
+                    </Link>
+                  </Text>
+                </Notice>
+              )}
+            </Content>
+          </Screen>
+        }
+      />
+    );
+  }
+
+  return (
+    <ShopContext.Provider value={shop}>
+      <Screen
+        scrollKey={path}
+        header={
+          <>
+            <ShopHeader shopName={shop.name} shopId={shop.id} maxWidth={maxWidth} />
+            {page.banner ? (
+              <AlarmBanner
+                shopId={shop.id}
+                timeZone={shop.timeZone}
+                canAcknowledge={shop.role !== 'viewer'}
+                maxWidth={maxWidth}
+              />
+            ) : null}
+          </>
+        }
+        rail={isWide ? <ShopNav shopId={shop.id} active={page.active} variant="rail" /> : undefined}
+        footer={
+          isWide ? undefined : <ShopNav shopId={shop.id} active={page.active} variant="bar" />
+        }
+      >
+        <Content maxWidth={maxWidth}>
+          <View style={styles.stack}>{children}</View>
+        </Content>
+      </Screen>
+    </ShopContext.Provider>
+  );
+}
+
+/** A frame without its shop still names the tab after the page ("Sensors · Drybench"). */
+function Unready({ title, body }: { title: string | undefined; body: ReactNode }) {
+  useDocumentTitle(title);
+  return body;
+}
+
+const styles = StyleSheet.create({
+  stack: { gap: space.lg },
+  link: { color: colors.air, textDecorationLine: 'underline' },
+});

@@ -1,0 +1,217 @@
+import { useRouter } from 'expo-router';
+import { useState } from 'react';
+import { StyleSheet, Text, View } from 'react-native';
+
+import { deltaInUnit } from '@/components/format';
+import {
+  Button,
+  ConfirmButton,
+  Form,
+  FormError,
+  FormField,
+  FormStatus,
+  SubmitButton,
+  TextField,
+  useApiForm,
+} from '@/components/forms';
+import { shopSchema, zoneNameSchema } from '@/components/forms/schemas';
+import {
+  useLeaveShopMutation,
+  useShopDeleteMutation,
+  useShopUpdateMutation,
+  useUnitPref,
+  useZoneCreateMutation,
+  useZonesQuery,
+  type ShopSummary,
+} from '@/components/queries';
+import { colors, space, type } from '@/components/theme';
+import { Panel, useDocumentTitle } from '@/components/ui';
+
+import { useFrameShop } from './ShopFrame';
+import { ShopTabs } from './ShopTabs';
+import { ZoneLimitsForm } from './ZoneLimitsForm';
+
+/** The shop's name and time zone, its zones and their limits, leaving and deleting it. */
+export function ShopSettingsScreen() {
+  const shop = useFrameShop();
+  useDocumentTitle('Shop settings', shop.name);
+  return <SettingsBody shop={shop} />;
+}
+
+function SettingsBody({ shop }: { shop: ShopSummary }) {
+  const owner = shop.role === 'owner';
+  const zones = useZonesQuery(shop.id);
+  const unit = useUnitPref();
+  return (
+    <>
+      <ShopTabs shop={shop} current="settings" />
+      {owner ? (
+        <ShopForm shop={shop} />
+      ) : (
+        <Panel title={shop.name}>
+          <Text style={type.body}>Time zone: {shop.timeZone}</Text>
+          <Text style={type.body}>Your role: {shop.role}</Text>
+        </Panel>
+      )}
+      <Panel
+        title="Zones and limits"
+        hint="A zone is an area with its own air: the machine room, the lumber rack."
+        testID="zone-settings"
+      >
+        {zones.data?.zones.length === 0 ? <Text style={type.body}>No zones yet.</Text> : null}
+        {zones.data?.zones.map((zone) => (
+          <View key={zone.id} style={styles.zone}>
+            {owner ? (
+              <ZoneLimitsForm shopId={shop.id} zone={zone} unit={unit} />
+            ) : (
+              <Text style={type.body}>
+                {zone.name}: caution below {deltaInUnit(zone.cautionK, unit)} °{unit}, wet at{' '}
+                {deltaInUnit(zone.wetK, unit)} °{unit}, humid above {zone.humidRhPct} % RH
+              </Text>
+            )}
+          </View>
+        ))}
+        {owner ? <NewZoneForm shopId={shop.id} /> : null}
+      </Panel>
+      <LeavePanel shop={shop} />
+      {owner ? <DeletePanel shop={shop} /> : null}
+    </>
+  );
+}
+
+function ShopForm({ shop }: { shop: ShopSummary }) {
+  const update = useShopUpdateMutation(shop.id);
+  const { control, submit, sending, formError, done } = useApiForm<{
+    name: string;
+    timeZone: string;
+  }>({
+    schema: shopSchema,
+    defaultValues: { name: shop.name, timeZone: shop.timeZone },
+    fields: ['name', 'timeZone'],
+    send: async (values) => {
+      await update.mutateAsync({ name: values.name.trim(), timeZone: values.timeZone.trim() });
+    },
+  });
+  return (
+    <Panel title="Shop">
+      <Form onSubmit={submit} style={styles.form}>
+        <FormField
+          control={control}
+          name="name"
+          label="Shop name"
+          testID="shop-edit-name"
+          editable={!sending}
+        />
+        <FormField
+          control={control}
+          name="timeZone"
+          label="Time zone (IANA, e.g. America/Chicago)"
+          testID="shop-edit-timezone"
+          autoCapitalize="none"
+          autoCorrect={false}
+          editable={!sending}
+        />
+        <FormError message={formError} />
+        <FormStatus message={done ? 'Saved.' : null} />
+        <SubmitButton
+          label="Save shop"
+          sendingLabel="Saving…"
+          sending={sending}
+          onPress={submit}
+          testID="shop-edit-submit"
+        />
+      </Form>
+    </Panel>
+  );
+}
+
+function NewZoneForm({ shopId }: { shopId: string }) {
+  const create = useZoneCreateMutation(shopId);
+  const { form, control, submit, sending, formError } = useApiForm<{ name: string }>({
+    schema: zoneNameSchema,
+    defaultValues: { name: '' },
+    fields: ['name'],
+    send: async ({ name }) => {
+      await create.mutateAsync({ name: name.trim() });
+      form.reset({ name: '' });
+    },
+  });
+  return (
+    <Form onSubmit={submit} style={styles.form}>
+      <FormField
+        control={control}
+        name="name"
+        label="New zone"
+        placeholder="e.g. Machine room"
+        testID="zone-create-name"
+        editable={!sending}
+        onSubmitEditing={submit}
+      />
+      <FormError message={formError} />
+      <SubmitButton
+        label="Add zone"
+        sendingLabel="Adding…"
+        sending={sending}
+        onPress={submit}
+        testID="zone-create-submit"
+      />
+    </Form>
+  );
+}
+
+function LeavePanel({ shop }: { shop: ShopSummary }) {
+  const router = useRouter();
+  const leave = useLeaveShopMutation(shop.id);
+  return (
+    <Panel title="Leave the shop" hint="You lose access to its zones, sensors and alarms.">
+      <ConfirmButton
+        label="Leave"
+        question={`Leave ${shop.name}?`}
+        disabled={leave.isPending}
+        onConfirm={() => leave.mutate(undefined, { onSuccess: () => router.replace('/') })}
+        testID="shop-leave"
+      />
+      <FormError message={leave.error?.message} testID="shop-leave-error" />
+    </Panel>
+  );
+}
+
+function DeletePanel({ shop }: { shop: ShopSummary }) {
+  const router = useRouter();
+  const remove = useShopDeleteMutation(shop.id);
+  const [typed, setTyped] = useState('');
+  const matches = typed.trim() === shop.name;
+  return (
+    <Panel
+      title="Delete the shop"
+      hint="Deletes every zone, sensor, reading and alarm of the shop, for every member. It cannot be undone."
+    >
+      <TextField
+        label={`Type the shop's name, ${shop.name}, to confirm`}
+        value={typed}
+        onChangeText={setTyped}
+        autoCapitalize="none"
+        testID="shop-delete-name"
+      />
+      <FormError message={remove.error?.message} />
+      <Button
+        label={remove.isPending ? 'Deleting…' : 'Delete the shop'}
+        disabled={!matches || remove.isPending}
+        onPress={() =>
+          remove.mutate({ confirmName: typed.trim() }, { onSuccess: () => router.replace('/') })
+        }
+        testID="shop-delete-submit"
+      />
+    </Panel>
+  );
+}
+
+const styles = StyleSheet.create({
+  form: { gap: space.md },
+  zone: {
+    gap: space.sm,
+    paddingBottom: space.md,
+    borderBottomWidth: 1,
+    borderBottomColor: colors.border,
+  },
+});

@@ -1,0 +1,57 @@
+import { Link } from 'expo-router';
+import { StyleSheet, Text, View } from 'react-native';
+
+import { membersHref, shopSectionHref } from '@/components/hrefs';
+import type { ShopSummary } from '@/components/queries';
+import { colors, fonts, space } from '@/components/theme';
+
+/** The two pages under "Shop": its settings and its members. */
+export function ShopTabs({
+  shop,
+  current,
+}: {
+  shop: ShopSummary;
+  current: 'settings' | 'members';
+}) {
+  const tabs = [
+    { key: 'settings', label: 'Settings', href: shopSectionHref(shop.id, 'shop') },
+    { key: 'members', label: 'Members', href: membersHref(shop.id) },
+  ] as const;
+  return (
+    <View style={styles.row} role="tablist" aria-label={`${shop.name} pages`}>
+      {tabs.map((tab) => {
+        const selected = tab.key === current;
+        return (
+          <Link
+            key={tab.key}
+            href={tab.href}
+            role="tab"
+            aria-selected={selected}
+            testID={`tab-${tab.key}`}
+            style={[styles.tab, selected && styles.selected]}
+          >
+            <Text style={[styles.label, selected && styles.selectedLabel]}>{tab.label}</Text>
+          </Link>
+        );
+      })}
+    </View>
+  );
+}
+
+const styles = StyleSheet.create({
+  row: {
+    flexDirection: 'row',
+    gap: space.lg,
+    borderBottomWidth: 1,
+    borderBottomColor: colors.border,
+  },
+  tab: {
+    paddingVertical: space.sm,
+    borderBottomWidth: 3,
+    borderBottomColor: 'transparent',
+    marginBottom: -1,
+  },
+  selected: { borderBottomColor: colors.ink },
+  label: { fontFamily: fonts.medium, fontSize: 16, color: colors.iron },
+  selectedLabel: { color: colors.ink },
+});
