@@ -12,7 +12,8 @@ import type {
   LiveReading,
   ReadingMessage,
 } from '@/ingest/wire/live';
-import { LEVELS as LEVEL_LIST } from '@/ingest/wire/levels';
+import { ALARM_VALUE_KEYS } from '@/ingest/wire/alarms';
+import { LEVELS as LEVEL_LIST, SURFACE_SOURCES } from '@/ingest/wire/levels';
 
 export type { LiveAlarm, LiveReading };
 
@@ -32,6 +33,7 @@ export type LiveAccessMessage = AccessMessage;
 export type LiveMessage = LiveReadingMessage | LiveAlarmMessage | LiveAccessMessage;
 
 const LEVELS: readonly string[] = LEVEL_LIST;
+const SOURCES: readonly string[] = SURFACE_SOURCES;
 
 function isObject(value: unknown): value is Record<string, unknown> {
   return typeof value === 'object' && value !== null;
@@ -58,21 +60,9 @@ function isReading(value: unknown): value is LiveReading {
     isNumberOrNull(value.emc) &&
     typeof value.level === 'string' &&
     LEVELS.includes(value.level) &&
-    (value.surfaceSource === null ||
-      value.surfaceSource === 'probe' ||
-      value.surfaceSource === 'estimate')
+    (value.surfaceSource === null || SOURCES.includes(value.surfaceSource as string))
   );
 }
-
-const ALARM_NUMBERS = [
-  'worstMarginK',
-  'latestMarginK',
-  'minutesToWet',
-  'peakRhPct',
-  'latestRhPct',
-  'lowestBatteryV',
-  'latestBatteryV',
-] as const;
 
 const isTime = (value: unknown) => typeof value === 'string' && !Number.isNaN(Date.parse(value));
 const isNamed = (value: unknown) =>
@@ -100,7 +90,7 @@ function isAlarm(value: unknown): value is LiveAlarm {
     isTime(value.openedAt) &&
     isTime(value.updatedAt) &&
     (value.clearedAt === null || isTime(value.clearedAt)) &&
-    ALARM_NUMBERS.every((key) => isNumberOrNull(value[key])) &&
+    ALARM_VALUE_KEYS.every((key) => isNumberOrNull(value[key])) &&
     isAcknowledgement(value.acknowledgement)
   );
 }

@@ -9,6 +9,8 @@ import { and, desc, eq, getTableColumns, isNull, sql, type SQL } from 'drizzle-o
 
 import type pg from 'pg';
 
+import { ALARM_VALUE_KEYS } from '@/ingest/wire/alarms';
+
 import type { Db } from '../index';
 import { alarmEvents, alarms, sensors, users, zones } from '../schema';
 
@@ -20,16 +22,7 @@ export type NewAlarmEvent = typeof alarmEvents.$inferInsert;
 /** A Drizzle handle inside a transaction (db/transaction.ts). */
 export type Tx = Db;
 
-/** The columns that describe an alarm's condition; each kind fills its own pair. */
-export const ALARM_VALUE_KEYS = [
-  'worstMarginK',
-  'latestMarginK',
-  'minutesToWet',
-  'peakRhPct',
-  'latestRhPct',
-  'lowestBatteryV',
-  'latestBatteryV',
-] as const;
+/** The columns that describe an alarm's condition (ingest/wire/alarms.ts names them). */
 export type AlarmValues = Pick<AlarmRow, (typeof ALARM_VALUE_KEYS)[number]>;
 
 export function alarmValuesOf(row: AlarmValues): AlarmValues {

@@ -137,6 +137,8 @@ export interface SeriesRow {
   /** The lowest margin inside the bucket; equals `marginK` for a raw reading. */
   marginMinK: number | null;
   emcPct: number | null;
+  /** The level stored with the reading; for a bucket, the worst one stored in it. */
+  level: Level;
   count: number;
 }
 
@@ -158,7 +160,7 @@ export async function querySeries(
   if (total <= q.points) {
     const raw = await db.execute<RawRow>(sql`
       select at, air_c, rh_pct, surface_c, dew_point_c, margin_k, margin_k as margin_min,
-             emc_pct, 1 as n
+             emc_pct, level, 1 as n
       from readings
       where zone_id = ${q.zoneId} and at >= ${q.from} and at <= ${q.to}
       order by at`);
@@ -171,7 +173,12 @@ export async function querySeries(
     select date_bin(make_interval(secs => ${bucketSeconds}), at, ${q.from}::timestamptz) as at,
            avg(air_c) as air_c, avg(rh_pct) as rh_pct, avg(surface_c) as surface_c,
            avg(dew_point_c) as dew_point_c, avg(margin_k) as margin_k,
-           min(margin_k) as margin_min, avg(emc_pct) as emc_pct, count(*)::int as n
+           min(margin_k) as margin_min, avg(emc_pct) as emc_pct, count(*)::int as n,
+           -- The worst level stored in the bucket (wet over close over dry over unknown), so a
+           -- short wet spell never disappears into an average.
+           (array['unknown', 'dry', 'close', 'wet']::level[])[
+             max(case level when 'wet' then 4 when 'close' then 3 when 'dry' then 2 else 1 end)
+           ] as level
     from readings
     where zone_id = ${q.zoneId} and at >= ${q.from} and at <= ${q.to}
     group by 1
@@ -188,6 +195,7 @@ interface RawRow extends Record<string, unknown> {
   margin_k: number | string | null;
   margin_min: number | string | null;
   emc_pct: number | string | null;
+  level: Level;
   n: number;
 }
 
@@ -205,6 +213,7 @@ function toSeriesRow(r: RawRow): SeriesRow {
     marginK: numOrNull(r.margin_k),
     marginMinK: numOrNull(r.margin_min),
     emcPct: numOrNull(r.emc_pct),
+    level: r.level,
     count: r.n,
   };
 }

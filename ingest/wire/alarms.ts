@@ -1,7 +1,7 @@
 /**
  * The alarm as the API answers it (GET /shops/:id/alarms, POST …/ack) and the live `alarm`
  * message carries it: one definition for the server, which builds it (server/alarms/wire.ts),
- * and the app, which reads it. Type-only, so nothing of it reaches the web bundle.
+ * and the app, which reads it. Types and one list of names, so the web bundle gets a few bytes.
  */
 import type { AlarmKind } from '../alarmKinds';
 
@@ -11,15 +11,16 @@ export type { AlarmKind };
  * What an alarm's condition measured; each kind fills its own pair and leaves the rest null.
  * Margins K, RH %, battery V, minutes to a wet surface.
  */
-export interface AlarmValues {
-  worstMarginK: number | null;
-  latestMarginK: number | null;
-  minutesToWet: number | null;
-  peakRhPct: number | null;
-  latestRhPct: number | null;
-  lowestBatteryV: number | null;
-  latestBatteryV: number | null;
-}
+export const ALARM_VALUE_KEYS = [
+  'worstMarginK',
+  'latestMarginK',
+  'minutesToWet',
+  'peakRhPct',
+  'latestRhPct',
+  'lowestBatteryV',
+  'latestBatteryV',
+] as const;
+export type AlarmValues = Record<(typeof ALARM_VALUE_KEYS)[number], number | null>;
 
 export interface AlarmAcknowledgement {
   /** Null when the person who acknowledged it has since been removed. */

@@ -47,13 +47,12 @@ export function readingsRouter(db: Db, now: () => number): Router {
     const zone = isUuid(zoneId) ? await findZone(db, shopIdOf(res), zoneId) : null;
     if (!zone) throw new ApiError(404, 'not_found', 'No such zone in this shop.');
 
-    const limits = { cautionK: zone.cautionK, wetK: zone.wetK };
     const series = await querySeries(db, { zoneId: zone.id, from, to, points: q.points });
     res.json({
       from: from.toISOString(),
       to: to.toISOString(),
       bucketSeconds: series.bucketSeconds,
-      points: series.rows.map((row) => toReadingPoint(row, limits)),
+      points: series.rows.map(toReadingPoint),
     } satisfies ReadingsResponse);
   });
 

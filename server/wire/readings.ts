@@ -1,13 +1,12 @@
 /** Series rows to what the API answers (ingest/wire/readings.ts): the one place that decides it. */
 import type { SeriesRow } from '@/db/queries/readings';
-import { levelFor, type MarginLimits } from '@/ingest';
 import type { ReadingPoint } from '@/ingest/wire';
 
 /**
- * A point of the series. Its level is that of the lowest margin in it, under the zone's limits
- * as they are now: a bucket that came close to the dew point is shown as close.
+ * A point of the series. Its level is the one stored with the reading (ingest/derive.ts: the
+ * limits in force when it arrived); a bucket's is the worst stored in it.
  */
-export function toReadingPoint(row: SeriesRow, limits: MarginLimits): ReadingPoint {
+export function toReadingPoint(row: SeriesRow): ReadingPoint {
   return {
     at: row.at.toISOString(),
     air: row.airC,
@@ -17,7 +16,7 @@ export function toReadingPoint(row: SeriesRow, limits: MarginLimits): ReadingPoi
     margin: row.marginK,
     marginMin: row.marginMinK,
     emc: row.emcPct,
-    level: levelFor(row.marginMinK, limits),
+    level: row.level,
     count: row.count,
   };
 }

@@ -89,6 +89,36 @@ describe('readings query', () => {
     await request(t.app).get(`/api/v1/shops/${o.shopId}/zones`).expect(401);
   });
 
+  // 20 °C at 50 % RH: dew point 9.26 °C (psychrolib, see ingest.test.ts), so a surface of
+  // 11.26 °C sits 2 K above it — close under the default limits (caution 3 K, wet 1 K).
+  it('keeps the level stored with each reading when the zone limits change later', async () => {
+    const o = await ownerWithSensor(t);
+    const start = Date.now() - 20 * 60_000;
+    const readings = Array.from({ length: 30 }, (_, i) => ({
+      at: new Date(start + i * 30_000).toISOString(),
+      air: 20,
+      rh: 50,
+      surface: 11.26,
+    }));
+    await postIngest(t.app, o.token, { readings }).expect(202);
+    // Under these limits 2 K would be dry; what was stored as close stays close.
+    await o.agent
+      .patch(`/api/v1/shops/${o.shopId}/zones/${o.zoneId}`)
+      .send({ cautionK: 1.5, wetK: 0.5 })
+      .expect(200);
+    const path = `/api/v1/shops/${o.shopId}/zones/${o.zoneId}/readings`;
+    const raw = await o.agent.get(path).expect(200);
+    expect(raw.body.bucketSeconds).toBe(0);
+    expect(new Set(raw.body.points.map((p: { level: string }) => p.level))).toEqual(
+      new Set(['close']),
+    );
+    const bucketed = await o.agent.get(path).query({ points: 5 }).expect(200);
+    expect(bucketed.body.bucketSeconds).toBeGreaterThan(0);
+    expect(new Set(bucketed.body.points.map((p: { level: string }) => p.level))).toEqual(
+      new Set(['close']),
+    );
+  });
+
   it('answers unknown API paths with a JSON 404', async () => {
     const res = await request(t.app).get('/api/v1/nothing-here').expect(404);
     expect(res.body).toMatchObject(errorShape);
