@@ -57,7 +57,20 @@ export function createLogger(options: LoggerOptions): Logger {
     });
     return pino(config, pretty);
   }
-  return options.destination ? pino(config, options.destination) : pino(config);
+  if (options.destination) return pino(config, options.destination);
+  // Asynchronous writes to stdout: lines that arrive while one write is in flight go out together
+  // in the next. Synchronous writes to a pipe whose reader lags (a log shipper, the bench) cost
+  // ~0.6 ms of CPU per request line in retries (npm run bench: 1,713 against 1,083 µs per
+  // one-reading request). The price: a crash can lose the last lines; a normal exit flushes them.
+  const stdout = pino.destination({ dest: 1, sync: false });
+  process.on('exit', () => {
+    try {
+      stdout.flushSync();
+    } catch {
+      // A write still in flight at exit: what it holds is already on its way to the kernel.
+    }
+  });
+  return pino(config, stdout);
 }
 
 /** For code paths (and tests) that must log nowhere. */

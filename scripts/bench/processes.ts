@@ -58,13 +58,17 @@ export async function startNodeChild(opts: {
       () => reject(new Error(`${opts.entry} did not start in time:\n${output}`)),
       opts.timeoutMs ?? 30_000,
     );
-    child.stdout!.on('data', (chunk: Buffer) => {
+    // Read stdout only until the ready line: the server then writes a log line per request, and
+    // keeping (and scanning) all of it would cost the load generator's CPU and memory.
+    const onData = (chunk: Buffer) => {
       output += chunk.toString();
       if (opts.ready.test(output)) {
         clearTimeout(timer);
+        child.stdout!.off('data', onData);
         resolve();
       }
-    });
+    };
+    child.stdout!.on('data', onData);
     child.once('exit', (code) => {
       clearTimeout(timer);
       reject(new Error(`${opts.entry} exited with ${code} before it was ready:\n${output}`));
