@@ -6,6 +6,8 @@
  */
 import * as z from 'zod/mini';
 
+import { ROLES } from '@/ingest/wire/people';
+
 export const emailSchema = z
   .string()
   .check(
@@ -54,7 +56,7 @@ export const shopSchema = z.object({
 
 export const inviteSchema = z.object({
   email: emailSchema,
-  role: z.enum(['owner', 'member', 'viewer']),
+  role: z.enum(ROLES),
 });
 
 export const sensorSchema = z.object({

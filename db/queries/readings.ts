@@ -2,6 +2,7 @@ import { sql } from 'drizzle-orm';
 import type pg from 'pg';
 
 import type { Level, MarginSample } from '@/ingest';
+import type { SurfaceSource } from '@/ingest/wire/levels';
 
 import type { Db } from '../index';
 import { LIVE_CHANNEL } from '../notify';
@@ -14,7 +15,7 @@ export interface ReadingRow {
   airC: number;
   rhPct: number;
   surfaceC: number | null;
-  surfaceSource: 'probe' | 'estimate' | null;
+  surfaceSource: SurfaceSource | null;
   batteryV: number | null;
   dewPointC: number | null;
   marginK: number | null;
@@ -246,7 +247,7 @@ export async function latestPerZoneSince(db: Db, shopIds: string[], since: Date)
     margin_k: number | null;
     emc_pct: number | null;
     level: Level;
-    surface_source: 'probe' | 'estimate' | null;
+    surface_source: SurfaceSource | null;
     n: number;
   }>(sql`
     select z.shop_id, z.id as zone_id, r.sensor_id, r.at, r.air_c, r.rh_pct, r.surface_c,

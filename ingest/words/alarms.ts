@@ -6,6 +6,7 @@
  */
 import { isSensorKind, type AlarmKind } from '../alarmKinds';
 import type { TemperatureUnit } from '../units';
+import type { SurfaceSource } from '../wire/levels';
 import { capitalised, dewPointLabel } from './dewPoint';
 import { formatMargin, formatPercent, formatTemperature, formatVolts } from './format';
 
@@ -37,7 +38,7 @@ export interface ReadingFacts {
   airC: number;
   rhPct: number;
   surfaceC: number | null;
-  surfaceSource: 'probe' | 'estimate' | null;
+  surfaceSource: SurfaceSource | null;
   dewPointC: number | null;
   marginK: number | null;
   batteryV: number | null;

@@ -6,6 +6,7 @@
  */
 import type { SensorIdentity } from '@/db/queries/sensors';
 import type { Level, Rejection, SensorReading } from '@/ingest';
+import type { SurfaceSource } from '@/ingest/wire/levels';
 
 import type { AlarmQueue } from '../alarms/queue';
 
@@ -28,7 +29,7 @@ export interface StoredReadingResult {
   margin: number | null;
   emc: number | null;
   level: Level;
-  surfaceSource: 'probe' | 'estimate' | null;
+  surfaceSource: SurfaceSource | null;
 }
 
 export interface StoreReadingsOutcome {
