@@ -5,13 +5,13 @@ import http from 'node:http';
 import type { AddressInfo } from 'node:net';
 
 import { afterAll, beforeAll, describe, expect, it } from 'vitest';
-import WebSocket from 'ws';
 
 import { startLiveHub } from '@/server/live/hub';
 
 import { makeTestApp, ownerWithSensor, verifiedPerson, type TestApp } from '../support/app';
 import { postIngest } from '../support/ingest';
 import { linkToken, waitForMail } from '../support/mail';
+import { openRecordingSocket, until } from '../support/liveClient';
 import { signInCookie } from '../support/sessionCookie';
 
 let t: TestApp;
@@ -41,34 +41,10 @@ afterAll(async () => {
   await t.pool.end();
 });
 
-interface Socket {
-  ws: WebSocket;
-  messages: { type: string; shopIds?: string[] }[];
-  closed: Promise<number>;
-}
-
 /** A fresh session of this account, as the Cookie header a browser would send. */
 const cookieOf = (person: { email: string; password: string }) => signInCookie(t.app, person);
 
-function open(cookie: string, origin?: string): Promise<Socket> {
-  return new Promise((resolve, reject) => {
-    const ws = new WebSocket(wsUrl, { headers: { cookie, ...(origin ? { origin } : {}) } });
-    const messages: Socket['messages'] = [];
-    const closed = new Promise<number>((r) => ws.on('close', (code) => r(code)));
-    ws.on('message', (data) => messages.push(JSON.parse(String(data))));
-    ws.on('open', () => resolve({ ws, messages, closed }));
-    ws.on('unexpected-response', (_req, res) => reject(new Error(`refused ${res.statusCode}`)));
-    ws.on('error', reject);
-  });
-}
-
-async function until(check: () => boolean, timeoutMs = 2000) {
-  const deadline = Date.now() + timeoutMs;
-  while (!check()) {
-    if (Date.now() > deadline) throw new Error('timed out');
-    await new Promise((r) => setTimeout(r, 20));
-  }
-}
+const open = (cookie: string, origin?: string) => openRecordingSocket(wsUrl, cookie, origin);
 
 describe('live hub access', () => {
   it('stops sending a shop to a member once removed', async () => {

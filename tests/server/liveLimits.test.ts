@@ -24,6 +24,7 @@ import {
 } from '../support/app';
 import { postIngest } from '../support/ingest';
 import { linkToken, waitForMail } from '../support/mail';
+import { openRecordingSocket, until, type RecordingSocket } from '../support/liveClient';
 import { signInCookie } from '../support/sessionCookie';
 
 /** Small enough to reach in a test; the production default is 10. */
@@ -63,43 +64,20 @@ afterAll(async () => {
   await t.pool.end();
 });
 
-interface Socket {
-  ws: WebSocket;
-  messages: { type: string; shopIds?: string[] }[];
-  closed: Promise<number>;
-}
-
 const cookieOf = (person: { email: string; password: string }) => signInCookie(t.app, person);
 
-function open(cookie: string): Promise<Socket> {
-  return new Promise((resolve, reject) => {
-    const ws = new WebSocket(wsUrl, { headers: { cookie } });
-    const messages: Socket['messages'] = [];
-    const closed = new Promise<number>((r) => ws.on('close', (code) => r(code)));
-    ws.on('message', (data) => messages.push(JSON.parse(String(data))));
-    ws.on('open', () => resolve({ ws, messages, closed }));
-    ws.on('unexpected-response', (_req, res) => reject(new Error(`refused ${res.statusCode}`)));
-    ws.on('error', reject);
-  });
-}
-
-async function until(check: () => boolean | Promise<boolean>, timeoutMs = 2000) {
-  const deadline = Date.now() + timeoutMs;
-  while (!(await check())) {
-    if (Date.now() > deadline) throw new Error('timed out');
-    await new Promise((r) => setTimeout(r, 20));
-  }
-}
+const open = (cookie: string) => openRecordingSocket(wsUrl, cookie);
 
 /** The socket's close code, or 'open' if it is still open after `timeoutMs`. */
-function closeCodeWithin(socket: Socket, timeoutMs: number): Promise<number | 'open'> {
+function closeCodeWithin(socket: RecordingSocket, timeoutMs: number): Promise<number | 'open'> {
   return Promise.race([
     socket.closed,
     new Promise<'open'>((r) => setTimeout(() => r('open'), timeoutMs)),
   ]);
 }
 
-const readings = (socket: Socket) => socket.messages.filter((m) => m.type === 'reading').length;
+const readings = (socket: RecordingSocket) =>
+  socket.messages.filter((m) => m.type === 'reading').length;
 
 /** An owner's shop with a second person in it as a member, through the invitation routes. */
 async function shopWithMember() {
@@ -135,7 +113,7 @@ describe('live hub limits', () => {
     const a = await ownerWithSensor(t);
     const b = await ownerWithSensor(t);
     const cookie = await cookieOf(a);
-    const sockets: Socket[] = [];
+    const sockets: RecordingSocket[] = [];
     for (let i = 0; i < SOCKETS_PER_USER; i++) sockets.push(await open(cookie));
     await expect(open(cookie)).rejects.toThrow('refused 429');
     // Another session of the same person counts too: the cap is per account.
@@ -146,7 +124,7 @@ describe('live hub limits', () => {
 
     sockets[0]!.ws.close();
     await sockets[0]!.closed;
-    let reopened: Socket | undefined;
+    let reopened: RecordingSocket | undefined;
     await until(async () => {
       reopened = await open(cookie).catch(() => undefined);
       return reopened !== undefined;

@@ -36,3 +36,36 @@ export async function connectLive(
     close: () => ws.close(),
   };
 }
+
+/** A raw socket for tests of the hub's rules: every message kept, and its close code. */
+export interface RecordingSocket {
+  ws: WebSocket;
+  messages: { type: string; shopIds?: string[] }[];
+  closed: Promise<number>;
+}
+
+/** Opens a socket with this Cookie header (and Origin); rejects with `refused <status>`. */
+export function openRecordingSocket(
+  wsUrl: string,
+  cookie: string,
+  origin?: string,
+): Promise<RecordingSocket> {
+  return new Promise((resolve, reject) => {
+    const ws = new WebSocket(wsUrl, { headers: { cookie, ...(origin ? { origin } : {}) } });
+    const messages: RecordingSocket['messages'] = [];
+    const closed = new Promise<number>((r) => ws.on('close', (code) => r(code)));
+    ws.on('message', (data) => messages.push(JSON.parse(String(data))));
+    ws.on('open', () => resolve({ ws, messages, closed }));
+    ws.on('unexpected-response', (_req, res) => reject(new Error(`refused ${res.statusCode}`)));
+    ws.on('error', reject);
+  });
+}
+
+/** Waits until `check` holds, polling every 20 ms; throws `timed out` past `timeoutMs`. */
+export async function until(check: () => boolean | Promise<boolean>, timeoutMs = 2000) {
+  const deadline = Date.now() + timeoutMs;
+  while (!(await check())) {
+    if (Date.now() > deadline) throw new Error('timed out');
+    await new Promise((r) => setTimeout(r, 20));
+  }
+}
