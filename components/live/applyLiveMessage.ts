@@ -11,6 +11,8 @@ import {
   patchAlarm,
   patchZoneLatest,
   readingKeys,
+  sensorKeys,
+  zoneKeys,
 } from '@/components/queries';
 
 import type { LiveMessage } from './messages';
@@ -45,6 +47,15 @@ export function applyLiveMessage(queryClient: QueryClient, message: LiveMessage)
         return;
       }
       patchAlarm(queryClient, message.shopId, message.alarm);
+      return;
+    }
+    case 'zones': {
+      // Another tab (or person) added, renamed, changed or deleted a zone: read the list again.
+      void queryClient.invalidateQueries({ queryKey: zoneKeys.shop(message.shopId) });
+      return;
+    }
+    case 'sensors': {
+      void queryClient.invalidateQueries({ queryKey: sensorKeys.list(message.shopId) });
       return;
     }
     case 'access': {

@@ -11,6 +11,7 @@ import type {
   LiveAlarm,
   LiveReading,
   ReadingMessage,
+  ShopChangeMessage,
 } from '@/ingest/wire/live';
 import { ALARM_VALUE_KEYS } from '@/ingest/wire/alarms';
 import { LEVELS as LEVEL_LIST, SURFACE_SOURCES } from '@/ingest/wire/levels';
@@ -29,8 +30,11 @@ export interface LiveAlarmMessage extends Omit<AlarmMessage, 'partial'> {
 
 export type LiveAccessMessage = AccessMessage;
 
+export type LiveShopChangeMessage = ShopChangeMessage;
+
 /** The messages the app acts on; `hello` and anything newer are dropped. */
-export type LiveMessage = LiveReadingMessage | LiveAlarmMessage | LiveAccessMessage;
+export type LiveMessage =
+  LiveReadingMessage | LiveAlarmMessage | LiveAccessMessage | LiveShopChangeMessage;
 
 const LEVELS: readonly string[] = LEVEL_LIST;
 const SOURCES: readonly string[] = SURFACE_SOURCES;
@@ -108,6 +112,10 @@ export function parseLiveMessage(data: unknown): LiveMessage | null {
     const ids = value.shopIds;
     if (!Array.isArray(ids) || !ids.every((id) => typeof id === 'string')) return null;
     return { type: 'access', shopIds: ids as string[] };
+  }
+  if (isObject(value) && (value.type === 'zones' || value.type === 'sensors')) {
+    if (typeof value.shopId !== 'string') return null;
+    return { type: value.type, shopId: value.shopId };
   }
   if (isObject(value) && value.type === 'alarm') {
     if (typeof value.shopId !== 'string' || !isAlarm(value.alarm)) return null;

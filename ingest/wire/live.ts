@@ -51,4 +51,17 @@ export interface HelloMessage {
   shopIds: string[];
 }
 
-export type LiveMessage = ReadingMessage | AlarmMessage | AccessMessage | HelloMessage;
+/**
+ * A shop's zones or sensors changed (created, renamed, limits or placement changed, removed):
+ * read that list again. An invalidation rather than the new row keeps one mapper per resource
+ * (server/wire/) and every payload tiny, and such changes are rare next to readings.
+ */
+export interface ShopChangeMessage {
+  type: 'zones' | 'sensors';
+  shopId: string;
+}
+
+export type ShopChangeKind = ShopChangeMessage['type'];
+
+export type LiveMessage =
+  ReadingMessage | AlarmMessage | AccessMessage | HelloMessage | ShopChangeMessage;

@@ -53,6 +53,7 @@ export const POLICY: readonly PolicyRow[] = [
   { method: 'GET', path: '/shops/:shopId/zones', access: 'viewer' },
   { method: 'POST', path: '/shops/:shopId/zones', access: 'owner' },
   { method: 'PATCH', path: '/shops/:shopId/zones/:zoneId', access: 'owner' },
+  { method: 'DELETE', path: '/shops/:shopId/zones/:zoneId', access: 'owner' },
   { method: 'GET', path: '/shops/:shopId/zones/:zoneId/readings', access: 'viewer' },
 
   // Last seen and battery help everyone notice a silent sensor; tokens never leave the server.

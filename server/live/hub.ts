@@ -20,6 +20,7 @@ import {
   type HelloMessage,
   type AlarmMessage,
   type ReadingMessage,
+  type ShopChangeMessage,
 } from '@/ingest/wire/live';
 
 import { isAllowedHost, misdirected, type AllowedHosts } from '../auth/hosts';
@@ -114,9 +115,10 @@ export function startLiveHub(deps: {
 
   function deliver(payload: string | undefined) {
     if (!payload) return;
-    let message: ReadingMessage | AlarmMessage | AccessNotice;
+    type Notice = ReadingMessage | AlarmMessage | ShopChangeMessage | AccessNotice;
+    let message: Notice;
     try {
-      message = JSON.parse(payload) as ReadingMessage | AlarmMessage | AccessNotice;
+      message = JSON.parse(payload) as Notice;
     } catch {
       return;
     }

@@ -2,10 +2,15 @@
  * The live messages the server builds, once, where the data is committed; their shapes are
  * ingest/wire/live.ts, which the app reads them with too.
  */
-import { NOTIFY_MAX_BYTES } from '@/db/notify';
+import { LIVE_CHANNEL, NOTIFY_MAX_BYTES, notify, type NotifyExecutor } from '@/db/notify';
 import type { Alarm as AlarmView } from '@/ingest/wire/alarms';
 import type { ReadingRow } from '@/db/queries/readings';
-import type { AlarmMessage, ReadingMessage } from '@/ingest/wire/live';
+import type {
+  AlarmMessage,
+  ReadingMessage,
+  ShopChangeKind,
+  ShopChangeMessage,
+} from '@/ingest/wire/live';
 
 export type {
   AccessMessage,
@@ -14,6 +19,7 @@ export type {
   LiveMessage,
   LiveReading,
   ReadingMessage,
+  ShopChangeMessage,
 } from '@/ingest/wire/live';
 
 /**
@@ -65,4 +71,21 @@ export function readingMessage(fresh: ReadingRow[]): ReadingMessage {
     },
     count: fresh.length,
   };
+}
+
+/**
+ * Tells every open tab of the shop that its zones or sensors changed. Called after the write
+ * has committed (or inside its transaction, where PostgreSQL holds the notification until the
+ * commit), so a tab never refetches before the change is there to read.
+ */
+export async function announceShopChange(
+  executor: NotifyExecutor,
+  shopId: string,
+  kinds: readonly ShopChangeKind[],
+): Promise<void> {
+  await notify(
+    executor,
+    LIVE_CHANNEL,
+    kinds.map((type) => JSON.stringify({ type, shopId } satisfies ShopChangeMessage)),
+  );
 }

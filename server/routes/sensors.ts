@@ -17,11 +17,13 @@ import {
   updateSensor,
 } from '@/db/queries/sensors';
 import { findZone } from '@/db/queries/zones';
+import { transaction } from '@/db/transaction';
 import type { IssuedToken, SensorsResponse } from '@/ingest/wire';
 
 import { isUuid, shopIdOf } from '../auth/middleware';
 import { hashToken, newSensorToken, type SensorTokenCache } from '../auth/sensorTokens';
 import { ApiError } from '../errors';
+import { announceShopChange } from '../live/messages';
 import { parseInput } from '../validate';
 import { toCreatedSensor, toSensor, toSensorPlacement } from '../wire/sensors';
 
@@ -57,11 +59,17 @@ export function sensorsRouter(db: Db, tokens: SensorTokenCache): Router {
     if (!(await findZone(db, shopId, body.zoneId))) throw unknownZone();
     const token = newSensorToken();
     const tokenHash = hashToken(token);
-    const sensor = await insertSensor(db, {
-      shopId,
-      zoneId: body.zoneId,
-      name: body.name,
-      tokenHash,
+    // Every change below tells the shop's other open tabs to reread the sensor list, once the
+    // change commits (the notification rides in the same transaction).
+    const sensor = await transaction(db, async (tx) => {
+      const inserted = await insertSensor(tx, {
+        shopId,
+        zoneId: body.zoneId,
+        name: body.name,
+        tokenHash,
+      });
+      await announceShopChange(tx, shopId, ['sensors']);
+      return inserted;
     });
     // A fresh random token is in no cache; this only matters should its hash have been tried
     // (and remembered as unknown) before, so the new sensor's first post is never refused.
@@ -76,7 +84,11 @@ export function sensorsRouter(db: Db, tokens: SensorTokenCache): Router {
     if (!isUuid(sensorId)) throw noSensor();
     const shopId = shopIdOf(res);
     if (body.zoneId && !(await findZone(db, shopId, body.zoneId))) throw unknownZone();
-    const updated = await updateSensor(db, shopId, sensorId, body);
+    const updated = await transaction(db, async (tx) => {
+      const row = await updateSensor(tx, shopId, sensorId, body);
+      if (row) await announceShopChange(tx, shopId, ['sensors']);
+      return row;
+    });
     if (!updated) throw noSensor();
     await tokens.invalidate(updated.tokenHash);
     res.json(toSensorPlacement(updated));
@@ -87,8 +99,13 @@ export function sensorsRouter(db: Db, tokens: SensorTokenCache): Router {
     const sensorId = req.params.sensorId;
     const token = newSensorToken();
     const tokenHash = hashToken(token);
+    const shopId = shopIdOf(res);
     const rotated = isUuid(sensorId)
-      ? await rotateSensorToken(db, shopIdOf(res), sensorId, tokenHash)
+      ? await transaction(db, async (tx) => {
+          const row = await rotateSensorToken(tx, shopId, sensorId, tokenHash);
+          if (row) await announceShopChange(tx, shopId, ['sensors']);
+          return row;
+        })
       : null;
     if (!rotated) throw noSensor();
     await tokens.invalidate([rotated.oldTokenHash, tokenHash]);
@@ -97,8 +114,13 @@ export function sensorsRouter(db: Db, tokens: SensorTokenCache): Router {
 
   router.delete('/:sensorId/token', async (req, res) => {
     const sensorId = req.params.sensorId;
+    const shopId = shopIdOf(res);
     const tokenHash = isUuid(sensorId)
-      ? await revokeSensorToken(db, shopIdOf(res), sensorId)
+      ? await transaction(db, async (tx) => {
+          const hash = await revokeSensorToken(tx, shopId, sensorId);
+          if (hash) await announceShopChange(tx, shopId, ['sensors']);
+          return hash;
+        })
       : null;
     if (!tokenHash) throw noSensor();
     await tokens.invalidate(tokenHash);
@@ -107,7 +129,14 @@ export function sensorsRouter(db: Db, tokens: SensorTokenCache): Router {
 
   router.delete('/:sensorId', async (req, res) => {
     const sensorId = req.params.sensorId;
-    const tokenHash = isUuid(sensorId) ? await removeSensor(db, shopIdOf(res), sensorId) : null;
+    const shopId = shopIdOf(res);
+    const tokenHash = isUuid(sensorId)
+      ? await transaction(db, async (tx) => {
+          const hash = await removeSensor(tx, shopId, sensorId);
+          if (hash) await announceShopChange(tx, shopId, ['sensors']);
+          return hash;
+        })
+      : null;
     if (!tokenHash) throw noSensor();
     await tokens.invalidate(tokenHash);
     res.status(204).end();

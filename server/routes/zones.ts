@@ -1,16 +1,27 @@
-/** A shop's zones: list with each zone's newest reading, create, rename and set limits. */
+/**
+ * A shop's zones: list with each zone's newest reading, create, rename and set limits, delete an
+ * empty one. Every change tells the shop's other open tabs to reread the list once it commits.
+ */
 import { Router } from 'express';
 import { z } from 'zod';
 
 import type { Db } from '@/db';
 import { tokenHashesOfZone } from '@/db/queries/sensors';
-import { findZone, insertZone, listZonesWithLatest, updateZone } from '@/db/queries/zones';
+import {
+  deleteEmptyZone,
+  findZone,
+  insertZone,
+  listZonesWithLatest,
+  updateZone,
+} from '@/db/queries/zones';
+import { transaction } from '@/db/transaction';
 import { marginLimitsSchema } from '@/ingest';
 import type { ZonesResponse } from '@/ingest/wire';
 
 import { isUuid, shopIdOf } from '../auth/middleware';
 import type { SensorTokenCache } from '../auth/sensorTokens';
 import { ApiError } from '../errors';
+import { announceShopChange } from '../live/messages';
 import { parseInput } from '../validate';
 import { toZone, toZoneSettings } from '../wire/zones';
 
@@ -42,7 +53,13 @@ export function zonesRouter(db: Db, tokens: SensorTokenCache): Router {
 
   router.post('/', async (req, res) => {
     const body = parseInput(createZoneBody, req.body);
-    const zone = await insertZone(db, shopIdOf(res), body.name);
+    const shopId = shopIdOf(res);
+    // Other open tabs of the shop reread the zone list once this commits.
+    const zone = await transaction(db, async (tx) => {
+      const inserted = await insertZone(tx, shopId, body.name);
+      await announceShopChange(tx, shopId, ['zones']);
+      return inserted;
+    });
     res.status(201).json(toZoneSettings(zone));
   });
 
@@ -57,11 +74,43 @@ export function zonesRouter(db: Db, tokens: SensorTokenCache): Router {
       cautionK: body.cautionK ?? zone.cautionK,
       wetK: body.wetK ?? zone.wetK,
     });
-    const updated = await updateZone(db, shopId, zone.id, body);
+    const updated = await transaction(db, async (tx) => {
+      const row = await updateZone(tx, shopId, zone.id, body);
+      if (row) await announceShopChange(tx, shopId, ['zones']);
+      return row;
+    });
     if (!updated) throw noZone();
     // Sensors in this zone carry its limits in the ingest cache: forget them.
     for (const hash of await tokenHashesOfZone(db, zone.id)) await tokens.invalidate(hash);
     res.json(toZoneSettings(updated));
+  });
+
+  // Only a zone made by mistake: its sensors and readings would go with it (db/queries/zones.ts).
+  router.delete('/:zoneId', async (req, res) => {
+    const shopId = shopIdOf(res);
+    const zoneId = req.params.zoneId;
+    if (!isUuid(zoneId)) throw noZone();
+    const refusal = await transaction(db, async (tx) => {
+      const why = await deleteEmptyZone(tx, shopId, zoneId);
+      if (!why) await announceShopChange(tx, shopId, ['zones', 'sensors']);
+      return why;
+    });
+    if (refusal === 'not_found') throw noZone();
+    if (refusal === 'has_sensors') {
+      throw new ApiError(
+        409,
+        'zone_has_sensors',
+        'Move or remove the sensors of this zone first; a zone is deleted only when empty.',
+      );
+    }
+    if (refusal === 'has_readings') {
+      throw new ApiError(
+        409,
+        'zone_has_readings',
+        'This zone has readings, which are its history: rename it instead of deleting it.',
+      );
+    }
+    res.status(204).end();
   });
 
   return router;

@@ -68,6 +68,8 @@ const SAMPLES: Record<string, Sample> = {
     body: () => ({ cautionK: 4, wetK: 1.5 }),
     status: { default: 200 },
   },
+  // The world's zone holds a sensor, so the owner's delete is refused as not empty.
+  'DELETE /shops/:shopId/zones/:zoneId': { status: { default: 409 } },
   'GET /shops/:shopId/zones/:zoneId/readings': { status: { default: 200 } },
   'GET /shops/:shopId/sensors': { status: { default: 200 } },
   'POST /shops/:shopId/sensors': {
