@@ -4,6 +4,7 @@ import { z } from 'zod';
 
 import type { Db } from '@/db';
 import { createShopWithOwner, deleteShop, findShop, updateShop } from '@/db/queries/shops';
+import { checkTimeZone } from '@/ingest/timeZones';
 
 import { roleOf, shopIdOf, userIdOf } from '../auth/middleware';
 import type { SensorTokenCache } from '../auth/sensorTokens';
@@ -13,21 +14,25 @@ import { toShop, toShopSummary } from '../wire/people';
 
 import { nameField } from './fields';
 
-/** True for a time zone name the runtime's IANA database knows (e.g. Europe/Dublin). */
-function isIanaZone(name: string): boolean {
-  try {
-    new Intl.DateTimeFormat('en', { timeZone: name });
-    return name.includes('/') || name === 'UTC';
-  } catch {
-    return false;
-  }
-}
-
 const shopName = nameField('Name the shop');
+
+/**
+ * An IANA name the server's Intl knows, spelt exactly (ingest/timeZones.ts); a near miss names
+ * the spelling it was probably meant as, so the person can fix it in one go.
+ */
 const timeZone = z
   .string()
-  .max(64)
-  .refine(isIanaZone, 'Use an IANA time zone such as America/Chicago');
+  .max(64, 'At most 64 characters')
+  .superRefine((name, ctx) => {
+    const check = checkTimeZone(name);
+    if (check.ok) return;
+    ctx.addIssue({
+      code: 'custom',
+      message: check.suggestion
+        ? `Use the IANA spelling: ${check.suggestion}`
+        : 'Pick a time zone from the list, such as America/Chicago',
+    });
+  });
 
 const createShopBody = z.object({ name: shopName, timeZone });
 const updateShopBody = z
