@@ -68,6 +68,12 @@ export function checkTimeZone(name: string): TimeZoneCheck {
   return { ok: false, suggestion: byLower.get(resolved.toLowerCase()) ?? resolved };
 }
 
+/** `name` as IANA spells it when it is a near miss with one meaning, else `name` unchanged. */
+export function canonicalTimeZone(name: string): string {
+  const check = checkTimeZone(name);
+  return check.ok ? name : (check.suggestion ?? name);
+}
+
 /**
  * Zones matching what a person typed, best first: a match at the start of the city ("Chi" →
  * America/Chicago) before one anywhere in the name; spaces count as underscores ("New York").

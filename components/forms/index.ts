@@ -9,3 +9,4 @@ export { TextField } from './TextField';
 export { Choice } from './Choice';
 export { ConfirmButton } from './ConfirmButton';
 export { useApiForm } from './useApiForm';
+export { TimeZoneField, TimeZonePicker, browserTimeZone } from './TimeZonePicker';

@@ -6,6 +6,7 @@
  */
 import * as z from 'zod/mini';
 
+import { checkTimeZone } from '@/ingest/timeZones';
 import { ROLES } from '@/ingest/wire/people';
 
 export const emailSchema = z
@@ -51,7 +52,11 @@ export const acceptNewAccountSchema = z.object({ name: nameSchema, password: new
 
 export const shopSchema = z.object({
   name: nameSchema,
-  timeZone: z.string().check(z.trim(), z.minLength(1, 'Enter a time zone such as America/Chicago')),
+  timeZone: z.string().check(
+    z.trim(),
+    z.minLength(1, 'Pick a time zone from the list'),
+    z.refine((name) => checkTimeZone(name).ok, 'Pick a time zone from the list'),
+  ),
 });
 
 export const inviteSchema = z.object({

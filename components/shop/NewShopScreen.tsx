@@ -1,22 +1,21 @@
 import { Redirect, useRouter } from 'expo-router';
 import { StyleSheet, Text } from 'react-native';
 
-import { Form, FormError, FormField, SubmitButton, useApiForm } from '@/components/forms';
+import {
+  browserTimeZone,
+  Form,
+  FormError,
+  FormField,
+  SubmitButton,
+  TimeZoneField,
+  useApiForm,
+} from '@/components/forms';
 import { shopSchema } from '@/components/forms/schemas';
 import { shopSectionHref } from '@/components/hrefs';
 import { AuthLayout } from '@/components/people/AuthLayout';
 import { isSignedOut, useMeQuery, useShopCreateMutation } from '@/components/queries';
 import { space, type } from '@/components/theme';
 import { Splash, useDocumentTitle } from '@/components/ui';
-
-/** The browser's own time zone is the likely one for a new shop. */
-function browserTimeZone(): string {
-  try {
-    return Intl.DateTimeFormat().resolvedOptions().timeZone || 'UTC';
-  } catch {
-    return 'UTC';
-  }
-}
 
 /** Creates a shop (its creator owns it) and opens its settings to add zones. */
 export function NewShopScreen() {
@@ -53,15 +52,12 @@ export function NewShopScreen() {
           testID="shop-create-name"
           editable={!sending}
         />
-        <FormField
+        <TimeZoneField
           control={control}
           name="timeZone"
-          label="Time zone (IANA, e.g. America/Chicago)"
+          label="Time zone"
           testID="shop-create-timezone"
-          autoCapitalize="none"
-          autoCorrect={false}
-          editable={!sending}
-          onSubmitEditing={submit}
+          disabled={sending}
         />
         <FormError message={formError} testID="shop-create-error" />
         <SubmitButton

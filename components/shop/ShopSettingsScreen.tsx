@@ -1,8 +1,9 @@
-import { useRouter } from 'expo-router';
+import { Link, useRouter } from 'expo-router';
 import { useState } from 'react';
 import { StyleSheet, Text, View } from 'react-native';
 
 import { deltaInUnit } from '@/components/format';
+import { membersHref } from '@/components/hrefs';
 import {
   Button,
   ConfirmButton,
@@ -12,11 +13,13 @@ import {
   FormStatus,
   SubmitButton,
   TextField,
+  TimeZoneField,
   useApiForm,
 } from '@/components/forms';
 import { shopSchema, zoneNameSchema } from '@/components/forms/schemas';
 import {
   useLeaveShopMutation,
+  useMembersQuery,
   useShopDeleteMutation,
   useShopUpdateMutation,
   useUnitPref,
@@ -25,6 +28,7 @@ import {
   type ShopSummary,
 } from '@/components/queries';
 import { colors, space, type } from '@/components/theme';
+import { canonicalTimeZone } from '@/ingest/timeZones';
 import { Panel, useDocumentTitle } from '@/components/ui';
 
 import { useFrameShop } from './ShopFrame';
@@ -86,7 +90,8 @@ function ShopForm({ shop }: { shop: ShopSummary }) {
     timeZone: string;
   }>({
     schema: shopSchema,
-    defaultValues: { name: shop.name, timeZone: shop.timeZone },
+    // A zone stored before names were checked exactly ("america/chicago") shows as IANA spells it.
+    defaultValues: { name: shop.name, timeZone: canonicalTimeZone(shop.timeZone) },
     fields: ['name', 'timeZone'],
     send: async (values) => {
       await update.mutateAsync({ name: values.name.trim(), timeZone: values.timeZone.trim() });
@@ -102,14 +107,12 @@ function ShopForm({ shop }: { shop: ShopSummary }) {
           testID="shop-edit-name"
           editable={!sending}
         />
-        <FormField
+        <TimeZoneField
           control={control}
           name="timeZone"
-          label="Time zone (IANA, e.g. America/Chicago)"
+          label="Time zone"
           testID="shop-edit-timezone"
-          autoCapitalize="none"
-          autoCorrect={false}
-          editable={!sending}
+          disabled={sending}
         />
         <FormError message={formError} />
         <FormStatus message={done ? 'Saved.' : null} />
@@ -162,6 +165,26 @@ function NewZoneForm({ shopId }: { shopId: string }) {
 function LeavePanel({ shop }: { shop: ShopSummary }) {
   const router = useRouter();
   const leave = useLeaveShopMutation(shop.id);
+  const owner = shop.role === 'owner';
+  // Only an owner can be the last one; others need not wait for the list.
+  const members = useMembersQuery(shop.id, owner);
+  const owners = members.data?.members.filter((m) => m.role === 'owner').length;
+  if (owner && members.isPending) return null;
+  // A shop always keeps an owner (the server refuses with last_owner as the backstop): say so
+  // instead of offering a button that can only fail after the confirmation.
+  if (owner && owners === 1) {
+    return (
+      <Panel title="Leave the shop" testID="shop-leave-sole-owner">
+        <Text style={type.body}>
+          You are the only owner of {shop.name}, so you cannot leave it. Make another member an
+          owner first, or delete the shop below.
+        </Text>
+        <Link href={membersHref(shop.id)} style={styles.link}>
+          Members
+        </Link>
+      </Panel>
+    );
+  }
   return (
     <Panel title="Leave the shop" hint="You lose access to its zones, sensors and alarms.">
       <ConfirmButton
@@ -208,6 +231,12 @@ function DeletePanel({ shop }: { shop: ShopSummary }) {
 
 const styles = StyleSheet.create({
   form: { gap: space.md },
+  link: {
+    ...type.body,
+    color: colors.air,
+    textDecorationLine: 'underline',
+    alignSelf: 'flex-start',
+  },
   zone: {
     gap: space.sm,
     paddingBottom: space.md,
