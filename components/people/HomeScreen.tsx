@@ -8,14 +8,19 @@ import { isSignedOut, useMeQuery, useSignOutMutation } from '@/components/querie
 import { type } from '@/components/theme';
 import { Notice, Splash } from '@/components/ui';
 
-/** The front door: the first shop's overview when signed in, else the sign-in page. */
+import { LandingScreen } from './LandingScreen';
+
+/**
+ * The front door: the first shop's overview when signed in, else the page saying what Drybench
+ * does and what a shop needs, with the ways in.
+ */
 export function HomeScreen() {
   const router = useRouter();
   const me = useMeQuery();
   const signOut = useSignOutMutation();
 
   if (me.isPending) return <Splash />;
-  if (isSignedOut(me.error)) return <Redirect href="/sign-in" />;
+  if (isSignedOut(me.error)) return <LandingScreen />;
   if (me.isError) {
     return (
       <Screen>

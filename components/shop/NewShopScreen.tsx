@@ -11,13 +11,13 @@ import {
   useApiForm,
 } from '@/components/forms';
 import { shopSchema } from '@/components/forms/schemas';
-import { shopSectionHref } from '@/components/hrefs';
+import { shopHref } from '@/components/hrefs';
 import { AuthLayout } from '@/components/people/AuthLayout';
 import { isSignedOut, useMeQuery, useShopCreateMutation } from '@/components/queries';
 import { space, type } from '@/components/theme';
 import { Splash, useDocumentTitle } from '@/components/ui';
 
-/** Creates a shop (its creator owns it) and opens its settings to add zones. */
+/** Creates a shop (its creator owns it) and opens its overview with the getting-started steps. */
 export function NewShopScreen() {
   useDocumentTitle('New shop');
   const router = useRouter();
@@ -32,7 +32,8 @@ export function NewShopScreen() {
         name: values.name.trim(),
         timeZone: values.timeZone.trim(),
       });
-      router.replace(shopSectionHref(shop.id, 'shop'));
+      // The overview, where the getting-started steps wait.
+      router.replace(shopHref(shop.id));
     },
   });
 

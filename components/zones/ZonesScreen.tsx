@@ -5,6 +5,7 @@ import { StyleSheet, Text, View } from 'react-native';
 import { shopHref } from '@/components/hrefs';
 import { LIST_COLUMN_WIDTH, useBreakpoints } from '@/components/layout';
 import { isSignedOut, useZonesQuery, type Zone } from '@/components/queries';
+import { SetupChecklist } from '@/components/shop/SetupChecklist';
 import { useFrameShop } from '@/components/shop/ShopFrame';
 import { colors, space, type } from '@/components/theme';
 import { Notice, useDocumentTitle } from '@/components/ui';
@@ -93,7 +94,7 @@ export function ZonesScreen({ zoneId }: ZonesScreenProps) {
     body = <ZoneList shopId={shopId} zones={zoneList} timeZone={timeZone} />;
   }
 
-  return body;
+  return <SetupChecklist shop={shop}>{body}</SetupChecklist>;
 }
 
 const styles = StyleSheet.create({

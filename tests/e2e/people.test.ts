@@ -84,6 +84,9 @@ describe('a new owner on a phone (390×844)', () => {
     await page.getByTestId('shop-create-name').fill('Cedar Loft Workshop');
     await page.getByTestId('shop-create-timezone').fill('America/Denver');
     await page.getByTestId('shop-create-submit').click();
+    // The overview opens with the getting-started steps; the first leads to the settings.
+    await page.waitForURL(/\/shops\/[0-9a-f-]+$/);
+    await page.getByTestId('setup-step-zone-link').click();
     await page.waitForURL(/\/shops\/[0-9a-f-]+\/settings$/);
     expect(await page.getByTestId('shop-name').textContent()).toBe('Cedar Loft Workshop');
 
