@@ -95,6 +95,7 @@ export {
 export {
   patchZoneLatest,
   useZoneCreateMutation,
+  useZoneDeleteMutation,
   useZoneUpdateMutation,
   useZonesQuery,
   withLatest,

@@ -100,3 +100,13 @@ export function useZoneUpdateMutation(shopId: string) {
     onSettled: () => queryClient.invalidateQueries({ queryKey: zoneKeys.shop(shopId) }),
   });
 }
+
+/** Deletes an empty zone (no sensor placed, no reading stored); the server refuses others. */
+export function useZoneDeleteMutation(shopId: string) {
+  const queryClient = useQueryClient();
+  return useMutation({
+    mutationFn: (zoneId: string) =>
+      apiRequest<void>(zonePath(shopId, zoneId), { method: 'DELETE' }),
+    onSettled: () => queryClient.invalidateQueries({ queryKey: zoneKeys.shop(shopId) }),
+  });
+}

@@ -135,7 +135,7 @@ const styles = StyleSheet.create({
   markText: { fontFamily: fonts.bold, fontSize: 13, color: colors.iron },
   markTextDone: { color: colors.card },
   body: { flex: 1, minWidth: 0, gap: space.xs },
-  titleRow: { flexDirection: 'row', justifyContent: 'space-between', gap: space.sm },
+  titleRow: { flexDirection: 'row', flexWrap: 'wrap', alignItems: 'baseline', gap: space.md },
   doneWord: { color: colors.dry },
   link: {
     ...type.body,

@@ -24,8 +24,10 @@ import {
   useShopUpdateMutation,
   useUnitPref,
   useZoneCreateMutation,
+  useZoneDeleteMutation,
   useZonesQuery,
   type ShopSummary,
+  type Zone,
 } from '@/components/queries';
 import { colors, space, type } from '@/components/theme';
 import { canonicalTimeZone } from '@/ingest/timeZones';
@@ -66,7 +68,10 @@ function SettingsBody({ shop }: { shop: ShopSummary }) {
         {zones.data?.zones.map((zone) => (
           <View key={zone.id} style={styles.zone}>
             {owner ? (
-              <ZoneLimitsForm shopId={shop.id} zone={zone} unit={unit} />
+              <>
+                <ZoneLimitsForm shopId={shop.id} zone={zone} unit={unit} />
+                {zone.latest === null ? <ZoneDeleteButton shopId={shop.id} zone={zone} /> : null}
+              </>
             ) : (
               <Text style={type.body}>
                 {zone.name}: caution below {deltaInUnit(zone.cautionK, unit)} °{unit}, wet at{' '}
@@ -159,6 +164,24 @@ function NewZoneForm({ shopId }: { shopId: string }) {
         testID="zone-create-submit"
       />
     </Form>
+  );
+}
+
+/** A zone without readings can go (made by mistake); the server also refuses one with a sensor. */
+function ZoneDeleteButton({ shopId, zone }: { shopId: string; zone: Zone }) {
+  const remove = useZoneDeleteMutation(shopId);
+  return (
+    <>
+      <ConfirmButton
+        label={`Delete ${zone.name}`}
+        question={`Delete the zone ${zone.name}? It has no readings yet.`}
+        confirmLabel={`Yes, delete ${zone.name}`}
+        disabled={remove.isPending}
+        onConfirm={() => remove.mutate(zone.id)}
+        testID="zone-delete"
+      />
+      <FormError message={remove.error?.message} testID="zone-delete-error" />
+    </>
   );
 }
 

@@ -4,7 +4,7 @@
 // "Chicago" in the picker, and follows the checklist on the overview — zone, sensor, first
 // reading — each ticked as it happens, the list gone when all are done. The sole owner is told
 // why they cannot leave instead of being offered Leave. A zone added in one tab appears in
-// another open tab of the shop without a reload.
+// another open tab of the shop without a reload, and goes when it is deleted.
 import { randomUUID } from 'node:crypto';
 
 import type { BrowserContext, Page } from 'playwright-core';
@@ -213,6 +213,12 @@ describe.each([
         path: `${SHOTS}/getting-started-other-tab-${label}.png`,
         fullPage: true,
       });
+      // Deleting it (an empty zone, made by mistake) takes it off the other tab too; the zone
+      // with readings offers no delete.
+      await page.getByTestId('zone-delete').click();
+      await page.getByTestId('zone-delete-confirm').click();
+      await expect.poll(() => cards.count(), { timeout: 5000 }).toBe(0);
+      expect(await page.getByTestId('zone-delete').count()).toBe(0);
       expect(otherErrors).toEqual([]);
     } finally {
       await other.close();
