@@ -18,7 +18,10 @@ export function AuthLayout({ title, children, links = [] }: AuthLayoutProps) {
     <Screen>
       <Content maxWidth={FORM_MAX_WIDTH} style={styles.column}>
         <View style={styles.brand}>
-          <Text style={type.title}>Drybench</Text>
+          {/* Back to the front page, which says what Drybench is. */}
+          <Link href="/" style={type.title} testID="auth-home">
+            Drybench
+          </Link>
           <Text style={type.small}>Dew margin and wood moisture for your shop.</Text>
         </View>
         <View style={styles.card}>
@@ -43,7 +46,7 @@ export function AuthLayout({ title, children, links = [] }: AuthLayoutProps) {
 
 const styles = StyleSheet.create({
   column: { paddingTop: space.xxl, gap: space.xl },
-  brand: { gap: space.xs },
+  brand: { gap: space.xs, alignItems: 'flex-start' },
   card: { ...cardSurface, padding: space.xl, gap: space.lg },
   links: { gap: space.md },
   link: {

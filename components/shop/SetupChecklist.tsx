@@ -142,7 +142,8 @@ const styles = StyleSheet.create({
     color: colors.air,
     textDecorationLine: 'underline',
     alignSelf: 'flex-start',
-    paddingVertical: space.sm,
+    // 20 px of line and 12 px above and below: a 44 px target.
+    paddingVertical: space.md,
   },
   linkNext: {
     color: colors.card,

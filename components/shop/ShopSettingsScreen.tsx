@@ -259,6 +259,7 @@ const styles = StyleSheet.create({
     color: colors.air,
     textDecorationLine: 'underline',
     alignSelf: 'flex-start',
+    paddingVertical: space.md,
   },
   zone: {
     gap: space.sm,

@@ -160,6 +160,8 @@ describe.each([
     await page.getByTestId('shop-leave-sole-owner').waitFor();
     expect(await page.getByTestId('shop-leave').count()).toBe(0);
     expect(await page.getByTestId('shop-leave-sole-owner').textContent()).toContain('only owner');
+    await page.getByTestId('shop-leave-sole-owner').scrollIntoViewIfNeeded();
+    await shot('sole-owner');
     // The saved zone shows in the settings' picker as saved.
     expect(await page.getByTestId('shop-edit-timezone').inputValue()).toBe('America/Chicago');
     await page.getByTestId('zone-create-name').fill('Machine room');
