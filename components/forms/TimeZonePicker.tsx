@@ -94,6 +94,8 @@ export function TimeZonePicker({
   const shown = matches.slice(0, SHOWN);
   const expanded = open && !disabled;
   const activeIndex = Math.min(active, shown.length - 1);
+  // The listbox exists only with options in it; "no match" is said beside it.
+  const listOpen = expanded && shown.length > 0;
 
   function choose(name: string) {
     onChange(name);
@@ -115,7 +117,7 @@ export function TimeZonePicker({
       setActive((activeIndex + step + shown.length) % Math.max(shown.length, 1));
     } else if (key === 'Enter') {
       // Enter picks the highlighted zone instead of sending the form.
-      const pick = expanded ? shown[activeIndex] : undefined;
+      const pick = listOpen ? shown[activeIndex] : undefined;
       if (pick) {
         prevent();
         choose(pick);
@@ -128,9 +130,9 @@ export function TimeZonePicker({
   }
 
   const aria: ComboboxAria = {
-    'aria-controls': listId,
+    'aria-controls': listOpen ? listId : undefined,
     'aria-autocomplete': 'list',
-    'aria-activedescendant': expanded && shown.length > 0 ? optionId(activeIndex) : undefined,
+    'aria-activedescendant': listOpen ? optionId(activeIndex) : undefined,
     'aria-describedby': error ? errorId : undefined,
   };
 
@@ -142,7 +144,7 @@ export function TimeZonePicker({
       <TextInput
         {...aria}
         role="combobox"
-        aria-expanded={expanded}
+        aria-expanded={listOpen}
         aria-label={label}
         aria-invalid={error ? true : undefined}
         accessibilityLabel={label}
@@ -175,34 +177,38 @@ export function TimeZonePicker({
         style={[styles.input, focused && styles.inputFocused, error ? styles.invalid : undefined]}
       />
       {expanded ? (
-        <View
-          // React Native's role list lacks listbox; react-native-web renders it as given.
-          role={'listbox' as ViewProps['role']}
-          nativeID={listId}
-          aria-labelledby={labelId}
-          style={styles.list}
-          testID={testID ? `${testID}-list` : undefined}
-        >
-          {shown.map((name, index) => (
-            <Pressable
-              key={name}
-              role="option"
-              nativeID={optionId(index)}
-              aria-selected={index === activeIndex}
-              focusable={false}
-              onPress={() => choose(name)}
-              testID={testID ? `${testID}-option` : undefined}
-              style={({ hovered }) => [
-                styles.option,
-                (index === activeIndex || hovered) && styles.optionActive,
-              ]}
+        <View style={styles.list}>
+          {listOpen ? (
+            <View
+              // React Native's role list lacks listbox; react-native-web renders it as given.
+              role={'listbox' as ViewProps['role']}
+              nativeID={listId}
+              aria-labelledby={labelId}
+              testID={testID ? `${testID}-list` : undefined}
             >
-              <Text style={type.body}>{name.replace(/_/g, ' ')}</Text>
-              {index === 0 && name === zones[0] ? (
-                <Text style={type.small}>this browser’s zone</Text>
-              ) : null}
-            </Pressable>
-          ))}
+              {shown.map((name, index) => (
+                <Pressable
+                  key={name}
+                  role="option"
+                  nativeID={optionId(index)}
+                  aria-selected={index === activeIndex}
+                  focusable={false}
+                  onPress={() => choose(name)}
+                  testID={testID ? `${testID}-option` : undefined}
+                  style={({ hovered }) => [
+                    styles.option,
+                    (index === activeIndex || hovered) && styles.optionActive,
+                  ]}
+                >
+                  <Text style={type.body}>{name.replace(/_/g, ' ')}</Text>
+                  {index === 0 && name === zones[0] ? (
+                    <Text style={type.small}>this browser’s zone</Text>
+                  ) : null}
+                </Pressable>
+              ))}
+            </View>
+          ) : null}
+          {/* Outside the listbox, which may hold options only. */}
           <Text style={[type.small, styles.more]} aria-live="polite">
             {shown.length === 0
               ? 'No time zone matches; try a large city near you.'

@@ -7,6 +7,7 @@
 // another open tab of the shop without a reload, and goes when it is deleted.
 import { randomUUID } from 'node:crypto';
 
+import AxeBuilder from '@axe-core/playwright';
 import type { BrowserContext, Page } from 'playwright-core';
 import { afterAll, beforeAll, describe, expect, it } from 'vitest';
 
@@ -26,6 +27,14 @@ beforeAll(async () => {
   suite = await startBrowserSuite();
 });
 afterAll(() => suite?.close());
+
+/** axe-core's serious and critical findings on the page as it stands (rule id and targets). */
+async function seriousAxeFindings(page: Page) {
+  const { violations } = await new AxeBuilder({ page }).analyze();
+  return violations
+    .filter((v) => v.impact === 'serious' || v.impact === 'critical')
+    .map((v) => `${v.id}: ${v.nodes.map((n) => n.target.join(' ')).join(', ')}`);
+}
 
 const stepState = (page: Page, step: 'zone' | 'sensor' | 'reading') =>
   page.getByTestId(`setup-step-${step}-state`).textContent();
@@ -76,6 +85,7 @@ describe.each([
     );
     expect(overflow).toBeLessThanOrEqual(0);
     await shot('landing');
+    expect(await seriousAxeFindings(page)).toEqual([]);
 
     await page.getByTestId('landing-sign-in').click();
     await page.waitForURL(/\/sign-in$/);
@@ -129,6 +139,8 @@ describe.each([
     expect(await activeId()).toBe(await options.nth(0).getAttribute('id'));
     await zone.fill('Chicago');
     await shot('time-zone');
+    // With the list open: the combobox, its listbox and options as axe-core checks them.
+    expect(await seriousAxeFindings(page)).toEqual([]);
     // Enter picks the highlighted zone, spelt as IANA spells it, and does not send the form.
     await zone.press('Enter');
     expect(await zone.inputValue()).toBe('America/Chicago');
@@ -153,6 +165,7 @@ describe.each([
     expect(await stepState(page, 'sensor')).toBe('to do');
     expect(await stepState(page, 'reading')).toBe('to do');
     await shot('checklist');
+    expect(await seriousAxeFindings(page)).toEqual([]);
 
     await page.getByTestId('setup-step-zone-link').click();
     await page.waitForURL(/\/settings$/);
@@ -220,7 +233,7 @@ describe.each([
       await page.getByTestId('zone-delete').click();
       await page.getByTestId('zone-delete-confirm').click();
       await expect.poll(() => cards.count(), { timeout: 5000 }).toBe(0);
-      expect(await page.getByTestId('zone-delete').count()).toBe(0);
+      await expect.poll(() => page.getByTestId('zone-delete').count()).toBe(0);
       expect(otherErrors).toEqual([]);
     } finally {
       await other.close();
