@@ -20,6 +20,8 @@ export const MIN_TIME_MS = Date.UTC(2000, 0, 1);
 export const MAX_READINGS_PER_REQUEST = 1000;
 export const TEMPERATURE_MIN_C = -60;
 export const TEMPERATURE_MAX_C = 85;
+export const RH_MIN_PCT = 0;
+export const RH_MAX_PCT = 100;
 
 // ISO 8601 date-time that names its offset (Z or ±hh:mm); a bare local time is ambiguous.
 const ISO_WITH_OFFSET = /^\d{4}-\d{2}-\d{2}T\d{2}:\d{2}(:\d{2}(\.\d{1,9})?)?(Z|[+-]\d{2}:?\d{2})$/;
@@ -36,6 +38,48 @@ export const readingSchema = z.object({
   surface: z.number().nullable().optional(),
   battery: z.number().nullable().optional(),
 });
+
+/** Battery volts a reading may carry: 0 V (dead) to 24 V (the largest pack a shop sensor uses). */
+export const BATTERY_MIN_V = 0;
+export const BATTERY_MAX_V = 24;
+
+/** The fields a reading may name; anything else is refused (`unknown_field`). */
+export const READING_FIELDS = ['at', 'air', 'rh', 'surface', 'battery'] as const;
+/** The fields of the batch form's envelope. */
+export const ENVELOPE_FIELDS = ['unit', 'readings'] as const;
+export type ReadingField = (typeof READING_FIELDS)[number];
+
+/**
+ * What each field means, for the token screen and the contract: one source, so a screen never
+ * retypes a unit or a range. Ranges are the per-reading checks below.
+ */
+export const READING_FIELD_GUIDE: readonly {
+  field: ReadingField | 'unit';
+  required: boolean;
+  /** How the value is given; temperatures follow `unit`. */
+  kind: 'time' | 'temperature' | 'percent' | 'volts' | 'unit';
+  min?: number;
+  max?: number;
+}[] = [
+  {
+    field: 'air',
+    required: true,
+    kind: 'temperature',
+    min: TEMPERATURE_MIN_C,
+    max: TEMPERATURE_MAX_C,
+  },
+  { field: 'rh', required: true, kind: 'percent', min: RH_MIN_PCT, max: RH_MAX_PCT },
+  {
+    field: 'surface',
+    required: false,
+    kind: 'temperature',
+    min: TEMPERATURE_MIN_C,
+    max: TEMPERATURE_MAX_C,
+  },
+  { field: 'battery', required: false, kind: 'volts', min: BATTERY_MIN_V, max: BATTERY_MAX_V },
+  { field: 'at', required: false, kind: 'time' },
+  { field: 'unit', required: false, kind: 'unit' },
+];
 
 const unitSchema = z.enum(['C', 'F']).default('C');
 
@@ -55,11 +99,39 @@ export interface SensorReading {
   rhPct: number;
   surfaceC: number | null;
   batteryV: number | null;
+  /** Keys the contract does not name, sent on this reading of a batch: it is refused. */
+  unknownFields?: string[];
+}
+
+export interface PayloadIssue {
+  path: string;
+  message: string;
 }
 
 export type EnvelopeResult =
   | { ok: true; readings: SensorReading[] }
-  | { ok: false; issues: { path: string; message: string }[] };
+  | { ok: false; code: 'invalid_payload' | 'unknown_field'; issues: PayloadIssue[] };
+
+const isRecord = (v: unknown): v is Record<string, unknown> =>
+  typeof v === 'object' && v !== null && !Array.isArray(v);
+
+/** The keys of `value` outside `known`, in the order they were sent. */
+function unknownKeys(value: unknown, known: readonly string[]): string[] {
+  if (!isRecord(value)) return [];
+  return Object.keys(value).filter((key) => !known.includes(key));
+}
+
+const quoteList = (keys: string[]) => keys.map((k) => `"${k}"`).join(', ');
+
+/** The sentence an unknown field earns: a misspelt field must never pass as a missing one. */
+export function unknownFieldMessage(
+  keys: string[],
+  known: readonly string[],
+  holder: 'a reading' | 'the batch' = 'a reading',
+): string {
+  const what = keys.length === 1 ? 'field' : 'fields';
+  return `Unknown ${what} ${quoteList(keys)}: ${holder} may only name ${known.join(', ')} (check the spelling).`;
+}
 
 /** True when the body is an object that names a `readings` field (the batch form). */
 function isBatch(body: unknown): boolean {
@@ -71,6 +143,24 @@ function isBatch(body: unknown): boolean {
  * still gets a correctly timed reading.
  */
 export function parseEnvelope(body: unknown, receivedAtMs: number): EnvelopeResult {
+  // An unknown key beside the readings (e.g. "unti": "F") could change what every reading
+  // means, so the envelope's own keys refuse the whole request. A single reading is its own
+  // envelope: its unknown keys refuse it the same way.
+  const batch = isBatch(body);
+  const outside = batch
+    ? unknownKeys(body, ENVELOPE_FIELDS)
+    : unknownKeys(body, [...READING_FIELDS, 'unit']);
+  if (outside.length > 0) {
+    const known = batch ? ENVELOPE_FIELDS : [...READING_FIELDS, 'unit'];
+    return {
+      ok: false,
+      code: 'unknown_field',
+      issues: outside.map((key) => ({
+        path: key,
+        message: unknownFieldMessage([key], known, batch ? 'the batch' : 'a reading'),
+      })),
+    };
+  }
   const parsed = isBatch(body)
     ? batchSchema.safeParse(body)
     : singleSchema
@@ -79,6 +169,7 @@ export function parseEnvelope(body: unknown, receivedAtMs: number): EnvelopeResu
   if (!parsed.success) {
     return {
       ok: false,
+      code: 'invalid_payload',
       issues: parsed.error.issues.map((issue) => ({
         path: issue.path.join('.'),
         message: issue.message,
@@ -86,7 +177,17 @@ export function parseEnvelope(body: unknown, receivedAtMs: number): EnvelopeResu
     };
   }
   const { unit, readings } = parsed.data;
-  return { ok: true, readings: readings.map((r) => normalizeReading(r, unit, receivedAtMs)) };
+  // In a batch a reading with an unknown key fails alone, like any per-reading check: zod has
+  // already dropped the key, so it is found again on the raw item.
+  const rawItems = batch && isRecord(body) && Array.isArray(body.readings) ? body.readings : [];
+  return {
+    ok: true,
+    readings: readings.map((r, index) => {
+      const reading = normalizeReading(r, unit, receivedAtMs);
+      const extra = unknownKeys(rawItems[index], READING_FIELDS);
+      return extra.length > 0 ? { ...reading, unknownFields: extra } : reading;
+    }),
+  };
 }
 
 function toC(value: number, unit: TemperatureUnit): number {
@@ -111,6 +212,7 @@ function normalizeReading(
 }
 
 export type RejectCode =
+  | 'unknown_field'
   | 'invalid_time'
   | 'time_too_early'
   | 'time_in_future'
@@ -123,12 +225,21 @@ export type RejectCode =
 export interface Rejection {
   code: RejectCode;
   message: string;
+  /** The field at fault, where one field is (`surfce` for a misspelt `surface`). */
+  field?: string;
 }
 
 const inRange = (v: number) => v >= TEMPERATURE_MIN_C && v <= TEMPERATURE_MAX_C;
 
 /** The per-reading checks of the contract; null when the reading may be stored. */
 export function checkReading(r: SensorReading, nowMs: number): Rejection | null {
+  if (r.unknownFields && r.unknownFields.length > 0) {
+    return {
+      code: 'unknown_field',
+      message: unknownFieldMessage(r.unknownFields, READING_FIELDS),
+      field: r.unknownFields[0]!,
+    };
+  }
   if (!Number.isFinite(r.atMs)) {
     return { code: 'invalid_time', message: 'The time is not a real date.' };
   }
@@ -145,7 +256,7 @@ export function checkReading(r: SensorReading, nowMs: number): Rejection | null 
       message: 'The time is more than 5 minutes ahead of the server clock; check the sensor clock.',
     };
   }
-  if (!(r.rhPct >= 0 && r.rhPct <= 100)) {
+  if (!(r.rhPct >= RH_MIN_PCT && r.rhPct <= RH_MAX_PCT)) {
     return { code: 'rh_out_of_range', message: 'Relative humidity must be between 0 and 100 %.' };
   }
   if (!inRange(r.airC)) {
@@ -157,7 +268,7 @@ export function checkReading(r: SensorReading, nowMs: number): Rejection | null 
       message: 'Surface temperature must be between −60 and 85 °C.',
     };
   }
-  if (r.batteryV !== null && !(r.batteryV >= 0 && r.batteryV <= 24)) {
+  if (r.batteryV !== null && !(r.batteryV >= BATTERY_MIN_V && r.batteryV <= BATTERY_MAX_V)) {
     return { code: 'battery_out_of_range', message: 'Battery voltage must be between 0 and 24 V.' };
   }
   return null;
