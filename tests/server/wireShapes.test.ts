@@ -20,6 +20,7 @@ import type {
   ReadingPoint,
   ReadingsResponse,
   Sensor,
+  SensorInterval,
   SensorPlacement,
   SensorsResponse,
   Shop,
@@ -87,6 +88,15 @@ const SENSOR: Keys<Sensor> = {
   batteryV: true,
   revokedAt: true,
   createdAt: true,
+  interval: true,
+};
+const SENSOR_INTERVAL: Keys<SensorInterval> = {
+  setS: true,
+  learnedS: true,
+  effectiveS: true,
+  source: true,
+  silentAfterS: true,
+  silentFrom: true,
 };
 const SENSOR_PLACEMENT: Keys<SensorPlacement> = { id: true, name: true, zoneId: true };
 const ISSUED_TOKEN: Keys<IssuedToken> = { id: true, token: true };
@@ -195,6 +205,8 @@ describe('the API answers the shapes of ingest/wire', () => {
     expectKeys(listed.body, SENSORS_RESPONSE, 'sensors');
     const sensor = listed.body.sensors[0];
     expectKeys(sensor, SENSOR, 'sensor');
+    expectKeys(sensor.interval, SENSOR_INTERVAL, 'sensor interval');
+    expect(isIso(sensor.interval.silentFrom)).toBe(true);
     expect(isIso(sensor.lastSeenAt) && isIso(sensor.createdAt)).toBe(true);
     expect(sensor).toMatchObject({ batteryV: 3, revokedAt: null });
 
@@ -206,7 +218,9 @@ describe('the API answers the shapes of ingest/wire', () => {
       .patch(`${path}/${created.body.id}`)
       .send({ name: 'Back door' })
       .expect(200);
-    expectKeys(moved.body, SENSOR_PLACEMENT, 'moved sensor');
+    // A change answers the sensor as the list shows it.
+    expectKeys(moved.body, SENSOR, 'moved sensor');
+    expectKeys(moved.body.interval, SENSOR_INTERVAL, 'moved sensor interval');
   });
 
   it('people: me, profile, shops, members, invitations and sign-in', async () => {
