@@ -79,6 +79,9 @@ describe('the posting interval on the sensor', () => {
       silentFrom: new Date(startMs + MINUTE_MS + 6 * MINUTE_MS).toISOString(),
     });
     expect((await listed(o)).interval.setS).toBe(120);
+    // The zone's card goes stale when its only sensor would count as silent.
+    const zones = await o.agent.get(`/api/v1/shops/${o.shopId}/zones`).expect(200);
+    expect(zones.body.zones[0].staleAfterS).toBe(360);
     const cleared = await o.agent
       .patch(`${sensorsPath(o)}/${o.sensorId}`)
       .send({ expectedIntervalS: null })

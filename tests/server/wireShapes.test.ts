@@ -47,7 +47,7 @@ const ZONE_SETTINGS: Keys<ZoneSettings> = {
   wetK: true,
   humidRhPct: true,
 };
-const ZONE: Keys<Zone> = { ...ZONE_SETTINGS, latest: true };
+const ZONE: Keys<Zone> = { ...ZONE_SETTINGS, latest: true, staleAfterS: true };
 const LATEST_READING: Keys<LatestReading> = {
   at: true,
   air: true,
@@ -166,6 +166,8 @@ describe('the API answers the shapes of ingest/wire', () => {
     const latest = listed.body.zones[0].latest;
     expectKeys(latest, LATEST_READING, 'zone.latest');
     expect(latest).toMatchObject({ at, air: 12, rh: 80, surface: 9, surfaceSource: 'probe' });
+    // One sensor, nothing learnt or set yet: the default 15 minutes (ingest/postingInterval.ts).
+    expect(listed.body.zones[0].staleAfterS).toBe(900);
 
     const created = await o.agent.post(path).send({ name: 'Paint bay' }).expect(201);
     expectKeys(created.body, ZONE_SETTINGS, 'created zone');
