@@ -15,7 +15,8 @@ import {
   type,
 } from '@/components/theme';
 import { Flash, useNow } from '@/components/ui';
-import { isStale, lastReadingText, STALE_READING_NOTE } from '@/ingest';
+import { isStale } from '@/ingest/postingInterval';
+import { lastReadingText, STALE_READING_NOTE } from '@/ingest/words';
 
 import { LevelMark } from './LevelMark';
 import { MarginBar } from './MarginBar';
