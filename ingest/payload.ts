@@ -72,16 +72,23 @@ export type EnvelopeResult =
   | { ok: true; readings: SensorReading[] }
   | { ok: false; code: 'invalid_payload' | 'unknown_field'; issues: PayloadIssue[] };
 
+// A hostile body may send thousands of keys or one of a megabyte: the answer names a few, short.
+const MAX_KEYS_NAMED = 20;
+const MAX_KEY_CHARS = 64;
+const shortKey = (key: string) =>
+  key.length > MAX_KEY_CHARS ? `${key.slice(0, MAX_KEY_CHARS)}…` : key;
 const isRecord = (v: unknown): v is Record<string, unknown> =>
   typeof v === 'object' && v !== null && !Array.isArray(v);
 
-/** The keys of `value` outside `known`, in the order they were sent. */
+/** The keys of `value` outside `known`, in the order they were sent (the first 20). */
 function unknownKeys(value: unknown, known: readonly string[]): string[] {
   if (!isRecord(value)) return [];
-  return Object.keys(value).filter((key) => !known.includes(key));
+  return Object.keys(value)
+    .filter((key) => !known.includes(key))
+    .slice(0, MAX_KEYS_NAMED);
 }
 
-const quoteList = (keys: string[]) => keys.map((k) => `"${k}"`).join(', ');
+const quoteList = (keys: string[]) => keys.map((k) => `"${shortKey(k)}"`).join(', ');
 
 /** The sentence an unknown field earns: a misspelt field must never pass as a missing one. */
 export function unknownFieldMessage(
@@ -116,7 +123,7 @@ export function parseEnvelope(body: unknown, receivedAtMs: number): EnvelopeResu
       ok: false,
       code: 'unknown_field',
       issues: outside.map((key) => ({
-        path: key,
+        path: shortKey(key),
         message: unknownFieldMessage([key], known, batch ? 'the batch' : 'a reading'),
       })),
     };
@@ -197,7 +204,7 @@ export function checkReading(r: SensorReading, nowMs: number): Rejection | null 
     return {
       code: 'unknown_field',
       message: unknownFieldMessage(r.unknownFields, READING_FIELDS),
-      field: r.unknownFields[0]!,
+      field: shortKey(r.unknownFields[0]!),
     };
   }
   if (!Number.isFinite(r.atMs)) {

@@ -11,8 +11,7 @@ export function lastReadingText(age: string): string {
 }
 
 /** Beside a stale card's age: why it is grey and what to do. */
-export const STALE_READING_NOTE =
-  'Stale: older than its sensors normally go quiet. Check the sensor, its power and its network.';
+export const STALE_READING_NOTE = 'Stale: its sensors have gone quiet. Check power and network.';
 
 /** The token screen, once the new sensor's first reading is stored. */
 export function firstReadingText(age: string): string {

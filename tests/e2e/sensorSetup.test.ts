@@ -132,7 +132,8 @@ describe.each([
     const level = await first.getByTestId('first-reading-level').textContent();
     expect(level).toContain('dry');
     expect(level).toContain('°F');
-    await page.screenshot({ path: `${SHOTS}/sensor-first-reading-${label}.png`, fullPage: true });
+    await first.scrollIntoViewIfNeeded();
+    await page.screenshot({ path: `${SHOTS}/sensor-first-reading-${label}.png` });
 
     // A misspelt field is refused, named, and stores nothing.
     const typo = await ingest(token, { unit: 'F', air: 60, rh: 80, surfce: 41 });
@@ -214,6 +215,8 @@ describe.each([
     expect(await background('Machine room')).toBe('rgb(255, 253, 248)');
     expect(await cardOf('Machine room').getByTestId('zone-level').textContent()).toContain('dry');
     await page.screenshot({ path: `${SHOTS}/zone-stale-${label}.png`, fullPage: true });
+    await cardOf('Paint bay').scrollIntoViewIfNeeded();
+    await page.screenshot({ path: `${SHOTS}/zone-stale-card-${label}.png` });
     expect(errors).toEqual([]);
     await page.close();
   });

@@ -209,6 +209,14 @@ function unknownFieldCases(): Case[] {
     '__proto__',
   ]);
   single('constructor key', { ...valid(), constructor: { prototype: { x: 1 } } }, ['constructor']);
+  // Hostile: the answer names the first 20 keys, each cut at 64 characters.
+  const many = Object.fromEntries(Array.from({ length: 5000 }, (_, i) => [`k${i}`, i]));
+  single(
+    '5,000 unknown keys',
+    { ...valid(), ...many },
+    Array.from({ length: 20 }, (_, i) => `k${i}`),
+  );
+  single('a 100 KB key', { ...valid(), ['x'.repeat(100_000)]: 1 }, [`${'x'.repeat(64)}…`]);
 
   const envelope = (name: string, body: unknown, paths: string[]) =>
     cases.push({
