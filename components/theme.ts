@@ -20,6 +20,18 @@ export const colors = {
   unknown: '#656C73',
 } as const;
 
+/**
+ * A stale zone card (its newest reading older than its sensors' silent threshold): greyed paper,
+ * a grey rule and iron figures. Every text colour used on it keeps ≥ 4.5:1 on `card` (iron 5.4,
+ * unknown 4.6, ink 13.5), so greying never costs legibility — unlike opacity on the text.
+ */
+export const staleColors = {
+  card: '#F0EEE9',
+  border: '#D9D4CA',
+  rule: '#A3A8AC',
+  figure: colors.iron,
+} as const;
+
 export const levelColors: Record<Level, string> = {
   dry: colors.dry,
   close: colors.close,

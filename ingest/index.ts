@@ -3,6 +3,7 @@ export * from './derive';
 export * from './emc';
 export * from './levels';
 export * from './payload';
+export * from './postingInterval';
 export * from './psychrometrics';
 export * from './units';
 export * from './hysteresis';

@@ -7,19 +7,23 @@
  */
 import { z } from 'zod';
 
+import {
+  BATTERY_MAX_V,
+  BATTERY_MIN_V,
+  ENVELOPE_FIELDS,
+  MAX_FUTURE_MS,
+  MIN_TIME_MS,
+  READING_FIELDS,
+  RH_MAX_PCT,
+  RH_MIN_PCT,
+  TEMPERATURE_MAX_C,
+  TEMPERATURE_MIN_C,
+} from './readingFields';
 import { fToC, type TemperatureUnit } from './units';
 
-/** Readings more than this far ahead of the server clock are refused: a sensor clock gone wrong. */
-export const MAX_FUTURE_MS = 5 * 60 * 1000;
-/**
- * Readings dated before this are refused (the contract's lower bound, 2000-01-01T00:00:00Z): a
- * sensor that lost its clock reports 1970 or year 1, and PostgreSQL cannot even store some such
- * instants (timestamptz starts at 4713 BC), so they must never reach the group INSERT.
- */
-export const MIN_TIME_MS = Date.UTC(2000, 0, 1);
-export const MAX_READINGS_PER_REQUEST = 1000;
-export const TEMPERATURE_MIN_C = -60;
-export const TEMPERATURE_MAX_C = 85;
+// The contract's numbers and field names live in readingFields.ts (no zod, so the app can show
+// them); re-exported here for the server and tests.
+export * from './readingFields';
 
 // ISO 8601 date-time that names its offset (Z or ±hh:mm); a bare local time is ambiguous.
 const ISO_WITH_OFFSET = /^\d{4}-\d{2}-\d{2}T\d{2}:\d{2}(:\d{2}(\.\d{1,9})?)?(Z|[+-]\d{2}:?\d{2})$/;
@@ -55,11 +59,46 @@ export interface SensorReading {
   rhPct: number;
   surfaceC: number | null;
   batteryV: number | null;
+  /** Keys the contract does not name, sent on this reading of a batch: it is refused. */
+  unknownFields?: string[];
+}
+
+export interface PayloadIssue {
+  path: string;
+  message: string;
 }
 
 export type EnvelopeResult =
   | { ok: true; readings: SensorReading[] }
-  | { ok: false; issues: { path: string; message: string }[] };
+  | { ok: false; code: 'invalid_payload' | 'unknown_field'; issues: PayloadIssue[] };
+
+// A hostile body may send thousands of keys or one of a megabyte: the answer names a few, short.
+const MAX_KEYS_NAMED = 20;
+const MAX_KEY_CHARS = 64;
+const shortKey = (key: string) =>
+  key.length > MAX_KEY_CHARS ? `${key.slice(0, MAX_KEY_CHARS)}…` : key;
+const isRecord = (v: unknown): v is Record<string, unknown> =>
+  typeof v === 'object' && v !== null && !Array.isArray(v);
+
+/** The keys of `value` outside `known`, in the order they were sent (the first 20). */
+function unknownKeys(value: unknown, known: readonly string[]): string[] {
+  if (!isRecord(value)) return [];
+  return Object.keys(value)
+    .filter((key) => !known.includes(key))
+    .slice(0, MAX_KEYS_NAMED);
+}
+
+const quoteList = (keys: string[]) => keys.map((k) => `"${shortKey(k)}"`).join(', ');
+
+/** The sentence an unknown field earns: a misspelt field must never pass as a missing one. */
+export function unknownFieldMessage(
+  keys: string[],
+  known: readonly string[],
+  holder: 'a reading' | 'the batch' = 'a reading',
+): string {
+  const what = keys.length === 1 ? 'field' : 'fields';
+  return `Unknown ${what} ${quoteList(keys)}: ${holder} may only name ${known.join(', ')} (check the spelling).`;
+}
 
 /** True when the body is an object that names a `readings` field (the batch form). */
 function isBatch(body: unknown): boolean {
@@ -71,6 +110,24 @@ function isBatch(body: unknown): boolean {
  * still gets a correctly timed reading.
  */
 export function parseEnvelope(body: unknown, receivedAtMs: number): EnvelopeResult {
+  // An unknown key beside the readings (e.g. "unti": "F") could change what every reading
+  // means, so the envelope's own keys refuse the whole request. A single reading is its own
+  // envelope: its unknown keys refuse it the same way.
+  const batch = isBatch(body);
+  const outside = batch
+    ? unknownKeys(body, ENVELOPE_FIELDS)
+    : unknownKeys(body, [...READING_FIELDS, 'unit']);
+  if (outside.length > 0) {
+    const known = batch ? ENVELOPE_FIELDS : [...READING_FIELDS, 'unit'];
+    return {
+      ok: false,
+      code: 'unknown_field',
+      issues: outside.map((key) => ({
+        path: shortKey(key),
+        message: unknownFieldMessage([key], known, batch ? 'the batch' : 'a reading'),
+      })),
+    };
+  }
   const parsed = isBatch(body)
     ? batchSchema.safeParse(body)
     : singleSchema
@@ -79,6 +136,7 @@ export function parseEnvelope(body: unknown, receivedAtMs: number): EnvelopeResu
   if (!parsed.success) {
     return {
       ok: false,
+      code: 'invalid_payload',
       issues: parsed.error.issues.map((issue) => ({
         path: issue.path.join('.'),
         message: issue.message,
@@ -86,7 +144,17 @@ export function parseEnvelope(body: unknown, receivedAtMs: number): EnvelopeResu
     };
   }
   const { unit, readings } = parsed.data;
-  return { ok: true, readings: readings.map((r) => normalizeReading(r, unit, receivedAtMs)) };
+  // In a batch a reading with an unknown key fails alone, like any per-reading check: zod has
+  // already dropped the key, so it is found again on the raw item.
+  const rawItems = batch && isRecord(body) && Array.isArray(body.readings) ? body.readings : [];
+  return {
+    ok: true,
+    readings: readings.map((r, index) => {
+      const reading = normalizeReading(r, unit, receivedAtMs);
+      const extra = unknownKeys(rawItems[index], READING_FIELDS);
+      return extra.length > 0 ? { ...reading, unknownFields: extra } : reading;
+    }),
+  };
 }
 
 function toC(value: number, unit: TemperatureUnit): number {
@@ -111,6 +179,7 @@ function normalizeReading(
 }
 
 export type RejectCode =
+  | 'unknown_field'
   | 'invalid_time'
   | 'time_too_early'
   | 'time_in_future'
@@ -123,12 +192,21 @@ export type RejectCode =
 export interface Rejection {
   code: RejectCode;
   message: string;
+  /** The field at fault, where one field is (`surfce` for a misspelt `surface`). */
+  field?: string;
 }
 
 const inRange = (v: number) => v >= TEMPERATURE_MIN_C && v <= TEMPERATURE_MAX_C;
 
 /** The per-reading checks of the contract; null when the reading may be stored. */
 export function checkReading(r: SensorReading, nowMs: number): Rejection | null {
+  if (r.unknownFields && r.unknownFields.length > 0) {
+    return {
+      code: 'unknown_field',
+      message: unknownFieldMessage(r.unknownFields, READING_FIELDS),
+      field: shortKey(r.unknownFields[0]!),
+    };
+  }
   if (!Number.isFinite(r.atMs)) {
     return { code: 'invalid_time', message: 'The time is not a real date.' };
   }
@@ -145,7 +223,7 @@ export function checkReading(r: SensorReading, nowMs: number): Rejection | null 
       message: 'The time is more than 5 minutes ahead of the server clock; check the sensor clock.',
     };
   }
-  if (!(r.rhPct >= 0 && r.rhPct <= 100)) {
+  if (!(r.rhPct >= RH_MIN_PCT && r.rhPct <= RH_MAX_PCT)) {
     return { code: 'rh_out_of_range', message: 'Relative humidity must be between 0 and 100 %.' };
   }
   if (!inRange(r.airC)) {
@@ -157,7 +235,7 @@ export function checkReading(r: SensorReading, nowMs: number): Rejection | null 
       message: 'Surface temperature must be between −60 and 85 °C.',
     };
   }
-  if (r.batteryV !== null && !(r.batteryV >= 0 && r.batteryV <= 24)) {
+  if (r.batteryV !== null && !(r.batteryV >= BATTERY_MIN_V && r.batteryV <= BATTERY_MAX_V)) {
     return { code: 'battery_out_of_range', message: 'Battery voltage must be between 0 and 24 V.' };
   }
   return null;

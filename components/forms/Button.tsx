@@ -8,6 +8,11 @@ interface ButtonProps {
   disabled?: boolean;
   /** `primary` is filled ink; `quiet` is an outlined button for secondary actions. */
   variant?: 'primary' | 'quiet';
+  /**
+   * The name assistive technology reads when the label alone does not say what it acts on
+   * ("Withdraw the invitation to ana@…" for a "Withdraw" among several); it starts with the label.
+   */
+  accessibilityLabel?: string;
   testID?: string;
 }
 
@@ -16,12 +21,15 @@ export function Button({
   onPress,
   disabled = false,
   variant = 'primary',
+  accessibilityLabel,
   testID,
 }: ButtonProps) {
   const primary = variant === 'primary';
   return (
     <Pressable
       accessibilityRole="button"
+      accessibilityLabel={accessibilityLabel}
+      aria-label={accessibilityLabel}
       accessibilityState={{ disabled }}
       aria-disabled={disabled}
       disabled={disabled}

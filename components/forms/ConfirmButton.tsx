@@ -13,6 +13,8 @@ interface ConfirmButtonProps {
   /** The confirming press; "Yes, <label in lower case>" unless given (a name keeps its case). */
   confirmLabel?: string;
   disabled?: boolean;
+  /** The first button's accessible name when `label` does not name its object; starts with it. */
+  accessibilityLabel?: string;
   testID?: string;
 }
 
@@ -23,6 +25,7 @@ export function ConfirmButton({
   onConfirm,
   confirmLabel,
   disabled,
+  accessibilityLabel,
   testID,
 }: ConfirmButtonProps) {
   const [asking, setAsking] = useState(false);
@@ -31,6 +34,7 @@ export function ConfirmButton({
       <View style={styles.start}>
         <Button
           label={label}
+          accessibilityLabel={accessibilityLabel}
           variant="quiet"
           disabled={disabled}
           onPress={() => setAsking(true)}

@@ -9,6 +9,7 @@ import {
   appendReadingPoint,
   meKeys,
   patchAlarm,
+  patchSensorSeen,
   patchZoneLatest,
   readingKeys,
   sensorKeys,
@@ -22,6 +23,7 @@ export function applyLiveMessage(queryClient: QueryClient, message: LiveMessage)
     case 'reading': {
       const { shopId, zoneId, sensorId, reading } = message;
       patchZoneLatest(queryClient, shopId, zoneId, { ...reading, sensorId });
+      patchSensorSeen(queryClient, shopId, sensorId, reading.at);
       if ((message.count ?? 1) > 1) {
         // A batch (a sensor catching up) carries only its newest reading: refetch the series.
         void queryClient.invalidateQueries({ queryKey: readingKeys.zone(shopId, zoneId) });

@@ -71,9 +71,11 @@ export {
   type ReadingsWindow,
 } from './readings';
 export {
+  patchSensorSeen,
   sensorKeys,
   sensorsQueryOptions,
   useSensorCreateMutation,
+  useSensorIntervalMutation,
   useSensorMoveMutation,
   useSensorRemoveMutation,
   useSensorRevokeMutation,

@@ -1,5 +1,11 @@
 /** A shop's sensors: list (last seen, battery), create, rotate, revoke, move, remove. */
-import { queryOptions, useMutation, useQuery, useQueryClient } from '@tanstack/react-query';
+import {
+  queryOptions,
+  useMutation,
+  useQuery,
+  useQueryClient,
+  type QueryClient,
+} from '@tanstack/react-query';
 
 import type {
   CreatedSensor,
@@ -91,4 +97,39 @@ export function useSensorMoveMutation(shopId: string) {
       },
     ),
   );
+}
+
+/** Sets how often the sensor posts (seconds), or clears it (null) so the learnt one applies. */
+export function useSensorIntervalMutation(shopId: string) {
+  return useSensorMutation(
+    shopId,
+    (input: { sensorId: string; expectedIntervalS: number | null }) =>
+      apiRequest<Sensor>(`${shopPath(shopId)}/sensors/${encodeURIComponent(input.sensorId)}`, {
+        method: 'PATCH',
+        body: { expectedIntervalS: input.expectedIntervalS },
+      }),
+  );
+}
+
+/**
+ * A live reading from a sensor moves its "last seen" in the list at once (the token screen's
+ * "first reading received" waits on it); the rest of the row catches up on the next fetch.
+ */
+export function patchSensorSeen(
+  queryClient: QueryClient,
+  shopId: string,
+  sensorId: string,
+  atIso: string,
+): void {
+  queryClient.setQueryData<SensorsResponse>(sensorKeys.list(shopId), (previous) => {
+    if (!previous) return previous;
+    let changed = false;
+    const sensors = previous.sensors.map((sensor) => {
+      if (sensor.id !== sensorId) return sensor;
+      if (sensor.lastSeenAt && Date.parse(sensor.lastSeenAt) >= Date.parse(atIso)) return sensor;
+      changed = true;
+      return { ...sensor, lastSeenAt: atIso };
+    });
+    return changed ? { ...previous, sensors } : previous;
+  });
 }

@@ -1,4 +1,4 @@
-import { useState } from 'react';
+import { useEffect, useState } from 'react';
 import { Controller } from 'react-hook-form';
 import { StyleSheet, Text, View } from 'react-native';
 
@@ -16,6 +16,7 @@ import {
 import { sensorSchema } from '@/components/forms/schemas';
 import {
   useSensorCreateMutation,
+  useSensorIntervalMutation,
   useSensorMoveMutation,
   useSensorRemoveMutation,
   useSensorRevokeMutation,
@@ -29,6 +30,7 @@ import {
 import { useFrameShop } from '@/components/shop/ShopFrame';
 import { colors, space, tabular, type } from '@/components/theme';
 import { Notice, Panel, useDocumentTitle, useNow } from '@/components/ui';
+import { intervalWords } from '@/ingest/words';
 
 import { TokenReveal } from './TokenReveal';
 
@@ -42,7 +44,11 @@ export function SensorsScreen() {
 function SensorsBody({ shop }: { shop: ShopSummary }) {
   const sensors = useSensorsQuery(shop.id);
   const zones = useZonesQuery(shop.id);
-  const [issued, setIssued] = useState<{ sensorName: string; token: string } | null>(null);
+  const [issued, setIssued] = useState<{
+    sensorId: string;
+    sensorName: string;
+    token: string;
+  } | null>(null);
   const owner = shop.role === 'owner';
   const zoneList = zones.data?.zones ?? [];
 
@@ -51,7 +57,14 @@ function SensorsBody({ shop }: { shop: ShopSummary }) {
       <Text style={type.title} role="heading" aria-level={1}>
         Sensors
       </Text>
-      {issued ? <TokenReveal {...issued} onDone={() => setIssued(null)} /> : null}
+      {issued ? (
+        <TokenReveal
+          {...issued}
+          shopId={shop.id}
+          timeZone={shop.timeZone}
+          onDone={() => setIssued(null)}
+        />
+      ) : null}
       {sensors.isError ? (
         <Notice title="Sensors could not be loaded">{sensors.error.message}</Notice>
       ) : !sensors.data ? (
@@ -70,7 +83,9 @@ function SensorsBody({ shop }: { shop: ShopSummary }) {
               sensor={sensor}
               shop={shop}
               zones={zoneList}
-              onToken={(token) => setIssued({ sensorName: sensor.name, token })}
+              onToken={(token) =>
+                setIssued({ sensorId: sensor.id, sensorName: sensor.name, token })
+              }
             />
           ))}
         </View>
@@ -79,7 +94,7 @@ function SensorsBody({ shop }: { shop: ShopSummary }) {
         <NewSensorForm
           shopId={shop.id}
           zones={zoneList}
-          onCreated={(sensorName, token) => setIssued({ sensorName, token })}
+          onCreated={(sensorId, sensorName, token) => setIssued({ sensorId, sensorName, token })}
         />
       ) : null}
     </>
@@ -99,9 +114,16 @@ function SensorCard({ sensor, shop, zones, onToken }: SensorCardProps) {
   const revoke = useSensorRevokeMutation(shop.id);
   const move = useSensorMoveMutation(shop.id);
   const remove = useSensorRemoveMutation(shop.id);
+  const interval = useSensorIntervalMutation(shop.id);
   const [moving, setMoving] = useState(false);
-  const busy = rotate.isPending || revoke.isPending || move.isPending || remove.isPending;
-  const error = rotate.error ?? revoke.error ?? move.error ?? remove.error;
+  const [timing, setTiming] = useState(false);
+  const busy =
+    rotate.isPending ||
+    revoke.isPending ||
+    move.isPending ||
+    remove.isPending ||
+    interval.isPending;
+  const error = rotate.error ?? revoke.error ?? move.error ?? remove.error ?? interval.error;
   const revoked = sensor.revokedAt !== null;
 
   return (
@@ -130,11 +152,22 @@ function SensorCard({ sensor, shop, zones, onToken }: SensorCardProps) {
           value={sensor.batteryV === null ? '—' : `${sensor.batteryV.toFixed(2)} V`}
           testID="sensor-battery"
         />
+        <Fact
+          label={INTERVAL_SOURCE_WORDS[sensor.interval.source]}
+          value={intervalWords(sensor.interval.effectiveS)}
+          testID="sensor-interval"
+        />
+        <Fact
+          label="Silent after"
+          value={`${Math.round(sensor.interval.silentAfterS / 60)} min quiet`}
+          testID="sensor-silent-after"
+        />
       </View>
       {shop.role === 'owner' ? (
         <View style={styles.actions}>
           <ConfirmButton
             label={revoked ? 'Issue a token' : 'New token'}
+            accessibilityLabel={`${revoked ? 'Issue a token' : 'New token'} for ${sensor.name}`}
             question={`Give ${sensor.name} a new token? The old one stops working at once.`}
             disabled={busy}
             onConfirm={() => rotate.mutate(sensor.id, { onSuccess: (r) => onToken(r.token) })}
@@ -143,6 +176,7 @@ function SensorCard({ sensor, shop, zones, onToken }: SensorCardProps) {
           {revoked ? null : (
             <ConfirmButton
               label="Revoke"
+              accessibilityLabel={`Revoke the token of ${sensor.name}`}
               question={`Revoke ${sensor.name}'s token? Its posts are refused until it gets a new one.`}
               disabled={busy}
               onConfirm={() => revoke.mutate(sensor.id)}
@@ -152,12 +186,23 @@ function SensorCard({ sensor, shop, zones, onToken }: SensorCardProps) {
           {zones.length > 1 ? (
             <Button
               label={moving ? 'Keep it here' : 'Move…'}
+              accessibilityLabel={moving ? `Keep ${sensor.name} here` : `Move ${sensor.name}…`}
               variant="quiet"
               disabled={busy}
               onPress={() => setMoving((m) => !m)}
               testID="sensor-move"
             />
           ) : null}
+          <Button
+            label={timing ? 'Close interval' : 'Interval…'}
+            accessibilityLabel={
+              timing ? `Close interval of ${sensor.name}` : `Interval of ${sensor.name}…`
+            }
+            variant="quiet"
+            disabled={busy}
+            onPress={() => setTiming((m) => !m)}
+            testID="sensor-interval-open"
+          />
           <ConfirmButton
             label={`Remove ${sensor.name}`}
             confirmLabel={`Yes, remove ${sensor.name}`}
@@ -181,10 +226,40 @@ function SensorCard({ sensor, shop, zones, onToken }: SensorCardProps) {
           testID="sensor-move-zone"
         />
       ) : null}
+      {timing ? (
+        <Choice
+          label={`How often ${sensor.name} posts`}
+          options={INTERVAL_CHOICES}
+          value={sensor.interval.setS === null ? 'learn' : String(sensor.interval.setS)}
+          disabled={busy}
+          onChange={(value) =>
+            interval.mutate({
+              sensorId: sensor.id,
+              expectedIntervalS: value === 'learn' ? null : Number(value),
+            })
+          }
+          testID="sensor-interval-choice"
+        />
+      ) : null}
       <FormError message={error?.message} />
     </Panel>
   );
 }
+
+const INTERVAL_SOURCE_WORDS = {
+  set: 'Posts (set)',
+  learned: 'Posts (learnt)',
+  default: 'Posts (assumed)',
+} as const;
+
+/** Set intervals offered on the card; the API takes any from 10 s to a day. */
+const INTERVAL_CHOICES = [
+  { value: 'learn', label: 'Learn it' },
+  { value: '60', label: '1 min' },
+  { value: '300', label: '5 min' },
+  { value: '900', label: '15 min' },
+  { value: '3600', label: '1 h' },
+] as const;
 
 function Fact({ label, value, testID }: { label: string; value: string; testID?: string }) {
   return (
@@ -200,7 +275,7 @@ function Fact({ label, value, testID }: { label: string; value: string; testID?:
 interface NewSensorFormProps {
   shopId: string;
   zones: Zone[];
-  onCreated: (sensorName: string, token: string) => void;
+  onCreated: (sensorId: string, sensorName: string, token: string) => void;
 }
 
 function NewSensorForm({ shopId, zones, onCreated }: NewSensorFormProps) {
@@ -215,9 +290,14 @@ function NewSensorForm({ shopId, zones, onCreated }: NewSensorFormProps) {
     send: async (values) => {
       const created = await create.mutateAsync({ name: values.name.trim(), zoneId: values.zoneId });
       form.reset({ name: '', zoneId: values.zoneId });
-      onCreated(created.name, created.token);
+      onCreated(created.id, created.name, created.token);
     },
   });
+  // The only zone is the answer: choose it, whenever the zones arrive.
+  const onlyZoneId = zones.length === 1 ? zones[0]!.id : null;
+  useEffect(() => {
+    if (onlyZoneId && !form.getValues('zoneId')) form.setValue('zoneId', onlyZoneId);
+  }, [onlyZoneId, form]);
 
   if (zones.length === 0) {
     return (

@@ -1,13 +1,26 @@
 import { useState } from 'react';
 import { Platform, StyleSheet, Text, View } from 'react-native';
 
+import { formatLastSeen, formatMargin } from '@/components/format';
 import { Button } from '@/components/forms';
-import { colors, fonts, radius, space, type } from '@/components/theme';
-import { Panel } from '@/components/ui';
+import { useSensorsQuery, useUnitPref, useZonesQuery } from '@/components/queries';
+import { colors, fonts, levelWords, radius, space, tabular, type } from '@/components/theme';
+import { Panel, useNow } from '@/components/ui';
+import {
+  postingInterval,
+  RECOMMENDED_INTERVAL_S,
+  SILENT_AFTER_INTERVALS,
+} from '@/ingest/postingInterval';
+import { READING_FIELD_GUIDE } from '@/ingest/readingFields';
+import { cToF, type TemperatureUnit } from '@/ingest/units';
+import { exampleReadingJson, firstReadingText, READING_FIELD_WORDS } from '@/ingest/words';
 
 interface TokenRevealProps {
+  shopId: string;
+  sensorId: string;
   sensorName: string;
   token: string;
+  timeZone: string;
   onDone: () => void;
 }
 
@@ -18,13 +31,16 @@ function apiOrigin(): string {
     : 'https://drybench.example';
 }
 
-/** A ready command for the sensor's first reading, as in the HTTP contract (API.md). */
-export function curlExample(origin: string, token: string): string {
+/**
+ * A ready command for the sensor's first reading, as in the HTTP contract (API.md), in the
+ * reader's unit. Its values leave a new zone dry (ingest/words/sensors.ts says why).
+ */
+export function curlExample(origin: string, token: string, unit: TemperatureUnit = 'C'): string {
   return [
     `curl -X POST ${origin}/api/v1/ingest \\`,
     `  -H 'Authorization: Bearer ${token}' \\`,
     `  -H 'Content-Type: application/json' \\`,
-    `  -d '{"air": 14.2, "rh": 71, "surface": 11.9}'`,
+    `  -d '${exampleReadingJson(unit)}'`,
   ].join('\n');
 }
 
@@ -37,15 +53,37 @@ async function copy(text: string): Promise<boolean> {
   }
 }
 
+/** A field's unit and range as the reader reads them: "°F, -76 to 185", "%, 0 to 100". */
+function fieldRange(guide: (typeof READING_FIELD_GUIDE)[number], unit: TemperatureUnit): string {
+  const { kind, min, max } = guide;
+  if (kind === 'time' || kind === 'unit' || min === undefined || max === undefined) return '';
+  if (kind === 'temperature') {
+    const t = (c: number) => (unit === 'F' ? Math.round(cToF(c)) : c);
+    const how = unit === 'F' ? '°F, with "unit": "F"' : '°C';
+    return `${how}, ${t(min)} to ${t(max)}`;
+  }
+  return kind === 'percent' ? `%, ${min} to ${max}` : `V, ${min} to ${max}`;
+}
+
 /**
  * The one time a sensor's token is shown (it is stored only as a hash): the token with a copy
- * button, and a curl command that posts a first reading with it.
+ * button, what a reading may carry and how often to send it, a curl command that posts a first
+ * reading with it, and — live, from the socket's reading message — when that reading arrives.
  */
-export function TokenReveal({ sensorName, token, onDone }: TokenRevealProps) {
+export function TokenReveal({
+  shopId,
+  sensorId,
+  sensorName,
+  token,
+  timeZone,
+  onDone,
+}: TokenRevealProps) {
+  const unit = useUnitPref();
   const [copied, setCopied] = useState<'token' | 'curl' | 'failed' | null>(null);
-  const command = curlExample(apiOrigin(), token);
+  const command = curlExample(apiOrigin(), token, unit);
   const copyThis = async (what: 'token' | 'curl') =>
     setCopied((await copy(what === 'token' ? token : command)) ? what : 'failed');
+  const fallback = postingInterval(null, null);
 
   return (
     <Panel
@@ -57,7 +95,12 @@ export function TokenReveal({ sensorName, token, onDone }: TokenRevealProps) {
         {token}
       </Text>
       <View style={styles.row}>
-        <Button label="Copy token" onPress={() => void copyThis('token')} testID="copy-token" />
+        <Button
+          label="Copy token"
+          accessibilityLabel={`Copy token of ${sensorName}`}
+          onPress={() => void copyThis('token')}
+          testID="copy-token"
+        />
         <Button
           label="Copy curl command"
           variant="quiet"
@@ -74,10 +117,42 @@ export function TokenReveal({ sensorName, token, onDone }: TokenRevealProps) {
               ? 'This browser refused to copy; select the text and copy it by hand.'
               : ' '}
       </Text>
-      <Text style={type.label}>Try it: post a first reading</Text>
+
+      <Text style={type.label} role="heading" aria-level={3}>
+        What a reading may carry
+      </Text>
+      <View style={styles.fields} testID="token-fields">
+        {READING_FIELD_GUIDE.map((guide) => (
+          <View key={guide.field} style={styles.field} testID={`token-field-${guide.field}`}>
+            <Text style={styles.fieldName}>{guide.field}</Text>
+            <View style={styles.fieldText}>
+              <Text style={type.body}>{READING_FIELD_WORDS[guide.field]}</Text>
+              <Text style={[type.small, tabular]}>
+                {[fieldRange(guide, unit), guide.required ? 'required' : 'optional']
+                  .filter(Boolean)
+                  .join(' · ')}
+              </Text>
+            </View>
+          </View>
+        ))}
+      </View>
+      <Text style={type.small}>
+        Any other field is refused (unknown_field), so a misspelt name never passes unnoticed.
+      </Text>
+      <Text style={type.body} testID="token-interval">
+        Post every {RECOMMENDED_INTERVAL_S.min / 60}–{RECOMMENDED_INTERVAL_S.max / 60} minutes.
+        Drybench learns the interval from the readings; after {SILENT_AFTER_INTERVALS} intervals
+        without one (at least {fallback.silentAfterS / 60} min) the sensor counts as silent. You can
+        set the interval on the sensor below.
+      </Text>
+
+      <Text style={type.label} role="heading" aria-level={3}>
+        Try it: post a first reading
+      </Text>
       <Text selectable style={styles.code} testID="sensor-curl">
         {command}
       </Text>
+      <FirstReading shopId={shopId} sensorId={sensorId} timeZone={timeZone} unit={unit} />
       <Button
         label="Done, the sensor has it"
         variant="quiet"
@@ -85,6 +160,51 @@ export function TokenReveal({ sensorName, token, onDone }: TokenRevealProps) {
         testID="token-done"
       />
     </Panel>
+  );
+}
+
+interface FirstReadingProps {
+  shopId: string;
+  sensorId: string;
+  timeZone: string;
+  unit: TemperatureUnit;
+}
+
+/**
+ * Waits for the sensor's next reading. The live socket's reading message moves the sensor's
+ * "last seen" in the query cache (components/live), so this needs no socket of its own.
+ */
+function FirstReading({ shopId, sensorId, timeZone, unit }: FirstReadingProps) {
+  const now = useNow(5_000);
+  const sensors = useSensorsQuery(shopId);
+  const zones = useZonesQuery(shopId);
+  const sensor = sensors.data?.sensors.find((s) => s.id === sensorId);
+  // What it had when the token was shown: a rotated sensor has readings already.
+  const [seenBefore, setSeenBefore] = useState<string | null | undefined>(undefined);
+  if (seenBefore === undefined && sensors.data) setSeenBefore(sensor?.lastSeenAt ?? null);
+  const arrived =
+    seenBefore !== undefined && sensor?.lastSeenAt != null && sensor.lastSeenAt !== seenBefore;
+  const zone = zones.data?.zones.find((z) => z.id === sensor?.zoneId);
+  const latest = zone?.latest?.sensorId === sensorId ? zone.latest : null;
+
+  return (
+    <View
+      style={[styles.first, arrived && styles.firstArrived]}
+      role="status"
+      aria-live="polite"
+      testID="first-reading"
+    >
+      <Text style={[type.body, arrived && styles.firstText]}>
+        {arrived && sensor?.lastSeenAt
+          ? firstReadingText(formatLastSeen(sensor.lastSeenAt, now, timeZone))
+          : 'Waiting for the first reading…'}
+      </Text>
+      {arrived && latest && zone ? (
+        <Text style={type.small} testID="first-reading-level">
+          {zone.name}: {levelWords[latest.level]}, dew margin {formatMargin(latest.margin, unit)}
+        </Text>
+      ) : null}
+    </View>
   );
 }
 
@@ -101,4 +221,17 @@ const styles = StyleSheet.create({
     padding: space.md,
   },
   row: { flexDirection: 'row', flexWrap: 'wrap', gap: space.sm },
+  fields: { gap: space.sm },
+  field: { flexDirection: 'row', gap: space.md, alignItems: 'flex-start' },
+  fieldName: { fontFamily: fonts.bold, fontSize: 13, lineHeight: 20, color: colors.ink, width: 64 },
+  fieldText: { flex: 1, gap: 2 },
+  first: {
+    borderColor: colors.border,
+    borderWidth: 1,
+    borderRadius: radius.control,
+    padding: space.md,
+    gap: 2,
+  },
+  firstArrived: { borderColor: colors.dry, borderLeftWidth: 5 },
+  firstText: { fontFamily: fonts.medium, color: colors.dry },
 });

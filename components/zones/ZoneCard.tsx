@@ -7,12 +7,16 @@ import {
   cardSurface,
   colors,
   levelColors,
+  fonts,
   levelWords,
   space,
+  staleColors,
   tabular,
   type,
 } from '@/components/theme';
 import { Flash, useNow } from '@/components/ui';
+import { isStale } from '@/ingest/postingInterval';
+import { lastReadingText, STALE_READING_NOTE } from '@/ingest/words';
 
 import { LevelMark } from './LevelMark';
 import { MarginBar } from './MarginBar';
@@ -31,12 +35,17 @@ interface ZoneCardProps {
 /** One zone at a glance: level, dew margin (largest), the readings behind it, last seen. */
 export function ZoneCard({ zone, timeZone, href, selected = false }: ZoneCardProps) {
   const unit = useUnitPref();
+  const now = useNow();
   const latest = zone.latest;
-  const level = latest?.level ?? 'unknown';
+  // A stale reading says nothing of now: the card greys and its level shows as unknown.
+  const stale = latest !== null && isStale(Date.parse(latest.at), zone.staleAfterS, now);
+  const level = stale ? 'unknown' : (latest?.level ?? 'unknown');
   const margin = formatMargin(latest?.margin, unit);
   const body = (
     <View style={styles.inner}>
-      <View style={[styles.rule, { backgroundColor: levelColors[level] }]} />
+      <View
+        style={[styles.rule, { backgroundColor: stale ? staleColors.rule : levelColors[level] }]}
+      />
       <View style={styles.top}>
         <Text style={[type.heading, styles.name]} numberOfLines={2} testID="zone-name">
           {zone.name}
@@ -45,7 +54,7 @@ export function ZoneCard({ zone, timeZone, href, selected = false }: ZoneCardPro
       </View>
 
       <Flash value={margin} style={styles.hero}>
-        <Text style={[type.hero, tabular]} testID="zone-margin">
+        <Text style={[type.hero, tabular, stale && styles.staleFigure]} testID="zone-margin">
           {margin}
         </Text>
         <Text style={type.small}>dew margin</Text>
@@ -60,15 +69,15 @@ export function ZoneCard({ zone, timeZone, href, selected = false }: ZoneCardPro
 
       <ZoneReadings latest={latest} unit={unit} />
 
-      <LastSeen at={latest?.at ?? null} timeZone={timeZone} />
+      <LastSeen at={latest?.at ?? null} timeZone={timeZone} now={now} stale={stale} />
     </View>
   );
 
-  const cardStyle = [styles.card, selected && styles.selected];
-  const linkLabel = `${zone.name}: ${levelWords[level]}, dew margin ${margin}`;
+  const cardStyle = [styles.card, stale && styles.stale, selected && styles.selected];
+  const linkLabel = `${zone.name}: ${stale ? 'stale' : levelWords[level]}, dew margin ${margin}`;
   if (!href) {
     return (
-      <View style={cardStyle} testID="zone-card">
+      <View style={cardStyle} testID="zone-card" data-stale={stale ? 'true' : undefined}>
         {body}
       </View>
     );
@@ -91,18 +100,35 @@ export function ZoneCard({ zone, timeZone, href, selected = false }: ZoneCardPro
   );
 }
 
-function LastSeen({ at, timeZone }: { at: string | null; timeZone: string }) {
-  const now = useNow();
+interface LastSeenProps {
+  at: string | null;
+  timeZone: string;
+  now: number;
+  stale: boolean;
+}
+
+function LastSeen({ at, timeZone, now, stale }: LastSeenProps) {
   return (
-    <Text style={type.small} testID="zone-last-seen">
-      {at ? `Last reading ${formatLastSeen(at, now, timeZone)}` : 'No readings yet'}
-    </Text>
+    <View style={styles.lastSeen}>
+      <Text style={[type.small, stale && styles.staleAge]} testID="zone-last-seen">
+        {at ? lastReadingText(formatLastSeen(at, now, timeZone)) : 'No readings yet'}
+      </Text>
+      {stale ? (
+        <Text style={type.small} testID="zone-stale">
+          {STALE_READING_NOTE}
+        </Text>
+      ) : null}
+    </View>
   );
 }
 
 const styles = StyleSheet.create({
   card: { ...cardSurface, overflow: 'hidden' },
   selected: { borderColor: colors.iron },
+  stale: { backgroundColor: staleColors.card, borderColor: staleColors.border },
+  staleFigure: { color: staleColors.figure },
+  staleAge: { fontFamily: fonts.medium, color: colors.ink },
+  lastSeen: { gap: 2 },
   inner: {
     paddingVertical: space.lg,
     paddingLeft: space.lg + 6,

@@ -1,6 +1,6 @@
 /**
- * What the silent-sensor sweep reads: the sensors it must judge, with their recent posting
- * times and any open silent alarm, and a sensor's last reading read again under the zone's lock.
+ * What the silent-sensor sweep reads: the sensors it must judge, with their posting intervals
+ * (set and learnt) and any open silent alarm, and a sensor's last reading read again under the zone's lock.
  */
 import { eq, sql } from 'drizzle-orm';
 
@@ -15,8 +15,9 @@ export interface SweepCandidate {
   zoneId: string;
   lastSeenAt: Date;
   revoked: boolean;
-  /** Times of its newest readings (up to gaps + 1), for the posting interval. */
-  recentAtMs: number[];
+  /** The interval its owner set and the one learnt from its readings, seconds. */
+  expectedIntervalS: number | null;
+  intervalS: number | null;
   openSilentAlarmId: string | null;
 }
 
@@ -24,21 +25,19 @@ export interface SweepCandidate {
  * Sensors a silent-sensor sweep must judge: every active sensor that has ever posted, and every
  * revoked one still holding an open silent alarm (to close it). Optionally one shop only.
  */
-export async function sweepCandidates(db: Db, readingsUsed: number, shopId?: string) {
+export async function sweepCandidates(db: Db, shopId?: string) {
   const result = await db.execute<{
     sensor_id: string;
     shop_id: string;
     zone_id: string;
     last_seen_at: Date | string;
     revoked: boolean;
-    recent_ms: (string | number)[] | null;
+    expected_interval_s: number | null;
+    interval_s: number | null;
     open_silent_alarm_id: string | null;
   }>(sql`
     select s.id as sensor_id, s.shop_id, s.zone_id, s.last_seen_at,
-      s.revoked_at is not null as revoked,
-      (select array_agg((extract(epoch from r.at) * 1000)::float8) from (
-         select at from readings where sensor_id = s.id order by at desc limit ${readingsUsed}
-       ) r) as recent_ms,
+      s.revoked_at is not null as revoked, s.expected_interval_s, s.interval_s,
       a.id as open_silent_alarm_id
     from sensors s
     left join alarms a
@@ -52,7 +51,8 @@ export async function sweepCandidates(db: Db, readingsUsed: number, shopId?: str
     zoneId: r.zone_id,
     lastSeenAt: new Date(r.last_seen_at),
     revoked: r.revoked,
-    recentAtMs: (r.recent_ms ?? []).map(Number),
+    expectedIntervalS: r.expected_interval_s === null ? null : Number(r.expected_interval_s),
+    intervalS: r.interval_s === null ? null : Number(r.interval_s),
     openSilentAlarmId: r.open_silent_alarm_id,
   }));
 }

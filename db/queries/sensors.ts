@@ -83,23 +83,37 @@ export async function tokenHashesOfShop(db: Db, shopId: string): Promise<string[
   return rows.map((r) => r.tokenHash);
 }
 
+const sensorColumns = {
+  id: sensors.id,
+  name: sensors.name,
+  zoneId: sensors.zoneId,
+  zoneName: zones.name,
+  lastSeenAt: sensors.lastSeenAt,
+  batteryV: sensors.batteryV,
+  revokedAt: sensors.revokedAt,
+  createdAt: sensors.createdAt,
+  intervalS: sensors.intervalS,
+  expectedIntervalS: sensors.expectedIntervalS,
+};
+
 /** A shop's sensors with where they sit and how they are doing; never the token hash. */
 export async function listSensors(db: Db, shopId: string) {
   return db
-    .select({
-      id: sensors.id,
-      name: sensors.name,
-      zoneId: sensors.zoneId,
-      zoneName: zones.name,
-      lastSeenAt: sensors.lastSeenAt,
-      batteryV: sensors.batteryV,
-      revokedAt: sensors.revokedAt,
-      createdAt: sensors.createdAt,
-    })
+    .select(sensorColumns)
     .from(sensors)
     .innerJoin(zones, eq(zones.id, sensors.zoneId))
     .where(and(eq(sensors.shopId, shopId), isNull(sensors.removedAt)))
     .orderBy(zones.name, sensors.name);
+}
+
+/** One sensor of a shop as the list shows it, or null. */
+export async function findSensor(db: Db, shopId: string, sensorId: string) {
+  const [row] = await db
+    .select(sensorColumns)
+    .from(sensors)
+    .innerJoin(zones, eq(zones.id, sensors.zoneId))
+    .where(ofShop(shopId, sensorId));
+  return row ?? null;
 }
 
 /**
@@ -132,7 +146,7 @@ export async function updateSensor(
   db: Db,
   shopId: string,
   sensorId: string,
-  changes: { name?: string; zoneId?: string },
+  changes: { name?: string; zoneId?: string; expectedIntervalS?: number | null },
 ) {
   const zoneOk = changes.zoneId
     ? sql`exists (select 1 from ${zones} where ${zones.id} = ${changes.zoneId} and ${zones.shopId} = ${shopId})`

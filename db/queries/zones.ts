@@ -76,8 +76,12 @@ export async function listZonesWithLatest(db: Db, shopId: string) {
     wet_k: number;
     humid_rh_pct: number;
     latest: (Omit<LatestReadingRow, 'at'> & { at: string }) | null;
+    sensor_intervals: { setS: number | null; learnedS: number | null }[];
   }>(sql`
     select z.id, z.name, z.caution_k, z.wet_k, z.humid_rh_pct,
+      (select coalesce(json_agg(json_build_object(
+          'setS', s.expected_interval_s, 'learnedS', s.interval_s)), '[]'::json)
+        from sensors s where s.zone_id = z.id and s.revoked_at is null) as sensor_intervals,
       case when r.at is null then null else json_build_object(
         'at', r.at, 'airC', r.air_c, 'rhPct', r.rh_pct, 'surfaceC', r.surface_c,
         'dewPointC', r.dew_point_c, 'marginK', r.margin_k, 'emcPct', r.emc_pct,
@@ -95,6 +99,8 @@ export async function listZonesWithLatest(db: Db, shopId: string) {
     wetK: row.wet_k,
     humidRhPct: row.humid_rh_pct,
     latest: row.latest ? { ...row.latest, at: new Date(row.latest.at) } : null,
+    // The posting intervals of its working sensors: when its newest reading goes stale.
+    sensorIntervals: row.sensor_intervals,
   }));
 }
 

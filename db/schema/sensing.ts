@@ -2,6 +2,7 @@
 import { sql } from 'drizzle-orm';
 import {
   doublePrecision,
+  integer,
   index,
   pgEnum,
   pgTable,
@@ -58,6 +59,8 @@ export const sensors = pgTable(
     batteryV: doublePrecision(),
     // How often the sensor posts, learnt from its readings (see insertReadingGroup).
     intervalS: doublePrecision(),
+    // How often the owner says it posts (seconds), overriding the learnt interval when set.
+    expectedIntervalS: integer(),
     createdAt: createdAt(),
   },
   (t) => [index().on(t.shopId), index().on(t.zoneId)],

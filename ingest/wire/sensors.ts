@@ -1,4 +1,22 @@
-/** A shop's sensors: GET, POST and PATCH /shops/:shopId/sensors, POST …/sensors/:id/token. */
+/**
+ * A shop's sensors: GET, POST and PATCH /shops/:shopId/sensors, POST …/sensors/:id/token. PATCH
+ * answers the changed sensor as the list shows it.
+ */
+
+/**
+ * How often a sensor posts and when it counts as silent (ingest/postingInterval.ts): the
+ * interval its owner set, the one learnt from its readings, the one in force. Seconds.
+ */
+export interface SensorInterval {
+  setS: number | null;
+  learnedS: number | null;
+  effectiveS: number;
+  source: 'set' | 'learned' | 'default';
+  /** Quiet for longer than this and it counts as silent. */
+  silentAfterS: number;
+  /** When it counts as silent if nothing arrives: last seen + silentAfterS; null before any. */
+  silentFrom: string | null;
+}
 
 /** A sensor in the shop's list; never its token. Times ISO 8601, battery V. */
 export interface Sensor {
@@ -10,6 +28,7 @@ export interface Sensor {
   batteryV: number | null;
   revokedAt: string | null;
   createdAt: string;
+  interval: SensorInterval;
 }
 
 export interface SensorsResponse {

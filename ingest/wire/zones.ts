@@ -28,6 +28,11 @@ export interface ZoneSettings {
 /** A zone in the shop's list: its settings and its newest reading, if any. */
 export interface Zone extends ZoneSettings {
   latest: LatestReading | null;
+  /**
+   * Seconds after which `latest` is stale: when every working sensor of the zone would count as
+   * silent (ingest/postingInterval.ts). The card greys out past it.
+   */
+  staleAfterS: number;
 }
 
 export interface ZonesResponse {

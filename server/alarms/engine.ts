@@ -25,7 +25,7 @@ import type { Logger } from '../logger';
 
 import { createAlarmBook } from './book';
 import { evaluateZone, readZoneState, type Signal } from './evaluate';
-import { ALARM_RULES, postingIntervalMs, silentAfterMs } from './rules';
+import { silentAfterMs } from './rules';
 import { alarmOf } from './wire';
 
 export interface SweepOutcome {
@@ -133,9 +133,9 @@ export function createAlarmEngine(deps: {
     judge,
     async sweepSilent({ nowMs, shopId }) {
       const outcome: SweepOutcome = { opened: 0, cleared: 0 };
-      const candidates = await sweepCandidates(db, ALARM_RULES.silent.gaps + 1, shopId);
+      const candidates = await sweepCandidates(db, shopId);
       for (const c of candidates) {
-        const allowedMs = silentAfterMs(postingIntervalMs(c.recentAtMs));
+        const allowedMs = silentAfterMs(c.expectedIntervalS, c.intervalS);
         const silent = !c.revoked && nowMs - c.lastSeenAt.getTime() > allowedMs;
         if (c.openSilentAlarmId ? !c.revoked : !silent) continue;
         const where = { shopId: c.shopId, zoneId: c.zoneId };

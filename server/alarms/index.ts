@@ -14,4 +14,4 @@ export {
   type AlarmMailDeps,
   type AlarmMailReport,
 } from './mailDecision';
-export { ALARM_RULES, postingIntervalMs, silentAfterMs } from './rules';
+export { ALARM_RULES, silentAfterMs } from './rules';

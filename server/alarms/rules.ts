@@ -9,7 +9,16 @@
  */
 import type { AlarmValues } from '@/db/queries/alarms';
 import type { AlarmKind } from '@/db/schema';
-import { DEFAULT_HYSTERESIS, DEFAULT_LOOK_AHEAD_MS, type Level } from '@/ingest';
+import {
+  DEFAULT_HYSTERESIS,
+  DEFAULT_LOOK_AHEAD_MS,
+  DEFAULT_MIN_SILENCE_S,
+  DEFAULT_POSTING_INTERVAL_S,
+  postingInterval,
+  SILENT_AFTER_INTERVALS,
+  SWEEP_RESOLUTION_S,
+  type Level,
+} from '@/ingest';
 
 const MINUTE_MS = 60_000;
 
@@ -39,10 +48,16 @@ export const ALARM_RULES = {
    */
   battery: { lowV: 2.7, bandV: 0.1, openHoldMs: 15 * MINUTE_MS, clearHoldMs: 15 * MINUTE_MS },
   /**
-   * Sensor silent: no reading for 3 × the sensor's own posting interval (the median gap of its
-   * last 10 gaps; 5 min when unknown). Never under a minute: the sweep runs once a minute.
+   * Sensor silent: no reading for 3 × the sensor's posting interval — the owner's setting, else
+   * the one learnt from its readings, else 5 min — and at least 15 min unless the owner set the
+   * interval (then at least the sweep's minute). The numbers and the reason: ingest/postingInterval.ts.
    */
-  silent: { factor: 3, defaultIntervalMs: 5 * MINUTE_MS, minSilenceMs: MINUTE_MS, gaps: 10 },
+  silent: {
+    factor: SILENT_AFTER_INTERVALS,
+    defaultIntervalMs: DEFAULT_POSTING_INTERVAL_S * 1000,
+    minSilenceMs: DEFAULT_MIN_SILENCE_S * 1000,
+    minSetSilenceMs: SWEEP_RESOLUTION_S * 1000,
+  },
   /**
    * An open alarm records an update when its worst value gets worse by a step, the expected
    * minutes move to another 5-minute step, or the latest value has moved by a step and the last
@@ -205,19 +220,10 @@ export function stepDewRisk(
   return { ...current, quietSinceMs, atMs };
 }
 
-/** The median gap between a sensor's readings (any order); the default with fewer than two. */
-export function postingIntervalMs(readingTimesMs: readonly number[]): number {
-  const sorted = [...readingTimesMs].sort((a, b) => a - b);
-  const gaps: number[] = [];
-  for (let i = 1; i < sorted.length; i++) gaps.push(sorted[i]! - sorted[i - 1]!);
-  const positive = gaps.filter((g) => g > 0).sort((a, b) => a - b);
-  if (positive.length === 0) return ALARM_RULES.silent.defaultIntervalMs;
-  const mid = positive.length >> 1;
-  return positive.length % 2 === 1 ? positive[mid]! : (positive[mid - 1]! + positive[mid]!) / 2;
-}
-
-/** How long a sensor with this posting interval may stay quiet before it counts as silent. */
-export function silentAfterMs(intervalMs: number): number {
-  const { factor, minSilenceMs } = ALARM_RULES.silent;
-  return Math.max(factor * intervalMs, minSilenceMs);
+/**
+ * How long a sensor may stay quiet before it counts as silent: from the interval its owner set
+ * or the one learnt from its readings (sensors.expected_interval_s, sensors.interval_s).
+ */
+export function silentAfterMs(setS: number | null, learnedS: number | null): number {
+  return postingInterval(setS, learnedS).silentAfterS * 1000;
 }

@@ -93,8 +93,10 @@ export function ingestRouter(deps: IngestDeps): Router {
       if (!envelope.ok) {
         throw new ApiError(
           400,
-          'invalid_payload',
-          'The readings are not in the expected shape.',
+          envelope.code,
+          envelope.code === 'unknown_field'
+            ? envelope.issues.map((i) => i.message).join(' ')
+            : 'The readings are not in the expected shape.',
           envelope.issues,
         );
       }

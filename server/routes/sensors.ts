@@ -1,14 +1,17 @@
 /**
  * A shop's sensors. Listing shows last seen and battery; creating and rotating answer the
  * token this once (it is stored only as a hash); revoking and moving drop the token from the
- * ingest cache at once so the change applies to the sensor's next post. Removing takes the sensor
- * off the list and refuses its token everywhere, but keeps its readings (db/queries/sensors.ts).
+ * ingest cache at once so the change applies to the sensor's next post. An owner may set how
+ * often the sensor posts (`expectedIntervalS`), which decides when it counts as silent.
+ * Removing takes the sensor off the list and refuses its token everywhere, but keeps its
+ * readings (db/queries/sensors.ts).
  */
 import { Router } from 'express';
 import { z } from 'zod';
 
 import type { Db } from '@/db';
 import {
+  findSensor,
   insertSensor,
   listSensors,
   removeSensor,
@@ -18,14 +21,15 @@ import {
 } from '@/db/queries/sensors';
 import { findZone } from '@/db/queries/zones';
 import { transaction } from '@/db/transaction';
-import type { IssuedToken, SensorsResponse } from '@/ingest/wire';
+import { EXPECTED_INTERVAL_MAX_S, EXPECTED_INTERVAL_MIN_S } from '@/ingest';
+import type { IssuedToken, Sensor, SensorsResponse } from '@/ingest/wire';
 
 import { isUuid, shopIdOf } from '../auth/middleware';
 import { hashToken, newSensorToken, type SensorTokenCache } from '../auth/sensorTokens';
 import { ApiError } from '../errors';
 import { announceShopChange } from '../live/messages';
 import { parseInput } from '../validate';
-import { toCreatedSensor, toSensor, toSensorPlacement } from '../wire/sensors';
+import { toCreatedSensor, toSensor } from '../wire/sensors';
 
 import { nameField } from './fields';
 
@@ -33,10 +37,24 @@ const sensorName = nameField('Name the sensor');
 const zoneId = z.string().uuid('Pick a zone of this shop');
 
 const createSensorBody = z.object({ name: sensorName, zoneId });
+// Whole seconds; null clears the setting and the learnt interval applies again.
+const expectedIntervalS = z
+  .number({ message: 'Give the interval in seconds, as a number' })
+  .int('Whole seconds')
+  .min(EXPECTED_INTERVAL_MIN_S, `At least ${EXPECTED_INTERVAL_MIN_S} s`)
+  .max(EXPECTED_INTERVAL_MAX_S, `At most ${EXPECTED_INTERVAL_MAX_S} s (one day)`)
+  .nullable();
 const updateSensorBody = z
-  .object({ name: sensorName.optional(), zoneId: zoneId.optional() })
+  .object({
+    name: sensorName.optional(),
+    zoneId: zoneId.optional(),
+    expectedIntervalS: expectedIntervalS.optional(),
+  })
   .strict()
-  .refine((b) => b.name !== undefined || b.zoneId !== undefined, 'Change the name or the zone');
+  .refine(
+    (b) => b.name !== undefined || b.zoneId !== undefined || b.expectedIntervalS !== undefined,
+    'Change the name, the zone or the expected interval',
+  );
 
 const noSensor = () => new ApiError(404, 'not_found', 'No such sensor in this shop.');
 const unknownZone = () =>
@@ -91,7 +109,9 @@ export function sensorsRouter(db: Db, tokens: SensorTokenCache): Router {
     });
     if (!updated) throw noSensor();
     await tokens.invalidate(updated.tokenHash);
-    res.json(toSensorPlacement(updated));
+    const sensor = await findSensor(db, shopId, sensorId);
+    if (!sensor) throw noSensor();
+    res.json(toSensor(sensor) satisfies Sensor);
   });
 
   // Rotation: a new token now, the old one refused from the next post on.

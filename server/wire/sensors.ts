@@ -1,6 +1,7 @@
 /** Sensor rows to what the API answers (ingest/wire/sensors.ts): the one place that decides it. */
 import type { listSensors } from '@/db/queries/sensors';
-import type { CreatedSensor, Sensor, SensorPlacement } from '@/ingest/wire';
+import { postingInterval } from '@/ingest';
+import type { CreatedSensor, Sensor, SensorInterval, SensorPlacement } from '@/ingest/wire';
 
 type SensorRow = Awaited<ReturnType<typeof listSensors>>[number];
 
@@ -16,6 +17,26 @@ export function toSensor(row: SensorRow): Sensor {
     batteryV: row.batteryV,
     revokedAt: isoOrNull(row.revokedAt),
     createdAt: row.createdAt.toISOString(),
+    interval: toSensorInterval(row),
+  };
+}
+
+function toSensorInterval(row: SensorRow): SensorInterval {
+  const { effectiveS, source, silentAfterS } = postingInterval(
+    row.expectedIntervalS,
+    row.intervalS,
+  );
+  return {
+    setS: row.expectedIntervalS,
+    // Learnt as a moving average: whole seconds are all a person or a sensor needs.
+    learnedS: row.intervalS === null ? null : Math.round(row.intervalS),
+    effectiveS: source === 'learned' ? Math.round(effectiveS) : effectiveS,
+    source,
+    silentAfterS: Math.round(silentAfterS),
+    silentFrom:
+      row.lastSeenAt === null
+        ? null
+        : new Date(row.lastSeenAt.getTime() + silentAfterS * 1000).toISOString(),
   };
 }
 

@@ -1,5 +1,6 @@
 /** Zone rows to what the API answers (ingest/wire/zones.ts): the one place that decides it. */
 import type { LatestReadingRow, ZoneRow, ZoneWithLatestRow } from '@/db/queries/zones';
+import { zoneStaleAfterS } from '@/ingest';
 import type { LatestReading, Zone, ZoneSettings } from '@/ingest/wire';
 
 export function toZoneSettings(row: ZoneRow): ZoneSettings {
@@ -28,5 +29,9 @@ export function toLatestReading(row: LatestReadingRow): LatestReading {
 }
 
 export function toZone(row: ZoneWithLatestRow): Zone {
-  return { ...toZoneSettings(row), latest: row.latest ? toLatestReading(row.latest) : null };
+  return {
+    ...toZoneSettings(row),
+    latest: row.latest ? toLatestReading(row.latest) : null,
+    staleAfterS: Math.round(zoneStaleAfterS(row.sensorIntervals)),
+  };
 }

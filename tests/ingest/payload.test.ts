@@ -42,3 +42,55 @@ describe('the time checks of a reading', () => {
     expect(checkReading(envelope.readings[0]!, NOW_MS)?.message).toMatch(/sensor clock/);
   });
 });
+
+describe('fields the contract does not name', () => {
+  // shared/API.md: a field the contract does not name is refused with `unknown_field`, so a
+  // misspelt `surface` never passes as a reading without a probe.
+  it.each<[string, Record<string, unknown>, string[]]>([
+    ['a misspelt surface', { air: 12, rh: 80, surfce: 5 }, ['surfce']],
+    ['"temp" for air', { temp: 12, air: 12, rh: 80 }, ['temp']],
+    ['an extra nested key', { air: 12, rh: 80, meta: { surface: 5 } }, ['meta']],
+    ['two at once', { air: 12, rh: 80, surfce: 5, batery: 3 }, ['surfce', 'batery']],
+  ])('refuses a single reading with %s, naming each field', (_name, body, fields) => {
+    const envelope = parseEnvelope(body, NOW_MS);
+    expect(envelope).toMatchObject({ ok: false, code: 'unknown_field' });
+    if (envelope.ok) return;
+    expect(envelope.issues.map((i) => i.path)).toEqual(fields);
+    envelope.issues.forEach((issue, i) => expect(issue.message).toContain(`"${fields[i]}"`));
+  });
+
+  it('refuses an unknown key beside the readings of a batch (a misspelt unit changes every value)', () => {
+    const envelope = parseEnvelope({ unti: 'F', readings: [{ air: 50, rh: 50 }] }, NOW_MS);
+    expect(envelope).toMatchObject({
+      ok: false,
+      code: 'unknown_field',
+      issues: [{ path: 'unti' }],
+    });
+  });
+
+  it('in a batch refuses only the reading at fault, naming its field', () => {
+    const envelope = parseEnvelope(
+      {
+        readings: [
+          { air: 12, rh: 80, surface: 5 },
+          { air: 12, rh: 80, surfce: 5 },
+        ],
+      },
+      NOW_MS,
+    );
+    if (!envelope.ok) throw new Error('envelope refused');
+    const verdicts = envelope.readings.map((r) => checkReading(r, NOW_MS));
+    expect(verdicts[0]).toBeNull();
+    expect(verdicts[1]).toMatchObject({ code: 'unknown_field', field: 'surfce' });
+    expect(verdicts[1]?.message).toContain('"surfce"');
+  });
+
+  it('accepts every field the contract names, with the unit beside them', () => {
+    const envelope = parseEnvelope(
+      { unit: 'C', at: '2026-03-02T06:00:00Z', air: 12, rh: 80, surface: 5, battery: 3 },
+      NOW_MS,
+    );
+    expect(envelope.ok).toBe(true);
+    if (envelope.ok) expect(checkReading(envelope.readings[0]!, NOW_MS)).toBeNull();
+  });
+});

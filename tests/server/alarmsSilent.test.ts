@@ -1,5 +1,6 @@
-// Sensor silent: the sweep judges each sensor by its own posting interval (the median gap of its
-// recent readings), with an injected clock; once through pg-boss as the server runs it.
+// Sensor silent: the sweep judges each sensor by its own posting interval (learnt from its
+// readings, or set by its owner — more in sensorInterval.test.ts), with an injected clock; once
+// through pg-boss as the server runs it.
 import type PgBoss from 'pg-boss';
 import { afterAll, beforeAll, describe, expect, it } from 'vitest';
 
@@ -36,28 +37,29 @@ describe('the silent-sensor sweep', () => {
   it('fires after 3 × the sensor’s own interval, once, and clears with its next reading', async () => {
     const o = await ownerWithSensor(t);
     const startMs = seriesStartMs();
-    // Every 2 min for 20 min: the median gap is 2 min, so silent after 3 × 2 = 6 min (ours).
-    const series = Array.from({ length: 11 }, (_, i) => withMargin(startMs + i * 2 * MINUTE_MS, 6));
+    // Every 6 min for an hour: the learnt interval is 6 min, so silent after 3 × 6 = 18 min
+    // (ours; above the 15-min floor, which sensorInterval.test.ts covers).
+    const series = Array.from({ length: 11 }, (_, i) => withMargin(startMs + i * 6 * MINUTE_MS, 6));
     await postBatch(t.app, o.token, series);
-    const lastMs = startMs + 20 * MINUTE_MS;
+    const lastMs = startMs + 60 * MINUTE_MS;
 
-    expect(await sweep(o.shopId, lastMs + 5 * MINUTE_MS)).toEqual({ opened: 0, cleared: 0 });
+    expect(await sweep(o.shopId, lastMs + 17 * MINUTE_MS)).toEqual({ opened: 0, cleared: 0 });
     expect(await alarmsOf(o.agent, o.shopId, { kind: 'sensor_silent' })).toEqual([]);
-    expect(await sweep(o.shopId, lastMs + 7 * MINUTE_MS)).toEqual({ opened: 1, cleared: 0 });
+    expect(await sweep(o.shopId, lastMs + 19 * MINUTE_MS)).toEqual({ opened: 1, cleared: 0 });
     const silent = await onlyAlarm(o.agent, o.shopId, 'sensor_silent');
     expect(silent).toMatchObject({
       state: 'open',
       sensor: { id: o.sensorId, name: 'Saw probe' },
       zone: { id: o.zoneId, name: 'Machine room' },
       sinceAt: iso(lastMs),
-      openedAt: iso(lastMs + 7 * MINUTE_MS),
+      openedAt: iso(lastMs + 19 * MINUTE_MS),
     });
 
     // Later sweeps find it open and add nothing.
-    expect(await sweep(o.shopId, lastMs + 30 * MINUTE_MS)).toEqual({ opened: 0, cleared: 0 });
-    await postEach(t.app, o.token, [withMargin(lastMs + 31 * MINUTE_MS, 6)]);
+    expect(await sweep(o.shopId, lastMs + 40 * MINUTE_MS)).toEqual({ opened: 0, cleared: 0 });
+    await postEach(t.app, o.token, [withMargin(lastMs + 41 * MINUTE_MS, 6)]);
     const cleared = await onlyAlarm(o.agent, o.shopId, 'sensor_silent');
-    expect(cleared).toMatchObject({ state: 'cleared', clearedAt: iso(lastMs + 31 * MINUTE_MS) });
+    expect(cleared).toMatchObject({ state: 'cleared', clearedAt: iso(lastMs + 41 * MINUTE_MS) });
     expect(await changeCounts(t.db, silent.id)).toMatchObject({ opened: 1, cleared: 1 });
   });
 

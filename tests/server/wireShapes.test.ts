@@ -20,6 +20,7 @@ import type {
   ReadingPoint,
   ReadingsResponse,
   Sensor,
+  SensorInterval,
   SensorPlacement,
   SensorsResponse,
   Shop,
@@ -46,7 +47,7 @@ const ZONE_SETTINGS: Keys<ZoneSettings> = {
   wetK: true,
   humidRhPct: true,
 };
-const ZONE: Keys<Zone> = { ...ZONE_SETTINGS, latest: true };
+const ZONE: Keys<Zone> = { ...ZONE_SETTINGS, latest: true, staleAfterS: true };
 const LATEST_READING: Keys<LatestReading> = {
   at: true,
   air: true,
@@ -87,6 +88,15 @@ const SENSOR: Keys<Sensor> = {
   batteryV: true,
   revokedAt: true,
   createdAt: true,
+  interval: true,
+};
+const SENSOR_INTERVAL: Keys<SensorInterval> = {
+  setS: true,
+  learnedS: true,
+  effectiveS: true,
+  source: true,
+  silentAfterS: true,
+  silentFrom: true,
 };
 const SENSOR_PLACEMENT: Keys<SensorPlacement> = { id: true, name: true, zoneId: true };
 const ISSUED_TOKEN: Keys<IssuedToken> = { id: true, token: true };
@@ -156,6 +166,8 @@ describe('the API answers the shapes of ingest/wire', () => {
     const latest = listed.body.zones[0].latest;
     expectKeys(latest, LATEST_READING, 'zone.latest');
     expect(latest).toMatchObject({ at, air: 12, rh: 80, surface: 9, surfaceSource: 'probe' });
+    // One sensor, nothing learnt or set yet: the default 15 minutes (ingest/postingInterval.ts).
+    expect(listed.body.zones[0].staleAfterS).toBe(900);
 
     const created = await o.agent.post(path).send({ name: 'Paint bay' }).expect(201);
     expectKeys(created.body, ZONE_SETTINGS, 'created zone');
@@ -195,6 +207,8 @@ describe('the API answers the shapes of ingest/wire', () => {
     expectKeys(listed.body, SENSORS_RESPONSE, 'sensors');
     const sensor = listed.body.sensors[0];
     expectKeys(sensor, SENSOR, 'sensor');
+    expectKeys(sensor.interval, SENSOR_INTERVAL, 'sensor interval');
+    expect(isIso(sensor.interval.silentFrom)).toBe(true);
     expect(isIso(sensor.lastSeenAt) && isIso(sensor.createdAt)).toBe(true);
     expect(sensor).toMatchObject({ batteryV: 3, revokedAt: null });
 
@@ -206,7 +220,9 @@ describe('the API answers the shapes of ingest/wire', () => {
       .patch(`${path}/${created.body.id}`)
       .send({ name: 'Back door' })
       .expect(200);
-    expectKeys(moved.body, SENSOR_PLACEMENT, 'moved sensor');
+    // A change answers the sensor as the list shows it.
+    expectKeys(moved.body, SENSOR, 'moved sensor');
+    expectKeys(moved.body.interval, SENSOR_INTERVAL, 'moved sensor interval');
   });
 
   it('people: me, profile, shops, members, invitations and sign-in', async () => {

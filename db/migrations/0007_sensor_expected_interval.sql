@@ -1,0 +1,1 @@
+ALTER TABLE "sensors" ADD COLUMN "expected_interval_s" integer;
