@@ -1,4 +1,4 @@
-/** A shop's zones: list with each zone's newest reading, create, rename and set limits. */
+/** A shop's zones: list with each zone's newest reading, create, rename, set purpose and limits. */
 import { Router } from 'express';
 import { z } from 'zod';
 
@@ -6,7 +6,7 @@ import type { Db } from '@/db';
 import { tokenHashesOfZone } from '@/db/queries/sensors';
 import { findZone, insertZone, listZonesWithLatest, updateZone } from '@/db/queries/zones';
 import { marginLimitsSchema } from '@/ingest';
-import type { ZonesResponse } from '@/ingest/wire';
+import { EMC_REGIONS, ZONE_PURPOSES, type ZonesResponse } from '@/ingest/wire';
 
 import { isUuid, shopIdOf } from '../auth/middleware';
 import type { SensorTokenCache } from '../auth/sensorTokens';
@@ -17,7 +17,19 @@ import { toZone, toZoneSettings } from '../wire/zones';
 import { nameField } from './fields';
 
 const zoneName = nameField('Name the zone');
-const createZoneBody = z.object({ name: zoneName });
+const purposeField = z.enum(ZONE_PURPOSES, {
+  error: `Choose what the zone holds: ${ZONE_PURPOSES.join(', ')}`,
+});
+const emcRegionField = z.enum(EMC_REGIONS, {
+  error: `Choose the region: ${EMC_REGIONS.join(', ')}`,
+});
+const createZoneBody = z
+  .object({
+    name: zoneName,
+    purpose: purposeField.optional(),
+    emcRegion: emcRegionField.optional(),
+  })
+  .strict();
 
 // Limits in kelvin (a margin is a difference). 20 K and 100 % bound typos, not physics.
 const updateZoneBody = z
@@ -26,6 +38,8 @@ const updateZoneBody = z
     cautionK: z.number().min(0, 'At least 0 K').max(20, 'At most 20 K').optional(),
     wetK: z.number().min(-5, 'At least −5 K').max(20, 'At most 20 K').optional(),
     humidRhPct: z.number().min(30, 'At least 30 %').max(100, 'At most 100 %').optional(),
+    purpose: purposeField.optional(),
+    emcRegion: emcRegionField.optional(),
   })
   .strict();
 
@@ -42,7 +56,10 @@ export function zonesRouter(db: Db, tokens: SensorTokenCache): Router {
 
   router.post('/', async (req, res) => {
     const body = parseInput(createZoneBody, req.body);
-    const zone = await insertZone(db, shopIdOf(res), body.name);
+    const zone = await insertZone(db, shopIdOf(res), body.name, {
+      purpose: body.purpose,
+      emcRegion: body.emcRegion,
+    });
     res.status(201).json(toZoneSettings(zone));
   });
 

@@ -27,8 +27,26 @@ const point = (at: string, margin: number): ReadingPoint => ({
 
 const zones: ZonesResponse = {
   zones: [
-    { id: 'z1', name: 'Machine room', cautionK: 3, wetK: 1, humidRhPct: 60, latest: null },
-    { id: 'z2', name: 'Lumber rack', cautionK: 3, wetK: 1, humidRhPct: 60, latest: null },
+    {
+      id: 'z1',
+      name: 'Machine room',
+      cautionK: 3,
+      wetK: 1,
+      humidRhPct: 60,
+      purpose: 'machines',
+      emcRegion: 'most',
+      latest: null,
+    },
+    {
+      id: 'z2',
+      name: 'Lumber rack',
+      cautionK: 3,
+      wetK: 1,
+      humidRhPct: 60,
+      purpose: 'machines',
+      emcRegion: 'most',
+      latest: null,
+    },
   ],
 };
 

@@ -45,6 +45,8 @@ const ZONE_SETTINGS: Keys<ZoneSettings> = {
   cautionK: true,
   wetK: true,
   humidRhPct: true,
+  purpose: true,
+  emcRegion: true,
 };
 const ZONE: Keys<Zone> = { ...ZONE_SETTINGS, latest: true };
 const LATEST_READING: Keys<LatestReading> = {
