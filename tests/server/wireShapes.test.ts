@@ -64,6 +64,7 @@ const LATEST_READING: Keys<LatestReading> = {
 const READINGS_RESPONSE: Keys<ReadingsResponse> = {
   from: true,
   to: true,
+  firstAt: true,
   bucketSeconds: true,
   points: true,
 };
