@@ -35,17 +35,6 @@ const BANDS: Record<EmcRegion, EmcTargetBand> = {
   damp_coastal: { region: 'damp_coastal', averagePct: 11, lowPct: 8, highPct: 13 },
 };
 
-/** The handbook's name for each region, as people read it. */
-export const EMC_REGION_NAMES: Record<EmcRegion, string> = {
-  most: 'Most of the US',
-  dry_southwest: 'Dry southwest',
-  damp_coastal: 'Damp, warm coast',
-};
-
-/** The table as named on screen beside a band, in small print. */
-export const EMC_TARGET_SOURCE =
-  'Wood Handbook (USDA FPL, 2010), ch. 13: recommended moisture content of interior wood at installation';
-
 export function emcTargetBand(region: EmcRegion): EmcTargetBand {
   return BANDS[region];
 }

@@ -5,6 +5,7 @@ import { StyleSheet, Text, View } from 'react-native';
 import { deltaInUnit } from '@/components/format';
 import {
   Button,
+  Choice,
   ConfirmButton,
   Form,
   FormError,
@@ -23,13 +24,19 @@ import {
   useZoneCreateMutation,
   useZonesQuery,
   type ShopSummary,
+  type ZonePurpose,
 } from '@/components/queries';
 import { colors, space, type } from '@/components/theme';
 import { Panel, useDocumentTitle } from '@/components/ui';
+import { ZONE_PURPOSES } from '@/ingest/wire/zones';
+import { PURPOSE_WORDS } from '@/ingest/words';
 
 import { useFrameShop } from './ShopFrame';
 import { ShopTabs } from './ShopTabs';
 import { ZoneLimitsForm } from './ZoneLimitsForm';
+import { ZonePurposeForm } from './ZonePurposeForm';
+
+const NEW_ZONE_PURPOSES = ZONE_PURPOSES.map((value) => ({ value, label: PURPOSE_WORDS[value] }));
 
 /** The shop's name and time zone, its zones and their limits, leaving and deleting it. */
 export function ShopSettingsScreen() {
@@ -61,6 +68,7 @@ function SettingsBody({ shop }: { shop: ShopSummary }) {
         {zones.data?.zones.length === 0 ? <Text style={type.body}>No zones yet.</Text> : null}
         {zones.data?.zones.map((zone) => (
           <View key={zone.id} style={styles.zone}>
+            {owner ? <ZonePurposeForm shopId={shop.id} zone={zone} /> : null}
             {owner ? (
               <ZoneLimitsForm shopId={shop.id} zone={zone} unit={unit} />
             ) : (
@@ -127,12 +135,13 @@ function ShopForm({ shop }: { shop: ShopSummary }) {
 
 function NewZoneForm({ shopId }: { shopId: string }) {
   const create = useZoneCreateMutation(shopId);
+  const [purpose, setPurpose] = useState<ZonePurpose>('machines');
   const { form, control, submit, sending, formError } = useApiForm<{ name: string }>({
     schema: zoneNameSchema,
     defaultValues: { name: '' },
     fields: ['name'],
     send: async ({ name }) => {
-      await create.mutateAsync({ name: name.trim() });
+      await create.mutateAsync({ name: name.trim(), purpose });
       form.reset({ name: '' });
     },
   });
@@ -146,6 +155,14 @@ function NewZoneForm({ shopId }: { shopId: string }) {
         testID="zone-create-name"
         editable={!sending}
         onSubmitEditing={submit}
+      />
+      <Choice
+        label="What it holds"
+        options={NEW_ZONE_PURPOSES}
+        value={purpose}
+        disabled={sending}
+        onChange={setPurpose}
+        testID="zone-create-purpose"
       />
       <FormError message={formError} />
       <SubmitButton

@@ -2,6 +2,8 @@ import { Link } from 'expo-router';
 import { Pressable, StyleSheet, Text, View } from 'react-native';
 
 import { formatLastSeen, formatMargin } from '@/components/format';
+import { emcBandPosition, emcTargetBand } from '@/ingest/emcTarget';
+import { EMC_POSITION_WORDS, formatPercent } from '@/ingest/words';
 import { useUnitPref, type Zone } from '@/components/queries';
 import {
   cardSurface,
@@ -14,8 +16,10 @@ import {
 } from '@/components/theme';
 import { Flash, useNow } from '@/components/ui';
 
+import { EmcLead } from './EmcLead';
 import { LevelMark } from './LevelMark';
 import { MarginBar } from './MarginBar';
+import { leadFigure } from './zoneLead';
 import { ZoneReadings } from './ZoneReadings';
 
 interface ZoneCardProps {
@@ -28,44 +32,77 @@ interface ZoneCardProps {
   selected?: boolean;
 }
 
-/** One zone at a glance: level, dew margin (largest), the readings behind it, last seen. */
+/**
+ * One zone at a glance: level, the lead figure (largest: the dew margin, or a lumber zone's wood
+ * EMC against its target band, see zoneLead.ts), the readings behind it, last seen.
+ */
 export function ZoneCard({ zone, timeZone, href, selected = false }: ZoneCardProps) {
   const unit = useUnitPref();
   const latest = zone.latest;
   const level = latest?.level ?? 'unknown';
   const margin = formatMargin(latest?.margin, unit);
+  const lead = leadFigure(zone.purpose);
+  const band = emcTargetBand(zone.emcRegion);
+  const position = emcBandPosition(latest?.emc, band);
   const body = (
     <View style={styles.inner}>
       <View style={[styles.rule, { backgroundColor: levelColors[level] }]} />
       <View style={styles.top}>
-        <Text style={[type.heading, styles.name]} numberOfLines={2} testID="zone-name">
+        <Text
+          style={[type.heading, styles.name]}
+          numberOfLines={2}
+          testID="zone-name"
+          role="heading"
+          aria-level={2}
+        >
           {zone.name}
         </Text>
         <LevelMark level={level} testID="zone-level" />
       </View>
 
-      <Flash value={margin} style={styles.hero}>
-        <Text style={[type.hero, tabular]} testID="zone-margin">
-          {margin}
-        </Text>
-        <Text style={type.small}>dew margin</Text>
-      </Flash>
+      {lead === 'emc' ? (
+        <EmcLead emcPct={latest?.emc ?? null} band={band} />
+      ) : (
+        <>
+          <Flash value={margin} style={styles.hero}>
+            <Text style={[type.hero, tabular]} testID="zone-margin">
+              {margin}
+            </Text>
+            <Text style={type.small}>dew margin</Text>
+          </Flash>
 
-      <MarginBar
-        marginK={latest?.margin ?? null}
-        wetK={zone.wetK}
-        cautionK={zone.cautionK}
+          <MarginBar
+            marginK={latest?.margin ?? null}
+            wetK={zone.wetK}
+            cautionK={zone.cautionK}
+            unit={unit}
+          />
+        </>
+      )}
+
+      <ZoneReadings
+        latest={latest}
         unit={unit}
+        humidRhPct={zone.humidRhPct}
+        show={lead === 'emc' ? 'margin' : 'emc'}
       />
-
-      <ZoneReadings latest={latest} unit={unit} />
 
       <LastSeen at={latest?.at ?? null} timeZone={timeZone} />
     </View>
   );
 
   const cardStyle = [styles.card, selected && styles.selected];
-  const linkLabel = `${zone.name}: ${levelWords[level]}, dew margin ${margin}`;
+  const rhOver = latest ? latest.rh > zone.humidRhPct : false;
+  const facts = [
+    ...(lead === 'emc'
+      ? [
+          `wood EMC ${formatPercent(latest?.emc, 1)}${position ? `, ${EMC_POSITION_WORDS[position].toLowerCase()}` : ''}`,
+        ]
+      : []),
+    `${levelWords[level]}, dew margin ${margin}`,
+    ...(rhOver ? [`RH ${formatPercent(latest?.rh)} over the ${zone.humidRhPct} % limit`] : []),
+  ];
+  const linkLabel = `${zone.name}: ${facts.join('; ')}`;
   if (!href) {
     return (
       <View style={cardStyle} testID="zone-card">

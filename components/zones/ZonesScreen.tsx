@@ -1,5 +1,5 @@
 import { Link, Redirect } from 'expo-router';
-import type { ReactNode } from 'react';
+import { useMemo, type ReactNode } from 'react';
 import { StyleSheet, Text, View } from 'react-native';
 
 import { shopHref } from '@/components/hrefs';
@@ -9,9 +9,11 @@ import { useFrameShop } from '@/components/shop/ShopFrame';
 import { colors, space, type } from '@/components/theme';
 import { Notice, useDocumentTitle } from '@/components/ui';
 
+import { LevelStrip } from './LevelStrip';
 import { ZoneCard } from './ZoneCard';
 import { ZoneHistory } from './ZoneHistory';
 import { ZoneList } from './ZoneList';
+import { countByLevel, orderByRisk } from './zoneOrder';
 
 interface ZonesScreenProps {
   /** The zone to show; without it a phone shows the list and a wide screen the first zone. */
@@ -20,7 +22,9 @@ interface ZonesScreenProps {
 
 /**
  * A shop's zones. Phone: the list, or one zone with its chart. Wide: the list in a left column
- * beside the selected zone's chart. The shop frame around it pins the open alarms above.
+ * beside the selected zone's chart. The list is ordered by risk (wet, close, then the smallest
+ * margin first) under a strip counting zones per level. The shop frame around it pins the open
+ * alarms above.
  */
 export function ZonesScreen({ zoneId }: ZonesScreenProps) {
   const shop = useFrameShop();
@@ -28,6 +32,8 @@ export function ZonesScreen({ zoneId }: ZonesScreenProps) {
   const zones = useZonesQuery(shopId);
   const { isWide } = useBreakpoints();
   const zoneList = zones.data?.zones;
+  // A new order on every live reading: the zone that just turned wet moves to the top.
+  const ordered = useMemo(() => (zoneList ? orderByRisk(zoneList) : undefined), [zoneList]);
   const selected = zoneId ? zoneList?.find((zone) => zone.id === zoneId) : undefined;
   useDocumentTitle(selected?.name, shop.name);
 
@@ -61,17 +67,14 @@ export function ZonesScreen({ zoneId }: ZonesScreenProps) {
         </Text>
       </Notice>
     );
-  } else if (isWide) {
-    const shown: Zone = selected ?? zoneList[0]!;
+  } else if (isWide && ordered) {
+    // Without a zone in the address, the riskiest zone is the one shown.
+    const shown: Zone = selected ?? ordered[0]!;
     body = (
       <View style={styles.columns}>
         <View style={styles.listColumn}>
-          <ZoneList
-            shopId={shopId}
-            zones={zoneList}
-            timeZone={timeZone}
-            selectedZoneId={shown.id}
-          />
+          <LevelStrip counts={countByLevel(ordered)} />
+          <ZoneList shopId={shopId} zones={ordered} timeZone={timeZone} selectedZoneId={shown.id} />
         </View>
         <View style={styles.detailColumn} testID="zone-detail">
           <Text style={type.title}>{shown.name}</Text>
@@ -90,7 +93,13 @@ export function ZonesScreen({ zoneId }: ZonesScreenProps) {
       </View>
     );
   } else {
-    body = <ZoneList shopId={shopId} zones={zoneList} timeZone={timeZone} />;
+    const list = ordered ?? zoneList;
+    body = (
+      <View style={styles.stack}>
+        <LevelStrip counts={countByLevel(list)} />
+        <ZoneList shopId={shopId} zones={list} timeZone={timeZone} />
+      </View>
+    );
   }
 
   return body;
@@ -98,7 +107,7 @@ export function ZonesScreen({ zoneId }: ZonesScreenProps) {
 
 const styles = StyleSheet.create({
   columns: { flexDirection: 'row', alignItems: 'flex-start', gap: space.xl },
-  listColumn: { width: LIST_COLUMN_WIDTH, flexShrink: 0 },
+  listColumn: { width: LIST_COLUMN_WIDTH, flexShrink: 0, gap: space.md },
   detailColumn: { flex: 1, minWidth: 0, gap: space.md },
   stack: { gap: space.md },
   back: { ...type.body, color: colors.air, alignSelf: 'flex-start', paddingVertical: space.xs },

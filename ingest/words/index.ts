@@ -3,3 +3,4 @@ export * from './advice';
 export * from './alarms';
 export * from './dewPoint';
 export * from './format';
+export * from './zones';

@@ -1,7 +1,8 @@
 import { describe, expect, it } from 'vitest';
 
 import { emcPct } from '../../ingest/emc';
-import { emcBandPosition, emcTargetBand, EMC_TARGET_SOURCE } from '../../ingest/emcTarget';
+import { emcBandPosition, emcTargetBand } from '../../ingest/emcTarget';
+import { EMC_TARGET_SOURCE } from '../../ingest/words/zones';
 import { EMC_REGIONS } from '../../ingest/wire/zones';
 
 /**
