@@ -1,3 +1,4 @@
+import { Fragment } from 'react';
 import { StyleSheet, Text, View } from 'react-native';
 
 import { colors, fonts, levelColors, levelWords, space, tabular, type } from '@/components/theme';
@@ -19,13 +20,18 @@ export function LevelStrip({ counts }: { counts: LevelCount[] }) {
       aria-label={`Zones: ${words}`}
     >
       {counts.map(({ level, count }, i) => (
-        <View key={level} style={styles.item} testID={`zone-strip-${level}`}>
+        <Fragment key={level}>
           {i > 0 ? <Text style={styles.separator}>·</Text> : null}
-          <View style={[styles.dot, { backgroundColor: levelColors[level] }]} />
-          <Text style={[styles.text, tabular, { color: levelColors[level] }]}>
-            {count} {levelWords[level]}
-          </Text>
-        </View>
+          <View style={styles.item}>
+            <View style={[styles.dot, { backgroundColor: levelColors[level] }]} />
+            <Text
+              style={[styles.text, tabular, { color: levelColors[level] }]}
+              testID={`zone-strip-${level}`}
+            >
+              {count} {levelWords[level]}
+            </Text>
+          </View>
+        </Fragment>
       ))}
     </View>
   );

@@ -80,10 +80,15 @@ export function MarginChart({
   );
   const degrees = `°${unit}`;
   const seriesWords: Record<string, string> = { air: 'air', surface: 'surface', dew: dewWords };
-  const tooltip = ({ datum }: { datum?: { x: Date; y: number | null; childName?: string } }) =>
-    datum && datum.y !== null && datum.childName
-      ? `${seriesWords[datum.childName] ?? datum.childName} ${datum.y.toFixed(1)} ${degrees} · ${shopClock(datum.x.getTime(), toMs, timeZone)}`
-      : '';
+  // Victory gathers the lines' labels at one time into one tooltip, dew point first (the order
+  // the lines are drawn), so that line carries the time.
+  const tooltip = ({ datum }: { datum?: { x: Date; y: number | null; childName?: string } }) => {
+    if (!datum || datum.y === null || !datum.childName) return '';
+    const value = `${seriesWords[datum.childName] ?? datum.childName} ${datum.y.toFixed(1)} ${degrees}`;
+    return datum.childName === 'dew'
+      ? `${shopClock(datum.x.getTime(), toMs, timeZone)} · ${value}`
+      : value;
+  };
 
   const onLayout = (event: LayoutChangeEvent) => {
     const next = Math.round(event.nativeEvent.layout.width);
