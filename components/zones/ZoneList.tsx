@@ -29,8 +29,13 @@ export function ZoneList({ shopId, zones, timeZone, selectedZoneId }: ZoneListPr
   const selectedRef = useRef<View>(null);
   useEffect(() => {
     if (!selectedZoneId) return;
-    const node = selectedRef.current as unknown as Scrollable | null;
-    node?.scrollIntoView?.({ block: 'nearest' });
+    // After the frame's own effect: the shop frame scrolls a new page to the top (Screen's
+    // scrollKey), and a parent's effect runs after its children's.
+    const timer = setTimeout(() => {
+      const node = selectedRef.current as unknown as Scrollable | null;
+      node?.scrollIntoView?.({ block: 'nearest' });
+    }, 0);
+    return () => clearTimeout(timer);
   }, [selectedZoneId]);
   return (
     <View style={styles.list} testID="zone-list">

@@ -117,6 +117,12 @@ async function signIn(page: Page, email: string) {
   await page.waitForURL(/\/shops\/[0-9a-f-]+/);
 }
 
+/** Whether the element lies wholly inside the viewport. */
+async function inView(locator: ReturnType<Page['locator']>, height: number) {
+  const box = await locator.boundingBox();
+  return box !== null && box.y >= 0 && box.y + box.height <= height + 1;
+}
+
 const cardNames = (page: Page) =>
   page.getByTestId('zone-list').getByTestId('zone-name').allTextContents();
 
@@ -185,6 +191,12 @@ describe.each([
       // The new zone's history: an hour of readings fills the chart's width.
       await page.getByRole('link', { name: /^New bench:/ }).click();
       await page.waitForURL(new RegExp(`/zones/${shop.zones['New bench']!.id}$`));
+      if (wide) {
+        // The third card, below the fold once the new page starts at the top: scrolled to.
+        const selected = page.getByTestId('zone-list').locator('[aria-current="page"]');
+        expect(await selected.getAttribute('aria-label')).toMatch(/^New bench:/);
+        await expect.poll(() => inView(selected, height)).toBe(true);
+      }
       const detail = page.getByTestId('zone-detail');
       const plot = detail.getByTestId('zone-chart-plot');
       await expect
@@ -233,6 +245,7 @@ describe.each([
       expect(firstRow[2]).toMatch(/^\d+\.\d °F$/);
 
       // The tooltip names values in °F.
+      await plot.scrollIntoViewIfNeeded();
       const box = (await plot.boundingBox())!;
       await page.mouse.move(box.x + box.width * 0.6, box.y + box.height / 2);
       // One tooltip gathers the lines at that time, dew point first with the time.
@@ -264,12 +277,7 @@ describe.each([
         const selected = page.getByTestId('zone-list').locator('[aria-current="page"]');
         await selected.waitFor();
         expect(await selected.getAttribute('aria-label')).toMatch(/^Store 8:/);
-        await expect
-          .poll(async () => {
-            const card = (await selected.boundingBox())!;
-            return card.y >= 0 && card.y + card.height <= height + 1;
-          })
-          .toBe(true);
+        await expect.poll(() => inView(selected, height)).toBe(true);
         await page.screenshot({ path: `${SHOTS}/zones-scrolled-${label}.png` });
       }
 
