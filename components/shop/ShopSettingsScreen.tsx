@@ -68,9 +68,11 @@ function SettingsBody({ shop }: { shop: ShopSummary }) {
         {zones.data?.zones.length === 0 ? <Text style={type.body}>No zones yet.</Text> : null}
         {zones.data?.zones.map((zone) => (
           <View key={zone.id} style={styles.zone}>
-            {owner ? <ZonePurposeForm shopId={shop.id} zone={zone} /> : null}
             {owner ? (
-              <ZoneLimitsForm shopId={shop.id} zone={zone} unit={unit} />
+              <>
+                <ZoneLimitsForm shopId={shop.id} zone={zone} unit={unit} />
+                <ZonePurposeForm shopId={shop.id} zone={zone} />
+              </>
             ) : (
               <Text style={type.body}>
                 {zone.name}: caution below {deltaInUnit(zone.cautionK, unit)} °{unit}, wet at{' '}

@@ -1,6 +1,6 @@
 import { Link, Redirect } from 'expo-router';
 import { useMemo, type ReactNode } from 'react';
-import { StyleSheet, Text, View } from 'react-native';
+import { ScrollView, StyleSheet, Text, View, useWindowDimensions } from 'react-native';
 
 import { shopHref } from '@/components/hrefs';
 import { LIST_COLUMN_WIDTH, useBreakpoints } from '@/components/layout';
@@ -31,6 +31,7 @@ export function ZonesScreen({ zoneId }: ZonesScreenProps) {
   const shopId = shop.id;
   const zones = useZonesQuery(shopId);
   const { isWide } = useBreakpoints();
+  const { height: windowHeight } = useWindowDimensions();
   const zoneList = zones.data?.zones;
   // A new order on every live reading: the zone that just turned wet moves to the top.
   const ordered = useMemo(() => (zoneList ? orderByRisk(zoneList) : undefined), [zoneList]);
@@ -74,7 +75,20 @@ export function ZonesScreen({ zoneId }: ZonesScreenProps) {
       <View style={styles.columns}>
         <View style={styles.listColumn}>
           <LevelStrip counts={countByLevel(ordered)} />
-          <ZoneList shopId={shopId} zones={ordered} timeZone={timeZone} selectedZoneId={shown.id} />
+          {/* The list scrolls on its own beside the chart, so bringing the selected card into
+              view never scrolls the chart out of it. */}
+          <ScrollView
+            style={{ maxHeight: Math.max(320, windowHeight - WIDE_CHROME_PX) }}
+            contentContainerStyle={styles.listScroll}
+            testID="zone-list-scroll"
+          >
+            <ZoneList
+              shopId={shopId}
+              zones={ordered}
+              timeZone={timeZone}
+              selectedZoneId={shown.id}
+            />
+          </ScrollView>
         </View>
         <View style={styles.detailColumn} testID="zone-detail">
           <Text style={type.title}>{shown.name}</Text>
@@ -105,11 +119,16 @@ export function ZonesScreen({ zoneId }: ZonesScreenProps) {
   return body;
 }
 
+// The shop header, the page's top and bottom padding and the level strip above the list.
+const WIDE_CHROME_PX = 160;
+
 const styles = StyleSheet.create({
   columns: { flexDirection: 'row', alignItems: 'flex-start', gap: space.xl },
   listColumn: { width: LIST_COLUMN_WIDTH, flexShrink: 0, gap: space.md },
   detailColumn: { flex: 1, minWidth: 0, gap: space.md },
   stack: { gap: space.md },
+  // Room for the selected card's border inside the scrolling box.
+  listScroll: { padding: 2 },
   back: { ...type.body, color: colors.air, alignSelf: 'flex-start', paddingVertical: space.xs },
   link: { color: colors.air, textDecorationLine: 'underline' },
 });

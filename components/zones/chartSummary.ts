@@ -48,7 +48,7 @@ export function summaryLine(
   timeZone: string,
   nowMs: number,
 ): string {
-  if (points.length === 0) return 'No readings in this span yet.';
+  if (points.length === 0) return 'No readings in the last 24 hours.';
   const lowest = lowestMargin(points);
   if (!lowest)
     return 'No dew margin in this span: no surface temperature was measured or estimated.';
