@@ -6,6 +6,8 @@
  */
 import { eq, sql } from 'drizzle-orm';
 
+import type { ZonePurpose } from '@/ingest/wire';
+
 import type { Db } from './index';
 import { memberships, sensors, shops, users, zones } from './schema';
 import { transaction } from './transaction';
@@ -25,6 +27,13 @@ export const DEMO_SENSORS = [
   { name: 'Rack hygrometer', zone: 'Lumber rack', hasProbe: false, profile: 'lumber-rack' },
   { name: 'Spray-bench probe', zone: 'Finishing room', hasProbe: true, profile: 'finishing-room' },
 ] as const;
+
+/** What each demo zone holds: the rack's card leads with wood EMC against its target band. */
+const DEMO_ZONE_PURPOSES: Record<(typeof DEMO_SENSORS)[number]['zone'], ZonePurpose> = {
+  'Machine room': 'machines',
+  'Lumber rack': 'lumber',
+  'Finishing room': 'finishing',
+};
 
 export interface DemoSensorToken {
   sensorId: string;
@@ -80,7 +89,7 @@ export async function seedDemo(
     for (const zoneName of new Set(DEMO_SENSORS.map((s) => s.zone))) {
       const [zone] = await tx
         .insert(zones)
-        .values({ shopId: shop!.id, name: zoneName })
+        .values({ shopId: shop!.id, name: zoneName, purpose: DEMO_ZONE_PURPOSES[zoneName] })
         .returning({ id: zones.id });
       zoneIds.set(zoneName, zone!.id);
     }

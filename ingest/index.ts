@@ -1,6 +1,7 @@
 /** The public surface of ingest/: pure domain code shared by the server and the app. */
 export * from './derive';
 export * from './emc';
+export * from './emcTarget';
 export * from './levels';
 export * from './payload';
 export * from './postingInterval';

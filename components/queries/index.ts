@@ -103,10 +103,12 @@ export {
   withLatest,
   zoneKeys,
   zonesQueryOptions,
+  type EmcRegion,
   type LatestReading,
   type SurfaceSource,
   type Zone,
   type ZoneChanges,
+  type ZonePurpose,
   type ZoneSettings,
   type ZonesResponse,
 } from './zones';

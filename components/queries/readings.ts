@@ -129,6 +129,8 @@ export function withPoint(
   }
   return {
     ...response,
+    // A zone's very first reading, arriving live, starts its history.
+    firstAt: response.firstAt ?? point.at,
     from: new Date(Math.max(fromMs, Date.parse(response.from))).toISOString(),
     to: new Date(Math.max(atMs, Date.parse(response.to))).toISOString(),
     points,

@@ -8,9 +8,11 @@ import {
 } from '@tanstack/react-query';
 
 import type {
+  EmcRegion,
   LatestReading,
   SurfaceSource,
   Zone,
+  ZonePurpose,
   ZoneSettings,
   ZonesResponse,
 } from '@/ingest/wire';
@@ -19,7 +21,15 @@ import { apiRequest } from './api';
 import { shopPath } from './shops';
 
 // The shapes the server answers have one home; screens keep importing them from here.
-export type { LatestReading, SurfaceSource, Zone, ZoneSettings, ZonesResponse };
+export type {
+  EmcRegion,
+  LatestReading,
+  SurfaceSource,
+  Zone,
+  ZonePurpose,
+  ZoneSettings,
+  ZonesResponse,
+};
 
 export const zonePath = (shopId: string, zoneId: string) =>
   `${shopPath(shopId)}/zones/${encodeURIComponent(zoneId)}`;
@@ -73,7 +83,7 @@ export function withLatest(
 export function useZoneCreateMutation(shopId: string) {
   const queryClient = useQueryClient();
   return useMutation({
-    mutationFn: (input: { name: string }) =>
+    mutationFn: (input: { name: string; purpose?: ZonePurpose }) =>
       apiRequest<ZoneSettings>(`${shopPath(shopId)}/zones`, {
         method: 'POST',
         body: input,
@@ -87,6 +97,8 @@ export interface ZoneChanges {
   cautionK?: number;
   wetK?: number;
   humidRhPct?: number;
+  purpose?: ZonePurpose;
+  emcRegion?: EmcRegion;
 }
 
 export function useZoneUpdateMutation(shopId: string) {

@@ -6,6 +6,7 @@ import { deltaInUnit } from '@/components/format';
 import { membersHref } from '@/components/hrefs';
 import {
   Button,
+  Choice,
   ConfirmButton,
   Form,
   FormError,
@@ -27,15 +28,21 @@ import {
   useZoneDeleteMutation,
   useZonesQuery,
   type ShopSummary,
+  type ZonePurpose,
   type Zone,
 } from '@/components/queries';
 import { colors, space, type } from '@/components/theme';
 import { canonicalTimeZone } from '@/ingest/timeZones';
 import { Panel, useDocumentTitle } from '@/components/ui';
+import { ZONE_PURPOSES } from '@/ingest/wire/zones';
+import { PURPOSE_WORDS } from '@/ingest/words';
 
 import { useFrameShop } from './ShopFrame';
 import { ShopTabs } from './ShopTabs';
 import { ZoneLimitsForm } from './ZoneLimitsForm';
+import { ZonePurposeForm } from './ZonePurposeForm';
+
+const NEW_ZONE_PURPOSES = ZONE_PURPOSES.map((value) => ({ value, label: PURPOSE_WORDS[value] }));
 
 /** The shop's name and time zone, its zones and their limits, leaving and deleting it. */
 export function ShopSettingsScreen() {
@@ -70,6 +77,7 @@ function SettingsBody({ shop }: { shop: ShopSummary }) {
             {owner ? (
               <>
                 <ZoneLimitsForm shopId={shop.id} zone={zone} unit={unit} />
+                <ZonePurposeForm shopId={shop.id} zone={zone} />
                 {zone.latest === null ? <ZoneDeleteButton shopId={shop.id} zone={zone} /> : null}
               </>
             ) : (
@@ -135,12 +143,13 @@ function ShopForm({ shop }: { shop: ShopSummary }) {
 
 function NewZoneForm({ shopId }: { shopId: string }) {
   const create = useZoneCreateMutation(shopId);
+  const [purpose, setPurpose] = useState<ZonePurpose>('machines');
   const { form, control, submit, sending, formError } = useApiForm<{ name: string }>({
     schema: zoneNameSchema,
     defaultValues: { name: '' },
     fields: ['name'],
     send: async ({ name }) => {
-      await create.mutateAsync({ name: name.trim() });
+      await create.mutateAsync({ name: name.trim(), purpose });
       form.reset({ name: '' });
     },
   });
@@ -154,6 +163,14 @@ function NewZoneForm({ shopId }: { shopId: string }) {
         testID="zone-create-name"
         editable={!sending}
         onSubmitEditing={submit}
+      />
+      <Choice
+        label="What it holds"
+        options={NEW_ZONE_PURPOSES}
+        value={purpose}
+        disabled={sending}
+        onChange={setPurpose}
+        testID="zone-create-purpose"
       />
       <FormError message={formError} />
       <SubmitButton

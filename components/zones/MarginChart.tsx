@@ -1,13 +1,22 @@
 import { useMemo, useState } from 'react';
 import { StyleSheet, Text, View, type LayoutChangeEvent } from 'react-native';
-import { VictoryArea, VictoryAxis, VictoryChart, VictoryContainer, VictoryLine } from 'victory';
+import {
+  VictoryArea,
+  VictoryAxis,
+  VictoryChart,
+  VictoryLine,
+  VictoryScatter,
+  VictoryTooltip,
+  VictoryVoronoiContainer,
+} from 'victory';
 
 import { useUnitPref, type ReadingPoint } from '@/components/queries';
 import { dewPointSeriesLabel } from '@/ingest/words';
 import { colors, fonts, space, type } from '@/components/theme';
 
-import { hourTickLabel, hourTicks } from './chartTicks';
+import { clockTicks, hourTickLabel, tickStepMinutes } from './chartTicks';
 import { chartSeries, seriesInUnit } from './chartSeries';
+import { shopClock } from './chartSummary';
 
 interface MarginChartProps {
   points: ReadingPoint[];
@@ -17,8 +26,23 @@ interface MarginChartProps {
   wetK: number;
   cautionK: number;
   timeZone: string;
+  /** The chart in one line (the summary under it): the chart's accessible name. */
+  summary: string;
   height?: number;
 }
+
+/**
+ * Each line has its own colour AND its own stroke, so the lines part without colour: air solid,
+ * surface dashed (with a marker at every reading while there are few), dew point dotted.
+ */
+export const LINE_STYLES = {
+  air: { stroke: colors.air, strokeWidth: 2, strokeDasharray: undefined },
+  surface: { stroke: colors.iron, strokeWidth: 2.5, strokeDasharray: '8,4' },
+  dew: { stroke: colors.dew, strokeWidth: 2, strokeDasharray: '2,3' },
+} as const;
+
+// Markers on the surface line only while they stay apart; past this they merge into a smear.
+const MAX_MARKED_POINTS = 90;
 
 const PADDING = { top: 12, bottom: 32, left: 44, right: 12 };
 const AXIS_TEXT = { fontFamily: fonts.regular, fontSize: 11, fill: colors.iron };
@@ -35,6 +59,7 @@ export function MarginChart({
   wetK,
   cautionK,
   timeZone,
+  summary,
   height = 260,
 }: MarginChartProps) {
   const [width, setWidth] = useState(0);
@@ -47,12 +72,23 @@ export function MarginChart({
     () => seriesInUnit(chartSeries(points, { wetK, cautionK }, bucketSeconds), unit),
     [points, wetK, cautionK, bucketSeconds, unit],
   );
-  // Roughly one label per 70 px keeps "HH:mm" labels apart on a phone.
-  const stepHours = width >= 900 ? 2 : width >= 560 ? 3 : 6;
+  // Labels about 70 px apart: an hour's chart gets quarter hours, a day's every few hours.
+  const stepMinutes = tickStepMinutes(toMs - fromMs, Math.max(width - 56, 1));
   const ticks = useMemo(
-    () => hourTicks(fromMs, toMs, timeZone, stepHours),
-    [fromMs, toMs, timeZone, stepHours],
+    () => clockTicks(fromMs, toMs, timeZone, stepMinutes),
+    [fromMs, toMs, timeZone, stepMinutes],
   );
+  const degrees = `°${unit}`;
+  const seriesWords: Record<string, string> = { air: 'air', surface: 'surface', dew: dewWords };
+  // Victory gathers the lines' labels at one time into one tooltip, dew point first (the order
+  // the lines are drawn), so that line carries the time.
+  const tooltip = ({ datum }: { datum?: { x: Date; y: number | null; childName?: string } }) => {
+    if (!datum || datum.y === null || !datum.childName) return '';
+    const value = `${seriesWords[datum.childName] ?? datum.childName} ${datum.y.toFixed(1)} ${degrees}`;
+    return datum.childName === 'dew'
+      ? `${shopClock(datum.x.getTime(), toMs, timeZone)} · ${value}`
+      : value;
+  };
 
   const onLayout = (event: LayoutChangeEvent) => {
     const next = Math.round(event.nativeEvent.layout.width);
@@ -65,8 +101,10 @@ export function MarginChart({
       <View
         onLayout={onLayout}
         style={{ height }}
-        accessibilityLabel={`Air, surface and ${dewWords} over the last 24 hours`}
-        aria-label={`Air, surface and ${dewWords} over the last 24 hours`}
+        role="img"
+        accessibilityLabel={summary}
+        aria-label={summary}
+        testID="zone-chart-plot"
       >
         {width > 0 && series.hasData ? (
           <VictoryChart
@@ -76,10 +114,20 @@ export function MarginChart({
             scale={{ x: 'time', y: 'linear' }}
             domain={{ x: [new Date(fromMs), new Date(toMs)], y: series.yDomain }}
             containerComponent={
-              <VictoryContainer
+              <VictoryVoronoiContainer
                 responsive={false}
                 title={`Air, surface and ${dewWords}`}
-                desc={`Last 24 hours, times in ${timeZone}`}
+                desc={summary}
+                voronoiDimension="x"
+                voronoiBlacklist={['closeBand', 'wetBand', 'surfaceMarks']}
+                labels={tooltip}
+                labelComponent={
+                  <VictoryTooltip
+                    style={{ ...AXIS_TEXT, fill: colors.ink }}
+                    flyoutStyle={{ fill: colors.card, stroke: colors.border }}
+                    cornerRadius={4}
+                  />
+                }
               />
             }
           >
@@ -88,7 +136,7 @@ export function MarginChart({
               offsetX={PADDING.left}
               // Not a crossing axis, so Victory keeps the 0° tick it would otherwise hide.
               crossAxis={false}
-              tickFormat={(t: number) => `${t}°${unit}`}
+              tickFormat={(t: number) => `${t}${degrees}`}
               style={{
                 axis: { stroke: 'transparent' },
                 grid: { stroke: colors.border, strokeWidth: 1 },
@@ -110,25 +158,30 @@ export function MarginChart({
               }}
             />
             <VictoryArea
+              name="closeBand"
               data={series.closeBand}
               style={{ data: { fill: colors.close, fillOpacity: 0.14, stroke: 'none' } }}
             />
             <VictoryArea
+              name="wetBand"
               data={series.wetBand}
               style={{ data: { fill: colors.wet, fillOpacity: 0.24, stroke: 'none' } }}
             />
+            <VictoryLine name="dew" data={series.dewPoint} style={{ data: LINE_STYLES.dew }} />
+            <VictoryLine name="air" data={series.air} style={{ data: LINE_STYLES.air }} />
             <VictoryLine
-              data={series.dewPoint}
-              style={{ data: { stroke: colors.dew, strokeWidth: 2 } }}
-            />
-            <VictoryLine
-              data={series.air}
-              style={{ data: { stroke: colors.air, strokeWidth: 2 } }}
-            />
-            <VictoryLine
+              name="surface"
               data={series.surface}
-              style={{ data: { stroke: colors.iron, strokeWidth: 2.5 } }}
+              style={{ data: LINE_STYLES.surface }}
             />
+            {series.surface.length <= MAX_MARKED_POINTS ? (
+              <VictoryScatter
+                name="surfaceMarks"
+                data={series.surface.filter((p) => p.y !== null)}
+                size={2.5}
+                style={{ data: { fill: colors.card, stroke: colors.iron, strokeWidth: 1.5 } }}
+              />
+            ) : null}
           </VictoryChart>
         ) : null}
         {width > 0 && !series.hasData ? (
@@ -147,36 +200,54 @@ export function MarginChart({
 
 function Legend({ dewWords }: { dewWords: string }) {
   return (
-    <View style={styles.legend}>
-      <Key color={colors.air} label="air" />
-      <Key color={colors.iron} label="surface" />
-      <Key color={colors.dew} label={dewWords} testID="chart-key-dew" />
-      <Key color={colors.wet} label="wet band" swatch />
-      <Key color={colors.close} label="close band" swatch />
+    <View style={styles.legend} testID="chart-legend">
+      <Key line={LINE_STYLES.air} label="air" />
+      <Key line={LINE_STYLES.surface} label="surface" marker />
+      <Key line={LINE_STYLES.dew} label={dewWords} testID="chart-key-dew" />
+      <Swatch color={colors.wet} label="wet band" />
+      <Swatch color={colors.close} label="close band" />
     </View>
   );
 }
 
 interface KeyProps {
-  color: string;
+  line: { stroke: string; strokeWidth: number; strokeDasharray: string | undefined };
   label: string;
-  swatch?: boolean;
+  marker?: boolean;
   testID?: string;
 }
 
-function Key({ color, label, swatch = false, testID }: KeyProps) {
+/** A line's key drawn as the line is: its colour, its dash, its marker. */
+function Key({ line, label, marker = false, testID }: KeyProps) {
+  const borderStyle =
+    line.strokeDasharray === undefined
+      ? 'solid'
+      : line.strokeDasharray.startsWith('2')
+        ? 'dotted'
+        : 'dashed';
   return (
     <View style={styles.key}>
-      <View
-        style={
-          swatch
-            ? [styles.swatch, { backgroundColor: color, opacity: 0.35 }]
-            : [styles.line, { backgroundColor: color }]
-        }
-      />
+      <View style={styles.sample}>
+        <View
+          style={[
+            styles.line,
+            { borderTopColor: line.stroke, borderTopWidth: line.strokeWidth + 0.5, borderStyle },
+          ]}
+        />
+        {marker ? <View style={[styles.marker, { borderColor: line.stroke }]} /> : null}
+      </View>
       <Text style={type.small} testID={testID}>
         {label}
       </Text>
+    </View>
+  );
+}
+
+function Swatch({ color, label }: { color: string; label: string }) {
+  return (
+    <View style={styles.key}>
+      <View style={[styles.swatch, { backgroundColor: color, opacity: 0.35 }]} />
+      <Text style={type.small}>{label}</Text>
     </View>
   );
 }
@@ -185,7 +256,16 @@ const styles = StyleSheet.create({
   box: { gap: space.sm },
   legend: { flexDirection: 'row', flexWrap: 'wrap', columnGap: space.lg, rowGap: space.xs },
   key: { flexDirection: 'row', alignItems: 'center', gap: space.xs + 2 },
-  line: { width: 16, height: 3, borderRadius: 2 },
+  sample: { width: 22, height: 10, justifyContent: 'center', alignItems: 'center' },
+  line: { width: 22, height: 0 },
+  marker: {
+    position: 'absolute',
+    width: 7,
+    height: 7,
+    borderRadius: 4,
+    borderWidth: 1.5,
+    backgroundColor: colors.card,
+  },
   swatch: { width: 12, height: 12, borderRadius: 2 },
   empty: {
     position: 'absolute',

@@ -2,6 +2,8 @@ import { Link } from 'expo-router';
 import { Pressable, StyleSheet, Text, View } from 'react-native';
 
 import { formatLastSeen, formatMargin } from '@/components/format';
+import { emcBandPosition, emcTargetBand } from '@/ingest/emcTarget';
+import { EMC_POSITION_WORDS, formatPercent } from '@/ingest/words';
 import { useUnitPref, type Zone } from '@/components/queries';
 import {
   cardSurface,
@@ -18,8 +20,10 @@ import { Flash, useNow } from '@/components/ui';
 import { isStale } from '@/ingest/postingInterval';
 import { lastReadingText, STALE_READING_NOTE } from '@/ingest/words';
 
+import { EmcLead } from './EmcLead';
 import { LevelMark } from './LevelMark';
 import { MarginBar } from './MarginBar';
+import { leadFigure } from './zoneLead';
 import { ZoneReadings } from './ZoneReadings';
 
 interface ZoneCardProps {
@@ -32,7 +36,10 @@ interface ZoneCardProps {
   selected?: boolean;
 }
 
-/** One zone at a glance: level, dew margin (largest), the readings behind it, last seen. */
+/**
+ * One zone at a glance: level, the lead figure (largest: the dew margin, or a lumber zone's wood
+ * EMC against its target band, see zoneLead.ts), the readings behind it, last seen.
+ */
 export function ZoneCard({ zone, timeZone, href, selected = false }: ZoneCardProps) {
   const unit = useUnitPref();
   const now = useNow();
@@ -41,40 +48,70 @@ export function ZoneCard({ zone, timeZone, href, selected = false }: ZoneCardPro
   const stale = latest !== null && isStale(Date.parse(latest.at), zone.staleAfterS, now);
   const level = stale ? 'unknown' : (latest?.level ?? 'unknown');
   const margin = formatMargin(latest?.margin, unit);
+  const lead = leadFigure(zone.purpose);
+  const band = emcTargetBand(zone.emcRegion);
+  const position = emcBandPosition(latest?.emc, band);
   const body = (
     <View style={styles.inner}>
       <View
         style={[styles.rule, { backgroundColor: stale ? staleColors.rule : levelColors[level] }]}
       />
       <View style={styles.top}>
-        <Text style={[type.heading, styles.name]} numberOfLines={2} testID="zone-name">
+        <Text
+          style={[type.heading, styles.name]}
+          numberOfLines={2}
+          testID="zone-name"
+          role="heading"
+          aria-level={2}
+        >
           {zone.name}
         </Text>
         <LevelMark level={level} testID="zone-level" />
       </View>
 
-      <Flash value={margin} style={styles.hero}>
-        <Text style={[type.hero, tabular, stale && styles.staleFigure]} testID="zone-margin">
-          {margin}
-        </Text>
-        <Text style={type.small}>dew margin</Text>
-      </Flash>
+      {lead === 'emc' ? (
+        <EmcLead emcPct={latest?.emc ?? null} band={band} />
+      ) : (
+        <>
+          <Flash value={margin} style={styles.hero}>
+            <Text style={[type.hero, tabular, stale && styles.staleFigure]} testID="zone-margin">
+              {margin}
+            </Text>
+            <Text style={type.small}>dew margin</Text>
+          </Flash>
 
-      <MarginBar
-        marginK={latest?.margin ?? null}
-        wetK={zone.wetK}
-        cautionK={zone.cautionK}
+          <MarginBar
+            marginK={latest?.margin ?? null}
+            wetK={zone.wetK}
+            cautionK={zone.cautionK}
+            unit={unit}
+          />
+        </>
+      )}
+
+      <ZoneReadings
+        latest={latest}
         unit={unit}
+        humidRhPct={zone.humidRhPct}
+        show={lead === 'emc' ? 'margin' : 'emc'}
       />
-
-      <ZoneReadings latest={latest} unit={unit} />
 
       <LastSeen at={latest?.at ?? null} timeZone={timeZone} now={now} stale={stale} />
     </View>
   );
 
   const cardStyle = [styles.card, stale && styles.stale, selected && styles.selected];
-  const linkLabel = `${zone.name}: ${stale ? 'stale' : levelWords[level]}, dew margin ${margin}`;
+  const rhOver = latest ? latest.rh > zone.humidRhPct : false;
+  const facts = [
+    ...(lead === 'emc'
+      ? [
+          `wood EMC ${formatPercent(latest?.emc, 1)}${position ? `, ${EMC_POSITION_WORDS[position].toLowerCase()}` : ''}`,
+        ]
+      : []),
+    `${stale ? 'stale' : levelWords[level]}, dew margin ${margin}`,
+    ...(rhOver ? [`RH ${formatPercent(latest?.rh)} over the ${zone.humidRhPct} % limit`] : []),
+  ];
+  const linkLabel = `${zone.name}: ${facts.join('; ')}`;
   if (!href) {
     return (
       <View style={cardStyle} testID="zone-card" data-stale={stale ? 'true' : undefined}>

@@ -1,6 +1,6 @@
 import { Link, Redirect } from 'expo-router';
-import type { ReactNode } from 'react';
-import { StyleSheet, Text, View } from 'react-native';
+import { useMemo, type ReactNode } from 'react';
+import { ScrollView, StyleSheet, Text, View, useWindowDimensions } from 'react-native';
 
 import { shopHref } from '@/components/hrefs';
 import { LIST_COLUMN_WIDTH, useBreakpoints } from '@/components/layout';
@@ -10,9 +10,11 @@ import { useFrameShop } from '@/components/shop/ShopFrame';
 import { colors, space, type } from '@/components/theme';
 import { Notice, useDocumentTitle } from '@/components/ui';
 
+import { LevelStrip } from './LevelStrip';
 import { ZoneCard } from './ZoneCard';
 import { ZoneHistory } from './ZoneHistory';
 import { ZoneList } from './ZoneList';
+import { countByLevel, orderByRisk } from './zoneOrder';
 
 interface ZonesScreenProps {
   /** The zone to show; without it a phone shows the list and a wide screen the first zone. */
@@ -21,14 +23,19 @@ interface ZonesScreenProps {
 
 /**
  * A shop's zones. Phone: the list, or one zone with its chart. Wide: the list in a left column
- * beside the selected zone's chart. The shop frame around it pins the open alarms above.
+ * beside the selected zone's chart. The list is ordered by risk (wet, close, then the smallest
+ * margin first) under a strip counting zones per level. The shop frame around it pins the open
+ * alarms above.
  */
 export function ZonesScreen({ zoneId }: ZonesScreenProps) {
   const shop = useFrameShop();
   const shopId = shop.id;
   const zones = useZonesQuery(shopId);
   const { isWide } = useBreakpoints();
+  const { height: windowHeight } = useWindowDimensions();
   const zoneList = zones.data?.zones;
+  // A new order on every live reading: the zone that just turned wet moves to the top.
+  const ordered = useMemo(() => (zoneList ? orderByRisk(zoneList) : undefined), [zoneList]);
   const selected = zoneId ? zoneList?.find((zone) => zone.id === zoneId) : undefined;
   useDocumentTitle(selected?.name, shop.name);
 
@@ -62,17 +69,27 @@ export function ZonesScreen({ zoneId }: ZonesScreenProps) {
         </Text>
       </Notice>
     );
-  } else if (isWide) {
-    const shown: Zone = selected ?? zoneList[0]!;
+  } else if (isWide && ordered) {
+    // Without a zone in the address, the riskiest zone is the one shown.
+    const shown: Zone = selected ?? ordered[0]!;
     body = (
       <View style={styles.columns}>
         <View style={styles.listColumn}>
-          <ZoneList
-            shopId={shopId}
-            zones={zoneList}
-            timeZone={timeZone}
-            selectedZoneId={shown.id}
-          />
+          <LevelStrip counts={countByLevel(ordered)} />
+          {/* The list scrolls on its own beside the chart, so bringing the selected card into
+              view never scrolls the chart out of it. */}
+          <ScrollView
+            style={{ maxHeight: Math.max(320, windowHeight - WIDE_CHROME_PX) }}
+            contentContainerStyle={styles.listScroll}
+            testID="zone-list-scroll"
+          >
+            <ZoneList
+              shopId={shopId}
+              zones={ordered}
+              timeZone={timeZone}
+              selectedZoneId={shown.id}
+            />
+          </ScrollView>
         </View>
         <View style={styles.detailColumn} testID="zone-detail">
           <Text style={type.title}>{shown.name}</Text>
@@ -91,17 +108,28 @@ export function ZonesScreen({ zoneId }: ZonesScreenProps) {
       </View>
     );
   } else {
-    body = <ZoneList shopId={shopId} zones={zoneList} timeZone={timeZone} />;
+    const list = ordered ?? zoneList;
+    body = (
+      <View style={styles.stack}>
+        <LevelStrip counts={countByLevel(list)} />
+        <ZoneList shopId={shopId} zones={list} timeZone={timeZone} />
+      </View>
+    );
   }
 
   return <SetupChecklist shop={shop}>{body}</SetupChecklist>;
 }
 
+// The shop header, the page's top and bottom padding and the level strip above the list.
+const WIDE_CHROME_PX = 160;
+
 const styles = StyleSheet.create({
   columns: { flexDirection: 'row', alignItems: 'flex-start', gap: space.xl },
-  listColumn: { width: LIST_COLUMN_WIDTH, flexShrink: 0 },
+  listColumn: { width: LIST_COLUMN_WIDTH, flexShrink: 0, gap: space.md },
   detailColumn: { flex: 1, minWidth: 0, gap: space.md },
   stack: { gap: space.md },
+  // Room for the selected card's border inside the scrolling box.
+  listScroll: { padding: 2 },
   back: { ...type.body, color: colors.air, alignSelf: 'flex-start', paddingVertical: space.xs },
   link: { color: colors.air, textDecorationLine: 'underline' },
 });

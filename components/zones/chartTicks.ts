@@ -13,17 +13,43 @@ export function hourTicks(
   timeZone: string,
   stepHours: number,
 ): number[] {
+  return clockTicks(fromMs, toMs, timeZone, stepHours * 60);
+}
+
+/**
+ * Instants in [fromMs, toMs] whose local clock time is a multiple of `stepMinutes` (15, 30, 60,
+ * 120…) since midnight in the zone.
+ */
+export function clockTicks(
+  fromMs: number,
+  toMs: number,
+  timeZone: string,
+  stepMinutes: number,
+): number[] {
   const ticks: number[] = [];
-  // Every zone offset in use is a multiple of 15 minutes, so whole local hours fall on these.
+  // Every zone offset in use is a multiple of 15 minutes, so whole local quarters fall on these.
   for (
     let t = Math.ceil(fromMs / QUARTER_HOUR_MS) * QUARTER_HOUR_MS;
     t <= toMs;
     t += QUARTER_HOUR_MS
   ) {
     const [hour, minute] = formatInTimeZone(t, timeZone, 'H:m').split(':').map(Number);
-    if (minute === 0 && hour !== undefined && hour % stepHours === 0) ticks.push(t);
+    if (hour === undefined || minute === undefined) continue;
+    if ((hour * 60 + minute) % stepMinutes === 0) ticks.push(t);
   }
   return ticks;
+}
+
+const STEPS_MINUTES = [15, 30, 60, 120, 180, 360, 720];
+
+/**
+ * The finest clock step that leaves about `widthPx / 70` labels over the span ("HH:mm" needs
+ * about 70 px to stay apart on a phone): an hour's chart gets quarter hours, a day's 2–6 h.
+ */
+export function tickStepMinutes(spanMs: number, widthPx: number): number {
+  const labels = Math.max(2, Math.floor(widthPx / 70));
+  const spanMinutes = spanMs / 60_000;
+  return STEPS_MINUTES.find((step) => spanMinutes / step <= labels) ?? 1440;
 }
 
 /** "06:00", or the weekday at midnight so a day's turn is visible: "Tue". */

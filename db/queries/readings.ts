@@ -149,6 +149,17 @@ export interface SeriesRow {
  * because the closest approach to the dew point is what a chart must never smooth away.
  * `bucketSeconds` is 0 for raw readings.
  */
+/**
+ * When a zone's first reading was taken, or null before any: the chart spans what there is until
+ * a zone has a day of history. One probe of the (zone_id, at) index.
+ */
+export async function firstReadingAt(db: Db, zoneId: string): Promise<Date | null> {
+  const result = await db.execute<{ at: Date | string }>(sql`
+    select at from readings where zone_id = ${zoneId} order by at limit 1`);
+  const at = result.rows[0]?.at;
+  return at === undefined ? null : new Date(at);
+}
+
 export async function querySeries(
   db: Db,
   q: { zoneId: string; from: Date; to: Date; points: number },

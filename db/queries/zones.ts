@@ -1,6 +1,6 @@
 import { and, eq, sql } from 'drizzle-orm';
 
-import type { Level, SurfaceSource } from '@/ingest/wire';
+import type { EmcRegion, Level, SurfaceSource, ZonePurpose } from '@/ingest/wire';
 
 import type { Db } from '../index';
 import { zones } from '../schema';
@@ -11,19 +11,40 @@ const zoneColumns = {
   cautionK: zones.cautionK,
   wetK: zones.wetK,
   humidRhPct: zones.humidRhPct,
+  purpose: zones.purpose,
+  emcRegion: zones.emcRegion,
 };
 
-/** A zone's own columns: name and limits (K, % RH). */
+/** A zone's own columns: name, purpose, limits (K, % RH) and EMC region. */
 export interface ZoneRow {
   id: string;
   name: string;
   cautionK: number;
   wetK: number;
   humidRhPct: number;
+  purpose: ZonePurpose;
+  emcRegion: EmcRegion;
 }
 
-export async function insertZone(db: Db, shopId: string, name: string) {
-  const [row] = await db.insert(zones).values({ shopId, name }).returning(zoneColumns);
+export interface ZoneChanges {
+  name?: string;
+  cautionK?: number;
+  wetK?: number;
+  humidRhPct?: number;
+  purpose?: ZonePurpose;
+  emcRegion?: EmcRegion;
+}
+
+export async function insertZone(
+  db: Db,
+  shopId: string,
+  name: string,
+  extra: { purpose?: ZonePurpose; emcRegion?: EmcRegion } = {},
+) {
+  const [row] = await db
+    .insert(zones)
+    .values({ shopId, name, ...extra })
+    .returning(zoneColumns);
   if (!row) throw new Error('zone insert returned no row');
   return row;
 }
@@ -36,12 +57,7 @@ export async function findZone(db: Db, shopId: string, zoneId: string) {
   return row ?? null;
 }
 
-export async function updateZone(
-  db: Db,
-  shopId: string,
-  zoneId: string,
-  changes: { name?: string; cautionK?: number; wetK?: number; humidRhPct?: number },
-) {
+export async function updateZone(db: Db, shopId: string, zoneId: string, changes: ZoneChanges) {
   const [row] = await db
     .update(zones)
     .set(changes)
@@ -75,10 +91,12 @@ export async function listZonesWithLatest(db: Db, shopId: string) {
     caution_k: number;
     wet_k: number;
     humid_rh_pct: number;
+    purpose: ZonePurpose;
+    emc_region: EmcRegion;
     latest: (Omit<LatestReadingRow, 'at'> & { at: string }) | null;
     sensor_intervals: { setS: number | null; learnedS: number | null }[];
   }>(sql`
-    select z.id, z.name, z.caution_k, z.wet_k, z.humid_rh_pct,
+    select z.id, z.name, z.caution_k, z.wet_k, z.humid_rh_pct, z.purpose, z.emc_region,
       (select coalesce(json_agg(json_build_object(
           'setS', s.expected_interval_s, 'learnedS', s.interval_s)), '[]'::json)
         from sensors s where s.zone_id = z.id and s.revoked_at is null) as sensor_intervals,
@@ -98,6 +116,8 @@ export async function listZonesWithLatest(db: Db, shopId: string) {
     cautionK: row.caution_k,
     wetK: row.wet_k,
     humidRhPct: row.humid_rh_pct,
+    purpose: row.purpose,
+    emcRegion: row.emc_region,
     latest: row.latest ? { ...row.latest, at: new Date(row.latest.at) } : null,
     // The posting intervals of its working sensors: when its newest reading goes stale.
     sensorIntervals: row.sensor_intervals,

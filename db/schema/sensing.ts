@@ -13,12 +13,15 @@ import {
 } from 'drizzle-orm/pg-core';
 
 import { LEVELS, SURFACE_SOURCES } from '@/ingest/wire/levels';
+import { EMC_REGIONS, ZONE_PURPOSES } from '@/ingest/wire/zones';
 
 import { createdAt } from './columns';
 import { shops } from './people';
 
 export const levelEnum = pgEnum('level', LEVELS);
 export const surfaceSourceEnum = pgEnum('surface_source', SURFACE_SOURCES);
+export const zonePurposeEnum = pgEnum('zone_purpose', ZONE_PURPOSES);
+export const emcRegionEnum = pgEnum('emc_region', EMC_REGIONS);
 
 export const zones = pgTable(
   'zones',
@@ -33,6 +36,10 @@ export const zones = pgTable(
     wetK: doublePrecision().notNull().default(1),
     // 60 % RH is a rule of thumb of the trade for "corrosion speeds up", not a standard's value.
     humidRhPct: doublePrecision().notNull().default(60),
+    // Zones made before purposes existed were machine rooms in practice: they keep leading with
+    // the dew margin, as they did.
+    purpose: zonePurposeEnum().notNull().default('machines'),
+    emcRegion: emcRegionEnum().notNull().default('most'),
     createdAt: createdAt(),
   },
   (t) => [index().on(t.shopId)],

@@ -21,6 +21,11 @@ export interface ReadingPoint {
 export interface ReadingsResponse {
   from: string;
   to: string;
+  /**
+   * The zone's first reading ever (ISO 8601, UTC), null before any: until a zone has a day of
+   * history its chart spans from here instead of the whole window.
+   */
+  firstAt: string | null;
   /** 0 means the points are raw readings. */
   bucketSeconds: number;
   points: ReadingPoint[];

@@ -1,6 +1,21 @@
 /** Zones as the API answers them: GET /shops/:shopId/zones, POST and PATCH …/zones/:zoneId. */
 import type { Level, SurfaceSource } from './levels';
 
+/**
+ * What a zone holds, which decides what its card leads with: machines (dew margin of the iron),
+ * lumber (wood EMC against a target band), finishing, general. The database enum and the
+ * route's zod field take this list.
+ */
+export const ZONE_PURPOSES = ['machines', 'lumber', 'finishing', 'general'] as const;
+export type ZonePurpose = (typeof ZONE_PURPOSES)[number];
+
+/**
+ * The climate regions of the Wood Handbook's recommended moisture content for interior wood at
+ * installation (ingest/emcTarget.ts): most of the US, the dry southwest, the damp warm coast.
+ */
+export const EMC_REGIONS = ['most', 'dry_southwest', 'damp_coastal'] as const;
+export type EmcRegion = (typeof EMC_REGIONS)[number];
+
 /** The newest reading in a zone, with what was derived from it. Temperatures °C, margin K. */
 export interface LatestReading {
   /** ISO 8601, UTC. */
@@ -16,13 +31,16 @@ export interface LatestReading {
   sensorId: string;
 }
 
-/** A zone and its limits, as created or changed (POST, PATCH). Limits K, humidity %. */
+/** A zone, its purpose and limits, as created or changed (POST, PATCH). Limits K, humidity %. */
 export interface ZoneSettings {
   id: string;
   name: string;
   cautionK: number;
   wetK: number;
   humidRhPct: number;
+  purpose: ZonePurpose;
+  /** The region whose target band a lumber zone's wood EMC is held against. */
+  emcRegion: EmcRegion;
 }
 
 /** A zone in the shop's list: its settings and its newest reading, if any. */

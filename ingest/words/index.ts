@@ -4,3 +4,4 @@ export * from './alarms';
 export * from './dewPoint';
 export * from './format';
 export * from './sensors';
+export * from './zones';

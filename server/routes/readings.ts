@@ -2,7 +2,7 @@ import { Router } from 'express';
 import { z } from 'zod';
 
 import type { Db } from '@/db';
-import { querySeries } from '@/db/queries/readings';
+import { firstReadingAt, querySeries } from '@/db/queries/readings';
 import { findZone } from '@/db/queries/zones';
 import type { ReadingsResponse } from '@/ingest/wire';
 
@@ -48,9 +48,11 @@ export function readingsRouter(db: Db, now: () => number): Router {
     if (!zone) throw new ApiError(404, 'not_found', 'No such zone in this shop.');
 
     const series = await querySeries(db, { zoneId: zone.id, from, to, points: q.points });
+    const firstAt = await firstReadingAt(db, zone.id);
     res.json({
       from: from.toISOString(),
       to: to.toISOString(),
+      firstAt: firstAt ? firstAt.toISOString() : null,
       bucketSeconds: series.bucketSeconds,
       points: series.rows.map(toReadingPoint),
     } satisfies ReadingsResponse);

@@ -1,6 +1,7 @@
 /**
- * A shop's zones: list with each zone's newest reading, create, rename and set limits, delete an
- * empty one. Every change tells the shop's other open tabs to reread the list once it commits.
+ * A shop's zones: list with each zone's newest reading, create, rename, set purpose and limits,
+ * delete an empty one. Every change tells the shop's other open tabs to reread the list once it
+ * commits.
  */
 import { Router } from 'express';
 import { z } from 'zod';
@@ -16,7 +17,7 @@ import {
 } from '@/db/queries/zones';
 import { transaction } from '@/db/transaction';
 import { marginLimitsSchema } from '@/ingest';
-import type { ZonesResponse } from '@/ingest/wire';
+import { EMC_REGIONS, ZONE_PURPOSES, type ZonesResponse } from '@/ingest/wire';
 
 import { isUuid, shopIdOf } from '../auth/middleware';
 import type { SensorTokenCache } from '../auth/sensorTokens';
@@ -28,7 +29,19 @@ import { toZone, toZoneSettings } from '../wire/zones';
 import { nameField } from './fields';
 
 const zoneName = nameField('Name the zone');
-const createZoneBody = z.object({ name: zoneName });
+const purposeField = z.enum(ZONE_PURPOSES, {
+  error: `Choose what the zone holds: ${ZONE_PURPOSES.join(', ')}`,
+});
+const emcRegionField = z.enum(EMC_REGIONS, {
+  error: `Choose the region: ${EMC_REGIONS.join(', ')}`,
+});
+const createZoneBody = z
+  .object({
+    name: zoneName,
+    purpose: purposeField.optional(),
+    emcRegion: emcRegionField.optional(),
+  })
+  .strict();
 
 // Limits in kelvin (a margin is a difference). 20 K and 100 % bound typos, not physics.
 const updateZoneBody = z
@@ -37,6 +50,8 @@ const updateZoneBody = z
     cautionK: z.number().min(0, 'At least 0 K').max(20, 'At most 20 K').optional(),
     wetK: z.number().min(-5, 'At least −5 K').max(20, 'At most 20 K').optional(),
     humidRhPct: z.number().min(30, 'At least 30 %').max(100, 'At most 100 %').optional(),
+    purpose: purposeField.optional(),
+    emcRegion: emcRegionField.optional(),
   })
   .strict();
 
@@ -56,7 +71,10 @@ export function zonesRouter(db: Db, tokens: SensorTokenCache): Router {
     const shopId = shopIdOf(res);
     // Other open tabs of the shop reread the zone list once this commits.
     const zone = await transaction(db, async (tx) => {
-      const inserted = await insertZone(tx, shopId, body.name);
+      const inserted = await insertZone(tx, shopId, body.name, {
+        purpose: body.purpose,
+        emcRegion: body.emcRegion,
+      });
       await announceShopChange(tx, shopId, ['zones']);
       return inserted;
     });

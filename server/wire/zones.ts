@@ -10,6 +10,8 @@ export function toZoneSettings(row: ZoneRow): ZoneSettings {
     cautionK: row.cautionK,
     wetK: row.wetK,
     humidRhPct: row.humidRhPct,
+    purpose: row.purpose,
+    emcRegion: row.emcRegion,
   };
 }
 

@@ -112,10 +112,13 @@ describe('the zone readings', () => {
     air: -5,
     rh: 80,
     emc: 17.1,
+    margin: null,
   });
   const labelOf = (dewPoint: number | null) =>
     textsOf(
-      renderToStaticMarkup(createElement(ZoneReadings, { latest: latest(dewPoint), unit: 'C' })),
+      renderToStaticMarkup(
+        createElement(ZoneReadings, { latest: latest(dewPoint), unit: 'C', humidRhPct: 90 }),
+      ),
       'zone-dewpoint-label',
     );
 

@@ -33,6 +33,8 @@ const zones: ZonesResponse = {
       cautionK: 3,
       wetK: 1,
       humidRhPct: 60,
+      purpose: 'machines',
+      emcRegion: 'most',
       latest: null,
       staleAfterS: 900,
     },
@@ -42,6 +44,8 @@ const zones: ZonesResponse = {
       cautionK: 3,
       wetK: 1,
       humidRhPct: 60,
+      purpose: 'machines',
+      emcRegion: 'most',
       latest: null,
       staleAfterS: 900,
     },
@@ -84,6 +88,7 @@ describe('applyLiveMessage', () => {
     const series: ReadingsResponse = {
       from: '2026-03-01T06:10:00.000Z',
       to: '2026-03-02T06:10:00.000Z',
+      firstAt: '2026-02-20T06:00:00.000Z',
       bucketSeconds: 0,
       points: [point('2026-03-02T06:00:00Z', 2.5)],
     };
@@ -110,6 +115,7 @@ describe('withPoint', () => {
     const series: ReadingsResponse = {
       from: '2026-03-01T06:00:00.000Z',
       to: '2026-03-02T06:00:00.000Z',
+      firstAt: '2026-02-20T06:00:00.000Z',
       bucketSeconds: 300,
       points: [{ ...point('2026-03-02T06:00:00Z', 2.5), count: 3 }],
     };
@@ -122,10 +128,26 @@ describe('withPoint', () => {
     expect(later.points).toHaveLength(2);
   });
 
+  it("takes a new zone's first live reading as the start of its history", () => {
+    const empty: ReadingsResponse = {
+      from: '2026-03-01T06:00:00.000Z',
+      to: '2026-03-02T06:00:00.000Z',
+      firstAt: null,
+      bucketSeconds: 0,
+      points: [],
+    };
+    const next = withPoint(empty, point('2026-03-02T06:01:00Z', 4), 24);
+    expect(next.firstAt).toBe('2026-03-02T06:01:00Z');
+    // An older history keeps its start.
+    const again = withPoint(next, point('2026-03-02T06:02:00Z', 4), 24);
+    expect(again.firstAt).toBe('2026-03-02T06:01:00Z');
+  });
+
   it('drops points that slid out of the window', () => {
     const series: ReadingsResponse = {
       from: '2026-03-01T06:00:00.000Z',
       to: '2026-03-02T06:00:00.000Z',
+      firstAt: '2026-02-20T06:00:00.000Z',
       bucketSeconds: 0,
       points: [point('2026-03-01T06:00:00Z', 4), point('2026-03-02T05:00:00Z', 4)],
     };

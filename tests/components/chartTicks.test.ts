@@ -1,6 +1,11 @@
 import { describe, expect, it } from 'vitest';
 
-import { hourTickLabel, hourTicks } from '@/components/zones/chartTicks';
+import {
+  clockTicks,
+  hourTickLabel,
+  hourTicks,
+  tickStepMinutes,
+} from '@/components/zones/chartTicks';
 
 const iso = (ms: number) => new Date(ms).toISOString();
 
@@ -22,5 +27,25 @@ describe('hourTicks', () => {
       hourTickLabel(t, 'America/Chicago'),
     );
     expect(labels).toEqual(['Sun', '03:00', '06:00', '09:00']);
+  });
+});
+
+describe('clock ticks for a short span', () => {
+  it('an hour on a phone gets quarter hours on the shop clock', () => {
+    const from = Date.parse('2026-03-02T06:05:00Z');
+    const to = Date.parse('2026-03-02T07:05:00Z');
+    const step = tickStepMinutes(to - from, 340);
+    expect(step).toBe(15);
+    expect(clockTicks(from, to, 'Asia/Kolkata', step).map(iso)).toEqual([
+      '2026-03-02T06:15:00.000Z',
+      '2026-03-02T06:30:00.000Z',
+      '2026-03-02T06:45:00.000Z',
+      '2026-03-02T07:00:00.000Z',
+    ]);
+  });
+
+  it('a day keeps labels about 70 px apart', () => {
+    expect(tickStepMinutes(24 * 3_600_000, 340)).toBe(360);
+    expect(tickStepMinutes(24 * 3_600_000, 1000)).toBe(120);
   });
 });

@@ -46,6 +46,28 @@ describe('readings query', () => {
     });
   });
 
+  it("names the zone's first reading ever, even when it lies before the window", async () => {
+    const o = await ownerWithSensor(t);
+    const path = `/api/v1/shops/${o.shopId}/zones/${o.zoneId}/readings`;
+    const none = await o.agent.get(path).expect(200);
+    expect(none.body.firstAt).toBeNull();
+
+    const firstMs = Date.now() - 30 * 3_600_000;
+    const first = new Date(firstMs).toISOString();
+    const recent = new Date(Date.now() - 10 * 60_000).toISOString();
+    await postIngest(t.app, o.token, {
+      readings: [
+        { at: first, air: 18, rh: 55 },
+        { at: recent, air: 19, rh: 55 },
+      ],
+    }).expect(202);
+    // The default window is the last 24 h: the 30 h old reading is outside it, yet it is the
+    // zone's first, so the app knows this zone has more than a day of history.
+    const series = await o.agent.get(path).expect(200);
+    expect(series.body.points.map((p: { at: string }) => p.at)).toEqual([recent]);
+    expect(series.body.firstAt).toBe(first);
+  });
+
   it('downsamples into buckets that keep the lowest margin', async () => {
     const o = await ownerWithSensor(t);
     const start = Date.now() - 100 * 60_000;

@@ -46,6 +46,8 @@ const ZONE_SETTINGS: Keys<ZoneSettings> = {
   cautionK: true,
   wetK: true,
   humidRhPct: true,
+  purpose: true,
+  emcRegion: true,
 };
 const ZONE: Keys<Zone> = { ...ZONE_SETTINGS, latest: true, staleAfterS: true };
 const LATEST_READING: Keys<LatestReading> = {
@@ -63,6 +65,7 @@ const LATEST_READING: Keys<LatestReading> = {
 const READINGS_RESPONSE: Keys<ReadingsResponse> = {
   from: true,
   to: true,
+  firstAt: true,
   bucketSeconds: true,
   points: true,
 };
