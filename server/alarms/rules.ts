@@ -27,6 +27,12 @@ export const ALARM_RULES = {
   /** Level hysteresis: band 0.5 K, 3 readings or 5 min — rules of thumb, stated in ingest/. */
   level: DEFAULT_HYSTERESIS,
   /**
+   * Each sensor's level is confirmed on its own; the zone takes the worst of the sensors heard
+   * within this. Ours: twice the slowest posting interval we expect (15 min), so a sensor that
+   * misses one post still counts, and one that stopped cannot hold the zone wet for ever.
+   */
+  levelFreshMs: 30 * MINUTE_MS,
+  /**
    * Humid air: RH above the zone's limit (default 60 % — a rule of thumb of the trade, no
    * standard gives 60 %) for 30 min; clears at 5 % RH below the limit for 15 min. Ours: a door
    * opened for a delivery must not raise it, and 5 % is about twice a shop hygrometer's error.
