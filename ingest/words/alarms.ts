@@ -7,8 +7,10 @@
 import { isSensorKind, type AlarmKind } from '../alarmKinds';
 import type { TemperatureUnit } from '../units';
 import type { SurfaceSource } from '../wire/levels';
+import type { Level } from '../wire/levels';
 import { capitalised, dewPointLabel } from './dewPoint';
 import { formatMargin, formatPercent, formatTemperature, formatVolts } from './format';
+import { levelWordInline } from './levels';
 
 export const ALARM_KIND_WORDS: Record<AlarmKind, string> = {
   dew_risk: 'Dew risk',
@@ -150,4 +152,74 @@ export function alarmNumbers(
     rows.push(['Peak RH', formatPercent(a.peakRhPct)]);
   }
   return rows;
+}
+
+/** What the zone reads now (its newest reading), beside which an alarm's worst value stands. */
+export interface CurrentFacts {
+  marginK: number | null;
+  level: Level;
+  rhPct: number | null;
+}
+
+/**
+ * The value now beside the worst one, each labelled, so an alarm that is clearing does not read
+ * as if the iron were still wet: "Now +8.3 °C, dry · worst −2.7 °C". Null for a silent sensor
+ * (it has no now). Without a current reading only the worst is said.
+ */
+export function alarmNowAndWorst(
+  a: AlarmFacts,
+  now: CurrentFacts | null,
+  unit: TemperatureUnit,
+): string | null {
+  switch (a.kind) {
+    case 'dew_risk':
+    case 'wet_surface': {
+      const worst = `worst margin ${formatMargin(a.worstMarginK, unit)}`;
+      if (!now || now.marginK === null) return capitalised(worst);
+      return `Now margin ${formatMargin(now.marginK, unit)}, ${levelWordInline(now.level)} · ${worst}`;
+    }
+    case 'humid_air': {
+      const worst = `worst ${formatPercent(a.peakRhPct)} RH`;
+      if (!now || now.rhPct === null) return capitalised(worst);
+      return `Now ${formatPercent(now.rhPct)} RH · ${worst}`;
+    }
+    case 'battery_low':
+      return `Now ${formatVolts(a.latestBatteryV)} · lowest ${formatVolts(a.lowestBatteryV)}`;
+    case 'sensor_silent':
+      return null;
+  }
+}
+
+/** A kind's state in a few words, after its subject: "Machine room wet". */
+const SHORT_STATE: Record<AlarmKind, string> = {
+  wet_surface: 'wet',
+  dew_risk: 'dew risk',
+  humid_air: 'humid air',
+  sensor_silent: 'silent',
+  battery_low: 'battery low',
+};
+
+/**
+ * The phone banner's one line, the worst alarm first: "2 alarms — Machine room wet". The
+ * alarms come in worst first; null when there are none.
+ */
+export function alarmsSummaryLine(
+  worstFirst: readonly Pick<AlarmFacts, 'kind' | 'zoneName' | 'sensorName'>[],
+): string | null {
+  const worst = worstFirst[0];
+  if (!worst) return null;
+  const count = worstFirst.length === 1 ? '1 alarm' : `${worstFirst.length} alarms`;
+  return `${count} — ${alarmSubject(worst)} ${SHORT_STATE[worst.kind]}`;
+}
+
+/** A notification for a newly opened alarm: its kind as the title, the headline as the body. */
+export function alarmNotification(
+  a: AlarmFacts,
+  ctx: AlarmWordsContext,
+  shopName: string,
+): { title: string; body: string } {
+  return {
+    title: `${ALARM_KIND_WORDS[a.kind]} — ${shopName}`,
+    body: alarmHeadline(a, ctx),
+  };
 }

@@ -3,3 +3,5 @@ export * from './advice';
 export * from './alarms';
 export * from './dewPoint';
 export * from './format';
+export * from './levels';
+export * from './rules';
