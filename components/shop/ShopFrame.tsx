@@ -1,3 +1,4 @@
+import { useQuery } from '@tanstack/react-query';
 import { Link, Redirect } from 'expo-router';
 import { createContext, useContext, type ReactNode } from 'react';
 import { StyleSheet, Text, View } from 'react-native';
@@ -13,7 +14,13 @@ import {
   ShopNav,
   useBreakpoints,
 } from '@/components/layout';
-import { findShop, isSignedOut, useMeQuery, type ShopSummary } from '@/components/queries';
+import {
+  alarmsQueryOptions,
+  findShop,
+  isSignedOut,
+  useMeQuery,
+  type ShopSummary,
+} from '@/components/queries';
 import { colors, space, type } from '@/components/theme';
 import { Notice, Splash, useDocumentTitle } from '@/components/ui';
 
@@ -83,6 +90,10 @@ export function ShopFrame({ shopId, page, path, children }: ShopFrameProps) {
   const shop = findShop(me.data, shopId);
   const maxWidth = useShopColumnWidth(page);
   const { isWide } = useBreakpoints();
+  // The same query the banner reads (patched live), so the count and the banner agree.
+  const openAlarms =
+    useQuery({ ...alarmsQueryOptions(shopId, 'open'), enabled: shop !== undefined }).data?.alarms
+      .length ?? 0;
 
   if (me.isPending) return <Unready title={page.title} body={<Splash />} />;
   if (isSignedOut(me.error)) return <Redirect href="/sign-in" />;
@@ -132,9 +143,15 @@ export function ShopFrame({ shopId, page, path, children }: ShopFrameProps) {
             ) : null}
           </>
         }
-        rail={isWide ? <ShopNav shopId={shop.id} active={page.active} variant="rail" /> : undefined}
+        rail={
+          isWide ? (
+            <ShopNav shopId={shop.id} active={page.active} variant="rail" openAlarms={openAlarms} />
+          ) : undefined
+        }
         footer={
-          isWide ? undefined : <ShopNav shopId={shop.id} active={page.active} variant="bar" />
+          isWide ? undefined : (
+            <ShopNav shopId={shop.id} active={page.active} variant="bar" openAlarms={openAlarms} />
+          )
         }
       >
         <Content maxWidth={maxWidth}>
