@@ -56,9 +56,10 @@ export function currentOf(zone: Zone | undefined): CurrentFacts | null {
 }
 
 /**
- * The API's alarm as the shared words take it. With its zone, an open alarm's latest values are
- * the zone's newest reading when that is newer than the alarm's last change: the engine records
- * a change only when it matters, so its own latest value can be minutes old.
+ * The API's alarm as the shared words take it. With its zone, an open alarm whose zone has read
+ * since the alarm last changed loses its latest values: the engine records a change only when it
+ * matters, so they can be minutes old (a "margin −2.7" above a dry card). The headline then names
+ * the condition alone and the zone's current value stands on its own line (nowAndWorst).
  */
 export function alarmFacts(alarm: Alarm, zone?: Zone): AlarmFacts {
   const latest = zone?.latest;
@@ -74,9 +75,9 @@ export function alarmFacts(alarm: Alarm, zone?: Zone): AlarmFacts {
     sensorName: alarm.sensor?.name ?? null,
     minutesToWet: alarm.minutesToWet,
     worstMarginK: alarm.worstMarginK,
-    latestMarginK: fresher && latest.margin !== null ? latest.margin : alarm.latestMarginK,
+    latestMarginK: fresher ? null : alarm.latestMarginK,
     peakRhPct: alarm.peakRhPct,
-    latestRhPct: fresher ? latest.rh : alarm.latestRhPct,
+    latestRhPct: fresher ? null : alarm.latestRhPct,
     lowestBatteryV: alarm.lowestBatteryV,
     latestBatteryV: alarm.latestBatteryV,
   };

@@ -82,14 +82,23 @@ export function alarmHeadline(a: AlarmFacts, ctx: AlarmWordsContext): string {
       : `${subject}: ${ALARM_KIND_WORDS[a.kind].toLowerCase()}`;
   }
   switch (a.kind) {
+    // Without a latest value (the screen shows the zone's current one on its own line) the
+    // headline names only the condition, so it never quotes a number that is no longer true.
     case 'dew_risk':
-      return a.minutesToWet !== null && a.minutesToWet > 0
-        ? `${subject}: wet in ${aboutMinutes(a.minutesToWet)}`
+      if (a.minutesToWet !== null && a.minutesToWet > 0) {
+        return `${subject}: wet in ${aboutMinutes(a.minutesToWet)}`;
+      }
+      return a.latestMarginK === null
+        ? `${subject}: dew risk`
         : `${subject}: dew risk, margin ${formatMargin(a.latestMarginK, ctx.unit)}`;
     case 'wet_surface':
-      return `${subject}: wet, margin ${formatMargin(a.latestMarginK, ctx.unit)}`;
+      return a.latestMarginK === null
+        ? `${subject}: wet`
+        : `${subject}: wet, margin ${formatMargin(a.latestMarginK, ctx.unit)}`;
     case 'humid_air':
-      return `${subject}: humid air since ${ctx.since}, ${formatPercent(a.latestRhPct)} RH`;
+      return a.latestRhPct === null
+        ? `${subject}: humid air since ${ctx.since}`
+        : `${subject}: humid air since ${ctx.since}, ${formatPercent(a.latestRhPct)} RH`;
     case 'sensor_silent':
       return `${subject} silent since ${ctx.since}`;
     case 'battery_low':
