@@ -4,6 +4,7 @@ import { createContext, useContext, type ReactNode } from 'react';
 import { StyleSheet, Text, View } from 'react-native';
 
 import { AlarmBanner } from '@/components/alarms/AlarmBanner';
+import { AlarmNotifier } from '@/components/alarms/AlarmNotifier';
 import { Button } from '@/components/forms';
 import type { ShopSection } from '@/components/hrefs';
 import {
@@ -128,6 +129,7 @@ export function ShopFrame({ shopId, page, path, children }: ShopFrameProps) {
 
   return (
     <ShopContext.Provider value={shop}>
+      <AlarmNotifier shopId={shop.id} shopName={shop.name} timeZone={shop.timeZone} />
       <Screen
         scrollKey={path}
         header={
