@@ -2,7 +2,7 @@ import { useRouter } from 'expo-router';
 import { useState } from 'react';
 import { StyleSheet, Text, View } from 'react-native';
 
-import { deltaInUnit } from '@/components/format';
+import { limitsSentence } from '@/ingest/words';
 import {
   Button,
   ConfirmButton,
@@ -65,8 +65,7 @@ function SettingsBody({ shop }: { shop: ShopSummary }) {
               <ZoneLimitsForm shopId={shop.id} zone={zone} unit={unit} />
             ) : (
               <Text style={type.body}>
-                {zone.name}: caution below {deltaInUnit(zone.cautionK, unit)} °{unit}, wet at{' '}
-                {deltaInUnit(zone.wetK, unit)} °{unit}, humid above {zone.humidRhPct} % RH
+                {zone.name}: {limitsSentence(zone, unit)}
               </Text>
             )}
           </View>
