@@ -97,9 +97,9 @@ export function AlarmBanner({ shopId, timeZone, canAcknowledge, maxWidth }: Alar
               alarm={alarm}
               zone={zone}
               headline={alarmHeadline(alarm, now, timeZone, unit, zone)}
-              detail={[nowAndWorst(alarm, zone, unit), ruleOf(alarm, zone, unit)?.clears]
+              detail={[nowAndWorst(alarm, zone, unit), ruleOf(alarm, zone, unit)?.clearsShort]
                 .filter(Boolean)
-                .join(' ')}
+                .join(' · ')}
               canAcknowledge={canAcknowledge}
               form={
                 acknowledging === alarm.id ? (

@@ -56,18 +56,15 @@ export function currentOf(zone: Zone | undefined): CurrentFacts | null {
 }
 
 /**
- * The API's alarm as the shared words take it. With its zone, an open alarm whose zone has read
- * since the alarm last changed loses its latest values: the engine records a change only when it
- * matters, so they can be minutes old (a "margin −2.7" above a dry card). The headline then names
- * the condition alone and the zone's current value stands on its own line (nowAndWorst).
+ * The API's alarm as the shared words take it. With its zone's newest reading at hand, an open
+ * alarm loses its own latest values: the engine records a change only when it matters, so they
+ * can be minutes old (a "margin −2.7" above a dry card). The headline then names the condition
+ * alone and the zone's current value stands on its own line beside the worst (nowAndWorst).
  */
 export function alarmFacts(alarm: Alarm, zone?: Zone): AlarmFacts {
   const latest = zone?.latest;
-  const fresher =
-    alarm.state === 'open' &&
-    latest !== null &&
-    latest !== undefined &&
-    Date.parse(latest.at) > Date.parse(alarm.updatedAt);
+  // With the zone's reading at hand the screen shows it on its own line (nowAndWorst).
+  const fresher = alarm.state === 'open' && latest !== null && latest !== undefined;
   return {
     kind: alarm.kind,
     cleared: alarm.state === 'cleared',

@@ -36,9 +36,17 @@ function levelHold(): string {
   return `for ${minCount} readings or ${formatDuration(minHoldMs)}, whichever comes first`;
 }
 
+/** "for 3 readings or 5 min", without the rest. */
+function levelHoldShort(): string {
+  const { minCount, minHoldMs } = ALARM_RULE_NUMBERS.level;
+  return `for ${minCount} readings or ${formatDuration(minHoldMs)}`;
+}
+
 export interface AlarmRuleWords {
   opens: string;
   clears: string;
+  /** The clear rule in a few words, for the banner: "Clears when the margin stays above 1.5 °C for 5 min". */
+  clearsShort: string;
 }
 
 /** The whole rule of one kind, two sentences. */
@@ -55,26 +63,31 @@ export function alarmRule(
       return {
         opens: `Opens when the dew margin is below ${caution} (the caution limit) ${levelHold()}, or when its trend reaches the wet limit within ${formatDuration(n.lookAheadMs)}.`,
         clears: `Clears when the dew margin stays at or above ${formatDelta(limits.cautionK + n.level.bandK, unit)} ${levelHold()}, and then ${formatDuration(n.warningQuietMs)} pass with no trend towards the wet limit.`,
+        clearsShort: `Clears when the margin stays at or above ${formatDelta(limits.cautionK + n.level.bandK, unit)} ${levelHoldShort()}, then ${formatDuration(n.warningQuietMs)} with no falling trend`,
       };
     case 'wet_surface':
       return {
         opens: `Opens when the dew margin is at or below ${wet} (the wet limit) ${levelHold()}.`,
         clears: `Clears when the dew margin stays above ${formatDelta(limits.wetK + n.level.bandK, unit)} ${levelHold()}.`,
+        clearsShort: `Clears when the margin stays above ${formatDelta(limits.wetK + n.level.bandK, unit)} ${levelHoldShort()}`,
       };
     case 'humid_air':
       return {
         opens: `Opens when the relative humidity stays above ${formatPercent(limits.humidRhPct)} for ${formatDuration(n.humid.openHoldMs)}.`,
         clears: `Clears when it stays at or below ${formatPercent(limits.humidRhPct - n.humid.bandPct)} for ${formatDuration(n.humid.clearHoldMs)}.`,
+        clearsShort: `Clears when RH stays at or below ${formatPercent(limits.humidRhPct - n.humid.bandPct)} for ${formatDuration(n.humid.clearHoldMs)}`,
       };
     case 'sensor_silent':
       return {
         opens: `Opens when the sensor has sent nothing for ${n.silentFactor} of its posting intervals.`,
         clears: 'Clears with its next reading.',
+        clearsShort: 'Clears with its next reading',
       };
     case 'battery_low':
       return {
         opens: `Opens when the battery stays below ${volts(n.battery.lowV)} for ${formatDuration(n.battery.openHoldMs)}.`,
         clears: `Clears when it stays at or above ${volts(n.battery.lowV + n.battery.bandV)} for ${formatDuration(n.battery.clearHoldMs)}.`,
+        clearsShort: `Clears at or above ${volts(n.battery.lowV + n.battery.bandV)} for ${formatDuration(n.battery.clearHoldMs)}`,
       };
   }
 }

@@ -132,7 +132,7 @@ describe.each([
         // −2.7 K × 1.8 = −4.86 °F; the wet limit 1 K + band 0.5 K = 1.5 K = 2.7 °F.
         await expect.poll(() => item.first().textContent()).toContain('worst margin -4.9 °F');
         expect(await item.first().textContent()).toContain(
-          'Clears when the dew margin stays above 2.7 °F',
+          'Clears when the margin stays above 2.7 °F',
         );
       }
       await page.screenshot({ path: `${SHOTS}/alarms-units-banner-${label}.png` });

