@@ -73,7 +73,9 @@ const RECORD_NOTIFICATIONS = `(() => {
   window.__notifications = [];
   function Recorded(title, options) {
     window.__notifications.push({ title, body: options && options.body });
-    return new Real(title, options);
+    const made = new Real(title, options);
+    (window.__made = window.__made || []).push(made);
+    return made;
   }
   Object.defineProperty(Recorded, 'permission', { get: () => Real.permission });
   Recorded.requestPermission = (...args) => Real.requestPermission(...args);
@@ -171,6 +173,18 @@ describe.each([
         expect(n.body).toContain(next.name);
         expect(n.body).not.toContain('°C');
       }
+
+      // A tap on the notification (its click handler, as the browser would run it) opens the
+      // Alarms page with that alarm in view and marked.
+      await page.evaluate(() => {
+        const made = (window as unknown as { __made: Notification[] }).__made;
+        const wetOne = made.find((n) => n.title.startsWith('Wet surface — '))!;
+        wetOne.onclick!(new Event('click'));
+      });
+      await page.waitForURL(/\/alarms\?alarm=/);
+      const focused = page.locator('[data-testid="alarm-card"][aria-current="true"]');
+      await expect.poll(() => focused.textContent()).toContain(`${next.name}: wet`);
+      await page.screenshot({ path: `${SHOTS}/alarms-units-focused-${label}.png` });
 
       // The limits form: labelled as dew-margin differences, °F only, and a round trip.
       await page.getByTestId('nav-shop').click();
