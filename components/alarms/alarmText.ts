@@ -109,7 +109,7 @@ export function ruleOf(
   return zone ? alarmRule(alarm.kind, zone, unit) : null;
 }
 
-/** The open alarms by zone id, for the screens that show them beside the zones. */
+/** The zones by id: each alarm card and banner line finds its zone's limits and newest reading. */
 export function zonesById(zones: readonly Zone[] | undefined): Map<string, Zone> {
   return new Map((zones ?? []).map((zone) => [zone.id, zone]));
 }
