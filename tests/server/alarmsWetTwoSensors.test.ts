@@ -6,7 +6,7 @@
 // (ALARM_RULES.level, rules of thumb stated in ingest/hysteresis.ts).
 import { afterAll, beforeAll, describe, expect, it } from 'vitest';
 
-import { ALARM_RULES } from '@/server/alarms';
+import { ALARM_RULES, evaluateZone, readZoneState } from '@/server/alarms';
 
 import {
   alarmsOf,
@@ -83,5 +83,27 @@ describe('wet surface in a zone with two sensors', () => {
     expect(Date.parse(wet.clearedAt!)).toBeGreaterThan(
       startMs + 3 * MINUTE_MS + ALARM_RULES.levelFreshMs,
     );
+  });
+});
+
+describe('a zone state stored before levels were kept per sensor', () => {
+  it('starts each sensor from the old zone-wide level, so an open wet alarm is not cleared by the change', () => {
+    const atMs = seriesStartMs();
+    // The shape written by the engine before this change: one level for the zone.
+    const stored = {
+      level: { level: 'wet', enteredAtMs: atMs - MINUTE_MS, atMs: atMs - MINUTE_MS, pending: null },
+      levelSinceMs: atMs - 3 * MINUTE_MS,
+      dewRisk: null,
+      humid: null,
+      batteries: {},
+    };
+    const { signals } = evaluateZone(
+      readZoneState(stored),
+      'zone',
+      [{ sensorId: 'probe', atMs, marginK: -2, rhPct: 50, batteryV: null }],
+      [],
+      { limits: { cautionK: 3, wetK: 1 }, humidRhPct: 60 },
+    );
+    expect(signals.find((s) => s.kind === 'wet_surface')?.active).toBe(true);
   });
 });
