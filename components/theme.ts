@@ -5,6 +5,7 @@
 import type { TextStyle, ViewStyle } from 'react-native';
 
 import type { Level } from '@/ingest';
+import { LEVEL_WORDS } from '@/ingest/words/levels';
 
 export const colors = {
   paper: '#F5F2EA',
@@ -39,13 +40,8 @@ export const levelColors: Record<Level, string> = {
   unknown: colors.unknown,
 };
 
-/** The word shown beside a level's colour; plain and short. */
-export const levelWords: Record<Level, string> = {
-  dry: 'dry',
-  close: 'close',
-  wet: 'wet',
-  unknown: 'unknown',
-};
+/** The word shown beside a level's colour, in sentence case (the words live in ingest/words). */
+export const levelWords: Record<Level, string> = LEVEL_WORDS;
 
 /** Names registered by useFonts in app/_layout.tsx; they double as CSS font-family names. */
 export const fonts = {

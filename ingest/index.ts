@@ -12,4 +12,5 @@ export * from './surfaceEstimate';
 export * from './trend';
 export * from './wetness';
 export * from './alarmKinds';
+export * from './alarmRules';
 export * from './words';

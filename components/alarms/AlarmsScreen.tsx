@@ -1,29 +1,53 @@
-import { StyleSheet, Text, View } from 'react-native';
+import { useEffect } from 'react';
+import { Platform, StyleSheet, Text, View } from 'react-native';
 
 import { useBreakpoints } from '@/components/layout';
-import { useAlarmsQuery, useUnitPref, type Alarm, type ShopSummary } from '@/components/queries';
+import {
+  useAlarmsQuery,
+  useUnitPref,
+  useZonesQuery,
+  type Alarm,
+  type ShopSummary,
+} from '@/components/queries';
 import { useFrameShop } from '@/components/shop/ShopFrame';
 import { space, type } from '@/components/theme';
 import { Notice, useDocumentTitle, useNow } from '@/components/ui';
 
 import { AlarmCard } from './AlarmCard';
-import { bySeverity } from './alarmText';
+import { bySeverity, zonesById } from './alarmText';
 
 /**
  * A shop's alarms: the open ones with what to do, and the recent ones with who acknowledged
- * them and what they did. Phone: one column; wide: open and recent side by side.
+ * them and what they did. Phone: one column; wide: open and recent side by side. `focusAlarmId`
+ * (from a notification) is scrolled into view and marked.
  */
-export function AlarmsScreen() {
+export function AlarmsScreen({ focusAlarmId }: { focusAlarmId?: string }) {
   const shop = useFrameShop();
   const { isWide } = useBreakpoints();
   useDocumentTitle('Alarms', shop.name);
-  return <AlarmLists shop={shop} wide={isWide} />;
+  return <AlarmLists shop={shop} wide={isWide} focusAlarmId={focusAlarmId} />;
 }
 
-function AlarmLists({ shop, wide }: { shop: ShopSummary; wide: boolean }) {
+function AlarmLists({
+  shop,
+  wide,
+  focusAlarmId,
+}: {
+  shop: ShopSummary;
+  wide: boolean;
+  focusAlarmId?: string;
+}) {
   const alarms = useAlarmsQuery(shop.id, 'all');
+  const zones = zonesById(useZonesQuery(shop.id).data?.zones);
   const nowMs = useNow();
   const unit = useUnitPref();
+  const loaded = alarms.data !== undefined;
+  useEffect(() => {
+    if (!focusAlarmId || !loaded || Platform.OS !== 'web') return;
+    document
+      .getElementById(`alarm-${focusAlarmId}`)
+      ?.scrollIntoView({ block: 'center', behavior: 'instant' });
+  }, [focusAlarmId, loaded]);
   if (alarms.isError) {
     return (
       <Notice title="Alarms could not be loaded" testID="alarms-error">
@@ -49,6 +73,8 @@ function AlarmLists({ shop, wide }: { shop: ShopSummary; wide: boolean }) {
           canAcknowledge={shop.role !== 'viewer'}
           unit={unit}
           adviceFolded={folded.has(alarm.id)}
+          zone={zones.get(alarm.zone.id)}
+          focused={alarm.id === focusAlarmId}
         />
       ))}
     </View>

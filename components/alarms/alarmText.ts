@@ -7,9 +7,16 @@ import { formatInTimeZone } from 'date-fns-tz';
 
 import { ALARM_KIND_LEVEL, ALARM_KIND_RANK } from '@/ingest/alarmKinds';
 import type { TemperatureUnit } from '@/ingest/units';
-import { alarmHeadline as headlineWords, type AlarmFacts } from '@/ingest/words';
+import {
+  alarmHeadline as headlineWords,
+  alarmNowAndWorst,
+  alarmRule,
+  type AlarmFacts,
+  type AlarmRuleWords,
+  type CurrentFacts,
+} from '@/ingest/words';
 
-import type { Alarm } from '@/components/queries';
+import type { Alarm, Zone } from '@/components/queries';
 
 /** The level colour an alarm borrows; the words beside it carry the meaning. */
 export const ALARM_KIND_TONE = ALARM_KIND_LEVEL;
@@ -41,8 +48,23 @@ export function formatAlarmTime(atIso: string, nowMs: number, timeZone: string):
   return formatInTimeZone(atMs, timeZone, pattern);
 }
 
-/** The API's alarm as the shared words take it. */
-export function alarmFacts(alarm: Alarm): AlarmFacts {
+/** What the alarm's zone reads now, from its newest reading (the zones query, patched live). */
+export function currentOf(zone: Zone | undefined): CurrentFacts | null {
+  const latest = zone?.latest;
+  if (!latest) return null;
+  return { marginK: latest.margin, level: latest.level, rhPct: latest.rh };
+}
+
+/**
+ * The API's alarm as the shared words take it. With its zone's newest reading at hand, an open
+ * alarm loses its own latest values: the engine records a change only when it matters, so they
+ * can be minutes old (a "margin −2.7" above a dry card). The headline then names the condition
+ * alone and the zone's current value stands on its own line beside the worst (nowAndWorst).
+ */
+export function alarmFacts(alarm: Alarm, zone?: Zone): AlarmFacts {
+  const latest = zone?.latest;
+  // With the zone's reading at hand the screen shows it on its own line (nowAndWorst).
+  const fresher = alarm.state === 'open' && latest !== null && latest !== undefined;
   return {
     kind: alarm.kind,
     cleared: alarm.state === 'cleared',
@@ -50,25 +72,46 @@ export function alarmFacts(alarm: Alarm): AlarmFacts {
     sensorName: alarm.sensor?.name ?? null,
     minutesToWet: alarm.minutesToWet,
     worstMarginK: alarm.worstMarginK,
-    latestMarginK: alarm.latestMarginK,
+    latestMarginK: fresher ? null : alarm.latestMarginK,
     peakRhPct: alarm.peakRhPct,
-    latestRhPct: alarm.latestRhPct,
+    latestRhPct: fresher ? null : alarm.latestRhPct,
     lowestBatteryV: alarm.lowestBatteryV,
     latestBatteryV: alarm.latestBatteryV,
   };
 }
 
-/** One line: what is wrong, where, and how bad, in the person's unit. */
+/** One line: what is wrong, where, and how bad now, in the person's unit. */
 export function alarmHeadline(
   alarm: Alarm,
   nowMs: number,
   timeZone: string,
   unit: TemperatureUnit = 'C',
+  zone?: Zone,
 ): string {
-  return headlineWords(alarmFacts(alarm), {
+  return headlineWords(alarmFacts(alarm, zone), {
     unit,
     since: formatAlarmTime(alarm.sinceAt, nowMs, timeZone),
   });
+}
+
+/** "Now margin +8.3 °C, dry · worst margin -2.7 °C" for an open alarm; null for a silent sensor. */
+export function nowAndWorst(alarm: Alarm, zone: Zone | undefined, unit: TemperatureUnit) {
+  const now = alarm.state === 'open' ? currentOf(zone) : null;
+  return alarmNowAndWorst(alarmFacts(alarm, zone), now, unit);
+}
+
+/** When the alarm opens and clears, with its zone's limits; null until the zone is known. */
+export function ruleOf(
+  alarm: Alarm,
+  zone: Zone | undefined,
+  unit: TemperatureUnit,
+): AlarmRuleWords | null {
+  return zone ? alarmRule(alarm.kind, zone, unit) : null;
+}
+
+/** The zones by id: each alarm card and banner line finds its zone's limits and newest reading. */
+export function zonesById(zones: readonly Zone[] | undefined): Map<string, Zone> {
+  return new Map((zones ?? []).map((zone) => [zone.id, zone]));
 }
 
 /** "Wiped and covered — acknowledged by Ana", or null before anyone has. */

@@ -23,10 +23,12 @@ interface ShopNavProps {
   active: ShopSection;
   /** `bar` along the bottom of a phone, `rail` down the left of a wide screen. */
   variant: 'bar' | 'rail';
+  /** Open alarms, counted on the Alarms entry ("Alarms, 2 open"); none shown at 0. */
+  openAlarms?: number;
 }
 
 /** Navigation between a shop's pages; the current one is marked for screen readers too. */
-export function ShopNav({ shopId, active, variant }: ShopNavProps) {
+export function ShopNav({ shopId, active, variant, openAlarms = 0 }: ShopNavProps) {
   // Keep the mark right when a page is reached by a deeper path (a zone under Zones).
   usePathname();
   const rail = variant === 'rail';
@@ -40,13 +42,14 @@ export function ShopNav({ shopId, active, variant }: ShopNavProps) {
       {rail ? <Text style={styles.brand}>Drybench</Text> : null}
       {SHOP_DESTINATIONS.map(({ section, label }) => {
         const current = section === active;
+        const count = section === 'alarms' && openAlarms > 0 ? openAlarms : 0;
         return (
           <Link key={section} href={shopSectionHref(shopId, section)} asChild>
             {/* Link's Slot passes style straight to the DOM: one flat object, not an array. */}
             <Pressable
               aria-current={current ? 'page' : undefined}
               accessibilityRole="link"
-              accessibilityLabel={label}
+              accessibilityLabel={count > 0 ? `${label}, ${count} open` : label}
               testID={`nav-${section}`}
               style={StyleSheet.flatten([
                 styles.item,
@@ -54,7 +57,14 @@ export function ShopNav({ shopId, active, variant }: ShopNavProps) {
                 current && (rail ? styles.railCurrent : styles.barCurrent),
               ])}
             >
-              <Text style={[styles.label, current && styles.labelCurrent]}>{label}</Text>
+              <View style={styles.labelRow}>
+                <Text style={[styles.label, current && styles.labelCurrent]}>{label}</Text>
+                {count > 0 ? (
+                  <Text style={styles.count} testID={`nav-${section}-count`}>
+                    {count}
+                  </Text>
+                ) : null}
+              </View>
             </Pressable>
           </Link>
         );
@@ -105,5 +115,19 @@ const styles = StyleSheet.create({
     marginBottom: space.sm,
   },
   label: { fontFamily: fonts.medium, fontSize: 13, color: colors.iron },
+  labelRow: { flexDirection: 'row', alignItems: 'center', gap: space.xs },
+  // The wet colour with white text: 6.0:1, and the word "open" is in the accessible name.
+  count: {
+    fontFamily: fonts.bold,
+    fontSize: 12,
+    lineHeight: 16,
+    minWidth: 18,
+    paddingHorizontal: 5,
+    borderRadius: 9,
+    textAlign: 'center',
+    color: '#FFFFFF',
+    backgroundColor: colors.wet,
+    fontVariant: ['tabular-nums'],
+  },
   labelCurrent: { color: colors.ink },
 });

@@ -2,6 +2,7 @@ import { useRouter } from 'expo-router';
 import { StyleSheet, Switch, Text, View } from 'react-native';
 import * as z from 'zod/mini';
 
+import { AlarmNotificationPanel } from '@/components/alarms/AlarmNotificationPanel';
 import {
   Button,
   Choice,
@@ -64,6 +65,7 @@ function ProfileBody({ user }: { user: User }) {
         <FormError message={profile.error?.message} />
       </Panel>
       <AlarmMailPanel user={user} />
+      <AlarmNotificationPanel />
       <PasswordForm />
       <Panel title="Sign out" hint="Ends your sessions on every device.">
         <Button

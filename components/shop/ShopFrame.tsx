@@ -1,8 +1,10 @@
+import { useQuery } from '@tanstack/react-query';
 import { Link, Redirect } from 'expo-router';
 import { createContext, useContext, type ReactNode } from 'react';
 import { StyleSheet, Text, View } from 'react-native';
 
 import { AlarmBanner } from '@/components/alarms/AlarmBanner';
+import { AlarmNotifier } from '@/components/alarms/AlarmNotifier';
 import { Button } from '@/components/forms';
 import type { ShopSection } from '@/components/hrefs';
 import {
@@ -13,7 +15,13 @@ import {
   ShopNav,
   useBreakpoints,
 } from '@/components/layout';
-import { findShop, isSignedOut, useMeQuery, type ShopSummary } from '@/components/queries';
+import {
+  alarmsQueryOptions,
+  findShop,
+  isSignedOut,
+  useMeQuery,
+  type ShopSummary,
+} from '@/components/queries';
 import { colors, space, type } from '@/components/theme';
 import { Notice, Splash, useDocumentTitle } from '@/components/ui';
 
@@ -83,6 +91,10 @@ export function ShopFrame({ shopId, page, path, children }: ShopFrameProps) {
   const shop = findShop(me.data, shopId);
   const maxWidth = useShopColumnWidth(page);
   const { isWide } = useBreakpoints();
+  // The same query the banner reads (patched live), so the count and the banner agree.
+  const openAlarms =
+    useQuery({ ...alarmsQueryOptions(shopId, 'open'), enabled: shop !== undefined }).data?.alarms
+      .length ?? 0;
 
   if (me.isPending) return <Unready title={page.title} body={<Splash />} />;
   if (isSignedOut(me.error)) return <Redirect href="/sign-in" />;
@@ -117,6 +129,7 @@ export function ShopFrame({ shopId, page, path, children }: ShopFrameProps) {
 
   return (
     <ShopContext.Provider value={shop}>
+      <AlarmNotifier shopId={shop.id} shopName={shop.name} timeZone={shop.timeZone} />
       <Screen
         scrollKey={path}
         header={
@@ -132,9 +145,15 @@ export function ShopFrame({ shopId, page, path, children }: ShopFrameProps) {
             ) : null}
           </>
         }
-        rail={isWide ? <ShopNav shopId={shop.id} active={page.active} variant="rail" /> : undefined}
+        rail={
+          isWide ? (
+            <ShopNav shopId={shop.id} active={page.active} variant="rail" openAlarms={openAlarms} />
+          ) : undefined
+        }
         footer={
-          isWide ? undefined : <ShopNav shopId={shop.id} active={page.active} variant="bar" />
+          isWide ? undefined : (
+            <ShopNav shopId={shop.id} active={page.active} variant="bar" openAlarms={openAlarms} />
+          )
         }
       >
         <Content maxWidth={maxWidth}>

@@ -2,8 +2,8 @@ import { Link, useRouter } from 'expo-router';
 import { useState } from 'react';
 import { StyleSheet, Text, View } from 'react-native';
 
-import { deltaInUnit } from '@/components/format';
 import { membersHref } from '@/components/hrefs';
+import { limitsSentence } from '@/ingest/words';
 import {
   Button,
   Choice,
@@ -82,8 +82,7 @@ function SettingsBody({ shop }: { shop: ShopSummary }) {
               </>
             ) : (
               <Text style={type.body}>
-                {zone.name}: caution below {deltaInUnit(zone.cautionK, unit)} °{unit}, wet at{' '}
-                {deltaInUnit(zone.wetK, unit)} °{unit}, humid above {zone.humidRhPct} % RH
+                {zone.name}: {limitsSentence(zone, unit)}
               </Text>
             )}
           </View>

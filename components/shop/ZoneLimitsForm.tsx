@@ -1,6 +1,7 @@
 import { StyleSheet, Text, View } from 'react-native';
 
 import { fDeltaToK } from '@/ingest/units';
+import { formatDelta, limitLabels, limitsSentence } from '@/ingest/words';
 import { deltaInUnit } from '@/components/format';
 import {
   Form,
@@ -13,6 +14,9 @@ import {
 import { parseDecimal, zoneLimitsSchema } from '@/components/forms/schemas';
 import { useZoneUpdateMutation, type UnitPref, type Zone } from '@/components/queries';
 import { space, type } from '@/components/theme';
+
+/** ISO 8502-4: steel at least 3 K above the dew point before coating. */
+const ISO_8502_4_K = 3;
 
 // The server names its fields cautionK/wetK/humidRhPct; the form names them for people.
 const SERVER_FIELDS: Record<string, keyof LimitValues> = {
@@ -66,11 +70,11 @@ export function ZoneLimitsForm({
         humidRhPct: parseDecimal(values.humid),
       }),
   });
-  const deg = `°${unit}`;
+  const labels = limitLabels(unit);
   const limits: { name: Exclude<keyof LimitValues, 'name'>; label: string }[] = [
-    { name: 'caution', label: `Caution below (${deg})` },
-    { name: 'wet', label: `Wet at (${deg})` },
-    { name: 'humid', label: 'Humid above (% RH)' },
+    { name: 'caution', label: labels.caution },
+    { name: 'wet', label: labels.wet },
+    { name: 'humid', label: labels.humid },
   ];
   return (
     <Form onSubmit={submit} style={styles.form}>
@@ -95,9 +99,9 @@ export function ZoneLimitsForm({
           </View>
         ))}
       </View>
-      <Text style={type.small}>
-        Dew margin limits: close below the caution limit (ISO 8502-4 asks for 3 K before coating),
-        wet at or below the wet limit.
+      <Text style={type.small} testID="zone-edit-limits">
+        {limitsSentence(zone, unit)} The dew margin is the surface temperature minus the dew point;
+        ISO 8502-4 asks for at least {formatDelta(ISO_8502_4_K, unit)} before coating.
       </Text>
       <FormError message={formError} />
       <FormStatus message={done ? 'Saved.' : null} />

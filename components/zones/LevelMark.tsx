@@ -27,5 +27,5 @@ export function LevelMark({ level, testID }: LevelMarkProps) {
 const styles = StyleSheet.create({
   row: { flexDirection: 'row', alignItems: 'center', gap: space.xs + 2 },
   dot: { width: 8, height: 8, borderRadius: 4 },
-  word: { fontFamily: fonts.bold, fontSize: 13, letterSpacing: 0.6, textTransform: 'uppercase' },
+  word: { fontFamily: fonts.bold, fontSize: 13, letterSpacing: 0.6 },
 });

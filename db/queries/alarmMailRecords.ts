@@ -180,6 +180,10 @@ export async function alarmForMail(db: Db, alarmId: string) {
     .select({
       alarm: alarms,
       zoneName: zones.name,
+      // The zone's limits, for the rule the mail states (when the alarm opens and clears).
+      cautionK: zones.cautionK,
+      wetK: zones.wetK,
+      humidRhPct: zones.humidRhPct,
       sensorName: sensors.name,
       shopName: shops.name,
       timeZone: shops.timeZone,

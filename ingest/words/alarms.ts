@@ -7,8 +7,10 @@
 import { isSensorKind, type AlarmKind } from '../alarmKinds';
 import type { TemperatureUnit } from '../units';
 import type { SurfaceSource } from '../wire/levels';
+import type { Level } from '../wire/levels';
 import { capitalised, dewPointLabel } from './dewPoint';
 import { formatMargin, formatPercent, formatTemperature, formatVolts } from './format';
+import { levelWordInline } from './levels';
 
 export const ALARM_KIND_WORDS: Record<AlarmKind, string> = {
   dew_risk: 'Dew risk',
@@ -80,14 +82,23 @@ export function alarmHeadline(a: AlarmFacts, ctx: AlarmWordsContext): string {
       : `${subject}: ${ALARM_KIND_WORDS[a.kind].toLowerCase()}`;
   }
   switch (a.kind) {
+    // Without a latest value (the screen shows the zone's current one on its own line) the
+    // headline names only the condition, so it never quotes a number that is no longer true.
     case 'dew_risk':
-      return a.minutesToWet !== null && a.minutesToWet > 0
-        ? `${subject}: wet in ${aboutMinutes(a.minutesToWet)}`
+      if (a.minutesToWet !== null && a.minutesToWet > 0) {
+        return `${subject}: wet in ${aboutMinutes(a.minutesToWet)}`;
+      }
+      return a.latestMarginK === null
+        ? `${subject}: dew risk`
         : `${subject}: dew risk, margin ${formatMargin(a.latestMarginK, ctx.unit)}`;
     case 'wet_surface':
-      return `${subject}: wet, margin ${formatMargin(a.latestMarginK, ctx.unit)}`;
+      return a.latestMarginK === null
+        ? `${subject}: wet`
+        : `${subject}: wet, margin ${formatMargin(a.latestMarginK, ctx.unit)}`;
     case 'humid_air':
-      return `${subject}: humid air since ${ctx.since}, ${formatPercent(a.latestRhPct)} RH`;
+      return a.latestRhPct === null
+        ? `${subject}: humid air since ${ctx.since}`
+        : `${subject}: humid air since ${ctx.since}, ${formatPercent(a.latestRhPct)} RH`;
     case 'sensor_silent':
       return `${subject} silent since ${ctx.since}`;
     case 'battery_low':
@@ -150,4 +161,74 @@ export function alarmNumbers(
     rows.push(['Peak RH', formatPercent(a.peakRhPct)]);
   }
   return rows;
+}
+
+/** What the zone reads now (its newest reading), beside which an alarm's worst value stands. */
+export interface CurrentFacts {
+  marginK: number | null;
+  level: Level;
+  rhPct: number | null;
+}
+
+/**
+ * The value now beside the worst one, each labelled, so an alarm that is clearing does not read
+ * as if the iron were still wet: "Now +8.3 °C, dry · worst −2.7 °C". Null for a silent sensor
+ * (it has no now). Without a current reading only the worst is said.
+ */
+export function alarmNowAndWorst(
+  a: AlarmFacts,
+  now: CurrentFacts | null,
+  unit: TemperatureUnit,
+): string | null {
+  switch (a.kind) {
+    case 'dew_risk':
+    case 'wet_surface': {
+      const worst = `worst margin ${formatMargin(a.worstMarginK, unit)}`;
+      if (!now || now.marginK === null) return capitalised(worst);
+      return `Now margin ${formatMargin(now.marginK, unit)}, ${levelWordInline(now.level)} · ${worst}`;
+    }
+    case 'humid_air': {
+      const worst = `worst ${formatPercent(a.peakRhPct)} RH`;
+      if (!now || now.rhPct === null) return capitalised(worst);
+      return `Now ${formatPercent(now.rhPct)} RH · ${worst}`;
+    }
+    case 'battery_low':
+      return `Now ${formatVolts(a.latestBatteryV)} · lowest ${formatVolts(a.lowestBatteryV)}`;
+    case 'sensor_silent':
+      return null;
+  }
+}
+
+/** A kind's state in a few words, after its subject: "Machine room wet". */
+const SHORT_STATE: Record<AlarmKind, string> = {
+  wet_surface: 'wet',
+  dew_risk: 'dew risk',
+  humid_air: 'humid air',
+  sensor_silent: 'silent',
+  battery_low: 'battery low',
+};
+
+/**
+ * The phone banner's one line, the worst alarm first: "2 alarms — Machine room wet". The
+ * alarms come in worst first; null when there are none.
+ */
+export function alarmsSummaryLine(
+  worstFirst: readonly Pick<AlarmFacts, 'kind' | 'zoneName' | 'sensorName'>[],
+): string | null {
+  const worst = worstFirst[0];
+  if (!worst) return null;
+  const count = worstFirst.length === 1 ? '1 alarm' : `${worstFirst.length} alarms`;
+  return `${count} — ${alarmSubject(worst)} ${SHORT_STATE[worst.kind]}`;
+}
+
+/** A notification for a newly opened alarm: its kind as the title, the headline as the body. */
+export function alarmNotification(
+  a: AlarmFacts,
+  ctx: AlarmWordsContext,
+  shopName: string,
+): { title: string; body: string } {
+  return {
+    title: `${ALARM_KIND_WORDS[a.kind]} — ${shopName}`,
+    body: alarmHeadline(a, ctx),
+  };
 }

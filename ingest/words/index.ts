@@ -5,3 +5,5 @@ export * from './dewPoint';
 export * from './format';
 export * from './sensors';
 export * from './zones';
+export * from './levels';
+export * from './rules';

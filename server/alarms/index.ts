@@ -5,7 +5,7 @@ export {
   type AlarmsOpenedHook,
   type SweepOutcome,
 } from './engine';
-export { evaluateZone, readZoneState, type ZoneAlarmState } from './evaluate';
+export { evaluateZone, readZoneState, zoneLevelOf, type ZoneAlarmState } from './evaluate';
 export {
   ALARM_MAIL_RULES,
   decideAlarmMail,

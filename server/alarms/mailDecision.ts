@@ -145,6 +145,7 @@ export async function deliverAlarmMail(
             shopName: found.shopName,
             timeZone: found.timeZone,
             alarm: { ...alarm, zoneName: found.zoneName, sensorName: found.sensorName },
+            limits: { cautionK: found.cautionK, wetK: found.wetK, humidRhPct: found.humidRhPct },
             reading,
             alarmsUrl: `${shopUrl}/alarms`,
             profileUrl: `${shopUrl}/profile`,

@@ -10,8 +10,7 @@
 import type { AlarmValues } from '@/db/queries/alarms';
 import type { AlarmKind } from '@/db/schema';
 import {
-  DEFAULT_HYSTERESIS,
-  DEFAULT_LOOK_AHEAD_MS,
+  ALARM_RULE_NUMBERS,
   DEFAULT_MIN_SILENCE_S,
   DEFAULT_POSTING_INTERVAL_S,
   postingInterval,
@@ -23,30 +22,20 @@ import {
 const MINUTE_MS = 60_000;
 
 export const ALARM_RULES = {
-  /** Dew risk warns when the trend reaches the wet limit within this (DESIGN.md's default). */
-  lookAheadMs: DEFAULT_LOOK_AHEAD_MS,
-  /**
-   * Dew risk clears once the confirmed level is dry (margin ≥ caution limit + band, held — see
-   * ingest/hysteresis.ts) and the early warning has been quiet this long. Ours: two fits on a
-   * 5-minute sensor, so one flat stretch in a rising morning does not close the alarm.
-   */
-  warningQuietMs: 10 * MINUTE_MS,
+  // The numbers people read in the rule texts live in ingest/alarmRules.ts, with their reasons.
+  lookAheadMs: ALARM_RULE_NUMBERS.lookAheadMs,
+  warningQuietMs: ALARM_RULE_NUMBERS.warningQuietMs,
   /** In a backlog the trend is fitted at most once per minute of data; the level every reading. */
   trendEveryMs: MINUTE_MS,
-  /** Level hysteresis: band 0.5 K, 3 readings or 5 min — rules of thumb, stated in ingest/. */
-  level: DEFAULT_HYSTERESIS,
+  level: ALARM_RULE_NUMBERS.level,
   /**
-   * Humid air: RH above the zone's limit (default 60 % — a rule of thumb of the trade, no
-   * standard gives 60 %) for 30 min; clears at 5 % RH below the limit for 15 min. Ours: a door
-   * opened for a delivery must not raise it, and 5 % is about twice a shop hygrometer's error.
+   * Each sensor's level is confirmed on its own; the zone takes the worst of the sensors heard
+   * within this. Ours: twice the slowest posting interval we expect (15 min), so a sensor that
+   * misses one post still counts, and one that stopped cannot hold the zone wet for ever.
    */
-  humid: { openHoldMs: 30 * MINUTE_MS, bandPct: 5, clearHoldMs: 15 * MINUTE_MS },
-  /**
-   * Battery low: under 2.7 V for a pair of lithium cells (3 V nominal) — a rule of thumb of the
-   * trade: such cells hold near 3 V most of their life and fall off quickly below about 2.7 V.
-   * Held 15 min so a cold-morning sag does not raise it; clears 0.1 V above (fresh cells).
-   */
-  battery: { lowV: 2.7, bandV: 0.1, openHoldMs: 15 * MINUTE_MS, clearHoldMs: 15 * MINUTE_MS },
+  levelFreshMs: 30 * MINUTE_MS,
+  humid: ALARM_RULE_NUMBERS.humid,
+  battery: ALARM_RULE_NUMBERS.battery,
   /**
    * Sensor silent: no reading for 3 × the sensor's posting interval — the owner's setting, else
    * the one learnt from its readings, else 5 min — and at least 15 min unless the owner set the

@@ -12,9 +12,11 @@ import {
   ALARM_ADVICE,
   alarmHeadline,
   alarmNumbers,
+  alarmRule,
   alarmStory,
   type AlarmFacts,
   type ReadingFacts,
+  type RuleLimits,
 } from '@/ingest/words';
 
 import {
@@ -47,6 +49,8 @@ export interface AlarmMessageInput {
   shopName: string;
   timeZone: string;
   alarm: MailedAlarm;
+  /** The zone's limits: the rule's numbers (when the alarm opens and clears). */
+  limits: RuleLimits;
   reading: MailedReading | null;
   alarmsUrl: string;
   profileUrl: string;
@@ -76,6 +80,8 @@ export function alarmMessage(input: AlarmMessageInput): MailMessage {
     ? `Measured at ${shopTime(reading.at, timeZone)}:`
     : 'No reading to show.';
   const { steps, cautions } = ALARM_ADVICE[alarm.kind];
+  const rule = alarmRule(alarm.kind, input.limits, unit);
+  const ruleTitle = 'When it opens and clears:';
   const why = `You get this as ${input.role === 'owner' ? 'an owner' : 'a member'} of ${input.shopName} with alarm e-mails on.`;
   const off = 'To stop alarm e-mails, turn them off under Profile:';
   const width = Math.max(0, ...numbers.map(([label]) => label.length)) + 2;
@@ -87,6 +93,10 @@ export function alarmMessage(input: AlarmMessageInput): MailMessage {
     '',
     measuredAt,
     ...numbers.map(([label, value]) => `  ${label.padEnd(width)}${value}`),
+    '',
+    ruleTitle,
+    `- ${rule.opens}`,
+    `- ${rule.clears}`,
     '',
     'What to do now:',
     ...steps.map((step) => `- ${step}`),
@@ -106,6 +116,8 @@ export function alarmMessage(input: AlarmMessageInput): MailMessage {
     paragraph(escapeHtml(story)),
     paragraph(escapeHtml(measuredAt)),
     numbers.length > 0 ? valueTable(numbers) : '',
+    paragraph(ruleTitle),
+    bulletList([rule.opens, rule.clears]),
     paragraph('What to do now:'),
     bulletList(steps),
     safetyBlock(cautions),

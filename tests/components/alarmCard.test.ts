@@ -7,7 +7,7 @@ import { renderToStaticMarkup } from 'react-dom/server';
 import { describe, expect, it } from 'vitest';
 
 import { AlarmCard } from '@/components/alarms/AlarmCard';
-import type { Alarm } from '@/components/queries';
+import type { Alarm, Zone } from '@/components/queries';
 import { ZoneReadings } from '@/components/zones/ZoneReadings';
 import { ALARM_KINDS } from '@/ingest/alarmKinds';
 import { ALARM_ADVICE } from '@/ingest/words';
@@ -35,7 +35,7 @@ const alarm = (extra: Partial<Alarm> = {}): Alarm => ({
   ...extra,
 });
 
-function renderCard(a: Alarm, unit: 'C' | 'F' = 'C', adviceFolded = false): string {
+function renderCard(a: Alarm, unit: 'C' | 'F' = 'C', adviceFolded = false, zone?: Zone): string {
   return renderToStaticMarkup(
     createElement(AlarmCard, {
       shopId: 'shop1',
@@ -45,6 +45,7 @@ function renderCard(a: Alarm, unit: 'C' | 'F' = 'C', adviceFolded = false): stri
       canAcknowledge: false,
       unit,
       adviceFolded,
+      zone,
     }),
   );
 }
@@ -99,7 +100,42 @@ describe('the alarm card', () => {
   it('writes margins in the person’s unit: a difference in °F only scales', () => {
     const html = renderCard(alarm(), 'F');
     expect(textsOf(html, 'alarm-headline')).toEqual(['Machine room: wet, margin -0.9 °F']);
-    expect(html).toContain('closest margin -1.1 °F');
+    expect(html).toContain('Worst margin -1.1 °F');
+    expect(html).not.toContain('°C');
+  });
+
+  // The zone dried since the alarm's last change: the card says so beside the worst, and what
+  // clears it, in °F (1 K = 1.8 °F, no offset; the rule's numbers are ALARM_RULE_NUMBERS').
+  it('shows the zone’s margin now beside the worst, and the rule that clears it', () => {
+    const zone: Zone = {
+      id: 'z1',
+      name: 'Machine room',
+      cautionK: 3,
+      wetK: 1,
+      humidRhPct: 60,
+      purpose: 'machines',
+      emcRegion: 'most',
+      staleAfterS: 900,
+      latest: {
+        at: '2026-01-14T13:55:00Z',
+        air: 18,
+        rh: 50,
+        surface: 16,
+        dewPoint: 7.7,
+        margin: 8.3,
+        emc: 9,
+        level: 'dry',
+        surfaceSource: 'probe',
+        sensorId: 's1',
+      },
+    };
+    const html = decode(renderCard(alarm({ worstMarginK: -2.7 }), 'F', false, zone));
+    expect(textsOf(html, 'alarm-headline')).toEqual(['Machine room: wet']);
+    expect(textsOf(html, 'alarm-now')).toEqual(['Now margin +14.9 °F, dry · worst margin -4.9 °F']);
+    expect(textsOf(html, 'alarm-rule')[0]).toMatch(
+      /^Clears when the dew margin stays above 2\.7 °F for 3 readings or 5 min, whichever comes first\. Opens when the dew margin is at or below 1\.8 °F/,
+    );
+    expect(html).toContain('Wet · Wet surface');
     expect(html).not.toContain('°C');
   });
 });

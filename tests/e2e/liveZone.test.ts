@@ -5,6 +5,8 @@ import type { Page } from 'playwright-core';
 import { afterAll, beforeAll, describe, expect, it } from 'vitest';
 
 import { DEMO_PEOPLE } from '@/db/seed';
+import type { Level } from '@/ingest/wire/levels';
+import { LEVEL_WORDS } from '@/ingest/words';
 
 import {
   postReading,
@@ -71,7 +73,10 @@ describe.each([
     expect(await card.getByTestId('zone-margin').textContent()).toContain(
       Math.abs(expected.margin).toFixed(1),
     );
-    expect(await card.getByTestId('zone-level').textContent()).toContain(expected.level);
+    // The level word in sentence case (ingest/words/levels.ts): "Wet" for the API's `wet`.
+    expect(await card.getByTestId('zone-level').textContent()).toContain(
+      LEVEL_WORDS[expected.level as Level],
+    );
     await expect.poll(countOf, { timeout: 2000, interval: 50 }).toBe(pointsBefore + 1);
 
     await page.screenshot({ path: `${SHOTS}/zone-${label}.png`, fullPage: true });

@@ -171,6 +171,44 @@ describe('an alarm opening', () => {
   });
 });
 
+describe('the rule in the mail', () => {
+  // The zone's own limits (wet 2 K, caution 4 K), the engine's band 0.5 K and hold of 3 readings
+  // or 5 min (ALARM_RULE_NUMBERS, rules of thumb of ours): 2 K = 3.6 °F and 2.5 K = 4.5 °F, a
+  // difference scaling by 1.8 with no 32 °F offset.
+  it('says when the alarm opens and clears, in each recipient’s unit, from the zone’s limits', async () => {
+    const p = await shopWithPeople(t);
+    await p.owner.agent
+      .patch(`/api/v1/shops/${p.owner.shopId}/zones/${p.owner.zoneId}`)
+      .send({ cautionK: 4, wetK: 2 })
+      .expect(200);
+    const startMs = seriesStartMs();
+    await postEach(
+      t.app,
+      p.owner.token,
+      [0, 1, 2].map((i) => withMargin(startMs + i * MINUTE_MS, 1.5)),
+    );
+    const wet = await onlyAlarm(p.owner.agent, p.owner.shopId, 'wet_surface');
+    await deliverAt(t, wet.id, Date.parse(wet.openedAt) + 30_000);
+    const [toMember] = mailsTo(t, p.member.email);
+    const [toMemberF] = mailsTo(t, p.memberF.email);
+
+    expect(toMember!.text).toContain(
+      'When it opens and clears:\n' +
+        '- Opens when the dew margin is at or below 2 °C (the wet limit) for 3 readings or 5 min, whichever comes first.\n' +
+        '- Clears when the dew margin stays above 2.5 °C for 3 readings or 5 min, whichever comes first.\n',
+    );
+    expect(toMemberF!.text).toContain(
+      '- Opens when the dew margin is at or below 3.6 °F (the wet limit) for 3 readings or 5 min, whichever comes first.\n' +
+        '- Clears when the dew margin stays above 4.5 °F for 3 readings or 5 min, whichever comes first.\n',
+    );
+    expect(toMemberF!.subject).toBe(`Machine room: wet, margin +${fDelta(1.5)} °F — ${SHOP_NAME}`);
+    expect(toMemberF!.html).toContain('Clears when the dew margin stays above 4.5 °F');
+    for (const part of [toMemberF!.subject, toMemberF!.text, toMemberF!.html]) {
+      expect(part).not.toContain('°C');
+    }
+  });
+});
+
 describe('a flapping alarm', () => {
   it('mails at most once per zone and kind in 30 min', async () => {
     const p = await shopWithPeople(t);

@@ -1,5 +1,9 @@
+import { useLocalSearchParams } from 'expo-router';
+
 import { AlarmsScreen } from '@/components/alarms/AlarmsScreen';
 
 export default function ShopAlarms() {
-  return <AlarmsScreen />;
+  // ?alarm=<id>: the alarm a notification opened.
+  const { alarm } = useLocalSearchParams<{ alarm?: string }>();
+  return <AlarmsScreen focusAlarmId={typeof alarm === 'string' ? alarm : undefined} />;
 }
