@@ -6,7 +6,7 @@ import { Button } from '@/components/forms';
 import { shopSectionHref } from '@/components/hrefs';
 import { Content } from '@/components/layout';
 import { useAlarmsQuery, useUnitPref, type Alarm } from '@/components/queries';
-import { colors, fonts, levelColors, space, type } from '@/components/theme';
+import { colors, fonts, levelColors, space, TAP_TARGET_PX, type } from '@/components/theme';
 import { useNow } from '@/components/ui';
 
 import { AlarmAckForm } from './AlarmAckForm';
@@ -133,6 +133,8 @@ const styles = StyleSheet.create({
   },
   link: {
     ...type.small,
+    minHeight: TAP_TARGET_PX,
+    paddingVertical: (TAP_TARGET_PX - type.small.lineHeight) / 2,
     color: colors.air,
     textDecorationLine: 'underline',
     alignSelf: 'flex-start',

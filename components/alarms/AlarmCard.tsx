@@ -70,7 +70,7 @@ export function AlarmCard({
         <Text style={[styles.kind, { color: tone }]}>{ALARM_KIND_WORDS[alarm.kind]}</Text>
         <Text style={[type.label, open && styles.openWord]}>{open ? 'OPEN' : 'CLEARED'}</Text>
       </View>
-      <Text style={type.heading} testID="alarm-headline">
+      <Text style={type.heading} role="heading" aria-level={3} testID="alarm-headline">
         {alarmHeadline(alarm, nowMs, timeZone, unit)}
       </Text>
       <Text style={type.small}>{times.join(' · ')}</Text>

@@ -1,6 +1,7 @@
-import { Pressable, StyleSheet, Text } from 'react-native';
+import type { Ref } from 'react';
+import { Pressable, StyleSheet, Text, type View } from 'react-native';
 
-import { colors, fonts, radius, space } from '@/components/theme';
+import { colors, fonts, radius, space, TAP_TARGET_PX } from '@/components/theme';
 
 interface ButtonProps {
   label: string;
@@ -8,6 +9,13 @@ interface ButtonProps {
   disabled?: boolean;
   /** `primary` is filled ink; `quiet` is an outlined button for secondary actions. */
   variant?: 'primary' | 'quiet';
+  /**
+   * The name assistive technology reads when the label alone does not say what it acts on
+   * ("Withdraw the invitation to ana@…" for a "Withdraw" among several); it starts with the label.
+   */
+  accessibilityLabel?: string;
+  /** The pressable, so a caller can move focus to it. */
+  ref?: Ref<View>;
   testID?: string;
 }
 
@@ -16,12 +24,17 @@ export function Button({
   onPress,
   disabled = false,
   variant = 'primary',
+  accessibilityLabel,
+  ref,
   testID,
 }: ButtonProps) {
   const primary = variant === 'primary';
   return (
     <Pressable
+      ref={ref}
       accessibilityRole="button"
+      accessibilityLabel={accessibilityLabel}
+      aria-label={accessibilityLabel}
       accessibilityState={{ disabled }}
       aria-disabled={disabled}
       disabled={disabled}
@@ -41,8 +54,12 @@ export function Button({
 
 const styles = StyleSheet.create({
   button: {
-    minHeight: 44,
+    minHeight: TAP_TARGET_PX,
+    minWidth: TAP_TARGET_PX,
+    // A long label wraps inside the button rather than pushing it off a narrow card.
+    maxWidth: '100%',
     paddingHorizontal: space.lg,
+    paddingVertical: space.xs,
     borderRadius: radius.control,
     borderWidth: 1,
     alignItems: 'center',
@@ -53,7 +70,7 @@ const styles = StyleSheet.create({
   quiet: { backgroundColor: 'transparent', borderColor: colors.border },
   quietActive: { backgroundColor: colors.card, borderColor: colors.iron },
   disabled: { opacity: 0.55 },
-  label: { fontFamily: fonts.medium, fontSize: 14 },
+  label: { fontFamily: fonts.medium, fontSize: 14, textAlign: 'center' },
   primaryLabel: { color: colors.card },
   quietLabel: { color: colors.ink },
 });

@@ -48,9 +48,6 @@ function SensorsBody({ shop }: { shop: ShopSummary }) {
 
   return (
     <>
-      <Text style={type.title} role="heading" aria-level={1}>
-        Sensors
-      </Text>
       {issued ? <TokenReveal {...issued} onDone={() => setIssued(null)} /> : null}
       {sensors.isError ? (
         <Notice title="Sensors could not be loaded">{sensors.error.message}</Notice>
@@ -107,7 +104,12 @@ function SensorCard({ sensor, shop, zones, onToken }: SensorCardProps) {
   return (
     <Panel testID="sensor-card">
       <View style={styles.cardTop}>
-        <Text style={[type.heading, styles.grow]} testID="sensor-name">
+        <Text
+          style={[type.heading, styles.grow]}
+          role="heading"
+          aria-level={2}
+          testID="sensor-name"
+        >
           {sensor.name}
         </Text>
         {revoked ? (

@@ -3,15 +3,7 @@ import { Pressable, StyleSheet, Text, View } from 'react-native';
 
 import { formatLastSeen, formatMargin } from '@/components/format';
 import { useUnitPref, type Zone } from '@/components/queries';
-import {
-  cardSurface,
-  colors,
-  levelColors,
-  levelWords,
-  space,
-  tabular,
-  type,
-} from '@/components/theme';
+import { cardSurface, colors, levelColors, space, tabular, type } from '@/components/theme';
 import { Flash, useNow } from '@/components/ui';
 
 import { LevelMark } from './LevelMark';
@@ -38,7 +30,13 @@ export function ZoneCard({ zone, timeZone, href, selected = false }: ZoneCardPro
     <View style={styles.inner}>
       <View style={[styles.rule, { backgroundColor: levelColors[level] }]} />
       <View style={styles.top}>
-        <Text style={[type.heading, styles.name]} numberOfLines={2} testID="zone-name">
+        <Text
+          style={[type.heading, styles.name]}
+          numberOfLines={2}
+          role="heading"
+          aria-level={2}
+          testID="zone-name"
+        >
           {zone.name}
         </Text>
         <LevelMark level={level} testID="zone-level" />
@@ -65,7 +63,6 @@ export function ZoneCard({ zone, timeZone, href, selected = false }: ZoneCardPro
   );
 
   const cardStyle = [styles.card, selected && styles.selected];
-  const linkLabel = `${zone.name}: ${levelWords[level]}, dew margin ${margin}`;
   if (!href) {
     return (
       <View style={cardStyle} testID="zone-card">
@@ -77,12 +74,12 @@ export function ZoneCard({ zone, timeZone, href, selected = false }: ZoneCardPro
     <Link href={href} asChild>
       {/* Link's Slot passes style straight to the DOM: a style function is dropped and an
           array throws, so the card gets one flat object here. */}
+      {/* Named by what it shows, its zone name first: a shorter label than the visible text
+          would leave a person who speaks what they see unable to name it (WCAG 2.5.3). */}
       <Pressable
         style={StyleSheet.flatten(cardStyle)}
         testID="zone-card"
         accessibilityRole="link"
-        accessibilityLabel={linkLabel}
-        aria-label={linkLabel}
         aria-current={selected ? 'page' : undefined}
       >
         {body}

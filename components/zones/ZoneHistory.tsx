@@ -23,7 +23,9 @@ export function ZoneHistory({ shopId, zone, timeZone, chartHeight }: ZoneHistory
   return (
     <Panel>
       <View style={styles.head}>
-        <Text style={type.heading}>Last 24 hours</Text>
+        <Text style={type.heading} role="heading" aria-level={3}>
+          Last 24 hours
+        </Text>
         {readings.isFetching ? <Text style={type.small}>updating…</Text> : null}
       </View>
       {data ? (

@@ -6,7 +6,7 @@ import { shopHref } from '@/components/hrefs';
 import { LIST_COLUMN_WIDTH, useBreakpoints } from '@/components/layout';
 import { isSignedOut, useZonesQuery, type Zone } from '@/components/queries';
 import { useFrameShop } from '@/components/shop/ShopFrame';
-import { colors, space, type } from '@/components/theme';
+import { colors, space, TAP_TARGET_PX, type } from '@/components/theme';
 import { Notice, useDocumentTitle } from '@/components/ui';
 
 import { ZoneCard } from './ZoneCard';
@@ -74,7 +74,9 @@ export function ZonesScreen({ zoneId }: ZonesScreenProps) {
           />
         </View>
         <View style={styles.detailColumn} testID="zone-detail">
-          <Text style={type.title}>{shown.name}</Text>
+          <Text style={type.title} role="heading" aria-level={2}>
+            {shown.name}
+          </Text>
           <ZoneHistory shopId={shopId} zone={shown} timeZone={timeZone} chartHeight={360} />
         </View>
       </View>
@@ -101,6 +103,12 @@ const styles = StyleSheet.create({
   listColumn: { width: LIST_COLUMN_WIDTH, flexShrink: 0 },
   detailColumn: { flex: 1, minWidth: 0, gap: space.md },
   stack: { gap: space.md },
-  back: { ...type.body, color: colors.air, alignSelf: 'flex-start', paddingVertical: space.xs },
+  back: {
+    ...type.body,
+    color: colors.air,
+    alignSelf: 'flex-start',
+    minHeight: TAP_TARGET_PX,
+    paddingVertical: (TAP_TARGET_PX - type.body.lineHeight) / 2,
+  },
   link: { color: colors.air, textDecorationLine: 'underline' },
 });
