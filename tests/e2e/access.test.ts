@@ -76,19 +76,25 @@ const SIGNED_IN: Route[] = [
   { name: 'shop-not-found', path: () => '/shops/00000000-0000-4000-8000-000000000000' },
 ];
 
-/** Opens a route and waits until the app has drawn it (fonts in, no request in flight). */
+/**
+ * Opens a route and waits until the app has drawn it: fonts in, no request in flight, the
+ * screen's h1 there (every screen has one; without it the heading check says so) and nothing
+ * still "Loading…". The app first paints a blank splash, which must not count as drawn.
+ */
 async function open(page: Page, path: string) {
   const t0 = Date.now();
   await page.goto(`${suite.server.baseUrl}${path}`);
   await page.waitForLoadState('networkidle');
   await page.evaluate(() => document.fonts.ready.then(() => undefined));
-  // A screen still saying "Loading…" is not the screen yet.
-  await expect
-    .poll(() => page.getByText(/^Loading/).count(), {
-      message: `${path} still says "Loading…"`,
-      timeout: 10_000,
-    })
-    .toBe(0);
+  const drawn = () =>
+    page.evaluate(
+      () =>
+        document.querySelector('h1') !== null &&
+        !Array.from(document.querySelectorAll('body *')).some(
+          (el) => el.childElementCount === 0 && /^Loading/.test(el.textContent ?? ''),
+        ),
+    );
+  while (!(await drawn()) && Date.now() - t0 < 15_000) await page.waitForTimeout(100);
   if (process.env.ACCESS_TIMING) console.log(`${path}: open ${Date.now() - t0} ms`);
 }
 
@@ -100,10 +106,21 @@ async function axeProblems(page: Page): Promise<string[]> {
     .map((v) => `axe ${v.id} (${v.impact}): ${v.nodes.map((n) => n.target.join(' ')).join(', ')}`);
 }
 
-/** The page's level-1 headings: exactly one, the screen's own title. */
+/**
+ * The page's level-1 headings: exactly one, the screen's own title — a heading holding the
+ * header's controls (the shop switcher, "Sign out") is the whole top bar, not a title.
+ */
 async function headingProblems(page: Page): Promise<string[]> {
-  const h1s = await page.locator('h1').allTextContents();
-  return h1s.length === 1 ? [] : [`${h1s.length} h1 elements: ${JSON.stringify(h1s)}`];
+  const h1s = await page.locator('h1').evaluateAll((els) =>
+    els.map((el) => ({
+      text: (el.textContent ?? '').trim(),
+      controls: el.querySelectorAll('a, button, input, [role="button"], [role="link"]').length,
+    })),
+  );
+  const problems = h1s.length === 1 ? [] : [`${h1s.length} h1 elements: ${JSON.stringify(h1s)}`];
+  for (const h1 of h1s)
+    if (h1.controls > 0) problems.push(`the h1 "${h1.text}" holds ${h1.controls} controls`);
+  return problems;
 }
 
 // WCAG 2.2 SC 2.5.5 Target Size (Enhanced, AAA): 44 × 44 CSS px; Apple's Human Interface
@@ -280,8 +297,9 @@ async function tabTo(
   testId: string,
   options: { inside?: string; limit?: number } = {},
 ) {
-  for (let i = 0; i < (options.limit ?? 80); i++) {
-    await page.keyboard.press('Tab');
+  for (let i = 0; i <= (options.limit ?? 80); i++) {
+    // Focus may already be there (a field that takes focus as it opens): look before pressing.
+    if (i > 0) await page.keyboard.press('Tab');
     const found = await page.evaluate(
       ({ testId, inside }) => {
         const el = document.activeElement;
@@ -343,7 +361,8 @@ describe('with the keyboard alone (390×844)', () => {
     await card.first().waitFor();
     await tabTo(page, 'alarm-ack-open', { inside: name, limit: 200 });
     await page.keyboard.press('Enter');
-    await tabTo(page, 'alarm-ack-note');
+    // The note field takes focus as the form opens (AlarmAckForm).
+    await expect.poll(() => focusedTestId(page)).toBe('alarm-ack-note');
     await page.keyboard.type('Wiped the table and covered it');
     await tabTo(page, 'alarm-ack-save');
     await page.keyboard.press('Enter');
@@ -383,7 +402,7 @@ describe('forms tie their errors to the fields (390×844)', () => {
     // Nothing typed: Enter submits, the client's checks fail, focus lands on the e-mail field.
     await page.keyboard.press('Enter');
     await expect
-      .poll(() => focusedField(page))
+      .poll(() => focusedField(page), { timeout: 10_000 })
       .toEqual({
         testId: 'sign-in-email',
         invalid: 'true',
@@ -393,7 +412,7 @@ describe('forms tie their errors to the fields (390×844)', () => {
     await page.keyboard.type(member.email);
     await page.keyboard.press('Enter');
     await expect
-      .poll(() => focusedField(page))
+      .poll(() => focusedField(page), { timeout: 10_000 })
       .toEqual({
         testId: 'sign-in-password',
         invalid: 'true',
@@ -423,7 +442,7 @@ describe('forms tie their errors to the fields (390×844)', () => {
     await page.getByTestId('profile-password-submit').focus();
     await page.keyboard.press('Enter');
     await expect
-      .poll(() => focusedField(page))
+      .poll(() => focusedField(page), { timeout: 10_000 })
       .toEqual({
         testId: 'profile-current-password',
         invalid: 'true',
