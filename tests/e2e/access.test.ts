@@ -203,6 +203,30 @@ async function overflowProblems(page: Page): Promise<string[]> {
 }
 
 /**
+ * Tabs through the screen's first controls and checks each draws the focus ring: a solid
+ * outline of at least 2 px (WCAG 2.2 SC 2.4.13; the colours are checked in
+ * tests/components/focusRing.test.ts).
+ */
+async function focusRingProblems(page: Page, presses = 30): Promise<string[]> {
+  const out = new Set<string>();
+  await page.evaluate(() => (document.activeElement as HTMLElement | null)?.blur());
+  for (let i = 0; i < presses; i++) {
+    await page.keyboard.press('Tab');
+    const seen = await page.evaluate(() => {
+      const el = document.activeElement;
+      if (!el || el === document.body) return null;
+      const s = getComputedStyle(el);
+      const name = el.getAttribute('aria-label') ?? (el.textContent ?? '').trim().slice(0, 40);
+      return { name, tag: el.tagName.toLowerCase(), style: s.outlineStyle, width: s.outlineWidth };
+    });
+    if (!seen) continue;
+    if (seen.style !== 'solid' || parseFloat(seen.width) < 2)
+      out.add(`no focus ring (${seen.style} ${seen.width}): <${seen.tag}> "${seen.name}"`);
+  }
+  return [...out];
+}
+
+/**
  * The screen as it opens and, when its column scrolls, scrolled to the end: the page scrolls
  * inside the app's own scroll view, which a full-page screenshot does not unroll.
  */
@@ -233,7 +257,12 @@ async function openConfirmations(page: Page): Promise<number> {
 async function checkScreen(page: Page, name: string, phone: boolean): Promise<string[]> {
   const t0 = Date.now();
   const problems = [...(await axeProblems(page)), ...(await headingProblems(page))];
-  if (phone) problems.push(...(await targetProblems(page)), ...(await overflowProblems(page)));
+  if (phone)
+    problems.push(
+      ...(await targetProblems(page)),
+      ...(await overflowProblems(page)),
+      ...(await focusRingProblems(page)),
+    );
   if (process.env.ACCESS_TIMING) console.log(`${name}: checks ${Date.now() - t0} ms`);
   // Printed whole: an assertion's diff would cut a long list short.
   if (problems.length > 0) console.log(problems.map((p) => `${name}: ${p}`).join('\n'));
