@@ -50,6 +50,22 @@ export const fonts = {
   bold: 'JetBrainsMono_700Bold',
 } as const;
 
+/**
+ * The keyboard focus ring, two-tone so it shows on anything: an inner band of card paper right
+ * at the control's edge and an outer band of ink around it. On a light page the ink band stands
+ * out; on a filled dark control (a primary button, a selected option) the paper band does.
+ * tests/components/focusRing.test.ts computes both contrasts (WCAG 2.2 SC 1.4.11 and 2.4.13 ask
+ * for at least 2 CSS px and 3:1).
+ */
+export const focusRing = { inner: colors.card, outer: colors.ink, bandPx: 2 } as const;
+
+/**
+ * The least width and height of anything pressed: WCAG 2.2 SC 2.5.5 Target Size (Enhanced, AAA)
+ * asks 44 × 44 CSS px, and Apple's Human Interface Guidelines 44 × 44 pt. tests/e2e/access.test.ts
+ * measures every control on every screen at 390 px against it.
+ */
+export const TAP_TARGET_PX = 44;
+
 export const space = { xs: 4, sm: 8, md: 12, lg: 16, xl: 24, xxl: 32 } as const;
 
 export const radius = { card: 10, control: 6 } as const;

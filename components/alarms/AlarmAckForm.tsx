@@ -44,7 +44,7 @@ export function AlarmAckForm({ shopId, alarmId, onDone }: AlarmAckFormProps) {
         testID="alarm-ack-note"
       />
       {serverProblem ? (
-        <Text style={[type.small, styles.error]} testID="alarm-ack-error">
+        <Text style={[type.small, styles.error]} role="alert" testID="alarm-ack-error">
           {serverProblem}
         </Text>
       ) : null}

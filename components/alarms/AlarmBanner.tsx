@@ -13,7 +13,7 @@ import {
   type Alarm,
   type Zone,
 } from '@/components/queries';
-import { colors, fonts, levelColors, space, type } from '@/components/theme';
+import { colors, fonts, levelColors, space, TAP_TARGET_PX, type } from '@/components/theme';
 import { useNow } from '@/components/ui';
 
 import { AlarmAckForm } from './AlarmAckForm';
@@ -214,6 +214,8 @@ const styles = StyleSheet.create({
   more: { fontFamily: fonts.bold, fontSize: 18, lineHeight: 20, color: colors.iron },
   link: {
     ...type.small,
+    minHeight: TAP_TARGET_PX,
+    paddingVertical: (TAP_TARGET_PX - type.small.lineHeight) / 2,
     color: colors.air,
     textDecorationLine: 'underline',
     alignSelf: 'flex-start',

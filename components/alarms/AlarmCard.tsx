@@ -100,7 +100,7 @@ export function AlarmCard({
         </Text>
         <Text style={[type.label, open && styles.openWord]}>{open ? 'Open' : 'Cleared'}</Text>
       </View>
-      <Text style={type.heading} testID="alarm-headline">
+      <Text style={type.heading} role="heading" aria-level={3} testID="alarm-headline">
         {alarmHeadline(alarm, nowMs, timeZone, unit, zone)}
       </Text>
       {values ? (

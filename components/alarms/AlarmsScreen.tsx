@@ -59,7 +59,7 @@ function AlarmLists({
 
   const section = (title: string, items: Alarm[], empty: string, testID: string) => (
     <View style={[styles.section, wide && styles.wideSection]} testID={testID}>
-      <Text style={type.title}>
+      <Text style={type.title} role="heading" aria-level={2}>
         {title} <Text style={type.small}>({items.length})</Text>
       </Text>
       {items.length === 0 ? <Notice title={empty} /> : null}

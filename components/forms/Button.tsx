@@ -1,6 +1,7 @@
-import { Pressable, StyleSheet, Text } from 'react-native';
+import type { Ref } from 'react';
+import { Pressable, StyleSheet, Text, type View } from 'react-native';
 
-import { colors, fonts, radius, space } from '@/components/theme';
+import { colors, fonts, radius, space, TAP_TARGET_PX } from '@/components/theme';
 
 interface ButtonProps {
   label: string;
@@ -13,6 +14,8 @@ interface ButtonProps {
    * ("Withdraw the invitation to ana@…" for a "Withdraw" among several); it starts with the label.
    */
   accessibilityLabel?: string;
+  /** The pressable, so a caller can move focus to it. */
+  ref?: Ref<View>;
   testID?: string;
 }
 
@@ -22,11 +25,13 @@ export function Button({
   disabled = false,
   variant = 'primary',
   accessibilityLabel,
+  ref,
   testID,
 }: ButtonProps) {
   const primary = variant === 'primary';
   return (
     <Pressable
+      ref={ref}
       accessibilityRole="button"
       accessibilityLabel={accessibilityLabel}
       aria-label={accessibilityLabel}
@@ -49,8 +54,12 @@ export function Button({
 
 const styles = StyleSheet.create({
   button: {
-    minHeight: 44,
+    minHeight: TAP_TARGET_PX,
+    minWidth: TAP_TARGET_PX,
+    // A long label wraps inside the button rather than pushing it off a narrow card.
+    maxWidth: '100%',
     paddingHorizontal: space.lg,
+    paddingVertical: space.xs,
     borderRadius: radius.control,
     borderWidth: 1,
     alignItems: 'center',
@@ -61,7 +70,7 @@ const styles = StyleSheet.create({
   quiet: { backgroundColor: 'transparent', borderColor: colors.border },
   quietActive: { backgroundColor: colors.card, borderColor: colors.iron },
   disabled: { opacity: 0.55 },
-  label: { fontFamily: fonts.medium, fontSize: 14 },
+  label: { fontFamily: fonts.medium, fontSize: 14, textAlign: 'center' },
   primaryLabel: { color: colors.card },
   quietLabel: { color: colors.ink },
 });

@@ -1,6 +1,7 @@
+import { useId } from 'react';
 import { Pressable, StyleSheet, Text, View } from 'react-native';
 
-import { colors, fonts, radius, space, type } from '@/components/theme';
+import { colors, fonts, radius, space, TAP_TARGET_PX, type } from '@/components/theme';
 
 interface ChoiceProps<T extends string> {
   label: string;
@@ -22,12 +23,19 @@ export function Choice<T extends string>({
   error,
   testID,
 }: ChoiceProps<T>) {
+  const errorId = `${useId()}-error`;
   return (
     <View style={styles.field}>
       <Text style={type.label} nativeID={testID ? `${testID}-label` : undefined}>
         {label}
       </Text>
-      <View role="radiogroup" aria-label={label} style={styles.row} testID={testID}>
+      <View
+        role="radiogroup"
+        aria-label={label}
+        aria-describedby={error ? errorId : undefined}
+        style={styles.row}
+        testID={testID}
+      >
         {options.map((option) => {
           const selected = option.value === value;
           return (
@@ -52,7 +60,11 @@ export function Choice<T extends string>({
           );
         })}
       </View>
-      {error ? <Text style={[type.small, styles.error]}>{error}</Text> : null}
+      {error ? (
+        <Text style={[type.small, styles.error]} nativeID={errorId}>
+          {error}
+        </Text>
+      ) : null}
     </View>
   );
 }
@@ -61,7 +73,9 @@ const styles = StyleSheet.create({
   field: { gap: space.xs },
   row: { flexDirection: 'row', flexWrap: 'wrap', gap: space.sm },
   option: {
-    minHeight: 40,
+    minHeight: TAP_TARGET_PX,
+    minWidth: TAP_TARGET_PX,
+    alignItems: 'center',
     paddingHorizontal: space.md,
     borderRadius: radius.control,
     borderWidth: 1,

@@ -1,4 +1,4 @@
-import { useState } from 'react';
+import { useEffect, useRef, useState } from 'react';
 import { StyleSheet, Text, View } from 'react-native';
 
 import { space, type } from '@/components/theme';
@@ -18,7 +18,12 @@ interface ConfirmButtonProps {
   testID?: string;
 }
 
-/** An action that cannot be undone: the first press asks, the second does it. */
+/**
+ * An action that cannot be undone: the first press asks, the second does it. Focus follows:
+ * asking puts it on the confirming button (the pressed one is gone), Cancel puts it back on the
+ * first, so a keyboard user is never dropped at the top of the page. On a narrow card the
+ * question wraps and the two buttons stack.
+ */
 export function ConfirmButton({
   label,
   question,
@@ -29,15 +34,28 @@ export function ConfirmButton({
   testID,
 }: ConfirmButtonProps) {
   const [asking, setAsking] = useState(false);
+  const start = useRef<View>(null);
+  const confirm = useRef<View>(null);
+  // Only after a press here: the first render must not steal focus from the page.
+  const pressed = useRef(false);
+  useEffect(() => {
+    if (!pressed.current) return;
+    (asking ? confirm : start).current?.focus();
+  }, [asking]);
+  const ask = (next: boolean) => {
+    pressed.current = true;
+    setAsking(next);
+  };
   if (!asking) {
     return (
       <View style={styles.start}>
         <Button
+          ref={start}
           label={label}
           accessibilityLabel={accessibilityLabel}
           variant="quiet"
           disabled={disabled}
-          onPress={() => setAsking(true)}
+          onPress={() => ask(true)}
           testID={testID}
         />
       </View>
@@ -48,6 +66,7 @@ export function ConfirmButton({
       <Text style={type.body}>{question}</Text>
       <View style={styles.row}>
         <Button
+          ref={confirm}
           label={confirmLabel ?? `Yes, ${label.toLowerCase()}`}
           onPress={() => {
             setAsking(false);
@@ -55,7 +74,7 @@ export function ConfirmButton({
           }}
           testID={testID ? `${testID}-confirm` : undefined}
         />
-        <Button label="Cancel" variant="quiet" onPress={() => setAsking(false)} />
+        <Button label="Cancel" variant="quiet" onPress={() => ask(false)} />
       </View>
     </View>
   );
@@ -65,5 +84,6 @@ const styles = StyleSheet.create({
   start: { alignSelf: 'flex-start' },
   // Full width: in a row of actions the question takes its own line and wraps.
   ask: { gap: space.sm, width: '100%' },
+  // Wraps: two buttons that do not fit side by side stack, each at most the card's width.
   row: { flexDirection: 'row', flexWrap: 'wrap', gap: space.sm },
 });

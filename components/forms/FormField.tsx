@@ -5,13 +5,17 @@ import { TextField } from './TextField';
 
 type FieldProps<T extends FieldValues> = Omit<
   ComponentProps<typeof TextField>,
-  'value' | 'onChangeText' | 'onBlur' | 'error'
+  'value' | 'onChangeText' | 'onBlur' | 'error' | 'ref'
 > & {
   control: Control<T>;
   name: Path<T>;
 };
 
-/** A TextField bound to a react-hook-form field, showing that field's error beneath it. */
+/**
+ * A TextField bound to a react-hook-form field, showing that field's error beneath it. The
+ * input's ref goes to the form, which moves focus to the first field in error after a failed
+ * submit (react-hook-form's `shouldFocusError`; applyServerErrors for the server's messages).
+ */
 export function FormField<T extends FieldValues>({ control, name, ...props }: FieldProps<T>) {
   return (
     <Controller
@@ -20,6 +24,7 @@ export function FormField<T extends FieldValues>({ control, name, ...props }: Fi
       render={({ field, fieldState }) => (
         <TextField
           {...props}
+          ref={field.ref}
           value={typeof field.value === 'string' ? field.value : ''}
           onChangeText={field.onChange}
           onBlur={field.onBlur}

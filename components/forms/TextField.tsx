@@ -1,4 +1,4 @@
-import { useState } from 'react';
+import { useId, useState, type Ref } from 'react';
 import { StyleSheet, Text, TextInput, View, type TextInputProps } from 'react-native';
 
 import { colors, fonts, radius, space, type } from '@/components/theme';
@@ -8,21 +8,33 @@ interface TextFieldProps extends Omit<TextInputProps, 'style'> {
   label: string;
   /** A message about this field from the server (e.g. "Enter a valid e-mail address"). */
   error?: string;
+  /** The input, so a form can move focus to it (react-hook-form after a failed submit). */
+  ref?: Ref<TextInput>;
 }
 
-/** A labelled text input; the label is both visible and the field's accessible name. */
-export function TextField({ label, error, testID, ...input }: TextFieldProps) {
+/**
+ * A labelled text input; the label is both visible and the field's accessible name. Its error
+ * is tied to it (`aria-describedby`, `aria-invalid`), so a screen reader reads the message
+ * when the field gets focus, not only someone who sees the red line.
+ */
+export function TextField({ label, error, testID, ref, ...input }: TextFieldProps) {
   const [focused, setFocused] = useState(false);
+  const errorId = `${useId()}-error`;
   return (
     <View style={styles.field}>
       <Text style={type.label}>{label}</Text>
       <TextInput
         {...input}
+        ref={ref}
         testID={testID}
         accessibilityLabel={label}
         aria-label={label}
         aria-invalid={error ? true : undefined}
+        aria-describedby={error ? errorId : undefined}
         placeholderTextColor={colors.iron}
+        // Enter submits the form and keeps the focus here (react-native-web blurs a one-line
+        // field on Enter by default, which would undo moving focus to a field in error).
+        blurOnSubmit={input.blurOnSubmit ?? false}
         onFocus={(event) => {
           setFocused(true);
           input.onFocus?.(event);
@@ -38,7 +50,11 @@ export function TextField({ label, error, testID, ...input }: TextFieldProps) {
         ]}
       />
       {error ? (
-        <Text style={[type.small, styles.error]} testID={testID ? `${testID}-error` : undefined}>
+        <Text
+          style={[type.small, styles.error]}
+          nativeID={errorId}
+          testID={testID ? `${testID}-error` : undefined}
+        >
           {error}
         </Text>
       ) : null}

@@ -3,9 +3,10 @@ import type { FieldValues, Path, UseFormSetError } from 'react-hook-form';
 import { isApiError } from '@/components/queries';
 
 /**
- * Puts the server's per-field messages (`details[].path`) next to the fields they name and
- * returns the message left for the form as a whole, if any. `fieldOf` maps a server path to
- * a form field when the two are named differently.
+ * Puts the server's per-field messages (`details[].path`) next to the fields they name, moves
+ * focus to the first of them (so a keyboard or screen-reader user lands on what to fix), and
+ * returns the message left for the form as a whole, if any. `fieldOf` maps a server path to a
+ * form field when the two are named differently.
  */
 export function applyServerErrors<T extends FieldValues>(
   error: unknown,
@@ -19,7 +20,7 @@ export function applyServerErrors<T extends FieldValues>(
     const name = fieldOf(detail.path);
     const field = fields.find((f) => f === name);
     if (field) {
-      setError(field, { type: 'server', message: detail.message });
+      setError(field, { type: 'server', message: detail.message }, { shouldFocus: !placed });
       placed = true;
     }
   }

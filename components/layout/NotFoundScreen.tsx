@@ -12,7 +12,7 @@ export function NotFoundScreen() {
   return (
     <Screen>
       <Content>
-        <Notice title="Nothing here" testID="not-found">
+        <Notice title="Nothing here" level={1} testID="not-found">
           <Text style={type.body}>
             This page does not exist.{' '}
             <Link href="/" style={styles.link}>

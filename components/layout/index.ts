@@ -11,4 +11,5 @@ export {
 export { Content } from './Content';
 export { NotFoundScreen } from './NotFoundScreen';
 export { Screen } from './Screen';
+export { ScreenTitle } from './ScreenTitle';
 export { ShopNav } from './ShopNav';

@@ -3,7 +3,7 @@ import type { ReactNode } from 'react';
 import { StyleSheet, Text, View } from 'react-native';
 
 import { Content, FORM_MAX_WIDTH, Screen } from '@/components/layout';
-import { cardSurface, colors, space, type } from '@/components/theme';
+import { cardSurface, colors, space, TAP_TARGET_PX, type } from '@/components/theme';
 
 interface AuthLayoutProps {
   title: string;
@@ -48,9 +48,12 @@ const styles = StyleSheet.create({
   column: { paddingTop: space.xxl, gap: space.xl },
   brand: { gap: space.xs, alignItems: 'flex-start' },
   card: { ...cardSurface, padding: space.xl, gap: space.lg },
-  links: { gap: space.md },
+  links: { gap: 0 },
+  // Each link is a full-height target (TAP_TARGET_PX), so the list needs no gap of its own.
   link: {
     ...type.body,
+    minHeight: TAP_TARGET_PX,
+    paddingVertical: (TAP_TARGET_PX - type.body.lineHeight) / 2,
     color: colors.air,
     textDecorationLine: 'underline',
     alignSelf: 'flex-start',

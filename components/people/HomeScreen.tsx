@@ -25,7 +25,7 @@ export function HomeScreen() {
     return (
       <Screen>
         <Content>
-          <Notice title="Drybench cannot load right now" testID="home-error">
+          <Notice title="Drybench cannot load right now" level={1} testID="home-error">
             <Text style={type.body}>{me.error.message}</Text>
             <Button label="Try again" variant="quiet" onPress={() => void me.refetch()} />
           </Notice>
@@ -37,7 +37,7 @@ export function HomeScreen() {
   return (
     <Screen>
       <Content>
-        <Notice title="No shop yet" testID="no-shop">
+        <Notice title="No shop yet" level={1} testID="no-shop">
           <Text style={type.body}>
             You are signed in as {me.data.user.email} and belong to no shop yet. Create one for your
             workshop, or ask a shop owner to invite you.

@@ -91,7 +91,7 @@ function MemberRow({ member, shopId, canManage, isMe }: MemberRowProps) {
   return (
     <Panel testID="member-row">
       <View>
-        <Text style={type.heading}>
+        <Text style={type.heading} role="heading" aria-level={2}>
           {member.name}
           {isMe ? ' (you)' : ''}
         </Text>
@@ -194,11 +194,12 @@ function InvitePanel({ shopId }: { shopId: string }) {
           <Text style={type.label}>Waiting for an answer</Text>
           {invitations.data.invitations.map((inv) => (
             <View key={inv.id} style={styles.pendingRow}>
-              <Text style={[type.body, styles.grow]}>
+              <Text style={[type.body, styles.address]}>
                 {inv.email} · {inv.role}
               </Text>
               <Button
                 label="Withdraw"
+                accessibilityLabel={`Withdraw the invitation to ${inv.email}`}
                 variant="quiet"
                 disabled={withdraw.isPending}
                 onPress={() => withdraw.mutate(inv.id)}
@@ -215,6 +216,8 @@ const styles = StyleSheet.create({
   list: { gap: space.md },
   form: { gap: space.lg },
   pending: { gap: space.sm },
-  pendingRow: { flexDirection: 'row', alignItems: 'center', gap: space.sm },
-  grow: { flex: 1 },
+  // On a phone a long address wraps, breaking inside itself if it must, and the button moves
+  // under it rather than off the card.
+  pendingRow: { flexDirection: 'row', flexWrap: 'wrap', alignItems: 'center', gap: space.sm },
+  address: { flexGrow: 1, flexShrink: 1, flexBasis: 160, minWidth: 0 },
 });

@@ -23,7 +23,7 @@ import {
   type User,
 } from '@/components/queries';
 import { useFrameShop } from '@/components/shop/ShopFrame';
-import { colors, space, type } from '@/components/theme';
+import { colors, space, TAP_TARGET_PX, type } from '@/components/theme';
 import { Panel, useDocumentTitle } from '@/components/ui';
 
 const UNIT_OPTIONS: readonly { value: UnitPref; label: string }[] = [
@@ -48,9 +48,6 @@ function ProfileBody({ user }: { user: User }) {
   const signOut = useSignOutMutation();
   return (
     <>
-      <Text style={type.title} role="heading" aria-level={1}>
-        Profile
-      </Text>
       <NameForm user={user} />
       <VerificationPanel user={user} />
       <Panel title="Units" hint="How temperatures, dew margins and limits are shown to you.">
@@ -105,6 +102,7 @@ function AlarmMailPanel({ user }: { user: User }) {
           trackColor={{ false: colors.border, true: colors.dry }}
           thumbColor={colors.card}
           {...WEB_SWITCH_COLORS}
+          style={styles.switch}
           testID="profile-alarm-mail"
         />
       </View>
@@ -256,4 +254,7 @@ const styles = StyleSheet.create({
   form: { gap: space.md },
   switchRow: { flexDirection: 'row', alignItems: 'center', gap: space.md, minHeight: 40 },
   switchLabel: { flex: 1 },
+  // react-native-web sizes the switch (and the checkbox a finger presses) from its height: 44 px
+  // makes it a full target (TAP_TARGET_PX); its width follows at twice that.
+  switch: { height: TAP_TARGET_PX },
 });

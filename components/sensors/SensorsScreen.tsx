@@ -54,9 +54,6 @@ function SensorsBody({ shop }: { shop: ShopSummary }) {
 
   return (
     <>
-      <Text style={type.title} role="heading" aria-level={1}>
-        Sensors
-      </Text>
       {issued ? (
         <TokenReveal
           {...issued}
@@ -129,7 +126,12 @@ function SensorCard({ sensor, shop, zones, onToken }: SensorCardProps) {
   return (
     <Panel testID="sensor-card">
       <View style={styles.cardTop}>
-        <Text style={[type.heading, styles.grow]} testID="sensor-name">
+        <Text
+          style={[type.heading, styles.grow]}
+          role="heading"
+          aria-level={2}
+          testID="sensor-name"
+        >
           {sensor.name}
         </Text>
         {revoked ? (

@@ -12,6 +12,7 @@ import {
   Content,
   SINGLE_COLUMN_MAX_WIDTH,
   Screen,
+  ScreenTitle,
   ShopNav,
   useBreakpoints,
 } from '@/components/layout';
@@ -33,23 +34,31 @@ export interface ShopFramePage {
   active: ShopSection;
   /** Names the browser tab while the shop is not shown yet; the page names it once it is. */
   title?: string;
+  /** The page's one h1, at the top of its column ("Alarms"). */
+  heading: string;
   /** On a wide screen the column takes the content width (list beside detail); else one phone column. */
   wide: boolean;
   /** Pins the open alarms under the header. */
   banner: boolean;
 }
 
-const ZONES_PAGE: ShopFramePage = { active: 'zones', wide: true, banner: true };
+const ZONES_PAGE: ShopFramePage = { active: 'zones', heading: 'Zones', wide: true, banner: true };
 
 /** The pages under app/shops/[shopId]/, by their first path segment after the shop id. */
 const SHOP_PAGES: Record<string, ShopFramePage> = {
   index: ZONES_PAGE,
   zones: ZONES_PAGE,
-  alarms: { active: 'alarms', title: 'Alarms', wide: true, banner: false },
-  sensors: { active: 'sensors', title: 'Sensors', wide: false, banner: false },
-  settings: { active: 'shop', title: 'Shop settings', wide: false, banner: false },
-  members: { active: 'shop', title: 'Members', wide: false, banner: false },
-  profile: { active: 'profile', title: 'Profile', wide: false, banner: false },
+  alarms: { active: 'alarms', title: 'Alarms', heading: 'Alarms', wide: true, banner: false },
+  sensors: { active: 'sensors', title: 'Sensors', heading: 'Sensors', wide: false, banner: false },
+  settings: {
+    active: 'shop',
+    title: 'Shop settings',
+    heading: 'Shop settings',
+    wide: false,
+    banner: false,
+  },
+  members: { active: 'shop', title: 'Members', heading: 'Members', wide: false, banner: false },
+  profile: { active: 'profile', title: 'Profile', heading: 'Profile', wide: false, banner: false },
 };
 
 /** The frame's settings for the page whose path segment follows the shop id (none: the overview). */
@@ -106,12 +115,12 @@ export function ShopFrame({ shopId, page, path, children }: ShopFrameProps) {
           <Screen>
             <Content>
               {me.isError ? (
-                <Notice title="Drybench cannot load right now" testID="shop-error">
+                <Notice title="Drybench cannot load right now" level={1} testID="shop-error">
                   <Text style={type.body}>{me.error.message}</Text>
                   <Button label="Try again" variant="quiet" onPress={() => void me.refetch()} />
                 </Notice>
               ) : (
-                <Notice title="Shop not found" testID="shop-not-found">
+                <Notice title="Shop not found" level={1} testID="shop-not-found">
                   <Text style={type.body}>
                     This shop does not exist or you are not one of its members.{' '}
                     <Link href="/" style={styles.link}>
@@ -157,7 +166,10 @@ export function ShopFrame({ shopId, page, path, children }: ShopFrameProps) {
         }
       >
         <Content maxWidth={maxWidth}>
-          <View style={styles.stack}>{children}</View>
+          <View style={styles.stack}>
+            <ScreenTitle>{page.heading}</ScreenTitle>
+            {children}
+          </View>
         </Content>
       </Screen>
     </ShopContext.Provider>

@@ -22,7 +22,7 @@ export function ShopHeader({ shopName, shopId, maxWidth }: ShopHeaderProps) {
   const router = useRouter();
   const signOut = useSignOutMutation();
   return (
-    <View style={styles.bar} accessibilityRole="header">
+    <View style={styles.bar} role="banner">
       <Content style={styles.row} maxWidth={maxWidth}>
         <View style={styles.titleBlock}>
           {shopId ? (

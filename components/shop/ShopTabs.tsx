@@ -3,7 +3,7 @@ import { StyleSheet, Text, View } from 'react-native';
 
 import { membersHref, shopSectionHref } from '@/components/hrefs';
 import type { ShopSummary } from '@/components/queries';
-import { colors, fonts, space } from '@/components/theme';
+import { colors, fonts, space, TAP_TARGET_PX } from '@/components/theme';
 
 /** The two pages under "Shop": its settings and its members. */
 export function ShopTabs({
@@ -46,6 +46,8 @@ const styles = StyleSheet.create({
     borderBottomColor: colors.border,
   },
   tab: {
+    minHeight: TAP_TARGET_PX,
+    justifyContent: 'center',
     paddingVertical: space.sm,
     borderBottomWidth: 3,
     borderBottomColor: 'transparent',

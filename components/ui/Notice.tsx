@@ -5,15 +5,23 @@ import { cardSurface, space, type } from '@/components/theme';
 
 interface NoticeProps {
   title: string;
+  /** Makes the title a heading of this level: 1 where the notice is all the screen shows. */
+  level?: 1 | 2 | 3;
   children?: ReactNode;
   testID?: string;
 }
 
 /** A plain panel for empty, loading and error states. */
-export function Notice({ title, children, testID }: NoticeProps) {
+export function Notice({ title, level, children, testID }: NoticeProps) {
   return (
     <View style={styles.panel} testID={testID}>
-      <Text style={type.heading}>{title}</Text>
+      {level ? (
+        <Text style={type.heading} role="heading" aria-level={level}>
+          {title}
+        </Text>
+      ) : (
+        <Text style={type.heading}>{title}</Text>
+      )}
       {typeof children === 'string' ? <Text style={type.body}>{children}</Text> : children}
     </View>
   );

@@ -6,3 +6,5 @@ export { Splash } from './Splash';
 export { useDocumentTitle } from './useDocumentTitle';
 export { useNow } from './useNow';
 export { useReducedMotion } from './useReducedMotion';
+export { contrastRatio, relativeLuminance } from './contrast';
+export { FocusRingStyle } from './FocusRingStyle';

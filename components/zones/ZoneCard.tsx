@@ -2,15 +2,13 @@ import { Link } from 'expo-router';
 import { Pressable, StyleSheet, Text, View } from 'react-native';
 
 import { formatLastSeen, formatMargin } from '@/components/format';
-import { emcBandPosition, emcTargetBand } from '@/ingest/emcTarget';
-import { EMC_POSITION_WORDS, formatPercent } from '@/ingest/words';
+import { emcTargetBand } from '@/ingest/emcTarget';
 import { useUnitPref, type Zone } from '@/components/queries';
 import {
   cardSurface,
   colors,
   levelColors,
   fonts,
-  levelWords,
   space,
   staleColors,
   tabular,
@@ -50,7 +48,6 @@ export function ZoneCard({ zone, timeZone, href, selected = false }: ZoneCardPro
   const margin = formatMargin(latest?.margin, unit);
   const lead = leadFigure(zone.purpose);
   const band = emcTargetBand(zone.emcRegion);
-  const position = emcBandPosition(latest?.emc, band);
   const body = (
     <View style={styles.inner}>
       <View
@@ -101,17 +98,6 @@ export function ZoneCard({ zone, timeZone, href, selected = false }: ZoneCardPro
   );
 
   const cardStyle = [styles.card, stale && styles.stale, selected && styles.selected];
-  const rhOver = latest ? latest.rh > zone.humidRhPct : false;
-  const facts = [
-    ...(lead === 'emc'
-      ? [
-          `wood EMC ${formatPercent(latest?.emc, 1)}${position ? `, ${EMC_POSITION_WORDS[position].toLowerCase()}` : ''}`,
-        ]
-      : []),
-    `${stale ? 'stale' : levelWords[level]}, dew margin ${margin}`,
-    ...(rhOver ? [`RH ${formatPercent(latest?.rh)} over the ${zone.humidRhPct} % limit`] : []),
-  ];
-  const linkLabel = `${zone.name}: ${facts.join('; ')}`;
   if (!href) {
     return (
       <View style={cardStyle} testID="zone-card" data-stale={stale ? 'true' : undefined}>
@@ -123,12 +109,12 @@ export function ZoneCard({ zone, timeZone, href, selected = false }: ZoneCardPro
     <Link href={href} asChild>
       {/* Link's Slot passes style straight to the DOM: a style function is dropped and an
           array throws, so the card gets one flat object here. */}
+      {/* Named by what it shows, its zone name first: a shorter label than the visible text
+          would leave a person who speaks what they see unable to name it (WCAG 2.5.3). */}
       <Pressable
         style={StyleSheet.flatten(cardStyle)}
         testID="zone-card"
         accessibilityRole="link"
-        accessibilityLabel={linkLabel}
-        aria-label={linkLabel}
         aria-current={selected ? 'page' : undefined}
       >
         {body}

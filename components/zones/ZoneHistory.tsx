@@ -41,7 +41,7 @@ export function ZoneHistory({ shopId, zone, timeZone, chartHeight }: ZoneHistory
   return (
     <Panel>
       <View style={styles.head}>
-        <Text style={type.heading} role="heading" aria-level={2} testID="zone-chart-heading">
+        <Text style={type.heading} role="heading" aria-level={3} testID="zone-chart-heading">
           {heading}
         </Text>
         {readings.isFetching ? <Text style={type.small}>updating…</Text> : null}

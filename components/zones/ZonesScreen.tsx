@@ -7,7 +7,7 @@ import { LIST_COLUMN_WIDTH, useBreakpoints } from '@/components/layout';
 import { isSignedOut, useZonesQuery, type Zone } from '@/components/queries';
 import { SetupChecklist } from '@/components/shop/SetupChecklist';
 import { useFrameShop } from '@/components/shop/ShopFrame';
-import { colors, space, type } from '@/components/theme';
+import { colors, space, TAP_TARGET_PX, type } from '@/components/theme';
 import { Notice, useDocumentTitle } from '@/components/ui';
 
 import { LevelStrip } from './LevelStrip';
@@ -92,7 +92,9 @@ export function ZonesScreen({ zoneId }: ZonesScreenProps) {
           </ScrollView>
         </View>
         <View style={styles.detailColumn} testID="zone-detail">
-          <Text style={type.title}>{shown.name}</Text>
+          <Text style={type.title} role="heading" aria-level={2}>
+            {shown.name}
+          </Text>
           <ZoneHistory shopId={shopId} zone={shown} timeZone={timeZone} chartHeight={360} />
         </View>
       </View>
@@ -130,6 +132,12 @@ const styles = StyleSheet.create({
   stack: { gap: space.md },
   // Room for the selected card's border inside the scrolling box.
   listScroll: { padding: 2 },
-  back: { ...type.body, color: colors.air, alignSelf: 'flex-start', paddingVertical: space.xs },
+  back: {
+    ...type.body,
+    color: colors.air,
+    alignSelf: 'flex-start',
+    minHeight: TAP_TARGET_PX,
+    paddingVertical: (TAP_TARGET_PX - type.body.lineHeight) / 2,
+  },
   link: { color: colors.air, textDecorationLine: 'underline' },
 });

@@ -47,7 +47,7 @@ describe.each([
     });
     await signIn(page);
 
-    await page.getByRole('link', { name: /^Machine room:/ }).click();
+    await page.getByRole('link', { name: /^Machine room\b/ }).click();
     await page.waitForURL(/\/zones\/[0-9a-f-]+$/);
     const detail = page.getByTestId('zone-detail');
     const chart = detail.getByTestId('zone-chart');
