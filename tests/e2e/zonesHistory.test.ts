@@ -265,6 +265,18 @@ describe.each([
       await page.goto(`${server.baseUrl}${shopSectionHref(shop.shopId, 'shop')}`);
       await page.getByTestId('zone-edit-purpose').first().waitFor();
       await page.screenshot({ path: `${SHOTS}/zone-settings-${label}.png`, fullPage: true });
+      // The rack's region, chosen in the settings, moves its band: damp warm coast 8–13 %.
+      const region = page.getByTestId('zone-edit-region');
+      await region.scrollIntoViewIfNeeded();
+      await page.getByTestId('zone-edit-region-damp_coastal').click();
+      await expect
+        .poll(() => page.getByTestId('zone-edit-region-damp_coastal').getAttribute('aria-checked'))
+        .toBe('true');
+      await page.screenshot({ path: `${SHOTS}/zone-settings-region-${label}.png` });
+      await page.goto(`${server.baseUrl}${zoneHref(shop.shopId, shop.zones['Lumber rack']!.id)}`);
+      await expect
+        .poll(() => page.getByTestId('zone-emc-band').first().textContent())
+        .toContain('Target 8–13 % · Damp, warm coast');
 
       if (wide) {
         // A zone opened by its address at the foot of a long list is scrolled into view there.
