@@ -1,7 +1,7 @@
 import { useState } from 'react';
 import { StyleSheet, Switch, Text, View } from 'react-native';
 
-import { colors, space, type } from '@/components/theme';
+import { colors, space, TAP_TARGET_PX, type } from '@/components/theme';
 import { Panel } from '@/components/ui';
 
 import {
@@ -61,6 +61,7 @@ export function AlarmNotificationPanel() {
           trackColor={{ false: colors.border, true: colors.dry }}
           thumbColor={colors.card}
           {...WEB_SWITCH_COLORS}
+          style={styles.switch}
           testID="profile-notify"
         />
       </View>
@@ -74,4 +75,6 @@ export function AlarmNotificationPanel() {
 const styles = StyleSheet.create({
   switchRow: { flexDirection: 'row', alignItems: 'center', gap: space.md },
   switchLabel: { flex: 1, minWidth: 0 },
+  // react-native-web sizes the switch from its height: a full 44 px target (TAP_TARGET_PX).
+  switch: { height: TAP_TARGET_PX },
 });

@@ -19,7 +19,7 @@ export function AuthLayout({ title, children, links = [] }: AuthLayoutProps) {
       <Content maxWidth={FORM_MAX_WIDTH} style={styles.column}>
         <View style={styles.brand}>
           {/* Back to the front page, which says what Drybench is. */}
-          <Link href="/" style={type.title} testID="auth-home">
+          <Link href="/" style={styles.home} testID="auth-home">
             Drybench
           </Link>
           <Text style={type.small}>Dew margin and wood moisture for your shop.</Text>
@@ -47,6 +47,12 @@ export function AuthLayout({ title, children, links = [] }: AuthLayoutProps) {
 const styles = StyleSheet.create({
   column: { paddingTop: space.xxl, gap: space.xl },
   brand: { gap: space.xs, alignItems: 'flex-start' },
+  // The product name is a link home: a full 44 px target like the links below the card.
+  home: {
+    ...type.title,
+    minHeight: TAP_TARGET_PX,
+    paddingVertical: Math.max(0, (TAP_TARGET_PX - type.title.lineHeight) / 2),
+  },
   card: { ...cardSurface, padding: space.xl, gap: space.lg },
   links: { gap: 0 },
   // Each link is a full-height target (TAP_TARGET_PX), so the list needs no gap of its own.

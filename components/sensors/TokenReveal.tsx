@@ -4,7 +4,7 @@ import { Platform, StyleSheet, Text, View } from 'react-native';
 import { formatLastSeen, formatMargin } from '@/components/format';
 import { Button } from '@/components/forms';
 import { useSensorsQuery, useUnitPref, useZonesQuery } from '@/components/queries';
-import { colors, fonts, levelWords, radius, space, tabular, type } from '@/components/theme';
+import { colors, fonts, radius, space, tabular, type } from '@/components/theme';
 import { Panel, useNow } from '@/components/ui';
 import {
   postingInterval,
@@ -13,7 +13,12 @@ import {
 } from '@/ingest/postingInterval';
 import { READING_FIELD_GUIDE } from '@/ingest/readingFields';
 import { cToF, type TemperatureUnit } from '@/ingest/units';
-import { exampleReadingJson, firstReadingText, READING_FIELD_WORDS } from '@/ingest/words';
+import {
+  exampleReadingJson,
+  firstReadingText,
+  READING_FIELD_WORDS,
+  levelWordInline,
+} from '@/ingest/words';
 
 interface TokenRevealProps {
   shopId: string;
@@ -201,7 +206,8 @@ function FirstReading({ shopId, sensorId, timeZone, unit }: FirstReadingProps) {
       </Text>
       {arrived && latest && zone ? (
         <Text style={type.small} testID="first-reading-level">
-          {zone.name}: {levelWords[latest.level]}, dew margin {formatMargin(latest.margin, unit)}
+          {zone.name}: {levelWordInline(latest.level)}, dew margin{' '}
+          {formatMargin(latest.margin, unit)}
         </Text>
       ) : null}
     </View>

@@ -1,7 +1,8 @@
 import { Fragment } from 'react';
 import { StyleSheet, Text, View } from 'react-native';
 
-import { colors, fonts, levelColors, levelWords, space, tabular, type } from '@/components/theme';
+import { levelWordInline } from '@/ingest/words';
+import { colors, fonts, levelColors, space, tabular, type } from '@/components/theme';
 
 import type { LevelCount } from './zoneOrder';
 
@@ -10,7 +11,7 @@ import type { LevelCount } from './zoneOrder';
  * word beside its dot, so the colour is never the only sign.
  */
 export function LevelStrip({ counts }: { counts: LevelCount[] }) {
-  const words = counts.map(({ level, count }) => `${count} ${levelWords[level]}`).join(' · ');
+  const words = counts.map(({ level, count }) => `${count} ${levelWordInline(level)}`).join(' · ');
   return (
     <View
       style={styles.strip}
@@ -28,7 +29,7 @@ export function LevelStrip({ counts }: { counts: LevelCount[] }) {
               style={[styles.text, tabular, { color: levelColors[level] }]}
               testID={`zone-strip-${level}`}
             >
-              {count} {levelWords[level]}
+              {count} {levelWordInline(level)}
             </Text>
           </View>
         </Fragment>

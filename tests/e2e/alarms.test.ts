@@ -114,10 +114,17 @@ describe.each([
     await page.screenshot({ path: `${SHOTS}/alarm-ack-form-${label}.png` });
     await where.getByTestId('alarm-ack-note').fill('Wiped and covered the table');
     await where.getByTestId('alarm-ack-save').click();
-    await expect
-      .poll(() => where.getByTestId('alarm-acknowledged').textContent())
-      .toContain(`Wiped and covered the table — acknowledged by ${member.name}`);
-    expect(await where.getByTestId('alarm-ack-open').count()).toBe(0);
+    if (label === 'phone') {
+      await expect
+        .poll(() => where.getByTestId('alarm-acknowledged').textContent())
+        .toContain(`Wiped and covered the table — acknowledged by ${member.name}`);
+      expect(await where.getByTestId('alarm-ack-open').count()).toBe(0);
+    } else {
+      // The wide banner keeps the alarms that still want someone first, so with other open
+      // alarms in the shop an acknowledged one may leave its top three: the form closing says
+      // the note was taken; the Alarms page below shows it.
+      await expect.poll(() => where.getByTestId('alarm-ack-note').count()).toBe(0);
+    }
     await page.screenshot({ path: `${SHOTS}/alarm-acknowledged-${label}.png` });
 
     if (label !== 'phone') {
@@ -130,7 +137,7 @@ describe.each([
       .filter({ hasText: `${zone}: wet` });
     await expect
       .poll(() => card.getByTestId('alarm-acknowledged').textContent())
-      .toContain(`acknowledged by ${member.name}`);
+      .toContain(`Wiped and covered the table — acknowledged by ${member.name}`);
     // A card below another of its kind starts with its advice folded (AlarmsScreen).
     const unfold = card.getByTestId('alarm-advice-open');
     if ((await unfold.count()) > 0) await unfold.click();

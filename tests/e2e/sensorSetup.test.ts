@@ -204,7 +204,7 @@ describe.each([
     expect(await cardOf('Paint bay').getByTestId('zone-last-seen').textContent()).toBe(
       'Last reading 4 min ago',
     );
-    expect(await cardOf('Paint bay').getByTestId('zone-level').textContent()).toContain('unknown');
+    expect(await cardOf('Paint bay').getByTestId('zone-level').textContent()).toContain('Unknown');
     // Greyed with the stale palette (theme.ts staleColors.card), not by fading the text.
     const background = (name: string) =>
       cardOf(name).evaluate((el) => getComputedStyle(el).backgroundColor);
@@ -213,7 +213,7 @@ describe.each([
     // The zone whose sensor just posted keeps its colours.
     expect(await cardOf('Machine room').getByTestId('zone-stale').count()).toBe(0);
     expect(await background('Machine room')).toBe('rgb(255, 253, 248)');
-    expect(await cardOf('Machine room').getByTestId('zone-level').textContent()).toContain('dry');
+    expect(await cardOf('Machine room').getByTestId('zone-level').textContent()).toContain('Dry');
     await page.screenshot({ path: `${SHOTS}/zone-stale-${label}.png`, fullPage: true });
     await cardOf('Paint bay').scrollIntoViewIfNeeded();
     await page.screenshot({ path: `${SHOTS}/zone-stale-card-${label}.png` });
