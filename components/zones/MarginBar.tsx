@@ -46,11 +46,17 @@ export function MarginBar({ marginK, wetK, cautionK, unit = 'C' }: MarginBarProp
         )}
       </View>
       <View style={styles.labels}>
-        <Text style={[type.small, tabular, styles.label, { left: pct(scale.wetAt) }]}>
-          {deltaInUnit(wetK, unit)}
+        <Text
+          style={[type.small, tabular, styles.label, { left: pct(scale.wetAt) }]}
+          testID="margin-bar-wet"
+        >
+          {deltaInUnit(wetK, unit)} °{unit}
         </Text>
-        <Text style={[type.small, tabular, styles.label, { left: pct(scale.cautionAt) }]}>
-          {deltaInUnit(cautionK, unit)}
+        <Text
+          style={[type.small, tabular, styles.label, { left: pct(scale.cautionAt) }]}
+          testID="margin-bar-caution"
+        >
+          {deltaInUnit(cautionK, unit)} °{unit}
         </Text>
       </View>
     </View>
@@ -58,7 +64,8 @@ export function MarginBar({ marginK, wetK, cautionK, unit = 'C' }: MarginBarProp
 }
 
 const TRACK_HEIGHT = 6;
-const LABEL_WIDTH = 40;
+// Room for "-12.6 °F" at the labels' 11 px.
+const LABEL_WIDTH = 60;
 
 const styles = StyleSheet.create({
   track: {

@@ -6,6 +6,7 @@ import { renderToStaticMarkup } from 'react-dom/server';
 import { describe, expect, it } from 'vitest';
 
 import { EmcLead } from '@/components/zones/EmcLead';
+import { MarginBar } from '@/components/zones/MarginBar';
 import { ZoneReadings } from '@/components/zones/ZoneReadings';
 import { emcTargetBand } from '@/ingest/emcTarget';
 
@@ -76,5 +77,17 @@ describe('the EMC lead of a lumber zone', () => {
     const html = decode(lead(null));
     expect(textsOf(html, 'zone-emc-lead')).toEqual(['—']);
     expect(html).not.toMatch(/target band/);
+  });
+});
+
+// The bar's limit marks are dew-margin differences: in °F they scale by 1.8 with no offset
+// (1 K = 1.8 °F) and say their unit, so "5.4" is never read as a bare number or an air temperature.
+describe('the margin bar in the reader’s unit', () => {
+  it('labels the wet and caution limits in °F', () => {
+    const html = renderToStaticMarkup(
+      createElement(MarginBar, { marginK: 2, wetK: 1, cautionK: 3, unit: 'F' }),
+    );
+    expect(textsOf(html.replace(/<!-- -->/g, ''), 'margin-bar-wet')).toEqual(['1.8 °F']);
+    expect(textsOf(html.replace(/<!-- -->/g, ''), 'margin-bar-caution')).toEqual(['5.4 °F']);
   });
 });
