@@ -1,45 +1,23 @@
 // The live hub applies the same rules as the HTTP routes: a removed member stops receiving a
 // shop's readings as soon as the removal commits, a signed-out session's socket closes, and a
 // page on another site cannot open a socket with the cookie.
-import http from 'node:http';
-import type { AddressInfo } from 'node:net';
-
 import { afterAll, beforeAll, describe, expect, it } from 'vitest';
 
-import { startLiveHub } from '@/server/live/hub';
-
-import { makeTestApp, ownerWithSensor, verifiedPerson, type TestApp } from '../support/app';
+import { ownerWithMember, ownerWithSensor, type TestApp } from '../support/app';
 import { postIngest } from '../support/ingest';
-import { linkToken, waitForMail } from '../support/mail';
+import { startHubServer, type HubServer } from '../support/liveHub';
 import { openRecordingSocket, until } from '../support/liveClient';
 import { signInCookie } from '../support/sessionCookie';
 
+let hubServer: HubServer;
 let t: TestApp;
-let server: http.Server;
-let hub: ReturnType<typeof startLiveHub>;
 let wsUrl: string;
 
 beforeAll(async () => {
-  t = makeTestApp({ listen: true });
-  hub = startLiveHub({
-    listener: t.listener!,
-    db: t.db,
-    sessions: t.sessions,
-    allowedHosts: t.allowedHosts,
-  });
-  await t.listener!.ready;
-  server = http.createServer(t.app);
-  hub.attach(server);
-  await new Promise<void>((resolve) => server.listen(0, '127.0.0.1', resolve));
-  wsUrl = `ws://127.0.0.1:${(server.address() as AddressInfo).port}/api/v1/live`;
+  hubServer = await startHubServer();
+  ({ t, wsUrl } = hubServer);
 });
-afterAll(async () => {
-  await hub.close();
-  await t.listener!.close();
-  server.closeAllConnections();
-  await new Promise((resolve) => server.close(resolve));
-  await t.pool.end();
-});
+afterAll(() => hubServer.close());
 
 /** A fresh session of this account, as the Cookie header a browser would send. */
 const cookieOf = (person: { email: string; password: string }) => signInCookie(t.app, person);
@@ -48,14 +26,7 @@ const open = (cookie: string, origin?: string) => openRecordingSocket(wsUrl, coo
 
 describe('live hub access', () => {
   it('stops sending a shop to a member once removed', async () => {
-    const o = await ownerWithSensor(t);
-    const m = await verifiedPerson(t, 'Live Member');
-    await o.agent
-      .post(`/api/v1/shops/${o.shopId}/invitations`)
-      .send({ email: m.email, role: 'member' })
-      .expect(201);
-    const token = linkToken(await waitForMail(t.outbox, m.email), 'invite');
-    await m.agent.post(`/api/v1/invitations/${token}/accept`).expect(200);
+    const { owner: o, member: m } = await ownerWithMember(t);
 
     const socket = await open(await cookieOf(m));
     const readings = () => socket.messages.filter((x) => x.type === 'reading').length;

@@ -17,13 +17,12 @@ import { silentLogger } from '@/server/logger';
 
 import {
   makeTestApp,
+  ownerWithMember,
   ownerWithSensor,
-  verifiedPerson,
   TEST_SECRET,
   type TestApp,
 } from '../support/app';
 import { postIngest } from '../support/ingest';
-import { linkToken, waitForMail } from '../support/mail';
 import { openRecordingSocket, until, type RecordingSocket } from '../support/liveClient';
 import { signInCookie } from '../support/sessionCookie';
 
@@ -81,14 +80,7 @@ const readings = (socket: RecordingSocket) =>
 
 /** An owner's shop with a second person in it as a member, through the invitation routes. */
 async function shopWithMember() {
-  const o = await ownerWithSensor(t);
-  const m = await verifiedPerson(t, 'Live Member');
-  await o.agent
-    .post(`/api/v1/shops/${o.shopId}/invitations`)
-    .send({ email: m.email, role: 'member' })
-    .expect(201);
-  const token = linkToken(await waitForMail(t.outbox, m.email), 'invite');
-  await m.agent.post(`/api/v1/invitations/${token}/accept`).expect(200);
+  const { owner: o, member: m } = await ownerWithMember(t);
   return { o, m };
 }
 

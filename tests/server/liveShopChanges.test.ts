@@ -1,58 +1,29 @@
 // Zone and sensor changes reach the shop's other open tabs: each write sends `{ type: 'zones' }`
 // or `{ type: 'sensors' }` with the shop's id through NOTIFY once it commits, to every socket of
 // the shop's members, and to no socket of another shop (tenant isolation).
-import http from 'node:http';
-import type { AddressInfo } from 'node:net';
-
 import { afterAll, beforeAll, describe, expect, it } from 'vitest';
 
-import { startLiveHub } from '@/server/live/hub';
-
-import { makeTestApp, ownerWithSensor, verifiedPerson, type TestApp } from '../support/app';
+import { ownerWithMember, ownerWithSensor, type TestApp } from '../support/app';
 import { postIngest } from '../support/ingest';
+import { startHubServer, type HubServer } from '../support/liveHub';
 import { openRecordingSocket, until, type RecordingSocket } from '../support/liveClient';
-import { linkToken, waitForMail } from '../support/mail';
 import { signInCookie } from '../support/sessionCookie';
 
+let hubServer: HubServer;
 let t: TestApp;
-let server: http.Server;
-let hub: ReturnType<typeof startLiveHub>;
 let wsUrl: string;
 
 beforeAll(async () => {
-  t = makeTestApp({ listen: true });
-  hub = startLiveHub({
-    listener: t.listener!,
-    db: t.db,
-    sessions: t.sessions,
-    allowedHosts: t.allowedHosts,
-  });
-  await t.listener!.ready;
-  server = http.createServer(t.app);
-  hub.attach(server);
-  await new Promise<void>((resolve) => server.listen(0, '127.0.0.1', resolve));
-  wsUrl = `ws://127.0.0.1:${(server.address() as AddressInfo).port}/api/v1/live`;
+  hubServer = await startHubServer();
+  ({ t, wsUrl } = hubServer);
 });
-afterAll(async () => {
-  await hub.close();
-  await t.listener!.close();
-  server.closeAllConnections();
-  await new Promise((resolve) => server.close(resolve));
-  await t.pool.end();
-});
+afterAll(() => hubServer.close());
 
 type Owner = Awaited<ReturnType<typeof ownerWithSensor>>;
 
 /** A shop whose owner has a second person in it as a member, each with a socket open. */
 async function shopWithMemberSockets() {
-  const owner = await ownerWithSensor(t);
-  const member = await verifiedPerson(t, 'Live Member');
-  await owner.agent
-    .post(`/api/v1/shops/${owner.shopId}/invitations`)
-    .send({ email: member.email, role: 'member' })
-    .expect(201);
-  const token = linkToken(await waitForMail(t.outbox, member.email), 'invite');
-  await member.agent.post(`/api/v1/invitations/${token}/accept`).expect(200);
+  const { owner, member } = await ownerWithMember(t);
   const memberSocket = await openRecordingSocket(wsUrl, await signInCookie(t.app, member));
   return { owner, memberSocket };
 }

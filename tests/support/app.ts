@@ -202,3 +202,16 @@ export async function ownerWithSensor(t: PersonMaker) {
   ).body as { id: string; token: string };
   return { ...owner, shopId: shop.id, zoneId: zone.id, sensorId: sensor.id, token: sensor.token };
 }
+
+/** An owner's shop (one zone, one sensor) with a second person in it as a member, invited by mail. */
+export async function ownerWithMember(t: PersonMaker) {
+  const owner = await ownerWithSensor(t);
+  const member = await verifiedPerson(t, 'Shop Member');
+  await owner.agent
+    .post(`/api/v1/shops/${owner.shopId}/invitations`)
+    .send({ email: member.email, role: 'member' })
+    .expect(201);
+  const token = linkToken(await waitForMail(t.outbox, member.email), 'invite');
+  await member.agent.post(`/api/v1/invitations/${token}/accept`).expect(200);
+  return { owner, member };
+}
