@@ -44,9 +44,9 @@ export function TextField({ label, error, testID, ref, ...input }: TextFieldProp
           input.onBlur?.(event);
         }}
         style={[
-          styles.input,
-          focused && styles.inputFocused,
-          error ? styles.inputInvalid : undefined,
+          inputStyles.input,
+          focused && inputStyles.focused,
+          error ? inputStyles.invalid : undefined,
         ]}
       />
       {error ? (
@@ -62,8 +62,8 @@ export function TextField({ label, error, testID, ref, ...input }: TextFieldProp
   );
 }
 
-const styles = StyleSheet.create({
-  field: { gap: space.xs },
+/** A text input's box, focus and error borders: shared with the time-zone picker's input. */
+export const inputStyles = StyleSheet.create({
   input: {
     fontFamily: fonts.regular,
     fontSize: 16,
@@ -76,7 +76,11 @@ const styles = StyleSheet.create({
     paddingVertical: space.sm + 2,
     minHeight: 44,
   },
-  inputFocused: { borderColor: colors.iron },
-  inputInvalid: { borderColor: colors.wet },
+  focused: { borderColor: colors.iron },
+  invalid: { borderColor: colors.wet },
+});
+
+const styles = StyleSheet.create({
+  field: { gap: space.xs },
   error: { color: colors.wet },
 });

@@ -11,8 +11,10 @@ import {
   type ViewProps,
 } from 'react-native';
 
-import { colors, fonts, radius, space, type } from '@/components/theme';
+import { colors, radius, space, type } from '@/components/theme';
 import { searchTimeZones, timeZoneNames } from '@/ingest/timeZones';
+
+import { inputStyles } from './TextField';
 
 /** Shown at once; more would make a long page of a phone screen. Typing narrows the rest. */
 const SHOWN = 8;
@@ -174,7 +176,11 @@ export function TimeZonePicker({
           if (spelt && spelt !== value) onChange(spelt);
           onBlur?.();
         }}
-        style={[styles.input, focused && styles.inputFocused, error ? styles.invalid : undefined]}
+        style={[
+          inputStyles.input,
+          focused && inputStyles.focused,
+          error ? inputStyles.invalid : undefined,
+        ]}
       />
       {expanded ? (
         <View style={styles.list}>
@@ -257,20 +263,6 @@ export function TimeZoneField<T extends FieldValues>({ control, name, ...props }
 
 const styles = StyleSheet.create({
   field: { gap: space.xs },
-  input: {
-    fontFamily: fonts.regular,
-    fontSize: 16,
-    color: colors.ink,
-    backgroundColor: colors.card,
-    borderWidth: 1,
-    borderColor: colors.border,
-    borderRadius: radius.control,
-    paddingHorizontal: space.md,
-    paddingVertical: space.sm + 2,
-    minHeight: 44,
-  },
-  inputFocused: { borderColor: colors.iron },
-  invalid: { borderColor: colors.wet },
   list: {
     borderWidth: 1,
     borderColor: colors.border,
