@@ -46,6 +46,9 @@ export default defineConfig({
           testTimeout: 60_000,
           hookTimeout: 120_000,
           fileParallelism: false,
+          // A loaded CI machine can take more than the default second to fetch and render a
+          // change; polls still end at the first match, so a longer limit costs nothing when green.
+          expect: { poll: { timeout: 8_000, interval: 100 } },
         },
       },
     ],
