@@ -19,6 +19,14 @@
 export const TOW_RH_ABOVE_PCT = 80;
 export const TOW_AIR_ABOVE_C = 0;
 
+/**
+ * The longest interval one reading stands for in time of wetness and in the week report (hours
+ * per level, means, coverage): 15 min, three of the slowest recommended posting interval (5 min,
+ * ingest/postingInterval.ts) and the floor of a learnt silence. Longer than this is a gap. Our own
+ * number, not a standard's.
+ */
+export const TOW_MAX_GAP_MS = 15 * 60 * 1000;
+
 /** A common year (365 d). ISO 9223 states its categories per year without fixing the length. */
 export const HOURS_PER_YEAR = 8760;
 

@@ -6,3 +6,4 @@
 export * from './people';
 export * from './sensing';
 export * from './alarms';
+export * from './reports';

@@ -15,11 +15,13 @@ import {
 } from 'drizzle-orm/pg-core';
 
 import { ROLES, UNIT_PREFS } from '@/ingest/wire/people';
+import { PAPER_SIZES } from '@/ingest/wire/reports';
 
 import { createdAt } from './columns';
 
 export const roleEnum = pgEnum('role', ROLES);
 export const temperatureUnitEnum = pgEnum('temperature_unit', UNIT_PREFS);
+export const paperSizeEnum = pgEnum('paper_size', PAPER_SIZES);
 
 export const users = pgTable('users', {
   id: uuid().primaryKey().defaultRandom(),
@@ -34,6 +36,8 @@ export const users = pgTable('users', {
   unitPref: temperatureUnitEnum().notNull().default('C'),
   // Alarm e-mails (server/alarms/mailDecision.ts) go to owners and members unless they turn them off.
   alarmMail: boolean().notNull().default(true),
+  // The Monday week report e-mail (server/jobs/weekReportJob.ts); on unless the person turns it off.
+  weekReportMail: boolean().notNull().default(true),
   // When the person proved they read this address (a verification or invitation link); null
   // until then. Alarm e-mails wait for it, so a mistyped address never gets a shop's alarms.
   emailVerifiedAt: timestamp({ withTimezone: true }),
@@ -44,6 +48,8 @@ export const shops = pgTable('shops', {
   id: uuid().primaryKey().defaultRandom(),
   name: text().notNull(),
   timeZone: text().notNull(),
+  // The sheet the week report's PDF is laid out on.
+  paperSize: paperSizeEnum().notNull().default('a4'),
   createdAt: createdAt(),
 });
 

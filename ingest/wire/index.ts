@@ -9,3 +9,4 @@ export * from './people';
 export * from './readings';
 export * from './sensors';
 export * from './zones';
+export * from './reports';
