@@ -37,6 +37,7 @@ export function applyLiveMessage(queryClient: QueryClient, message: LiveMessage)
         dewPoint: reading.dewPoint,
         margin: reading.margin,
         marginMin: reading.margin,
+        marginMax: reading.margin,
         emc: reading.emc,
         level: reading.level,
         count: 1,

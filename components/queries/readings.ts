@@ -84,11 +84,16 @@ function mean(a: number | null, countA: number, b: number | null): number | null
   return (a * countA + b) / (countA + 1);
 }
 
-/** Folds a raw reading into a downsampled bucket: means, the lowest margin and its level. */
+/**
+ * Folds a raw reading into a downsampled bucket: means, the lowest margin and its level, the
+ * highest margin.
+ */
 function mergeIntoBucket(bucket: ReadingPoint, point: ReadingPoint): ReadingPoint {
   const n = bucket.count;
   const lower =
     point.margin !== null && (bucket.marginMin === null || point.margin < bucket.marginMin);
+  const higher =
+    point.margin !== null && (bucket.marginMax === null || point.margin > bucket.marginMax);
   return {
     at: bucket.at,
     air: mean(bucket.air, n, point.air) ?? point.air,
@@ -97,6 +102,7 @@ function mergeIntoBucket(bucket: ReadingPoint, point: ReadingPoint): ReadingPoin
     dewPoint: mean(bucket.dewPoint, n, point.dewPoint),
     margin: mean(bucket.margin, n, point.margin),
     marginMin: lower ? point.margin : bucket.marginMin,
+    marginMax: higher ? point.margin : bucket.marginMax,
     emc: mean(bucket.emc, n, point.emc),
     level: lower ? point.level : bucket.level,
     count: n + 1,

@@ -137,18 +137,14 @@ export interface SeriesRow {
   marginK: number | null;
   /** The lowest margin inside the bucket; equals `marginK` for a raw reading. */
   marginMinK: number | null;
+  /** The highest margin inside the bucket; equals `marginK` for a raw reading. */
+  marginMaxK: number | null;
   emcPct: number | null;
   /** The level stored with the reading; for a bucket, the worst one stored in it. */
   level: Level;
   count: number;
 }
 
-/**
- * A zone's series between two times: raw readings when they fit in `points`, else buckets
- * of equal width (date_bin) that average the values but keep each bucket's lowest margin,
- * because the closest approach to the dew point is what a chart must never smooth away.
- * `bucketSeconds` is 0 for raw readings.
- */
 /**
  * When a zone's first reading was taken, or null before any: the chart spans what there is until
  * a zone has a day of history. One probe of the (zone_id, at) index.
@@ -160,9 +156,23 @@ export async function firstReadingAt(db: Db, zoneId: string): Promise<Date | nul
   return at === undefined ? null : new Date(at);
 }
 
+/**
+ * A zone's series between two times: raw readings when they fit in `points`, else buckets of
+ * `plan.bucketSeconds` (date_bin from `plan.originMs`) that average the values but keep each
+ * bucket's lowest AND highest margin, because the closest approach to the dew point is what a
+ * chart must never smooth away, and the band between the two shows how far the margin swung.
+ * The caller's plan keeps the bucket count within `points` (server/readings/bucketPlan.ts).
+ * `bucketSeconds` is 0 for raw readings.
+ */
 export async function querySeries(
   db: Db,
-  q: { zoneId: string; from: Date; to: Date; points: number },
+  q: {
+    zoneId: string;
+    from: Date;
+    to: Date;
+    points: number;
+    plan: { bucketSeconds: number; originMs: number };
+  },
 ): Promise<{ bucketSeconds: number; rows: SeriesRow[] }> {
   const countResult = await db.execute<{ n: number }>(sql`
     select count(*)::int as n from readings
@@ -172,20 +182,21 @@ export async function querySeries(
   if (total <= q.points) {
     const raw = await db.execute<RawRow>(sql`
       select at, air_c, rh_pct, surface_c, dew_point_c, margin_k, margin_k as margin_min,
-             emc_pct, level, 1 as n
+             margin_k as margin_max, emc_pct, level, 1 as n
       from readings
       where zone_id = ${q.zoneId} and at >= ${q.from} and at <= ${q.to}
       order by at`);
     return { bucketSeconds: 0, rows: raw.rows.map(toSeriesRow) };
   }
 
-  const spanS = (q.to.getTime() - q.from.getTime()) / 1000;
-  const bucketSeconds = Math.max(1, Math.ceil(spanS / q.points));
+  const { bucketSeconds } = q.plan;
+  const origin = new Date(q.plan.originMs);
   const bucketed = await db.execute<RawRow>(sql`
-    select date_bin(make_interval(secs => ${bucketSeconds}), at, ${q.from}::timestamptz) as at,
+    select date_bin(make_interval(secs => ${bucketSeconds}), at, ${origin}::timestamptz) as at,
            avg(air_c) as air_c, avg(rh_pct) as rh_pct, avg(surface_c) as surface_c,
            avg(dew_point_c) as dew_point_c, avg(margin_k) as margin_k,
-           min(margin_k) as margin_min, avg(emc_pct) as emc_pct, count(*)::int as n,
+           min(margin_k) as margin_min, max(margin_k) as margin_max, avg(emc_pct) as emc_pct,
+           count(*)::int as n,
            -- The worst level stored in the bucket (wet over close over dry over unknown), so a
            -- short wet spell never disappears into an average.
            (array['unknown', 'dry', 'close', 'wet']::level[])[
@@ -206,6 +217,7 @@ interface RawRow extends Record<string, unknown> {
   dew_point_c: number | string | null;
   margin_k: number | string | null;
   margin_min: number | string | null;
+  margin_max: number | string | null;
   emc_pct: number | string | null;
   level: Level;
   n: number;
@@ -224,6 +236,7 @@ function toSeriesRow(r: RawRow): SeriesRow {
     dewPointC: numOrNull(r.dew_point_c),
     marginK: numOrNull(r.margin_k),
     marginMinK: numOrNull(r.margin_min),
+    marginMaxK: numOrNull(r.margin_max),
     emcPct: numOrNull(r.emc_pct),
     level: r.level,
     count: r.n,

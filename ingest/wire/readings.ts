@@ -11,6 +11,8 @@ export interface ReadingPoint {
   margin: number | null;
   /** The lowest margin inside a bucket; equals `margin` for a raw reading. */
   marginMin: number | null;
+  /** The highest margin inside a bucket; equals `margin` for a raw reading. */
+  marginMax: number | null;
   emc: number | null;
   /** The level of `marginMin` under the zone's limits. */
   level: Level;

@@ -3,11 +3,13 @@ import { z } from 'zod';
 
 import type { Db } from '@/db';
 import { firstReadingAt, querySeries } from '@/db/queries/readings';
+import { findShop } from '@/db/queries/shops';
 import { findZone } from '@/db/queries/zones';
 import type { ReadingsResponse } from '@/ingest/wire';
 
 import { isUuid, shopIdOf } from '../auth/middleware';
 import { ApiError } from '../errors';
+import { bucketPlan } from '../readings/bucketPlan';
 import { parseInput } from '../validate';
 import { toReadingPoint } from '../wire/readings';
 
@@ -47,7 +49,9 @@ export function readingsRouter(db: Db, now: () => number): Router {
     const zone = isUuid(zoneId) ? await findZone(db, shopIdOf(res), zoneId) : null;
     if (!zone) throw new ApiError(404, 'not_found', 'No such zone in this shop.');
 
-    const series = await querySeries(db, { zoneId: zone.id, from, to, points: q.points });
+    const shop = await findShop(db, shopIdOf(res));
+    const plan = bucketPlan(from.getTime(), to.getTime(), q.points, shop?.timeZone ?? 'UTC');
+    const series = await querySeries(db, { zoneId: zone.id, from, to, points: q.points, plan });
     const firstAt = await firstReadingAt(db, zone.id);
     res.json({
       from: from.toISOString(),

@@ -15,6 +15,7 @@ export function toReadingPoint(row: SeriesRow): ReadingPoint {
     dewPoint: row.dewPointC,
     margin: row.marginK,
     marginMin: row.marginMinK,
+    marginMax: row.marginMaxK,
     emc: row.emcPct,
     level: row.level,
     count: row.count,

@@ -20,6 +20,7 @@ const point = (at: string, margin: number): ReadingPoint => ({
   dewPoint: 9 - margin,
   margin,
   marginMin: margin,
+  marginMax: margin,
   emc: 13,
   level: margin <= 1 ? 'wet' : margin >= 3 ? 'dry' : 'close',
   count: 1,

@@ -14,6 +14,7 @@ function point(at: string, margin: number | null, extra: Partial<ReadingPoint> =
     dewPoint: margin === null ? null : 10,
     margin,
     marginMin: margin,
+    marginMax: margin,
     emc: 13,
     level: 'dry',
     count: 1,

@@ -11,6 +11,7 @@ const point: ReadingPoint = {
   dewPoint: 0,
   margin: 10,
   marginMin: 10,
+  marginMax: 10,
   emc: 9,
   level: 'dry',
   count: 1,

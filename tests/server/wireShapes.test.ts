@@ -77,6 +77,7 @@ const READING_POINT: Keys<ReadingPoint> = {
   dewPoint: true,
   margin: true,
   marginMin: true,
+  marginMax: true,
   emc: true,
   level: true,
   count: true,
