@@ -13,10 +13,12 @@ import { zonePath } from './zones';
 // The shapes the server answers have one home; screens keep importing them from here.
 export type { ReadingPoint, ReadingsResponse };
 
-export interface ReadingsWindow {
-  hours: number;
-  points: number;
-}
+/**
+ * A sliding window (the last `hours`, refetched as time passes, live readings appended) or a
+ * fixed span between two instants (a custom range: it never slides and takes no live points).
+ */
+export type ReadingsWindow =
+  { hours: number; points: number } | { fromMs: number; toMs: number; points: number };
 
 export const DAY_WINDOW: ReadingsWindow = { hours: 24, points: 500 };
 
@@ -36,9 +38,10 @@ export function readingsQueryOptions(
   return queryOptions({
     queryKey: readingKeys.window(shopId, zoneId, window),
     queryFn: ({ signal }) => {
-      const toMs = Date.now();
+      const toMs = 'toMs' in window ? window.toMs : Date.now();
+      const fromMs = 'fromMs' in window ? window.fromMs : toMs - window.hours * 3_600_000;
       const params = new URLSearchParams({
-        from: new Date(toMs - window.hours * 3_600_000).toISOString(),
+        from: new Date(fromMs).toISOString(),
         to: new Date(toMs).toISOString(),
         points: String(window.points),
       });
@@ -70,6 +73,8 @@ export function appendReadingPoint(
   for (const [key, previous] of queries) {
     if (!previous) continue;
     const window = (key[3] as ReadingsWindow | undefined) ?? DAY_WINDOW;
+    // A fixed span stays as asked: a live reading lies after it.
+    if (!('hours' in window)) continue;
     const next = withPoint(previous, point, window.hours);
     queryClient.setQueryData<ReadingsResponse>(key, next);
     if (next.points.length > window.points * 1.2) {

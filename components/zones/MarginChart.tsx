@@ -6,17 +6,15 @@ import {
   VictoryChart,
   VictoryLine,
   VictoryScatter,
-  VictoryTooltip,
   VictoryVoronoiContainer,
 } from 'victory';
 
 import { useUnitPref, type ReadingPoint } from '@/components/queries';
-import { dewPointSeriesLabel } from '@/ingest/words';
+import { dewPointSeriesLabel, HISTORY_WORDS } from '@/ingest/words';
 import { colors, fonts, space, type } from '@/components/theme';
 
-import { clockTicks, hourTickLabel, tickStepMinutes } from './chartTicks';
+import { axisTicks } from './chartTicks';
 import { chartSeries, seriesInUnit } from './chartSeries';
-import { shopClock } from './chartSummary';
 
 interface MarginChartProps {
   points: ReadingPoint[];
@@ -28,6 +26,12 @@ interface MarginChartProps {
   timeZone: string;
   /** The chart in one line (the summary under it): the chart's accessible name. */
   summary: string;
+  /** Shown when the span holds no readings: "No readings in the last 7 days." */
+  emptyText: string;
+  /** The point the crosshair is on (index into `points`), or null. */
+  activeIndex: number | null;
+  /** Called with the time the pointer is nearest to (pointer or touch). */
+  onPointAt: (atMs: number) => void;
   height?: number;
 }
 
@@ -44,12 +48,16 @@ export const LINE_STYLES = {
 // Markers on the surface line only while they stay apart; past this they merge into a smear.
 const MAX_MARKED_POINTS = 90;
 
-const PADDING = { top: 12, bottom: 32, left: 44, right: 12 };
-const AXIS_TEXT = { fontFamily: fonts.regular, fontSize: 11, fill: colors.iron };
+export const PADDING = { top: 12, bottom: 32, left: 44, right: 12 };
+export const AXIS_TEXT = { fontFamily: fonts.regular, fontSize: 11, fill: colors.iron };
+export const CROSSHAIR_STYLE = { stroke: colors.ink, strokeWidth: 1, strokeDasharray: '3,3' };
 
 /**
- * Air, surface and dew point (frost point below 0.01 °C) over time. The band above the dew point shows how close the
- * surface may come: the wet band up to the wet limit, the close band up to the caution limit.
+ * Air, surface and dew point (frost point below 0.01 °C) over time. The band above the dew point
+ * shows how close the surface may come: the wet band up to the wet limit, the close band up to
+ * the caution limit. In a bucketed series a grey band spans each bucket's lowest to highest
+ * margin above the dew point, so a short dip shows though the surface line is an average. The
+ * crosshair marks the point the readout (ZoneHistory) reads out.
  */
 export function MarginChart({
   points,
@@ -60,6 +68,9 @@ export function MarginChart({
   cautionK,
   timeZone,
   summary,
+  emptyText,
+  activeIndex,
+  onPointAt,
   height = 260,
 }: MarginChartProps) {
   const [width, setWidth] = useState(0);
@@ -72,23 +83,15 @@ export function MarginChart({
     () => seriesInUnit(chartSeries(points, { wetK, cautionK }, bucketSeconds), unit),
     [points, wetK, cautionK, bucketSeconds, unit],
   );
-  // Labels about 70 px apart: an hour's chart gets quarter hours, a day's every few hours.
-  const stepMinutes = tickStepMinutes(toMs - fromMs, Math.max(width - 56, 1));
-  const ticks = useMemo(
-    () => clockTicks(fromMs, toMs, timeZone, stepMinutes),
-    [fromMs, toMs, timeZone, stepMinutes],
+  // Labels about 70 px apart: an hour's chart gets quarter hours, a week's days.
+  const axis = useMemo(
+    () => axisTicks(fromMs, toMs, timeZone, Math.max(width - 56, 1)),
+    [fromMs, toMs, timeZone, width],
   );
   const degrees = `°${unit}`;
-  const seriesWords: Record<string, string> = { air: 'air', surface: 'surface', dew: dewWords };
-  // Victory gathers the lines' labels at one time into one tooltip, dew point first (the order
-  // the lines are drawn), so that line carries the time.
-  const tooltip = ({ datum }: { datum?: { x: Date; y: number | null; childName?: string } }) => {
-    if (!datum || datum.y === null || !datum.childName) return '';
-    const value = `${seriesWords[datum.childName] ?? datum.childName} ${datum.y.toFixed(1)} ${degrees}`;
-    return datum.childName === 'dew'
-      ? `${shopClock(datum.x.getTime(), toMs, timeZone)} · ${value}`
-      : value;
-  };
+  const active = activeIndex === null ? undefined : points[activeIndex];
+  const activeX = active ? new Date(active.at) : null;
+  const showBand = bucketSeconds > 0 && series.marginBand.length > 0;
 
   const onLayout = (event: LayoutChangeEvent) => {
     const next = Math.round(event.nativeEvent.layout.width);
@@ -97,7 +100,7 @@ export function MarginChart({
 
   return (
     <View testID="zone-chart" style={styles.box}>
-      <Legend dewWords={dewWords} />
+      <Legend dewWords={dewWords} band={showBand} />
       <View
         onLayout={onLayout}
         style={{ height }}
@@ -119,15 +122,11 @@ export function MarginChart({
                 title={`Air, surface and ${dewWords}`}
                 desc={summary}
                 voronoiDimension="x"
-                voronoiBlacklist={['closeBand', 'wetBand', 'surfaceMarks']}
-                labels={tooltip}
-                labelComponent={
-                  <VictoryTooltip
-                    style={{ ...AXIS_TEXT, fill: colors.ink }}
-                    flyoutStyle={{ fill: colors.card, stroke: colors.border }}
-                    cornerRadius={4}
-                  />
-                }
+                voronoiBlacklist={['closeBand', 'wetBand', 'marginBand', 'surfaceMarks', 'cross']}
+                onActivated={(found: { x?: Date | number }[]) => {
+                  const x = found[0]?.x;
+                  if (x !== undefined) onPointAt(Number(x));
+                }}
               />
             }
           >
@@ -148,8 +147,8 @@ export function MarginChart({
               // Pinned to the bottom edge; by default it would cross the y axis at 0 °C.
               offsetY={PADDING.bottom}
               crossAxis={false}
-              tickValues={ticks}
-              tickFormat={(t: number | Date) => hourTickLabel(Number(t), timeZone)}
+              tickValues={axis.ticks}
+              tickFormat={(t: number | Date) => axis.label(Number(t))}
               style={{
                 axis: { stroke: colors.border },
                 ticks: { stroke: colors.border, size: 4 },
@@ -167,6 +166,13 @@ export function MarginChart({
               data={series.wetBand}
               style={{ data: { fill: colors.wet, fillOpacity: 0.24, stroke: 'none' } }}
             />
+            {showBand ? (
+              <VictoryArea
+                name="marginBand"
+                data={series.marginBand}
+                style={{ data: { fill: colors.iron, fillOpacity: 0.22, stroke: 'none' } }}
+              />
+            ) : null}
             <VictoryLine name="dew" data={series.dewPoint} style={{ data: LINE_STYLES.dew }} />
             <VictoryLine name="air" data={series.air} style={{ data: LINE_STYLES.air }} />
             <VictoryLine
@@ -182,11 +188,21 @@ export function MarginChart({
                 style={{ data: { fill: colors.card, stroke: colors.iron, strokeWidth: 1.5 } }}
               />
             ) : null}
+            {activeX ? (
+              <VictoryLine
+                name="cross"
+                data={[
+                  { x: activeX, y: series.yDomain[0] },
+                  { x: activeX, y: series.yDomain[1] },
+                ]}
+                style={{ data: CROSSHAIR_STYLE }}
+              />
+            ) : null}
           </VictoryChart>
         ) : null}
         {width > 0 && !series.hasData ? (
           <View style={styles.empty}>
-            <Text style={type.small}>No readings in the last 24 hours.</Text>
+            <Text style={type.small}>{emptyText}</Text>
           </View>
         ) : null}
       </View>
@@ -198,7 +214,7 @@ export function MarginChart({
   );
 }
 
-function Legend({ dewWords }: { dewWords: string }) {
+function Legend({ dewWords, band }: { dewWords: string; band: boolean }) {
   return (
     <View style={styles.legend} testID="chart-legend">
       <Key line={LINE_STYLES.air} label="air" />
@@ -206,6 +222,7 @@ function Legend({ dewWords }: { dewWords: string }) {
       <Key line={LINE_STYLES.dew} label={dewWords} testID="chart-key-dew" />
       <Swatch color={colors.wet} label="wet band" />
       <Swatch color={colors.close} label="close band" />
+      {band ? <Swatch color={colors.iron} label={HISTORY_WORDS.marginBand} /> : null}
     </View>
   );
 }

@@ -1,13 +1,31 @@
-import { useState } from 'react';
+import { useMemo, useState } from 'react';
 import { StyleSheet, Text, View } from 'react-native';
 
-import { Button } from '@/components/forms';
-import { DAY_WINDOW, useReadingsQuery, useUnitPref, type Zone } from '@/components/queries';
+import { Button, Choice, TextField } from '@/components/forms';
+import {
+  useReadingsQuery,
+  useUnitPref,
+  type ReadingsWindow,
+  type Zone,
+} from '@/components/queries';
 import { colors, space, tabular, type } from '@/components/theme';
 import { Panel } from '@/components/ui';
+import { HISTORY_WORDS, pointReadout } from '@/ingest/words';
 
+import {
+  checkCustomRange,
+  DEFAULT_RANGE,
+  RANGES,
+  rangeHeading,
+  rangeMs,
+  toLocalInput,
+  type RangeKey,
+} from './chartRange';
 import { chartSpan, spanHeading } from './chartSpan';
+import { nearestIndex } from './chartSeries';
 import { shopClock, summaryLine, valueRows, type ValueRow } from './chartSummary';
+import { ChartKeys } from './ChartKeys';
+import { HumidityChart } from './HumidityChart';
 import { MarginChart } from './MarginChart';
 
 interface ZoneHistoryProps {
@@ -15,16 +33,46 @@ interface ZoneHistoryProps {
   zone: Zone;
   timeZone: string;
   chartHeight?: number;
+  /** The range shown, when the screen keeps it (in the URL); else the panel keeps its own. */
+  range?: RangeKey;
+  onRangeChange?: (range: RangeKey) => void;
 }
 
+const POINTS = 500;
+const HOUR_MS = 3_600_000;
+
 /**
- * A zone's history as a chart, in a panel: the last 24 hours, or since the first reading for a
- * newer zone. Under the chart, the summary line (also the chart's accessible name) and a table of
- * recent values on request, so the chart has a text alternative. The heading is its own row
- * rather than the panel's title, to leave room for "updating…" beside it.
+ * A zone's history as charts, in a panel: a range switch (6 h, 24 h, 7 days, 30 days or a
+ * custom span on the shop's clock), the temperatures with the dew point and the margin's bands,
+ * RH and wood EMC under them, and a readout of the point under the crosshair (pointer, touch or
+ * arrow keys). Under the charts, the summary line (also the chart's accessible name) and a table
+ * of recent values on request, so the chart has a text alternative.
  */
-export function ZoneHistory({ shopId, zone, timeZone, chartHeight }: ZoneHistoryProps) {
-  const readings = useReadingsQuery(shopId, zone.id, DAY_WINDOW);
+export function ZoneHistory({
+  shopId,
+  zone,
+  timeZone,
+  chartHeight,
+  range: rangeProp,
+  onRangeChange,
+}: ZoneHistoryProps) {
+  const [ownRange, setOwnRange] = useState<RangeKey>(DEFAULT_RANGE);
+  const range = rangeProp ?? ownRange;
+  const setRange = (next: RangeKey) => {
+    setOwnRange(next);
+    onRangeChange?.(next);
+    setActiveIndex(null);
+  };
+  const [custom, setCustom] = useState<{ fromMs: number; toMs: number } | null>(null);
+  const [activeIndex, setActiveIndex] = useState<number | null>(null);
+  const window: ReadingsWindow = useMemo(
+    () =>
+      range === 'custom' && custom
+        ? { fromMs: custom.fromMs, toMs: custom.toMs, points: POINTS }
+        : { hours: rangeMs(range === 'custom' ? DEFAULT_RANGE : range) / HOUR_MS, points: POINTS },
+    [range, custom],
+  );
+  const readings = useReadingsQuery(shopId, zone.id, window);
   const unit = useUnitPref();
   const [showValues, setShowValues] = useState(false);
   const data = readings.data;
@@ -33,11 +81,31 @@ export function ZoneHistory({ shopId, zone, timeZone, chartHeight }: ZoneHistory
     ? chartSpan({
         fromMs: Date.parse(data.from),
         toMs,
-        firstAtMs: data.firstAt ? Date.parse(data.firstAt) : null,
+        firstAtMs: data.firstAt && range !== 'custom' ? Date.parse(data.firstAt) : null,
       })
     : null;
-  const heading = span ? spanHeading(span, (ms) => shopClock(ms, toMs, timeZone)) : 'Last 24 hours';
-  const summary = data ? summaryLine(data.points, unit, timeZone, toMs) : '';
+  const spanMs = span ? span.toMs - span.fromMs : 0;
+  const clock = (ms: number) => shopClock(ms, toMs, timeZone, spanMs);
+  const shownRange: RangeKey = range === 'custom' && !custom ? DEFAULT_RANGE : range;
+  const heading =
+    shownRange === 'custom' && custom
+      ? `${shopClock(custom.fromMs, custom.toMs, timeZone, 7 * 86_400_000)} – ${shopClock(custom.toMs, custom.toMs, timeZone, 7 * 86_400_000)}`
+      : span?.partial
+        ? spanHeading(span, clock)
+        : rangeHeading(shownRange);
+  const spanWords =
+    shownRange === 'custom'
+      ? 'this span'
+      : span?.partial
+        ? 'since the first reading'
+        : (RANGES.find((r) => r.value === shownRange)?.words ?? 'this span');
+  const points = useMemo(() => data?.points ?? [], [data]);
+  const summary = data ? summaryLine(points, unit, timeZone, toMs, spanWords, spanMs) : '';
+  const times = useMemo(() => points.map((p) => Date.parse(p.at)), [points]);
+  const active =
+    activeIndex !== null && activeIndex < points.length ? points[activeIndex] : undefined;
+  const pointAt = (atMs: number) => setActiveIndex(nearestIndex(times, atMs));
+
   return (
     <Panel>
       <View style={styles.head}>
@@ -46,23 +114,78 @@ export function ZoneHistory({ shopId, zone, timeZone, chartHeight }: ZoneHistory
         </Text>
         {readings.isFetching ? <Text style={type.small}>updating…</Text> : null}
       </View>
+      <Choice
+        label={HISTORY_WORDS.rangeLabel}
+        options={RANGES}
+        value={range}
+        onChange={setRange}
+        testID="zone-range"
+      />
+      {range === 'custom' ? (
+        <CustomRange
+          timeZone={timeZone}
+          initial={custom ?? { fromMs: toMs - 7 * 86_400_000, toMs }}
+          onApply={(next) => {
+            setCustom(next);
+            setActiveIndex(null);
+          }}
+        />
+      ) : null}
       {data && span ? (
         <>
-          <MarginChart
-            points={data.points}
-            fromMs={span.fromMs}
-            toMs={span.toMs}
-            bucketSeconds={data.bucketSeconds}
-            wetK={zone.wetK}
-            cautionK={zone.cautionK}
-            timeZone={timeZone}
-            summary={summary}
-            height={chartHeight}
-          />
+          <ChartKeys
+            count={points.length}
+            activeIndex={activeIndex}
+            onMove={setActiveIndex}
+            label={`${summary}. ${HISTORY_WORDS.readoutHint}`}
+          >
+            <MarginChart
+              points={points}
+              fromMs={span.fromMs}
+              toMs={span.toMs}
+              bucketSeconds={data.bucketSeconds}
+              wetK={zone.wetK}
+              cautionK={zone.cautionK}
+              timeZone={timeZone}
+              summary={summary}
+              emptyText={`No readings in ${spanWords}.`}
+              activeIndex={active ? activeIndex : null}
+              onPointAt={pointAt}
+              height={chartHeight}
+            />
+            <HumidityChart
+              points={points}
+              fromMs={span.fromMs}
+              toMs={span.toMs}
+              bucketSeconds={data.bucketSeconds}
+              timeZone={timeZone}
+              activeIndex={active ? activeIndex : null}
+              onPointAt={pointAt}
+            />
+          </ChartKeys>
+          <Text
+            style={[type.small, tabular, styles.readout]}
+            aria-live="polite"
+            testID="zone-chart-readout"
+          >
+            {active
+              ? pointReadout(
+                  {
+                    ...active,
+                    marginMin: active.marginMin,
+                    marginMax: active.marginMax ?? active.margin,
+                  },
+                  unit,
+                  clock(Date.parse(active.at)),
+                )
+              : points.length > 0
+                ? HISTORY_WORDS.readoutHint
+                : ''}
+          </Text>
           <Text style={[type.body, tabular]} testID="zone-chart-summary">
             {summary}
           </Text>
-          {data.points.length > 0 ? (
+          {points.length > 0 ? (
             <View style={styles.toggle}>
               <Button
                 label={showValues ? 'Hide values' : 'Show values'}
@@ -73,7 +196,7 @@ export function ZoneHistory({ shopId, zone, timeZone, chartHeight }: ZoneHistory
             </View>
           ) : null}
           {showValues ? (
-            <ValuesTable rows={valueRows(data.points, unit, timeZone, toMs)} unit={unit} />
+            <ValuesTable rows={valueRows(points, unit, timeZone, toMs, 12, spanMs)} unit={unit} />
           ) : null}
         </>
       ) : readings.isError ? (
@@ -86,6 +209,63 @@ export function ZoneHistory({ shopId, zone, timeZone, chartHeight }: ZoneHistory
         </View>
       )}
     </Panel>
+  );
+}
+
+interface CustomRangeProps {
+  timeZone: string;
+  initial: { fromMs: number; toMs: number };
+  onApply: (range: { fromMs: number; toMs: number }) => void;
+}
+
+/** Two clock times on the shop's clock, checked before anything is asked of the server. */
+function CustomRange({ timeZone, initial, onApply }: CustomRangeProps) {
+  const [fromText, setFromText] = useState(() =>
+    toLocalInput(initial.fromMs, timeZone).replace('T', ' '),
+  );
+  const [toText, setToText] = useState(() =>
+    toLocalInput(initial.toMs, timeZone).replace('T', ' '),
+  );
+  const [error, setError] = useState<{ field: 'from' | 'to'; message: string } | null>(null);
+  const apply = () => {
+    const check = checkCustomRange(fromText, toText, timeZone);
+    if (!check.ok) {
+      setError({ field: check.field, message: check.message });
+      return;
+    }
+    setError(null);
+    onApply({ fromMs: check.fromMs, toMs: check.toMs });
+  };
+  return (
+    <View style={styles.custom} testID="zone-custom-range">
+      <View style={styles.customFields}>
+        <View style={styles.customField}>
+          <TextField
+            label={`${HISTORY_WORDS.customFrom}, ${timeZone}`}
+            value={fromText}
+            onChangeText={setFromText}
+            placeholder={HISTORY_WORDS.customHint}
+            error={error?.field === 'from' ? error.message : undefined}
+            onSubmitEditing={apply}
+            testID="zone-custom-from"
+          />
+        </View>
+        <View style={styles.customField}>
+          <TextField
+            label={`${HISTORY_WORDS.customTo}, ${timeZone}`}
+            value={toText}
+            onChangeText={setToText}
+            placeholder={HISTORY_WORDS.customHint}
+            error={error?.field === 'to' ? error.message : undefined}
+            onSubmitEditing={apply}
+            testID="zone-custom-to"
+          />
+        </View>
+      </View>
+      <View style={styles.toggle}>
+        <Button label={HISTORY_WORDS.customShow} onPress={apply} testID="zone-custom-show" />
+      </View>
+    </View>
   );
 }
 
@@ -130,6 +310,10 @@ const styles = StyleSheet.create({
   placeholder: { alignItems: 'center', justifyContent: 'center' },
   error: { color: colors.wet },
   toggle: { alignSelf: 'flex-start' },
+  readout: { minHeight: 36 },
+  custom: { gap: space.sm },
+  customFields: { flexDirection: 'row', flexWrap: 'wrap', gap: space.md },
+  customField: { flexGrow: 1, flexBasis: 220 },
   table: { borderTopWidth: 1, borderTopColor: colors.border },
   row: {
     flexDirection: 'row',

@@ -24,6 +24,11 @@ export interface ChartSeries {
   closeBand: Band[];
   /** From the dew point up to dew + wet limit: the wet colour. */
   wetBand: Band[];
+  /**
+   * From dew + the bucket's lowest margin to dew + its highest: where the surface went inside
+   * each bucket, so a short dip shows below the averaged surface line. Empty for raw readings.
+   */
+  marginBand: Band[];
   yDomain: [number, number];
   hasData: boolean;
 }
@@ -52,6 +57,7 @@ export function chartSeries(
     dewPoint: [],
     closeBand: [],
     wetBand: [],
+    marginBand: [],
     yDomain: [0, 20],
     hasData: points.length > 0,
   };
@@ -73,6 +79,7 @@ export function chartSeries(
       series.dewPoint.push({ x, y: null });
       series.closeBand.push({ x, y: null, y0: null });
       series.wetBand.push({ x, y: null, y0: null });
+      if (bucketSeconds > 0) series.marginBand.push({ x, y: null, y0: null });
     }
     const x = new Date(t);
     const dew = point.dewPoint;
@@ -89,6 +96,17 @@ export function chartSeries(
     series.wetBand.push(
       dew === null ? { x, y: null, y0: null } : { x, y: dew + limits.wetK, y0: dew },
     );
+    if (bucketSeconds > 0) {
+      const low = point.marginMin ?? point.margin;
+      const high = point.marginMax ?? point.margin;
+      series.marginBand.push(
+        dew === null || low === null || high === null
+          ? { x, y: null, y0: null }
+          : { x, y: dew + high, y0: dew + low },
+      );
+      see(dew === null || low === null ? null : dew + low);
+      see(dew === null || high === null ? null : dew + high);
+    }
     see(point.air);
     see(point.surface);
     see(dew);
@@ -118,7 +136,22 @@ export function seriesInUnit(series: ChartSeries, unit: TemperatureUnit): ChartS
     dewPoint: line(series.dewPoint),
     closeBand: band(series.closeBand),
     wetBand: band(series.wetBand),
+    marginBand: band(series.marginBand),
     yDomain: [Math.floor(cToF(series.yDomain[0])), Math.ceil(cToF(series.yDomain[1]))],
     hasData: series.hasData,
   };
+}
+
+/** The index of the time in `timesMs` (ascending) nearest to `atMs`; -1 for none. */
+export function nearestIndex(timesMs: readonly number[], atMs: number): number {
+  if (timesMs.length === 0) return -1;
+  let lo = 0;
+  let hi = timesMs.length - 1;
+  while (lo < hi) {
+    const mid = (lo + hi) >> 1;
+    if (timesMs[mid]! < atMs) lo = mid + 1;
+    else hi = mid;
+  }
+  if (lo > 0 && atMs - timesMs[lo - 1]! <= timesMs[lo]! - atMs) return lo - 1;
+  return lo;
 }

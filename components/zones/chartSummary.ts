@@ -8,8 +8,16 @@ import type { ReadingPoint } from '@/components/queries';
 import type { TemperatureUnit } from '@/ingest/units';
 import { formatMargin, formatTemperature } from '@/ingest/words';
 
-/** "06:52" on the day of `nowMs` in the shop's zone, else "Tue 06:52". */
-export function shopClock(atMs: number, nowMs: number, timeZone: string): string {
+const SIX_DAYS_MS = 6 * 86_400_000;
+
+/**
+ * "06:52" on the day of `nowMs` in the shop's zone, else "Tue 06:52"; over a span longer than
+ * six days a weekday repeats, so the date instead: "3 Mar 06:52".
+ */
+export function shopClock(atMs: number, nowMs: number, timeZone: string, spanMs = 0): string {
+  if (spanMs > SIX_DAYS_MS || Math.abs(nowMs - atMs) > SIX_DAYS_MS) {
+    return formatInTimeZone(atMs, timeZone, 'd MMM HH:mm');
+  }
   const sameDay =
     formatInTimeZone(atMs, timeZone, 'yyyy-MM-dd') ===
     formatInTimeZone(nowMs, timeZone, 'yyyy-MM-dd');
@@ -41,18 +49,24 @@ export function lowestMargin(
   return lowest;
 }
 
-/** "Lowest margin +0.4 °C at 06:52", or why there is none. */
+/**
+ * "Lowest margin +0.4 °C at 06:52", or why there is none. `spanWords` names the range ("the
+ * last 7 days"), `spanMs` its length (a long span's times carry their date).
+ */
 export function summaryLine(
   points: readonly ReadingPoint[],
   unit: TemperatureUnit,
   timeZone: string,
   nowMs: number,
+  spanWords = 'the last 24 hours',
+  spanMs = 0,
 ): string {
-  if (points.length === 0) return 'No readings in the last 24 hours.';
+  if (points.length === 0) return `No readings in ${spanWords}.`;
   const lowest = lowestMargin(points);
   if (!lowest)
     return 'No dew margin in this span: no surface temperature was measured or estimated.';
-  return `Lowest margin ${formatMargin(lowest.marginK, unit)} at ${shopClock(lowest.atMs, nowMs, timeZone)}`;
+  const at = shopClock(lowest.atMs, nowMs, timeZone, spanMs);
+  return `Lowest margin ${formatMargin(lowest.marginK, unit)} in ${spanWords}, at ${at}`;
 }
 
 export interface ValueRow {
@@ -70,13 +84,14 @@ export function valueRows(
   timeZone: string,
   nowMs: number,
   limit = 12,
+  spanMs = 0,
 ): ValueRow[] {
   return points
     .slice(-limit)
     .reverse()
     .map((point) => ({
       key: point.at,
-      time: shopClock(Date.parse(point.at), nowMs, timeZone),
+      time: shopClock(Date.parse(point.at), nowMs, timeZone, spanMs),
       surface: formatTemperature(point.surface, unit),
       dewPoint: formatTemperature(point.dewPoint, unit),
       margin: formatMargin(point.margin, unit),

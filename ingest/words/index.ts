@@ -3,6 +3,7 @@ export * from './advice';
 export * from './alarms';
 export * from './dewPoint';
 export * from './format';
+export * from './history';
 export * from './sensors';
 export * from './zones';
 export * from './levels';

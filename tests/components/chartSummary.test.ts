@@ -49,18 +49,24 @@ describe('summaryLine', () => {
   const points = [point('2026-03-10T11:00:00Z', 2.1), point('2026-03-10T11:52:00Z', 0.4)];
 
   it('names the lowest margin and its time on the shop clock, in °C', () => {
-    expect(summaryLine(points, 'C', TZ, NOW)).toBe('Lowest margin +0.4 °C at 06:52');
+    expect(summaryLine(points, 'C', TZ, NOW)).toBe(
+      'Lowest margin +0.4 °C in the last 24 hours, at 06:52',
+    );
   });
 
   // A margin is a difference: 0.4 K is 0.72 °F, without the 32 °F offset (ingest/words/format.ts).
   it('converts the margin as a difference in °F', () => {
-    expect(summaryLine(points, 'F', TZ, NOW)).toBe('Lowest margin +0.7 °F at 06:52');
+    expect(summaryLine(points, 'F', TZ, NOW)).toBe(
+      'Lowest margin +0.7 °F in the last 24 hours, at 06:52',
+    );
   });
 
   it('names the weekday when the lowest was on another day', () => {
     const yesterday = [point('2026-03-09T23:30:00Z', -1.5), point('2026-03-10T12:00:00Z', 3)];
     // 23:30Z on the 9th is 18:30 CDT on Monday the 9th.
-    expect(summaryLine(yesterday, 'C', TZ, NOW)).toBe('Lowest margin -1.5 °C at Mon 18:30');
+    expect(summaryLine(yesterday, 'C', TZ, NOW)).toBe(
+      'Lowest margin -1.5 °C in the last 24 hours, at Mon 18:30',
+    );
   });
 
   it('says why there is no margin', () => {

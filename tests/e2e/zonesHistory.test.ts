@@ -227,7 +227,9 @@ describe.each([
       const lowest = Math.min(...newBench.results.map((r) => r.margin));
       const summary = await detail.getByTestId('zone-chart-summary').textContent();
       expect(summary).toMatch(
-        new RegExp(`^Lowest margin \\${formatMargin(lowest, 'F')} at \\d\\d:\\d\\d$`),
+        new RegExp(
+          `^Lowest margin \\${formatMargin(lowest, 'F')} since the first reading, at \\d\\d:\\d\\d$`,
+        ),
       );
       // ... which is also the chart's accessible name.
       expect(await plot.getAttribute('aria-label')).toBe(summary);

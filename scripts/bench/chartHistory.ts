@@ -1,0 +1,223 @@
+/**
+ * The chart-query bench: one zone's 7-day history (the readings route's own query, 500 points)
+ * with 10 million readings stored across 1,000 sensors.
+ *
+ * The install: 100 shops × 5 zones × 2 sensors. A big Drybench install is many small shops on
+ * one server, not one shop with a thousand sensors: a shop watches a few areas (machine room,
+ * lumber rack, finishing room…) and a zone has one or two sensors (a probe on the main saw top,
+ * one by the jointer). Two per zone is the harder case for this query (twice the rows per zone
+ * than one sensor per zone). Each sensor posts once a minute for a week: 1,000 × 10,080 =
+ * 10.08 M rows, so the week asked for holds 20,160 of a zone's readings, bucketed into ~450.
+ *
+ * The rows are generated in SQL (insert … select … generate_series), in time order across all
+ * sensors as real ingest writes them — a zone's rows are scattered over the whole table, which
+ * is what makes the query hard — with the indexes dropped while loading and rebuilt after
+ * (sorting once is far quicker than 10 M index insertions), then VACUUM ANALYZE, as autovacuum
+ * would have done on a live table long ago.
+ */
+import type pg from 'pg';
+
+import { createDatabase } from '@/db';
+import { querySeries } from '@/db/queries/readings';
+import { bucketPlan } from '@/server/readings/bucketPlan';
+
+import { percentile } from './stats';
+
+export const CHART_INSTALL = { shops: 100, zonesPerShop: 5, sensorsPerZone: 2, days: 7 };
+const SHOP_TIME_ZONE = 'Europe/Berlin';
+const WEEK_MS = 7 * 24 * 3_600_000;
+const POINTS = 500;
+
+export interface ChartQueryResult {
+  rows: number;
+  sensors: number;
+  zones: number;
+  seedS: number;
+  indexS: number;
+  vacuumS: number;
+  /** p50 / p95 of the route's query as shipped (db/migrations). */
+  p50Ms: number;
+  p95Ms: number;
+  /** The same queries with only the (zone_id, at) index, measured in the same run. */
+  baselineP50Ms: number;
+  baselineP95Ms: number;
+  queries: number;
+  pointsPerAnswer: number;
+}
+
+const ids = (kind: string, n: string) => `md5('bench-${kind}-' || ${n})::uuid`;
+
+/** The shops, zones and sensors, then 10 M readings; returns seconds spent per step. */
+async function seed(pool: pg.Pool, endMs: number, progress: (line: string) => void) {
+  const { shops, zonesPerShop, sensorsPerZone, days } = CHART_INSTALL;
+  const zones = shops * zonesPerShop;
+  const sensors = zones * sensorsPerZone;
+  await pool.query(`
+    insert into shops (id, name, time_zone)
+    select ${ids('shop', 's')}, 'History shop ' || s, '${SHOP_TIME_ZONE}'
+    from generate_series(1, ${shops}) s`);
+  await pool.query(`
+    insert into zones (id, shop_id, name)
+    select ${ids('zone', 'z')}, ${ids('shop', `((z - 1) / ${zonesPerShop} + 1)`)}, 'Zone ' || z
+    from generate_series(1, ${zones}) z`);
+  await pool.query(`
+    insert into sensors (id, shop_id, zone_id, name, token_hash)
+    select ${ids('sensor', 'n')},
+           ${ids('shop', `((n - 1) / ${sensorsPerZone * zonesPerShop} + 1)`)},
+           ${ids('zone', `((n - 1) / ${sensorsPerZone} + 1)`)},
+           'History sensor ' || n, md5('token-' || n)
+    from generate_series(1, ${sensors}) n`);
+
+  // The indexes are rebuilt after the load; their definitions come from the migrations.
+  const indexes = await pool.query<{ name: string; def: string; constraint: boolean }>(`
+    select i.indexname as name, i.indexdef as def,
+           exists (select 1 from pg_constraint c where c.conname = i.indexname) as constraint
+    from pg_indexes i where i.tablename = 'readings'`);
+  for (const index of indexes.rows) {
+    await pool.query(
+      index.constraint
+        ? `alter table readings drop constraint "${index.name}"`
+        : `drop index "${index.name}"`,
+    );
+  }
+
+  let started = performance.now();
+  progress(`generating ${(sensors * days * 1440).toLocaleString('en-US')} readings in SQL…`);
+  // A day per statement, both halves of the sensors at once: one core each.
+  const startMs = endMs - days * 24 * 3_600_000;
+  for (let day = 0; day < days; day++) {
+    const from = new Date(startMs + day * 86_400_000).toISOString();
+    await Promise.all(
+      [0, 1].map((half) =>
+        pool.query(
+          `insert into readings (sensor_id, at, shop_id, zone_id, air_c, rh_pct, surface_c,
+             surface_source, dew_point_c, margin_k, emc_pct, level)
+           select s.id, t.at, s.shop_id, s.zone_id, w.air_c, w.rh_pct, w.air_c - 1.5, 'probe',
+                  w.dew_c, w.air_c - 1.5 - w.dew_c, 11.5,
+                  case when w.air_c - 1.5 - w.dew_c <= 1 then 'wet'::level
+                       when w.air_c - 1.5 - w.dew_c < 3 then 'close'::level
+                       else 'dry'::level end
+           from generate_series($1::timestamptz, $1::timestamptz + interval '1 day' - interval '1 minute',
+                                interval '1 minute') t(at)
+           cross join (select id, shop_id, zone_id, hashtext(id::text) % 97 as k from sensors
+                       where name like 'History sensor %' and hashtext(id::text) & 1 = $2) s
+           cross join lateral (
+             select 18 + 4 * sin(extract(epoch from t.at) / 13751.0 + s.k) as air_c,
+                    60 + 15 * sin(extract(epoch from t.at) / 21600.0 + s.k) as rh_pct,
+                    9 + 5 * sin(extract(epoch from t.at) / 13751.0 + s.k + 0.7) as dew_c
+           ) w
+           order by t.at`,
+          [from, half],
+        ),
+      ),
+    );
+    progress(`  day ${day + 1} of ${days}`);
+  }
+  const seedS = (performance.now() - started) / 1000;
+
+  started = performance.now();
+  await pool.query(`set maintenance_work_mem = '512MB'`);
+  await Promise.all(indexes.rows.map((index) => pool.query(index.def)));
+  for (const index of indexes.rows.filter((i) => i.constraint)) {
+    await pool.query(
+      `alter table readings add constraint "${index.name}" primary key using index "${index.name}"`,
+    );
+  }
+  const indexS = (performance.now() - started) / 1000;
+  started = performance.now();
+  await pool.query('vacuum analyze readings');
+  const vacuumS = (performance.now() - started) / 1000;
+  return { rows: sensors * days * 1440, sensors, zones, seedS, indexS, vacuumS };
+}
+
+/** Times the route's query for a week of one zone, rotating over the zones; ms per query. */
+async function timeQueries(
+  db: ReturnType<typeof createDatabase>['db'],
+  zoneIds: string[],
+  endMs: number,
+  count: number,
+): Promise<{ samplesMs: number[]; points: number }> {
+  const samplesMs: number[] = [];
+  let points = 0;
+  const to = new Date(endMs);
+  const from = new Date(endMs - WEEK_MS);
+  const plan = bucketPlan(from.getTime(), to.getTime(), POINTS, SHOP_TIME_ZONE);
+  for (let i = 0; i < count; i++) {
+    const zoneId = zoneIds[(i * 37) % zoneIds.length]!;
+    const started = performance.now();
+    const series = await querySeries(db, { zoneId, from, to, points: POINTS, plan });
+    samplesMs.push(performance.now() - started);
+    points = Math.max(points, series.rows.length);
+  }
+  return { samplesMs, points };
+}
+
+export async function measureChartQuery(
+  databaseUrl: string,
+  progress: (line: string) => void,
+  queries = 300,
+): Promise<ChartQueryResult> {
+  const { pool, db } = createDatabase(databaseUrl, { max: 2 });
+  try {
+    // The newest reading a minute ago, so the week asked for is full.
+    const endMs = Math.floor(Date.now() / 60_000) * 60_000;
+    const seeded = await seed(pool, endMs, progress);
+    progress(
+      `seeded ${seeded.rows.toLocaleString('en-US')} readings in ${seeded.seedS.toFixed(1)} s, ` +
+        `indexes ${seeded.indexS.toFixed(1)} s, vacuum analyze ${seeded.vacuumS.toFixed(1)} s`,
+    );
+    const zones = await pool.query<{ id: string }>(
+      `select id from zones where name like 'Zone %' order by id`,
+    );
+    const zoneIds = zones.rows.map((z) => z.id);
+
+    progress(`${queries} week queries, as shipped…`);
+    // Warm-up: a first pass over the zones, as a running server's cache would be.
+    await timeQueries(db, zoneIds, endMs, 50);
+    const shipped = await timeQueries(db, zoneIds, endMs, queries);
+    const sorted = [...shipped.samplesMs].sort((a, b) => a - b);
+
+    progress(`${queries} week queries with only the (zone_id, at) index (baseline)…`);
+    const baseline = await withoutHistoryIndexes(pool, db, () =>
+      timeQueries(db, zoneIds, endMs, queries),
+    );
+    const baseSorted = [...baseline.samplesMs].sort((a, b) => a - b);
+    return {
+      ...seeded,
+      p50Ms: percentile(sorted, 50),
+      p95Ms: percentile(sorted, 95),
+      baselineP50Ms: percentile(baseSorted, 50),
+      baselineP95Ms: percentile(baseSorted, 95),
+      queries,
+      pointsPerAnswer: shipped.points,
+    };
+  } finally {
+    await pool.end();
+  }
+}
+
+/** Indexes on readings that the zone history's query may use beyond (zone_id, at). */
+const HISTORY_INDEXES: string[] = [];
+
+/**
+ * Runs `measure` with the history indexes dropped, then puts them back: the baseline of the
+ * same run. Dropped and rebuilt rather than hidden in a rolled-back transaction, because the
+ * route's query runs on other connections of the pool.
+ */
+async function withoutHistoryIndexes<T>(
+  pool: pg.Pool,
+  _db: unknown,
+  measure: () => Promise<T>,
+): Promise<T> {
+  const defs = await pool.query<{ name: string; def: string }>(
+    `select indexname as name, indexdef as def from pg_indexes
+     where tablename = 'readings' and indexname = any($1)`,
+    [HISTORY_INDEXES],
+  );
+  for (const index of defs.rows) await pool.query(`drop index "${index.name}"`);
+  try {
+    return await measure();
+  } finally {
+    for (const index of defs.rows) await pool.query(index.def);
+  }
+}
