@@ -11,6 +11,7 @@ export const TARGETS = {
   wsP99IdleMs: { atMost: 25 },
   wsP99LoadedMs: { atMost: 50 },
   rssMb: { atMost: 250 },
+  chartQueryP95Ms: { atMost: 20 },
 } as const;
 
 export type Figures = Record<keyof typeof TARGETS, number | null> & Record<string, unknown>;
@@ -27,6 +28,7 @@ export function figuresOf(r: BenchResult): Figures {
     wsP99IdleMs: r.liveIdle ? round(r.liveIdle.delivery.p99Ms) : null,
     wsP99LoadedMs: r.liveLoaded ? round(r.liveLoaded.delivery.p99Ms) : null,
     rssMb: round(r.peakRssMb, 0),
+    chartQueryP95Ms: r.chart ? round(r.chart.p95Ms) : null,
     rssAtStartMb: round(r.startRssMb, 0),
     date: r.startedAt.toISOString(),
     cpuCount: r.cpuCount,
@@ -40,6 +42,12 @@ export function figuresOf(r: BenchResult): Figures {
     wsP50IdleMs: r.liveIdle ? round(r.liveIdle.delivery.p50Ms) : null,
     wsP50LoadedMs: r.liveLoaded ? round(r.liveLoaded.delivery.p50Ms) : null,
     backgroundReadingsPerS: bg ? round(bg.readingsPerS, 0) : null,
+    chartQueryP50Ms: r.chart ? round(r.chart.p50Ms) : null,
+    chartQueryVsTarget: r.chart ? round(r.chart.p95Ms / TARGETS.chartQueryP95Ms.atMost, 3) : null,
+    chartQueryBaselineP95Ms: r.chart ? round(r.chart.baselineP95Ms) : null,
+    chartQueryVsBaseline: r.chart ? round(r.chart.p95Ms / r.chart.baselineP95Ms, 3) : null,
+    chartStoredReadings: r.chart ? r.chart.rows : null,
+    chartSeedS: r.chart ? round(r.chart.seedS) : null,
     failures:
       (r.bare?.failures ?? 0) +
       (r.ingest1?.failures ?? 0) +
@@ -159,6 +167,20 @@ export function formatReport(r: BenchResult): string {
       `background: ${int(o.backgroundReadingsPerS)} readings/s asked, ${o.backgroundBatch} per ` +
         `request from the fleet's sensors (not the watched shop); ${b.failures} failed, ` +
         `${b.skipped} not sent (server behind)`,
+    );
+  }
+
+  if (r.chart) {
+    const c = r.chart;
+    out.push(
+      `zone history: ${int(c.rows)} readings stored (${int(c.sensors)} sensors in ${int(c.zones)} ` +
+        `zones, one a minute for a week), generated in SQL in ${c.seedS.toFixed(1)} s, indexes ` +
+        `${c.indexS.toFixed(1)} s, vacuum analyze ${c.vacuumS.toFixed(1)} s, migration 0010 ` +
+        `${c.coverS.toFixed(1)} s; ${c.queries} week queries (${c.pointsPerAnswer} points) over ` +
+        `rotating zones: p50 ${ms(c.p50Ms)} / p95 ${ms(c.p95Ms)} ms covering index, p50 ` +
+        `${ms(c.baselineP50Ms)} / p95 ${ms(c.baselineP95Ms)} ms plain (zone_id, at) index ` +
+        `(baseline, same run); p95 / target ${(c.p95Ms / TARGETS.chartQueryP95Ms.atMost).toFixed(2)}, ` +
+        `p95 / baseline ${(c.p95Ms / c.baselineP95Ms).toFixed(3)}`,
     );
   }
 

@@ -6,6 +6,7 @@ import { execFileSync } from 'node:child_process';
 import { randomBytes } from 'node:crypto';
 import os from 'node:os';
 
+import { measureChartQuery, type ChartQueryResult } from './chartHistory';
 import { createFixtures, type BenchFixtures } from './fixtures';
 import { runHttpSlice } from './httpLoad';
 import { interleave, type Contender, type Measured } from './interleave';
@@ -34,6 +35,8 @@ export interface BenchResult {
   ingest50?: Measured;
   liveIdle?: LivePhase;
   liveLoaded?: LivePhase & { background: PacedLoadResult };
+  /** One zone's 7-day history with 10 M readings stored (scripts/bench/chartHistory.ts). */
+  chart?: ChartQueryResult;
   /** The Drybench server's resident memory once started and set up, before any load. */
   startRssMb: number;
   /** The Drybench server's peak resident memory over the whole run. */
@@ -202,6 +205,11 @@ export async function runBench(
     }
 
     result.peakRssMb = memoryOf(server.pid).peakRssMb;
+
+    if (has('chart')) {
+      progress("the zone history's week query over 10 M stored readings…");
+      result.chart = await measureChartQuery(database.url, progress);
+    }
     progress('stopping…');
     return result;
   } finally {
