@@ -81,7 +81,10 @@ export function ZoneHistory({
     ? chartSpan({
         fromMs: Date.parse(data.from),
         toMs,
-        firstAtMs: data.firstAt && range !== 'custom' ? Date.parse(data.firstAt) : null,
+        // A newer zone's day fills the chart from its first reading; a week or a month asked
+        // for is shown whole, so the span matches the switch.
+        firstAtMs:
+          data.firstAt && (range === '6h' || range === '24h') ? Date.parse(data.firstAt) : null,
       })
     : null;
   const spanMs = span ? span.toMs - span.fromMs : 0;

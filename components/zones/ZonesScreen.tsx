@@ -12,6 +12,7 @@ import { Notice, useDocumentTitle } from '@/components/ui';
 
 import { LevelStrip } from './LevelStrip';
 import { ZoneCard } from './ZoneCard';
+import type { RangeKey } from './chartRange';
 import { ZoneHistory } from './ZoneHistory';
 import { ZoneList } from './ZoneList';
 import { countByLevel, orderByRisk } from './zoneOrder';
@@ -19,6 +20,9 @@ import { countByLevel, orderByRisk } from './zoneOrder';
 interface ZonesScreenProps {
   /** The zone to show; without it a phone shows the list and a wide screen the first zone. */
   zoneId?: string;
+  /** The history's range, kept in the URL (`?range=7d`) by the route. */
+  range?: RangeKey;
+  onRangeChange?: (range: RangeKey) => void;
 }
 
 /**
@@ -27,7 +31,7 @@ interface ZonesScreenProps {
  * margin first) under a strip counting zones per level. The shop frame around it pins the open
  * alarms above.
  */
-export function ZonesScreen({ zoneId }: ZonesScreenProps) {
+export function ZonesScreen({ zoneId, range, onRangeChange }: ZonesScreenProps) {
   const shop = useFrameShop();
   const shopId = shop.id;
   const zones = useZonesQuery(shopId);
@@ -95,7 +99,14 @@ export function ZonesScreen({ zoneId }: ZonesScreenProps) {
           <Text style={type.title} role="heading" aria-level={2}>
             {shown.name}
           </Text>
-          <ZoneHistory shopId={shopId} zone={shown} timeZone={timeZone} chartHeight={360} />
+          <ZoneHistory
+            shopId={shopId}
+            zone={shown}
+            timeZone={timeZone}
+            chartHeight={360}
+            range={range}
+            onRangeChange={onRangeChange}
+          />
         </View>
       </View>
     );
@@ -106,7 +117,13 @@ export function ZonesScreen({ zoneId }: ZonesScreenProps) {
           ← All zones
         </Link>
         <ZoneCard zone={selected} timeZone={timeZone} />
-        <ZoneHistory shopId={shopId} zone={selected} timeZone={timeZone} />
+        <ZoneHistory
+          shopId={shopId}
+          zone={selected}
+          timeZone={timeZone}
+          range={range}
+          onRangeChange={onRangeChange}
+        />
       </View>
     );
   } else {

@@ -6,6 +6,7 @@
 // values table and tooltip in °F.
 import { randomUUID } from 'node:crypto';
 
+import { formatInTimeZone } from 'date-fns-tz';
 import type { Page } from 'playwright-core';
 import { afterAll, beforeAll, describe, expect, it } from 'vitest';
 
@@ -132,6 +133,117 @@ describe.each([
 ])(
   'zones and history on a $label screen ($width×$height), in °F',
   ({ label, width, height, wide }) => {
+    it('switches the history between 7 days, 6 h, 30 days and a custom span', async () => {
+      const shop = await makeShop();
+      const zone = shop.zones['Machine room']!;
+      const now = Date.now();
+      // Nine days every 15 minutes at 18 °C / 50 % RH over a 17 °C top (dew 7.4 °C, +9.6 K,
+      // dry), and a two-reading dip three days ago to a 6 °C top (−1.4 K, wet): the 7-day and
+      // 30-day spans must show the dip, the 6-hour span must not.
+      const steady = Array.from({ length: 9 * 96 }, (_, i) => ({
+        at: iso(now - 9 * 24 * 60 * MINUTE + i * 15 * MINUTE),
+        air: 18,
+        rh: 50,
+        surface: 17,
+      }));
+      const dipMs = now - 3 * 24 * 60 * MINUTE + 7 * MINUTE;
+      const dip = [0, 1].map((i) => ({ at: iso(dipMs + i * MINUTE), air: 18, rh: 50, surface: 6 }));
+      const answers = [];
+      for (let i = 0; i < steady.length; i += 500) {
+        answers.push(
+          await postReading(server.baseUrl, zone.token, { readings: steady.slice(i, i + 500) }),
+        );
+      }
+      const dipAnswer = await postReading(server.baseUrl, zone.token, { readings: dip });
+      const dryK = answers[0]!.results[0]!.margin;
+      const dipK = Math.min(...dipAnswer.results.map((r) => r.margin));
+      expect(dipK).toBeLessThan(0);
+
+      const page = await browser.newPage({ viewport: { width, height } });
+      const errors = watchPage(page);
+      await signIn(page, shop.email);
+      // The range comes from the address.
+      await page.goto(`${server.baseUrl}${zoneHref(shop.shopId, zone.id)}?range=7d`);
+      const detail = page.getByTestId('zone-detail');
+      const heading = detail.getByTestId('zone-chart-heading');
+      const summary = detail.getByTestId('zone-chart-summary');
+      await expect.poll(() => heading.textContent()).toBe('Last 7 days');
+      expect(await detail.getByTestId('zone-range-7d').getAttribute('aria-checked')).toBe('true');
+      // A week's lowest margin is the dip, in °F (a difference: ×1.8), with its date.
+      await expect
+        .poll(() => summary.textContent(), { timeout: 10_000 })
+        .toMatch(
+          new RegExp(
+            `^Lowest margin ${formatMargin(dipK, 'F')} in the last 7 days, at \\d+ \\w+ \\d\\d:\\d\\d$`,
+          ),
+        );
+      // The humidity panel under the temperatures.
+      const humidity = detail.getByTestId('zone-humidity-chart');
+      await humidity.waitFor();
+      expect(await humidity.textContent()).toContain('RH %');
+      expect(await humidity.textContent()).toContain('wood EMC %');
+      await expect
+        .poll(() => detail.getByTestId('zone-chart-plot').locator('svg path').count())
+        .toBeGreaterThan(2);
+      await page.screenshot({ path: `${SHOTS}/zone-history-7d-${label}.png`, fullPage: true });
+
+      // The keyboard reads a point: focus the charts, End for the newest, ← for the one before.
+      const charts = detail.getByTestId('zone-charts');
+      const readout = detail.getByTestId('zone-chart-readout');
+      await charts.focus();
+      await page.keyboard.press('End');
+      const newest = await readout.textContent();
+      expect(newest).toMatch(/ · air 64\.4 °F · /); // 18 °C = 64.4 °F
+      expect(newest).toMatch(/ · RH 50 % · EMC \d+\.\d %/);
+      await page.keyboard.press('ArrowLeft');
+      await expect.poll(() => readout.textContent()).not.toBe(newest);
+      expect(await readout.textContent()).toMatch(/^\d+ \w+ \d\d:\d\d · air /);
+
+      // 6 h: no dip, the address follows.
+      await detail.getByTestId('zone-range-6h').click();
+      await expect.poll(() => heading.textContent()).toBe('Last 6 hours');
+      await expect.poll(() => page.url()).toContain('range=6h');
+      await expect
+        .poll(() => summary.textContent())
+        .toMatch(
+          new RegExp(`^Lowest margin \\${formatMargin(dryK, 'F')} in the last 6 hours, at `),
+        );
+
+      // 30 days: the dip again, in a bucket whose readout gives its low and high margin.
+      await detail.getByTestId('zone-range-30d').click();
+      await expect.poll(() => heading.textContent()).toBe('Last 30 days');
+      await expect
+        .poll(() => summary.textContent())
+        .toMatch(new RegExp(`^Lowest margin ${formatMargin(dipK, 'F')} in the last 30 days, at `));
+      expect(await detail.getByTestId('chart-legend').textContent()).toContain('surface low–high');
+      await page.screenshot({ path: `${SHOTS}/zone-history-30d-${label}.png`, fullPage: true });
+
+      // Custom: the end before the start is refused in words; a valid span on the shop clock
+      // (America/Chicago) shows, from four days ago at midnight to two days ago at midnight.
+      await detail.getByTestId('zone-range-custom').click();
+      const from = detail.getByTestId('zone-custom-from');
+      const to = detail.getByTestId('zone-custom-to');
+      const day = (daysAgo: number) =>
+        formatInTimeZone(now - daysAgo * 24 * 60 * MINUTE, 'America/Chicago', 'yyyy-MM-dd');
+      await from.fill(`${day(2)} 00:00`);
+      await to.fill(`${day(4)} 00:00`);
+      await detail.getByTestId('zone-custom-show').click();
+      expect(await detail.getByTestId('zone-custom-to-error').textContent()).toBe(
+        'The end must come after the start.',
+      );
+      await from.fill(`${day(4)} 00:00`);
+      await to.fill(`${day(2)} 00:00`);
+      await detail.getByTestId('zone-custom-show').click();
+      await expect.poll(() => heading.textContent()).toMatch(/^\d+ \w+ 00:00 – \d+ \w+ 00:00$/);
+      await expect
+        .poll(() => summary.textContent())
+        .toMatch(new RegExp(`^Lowest margin ${formatMargin(dipK, 'F')} in this span, at `));
+      await page.screenshot({ path: `${SHOTS}/zone-history-custom-${label}.png`, fullPage: true });
+
+      expect(errors).toEqual([]);
+      await page.close();
+    });
+
     it('orders by risk, leads lumber with EMC, and fits a new zone’s chart to its hour', async () => {
       const shop = await makeShop();
       const { newBench } = await postStart(shop);
@@ -246,16 +358,16 @@ describe.each([
       expect(firstRow[1]).toMatch(/^\d+\.\d °F$/);
       expect(firstRow[2]).toMatch(/^\d+\.\d °F$/);
 
-      // The tooltip names values in °F.
+      // The crosshair's readout names the point's values in °F, on the shop's clock.
       await plot.scrollIntoViewIfNeeded();
       const box = (await plot.boundingBox())!;
       await page.mouse.move(box.x + box.width * 0.6, box.y + box.height / 2);
-      // One tooltip gathers the lines at that time, dew point first with the time.
-      const tip = plot.locator('svg text').filter({ hasText: /air \d+\.\d °F/ });
-      await tip.first().waitFor();
-      expect(await tip.first().textContent()).toMatch(
-        /^\d\d:\d\d · dew point \d+\.\d °Fair \d+\.\d °Fsurface \d+\.\d °F$/,
-      );
+      const readout = detail.getByTestId('zone-chart-readout');
+      await expect
+        .poll(() => readout.textContent())
+        .toMatch(
+          /^\d\d:\d\d · air \d+\.\d °F · surface \d+\.\d °F · dew point \d+\.\d °F · margin \+\d+\.\d °F · RH 55 % · EMC \d+\.\d %$/,
+        );
       // Every temperature on the zone's page follows the reader's unit.
       expect(await detail.textContent()).not.toContain('°C');
       await page.screenshot({ path: `${SHOTS}/zone-new-${label}.png`, fullPage: true });
