@@ -98,10 +98,10 @@ export function ZoneHistory({
         : rangeHeading(shownRange);
   const spanWords =
     shownRange === 'custom'
-      ? 'this span'
+      ? 'in this span'
       : span?.partial
         ? 'since the first reading'
-        : (RANGES.find((r) => r.value === shownRange)?.words ?? 'this span');
+        : (RANGES.find((r) => r.value === shownRange)?.words ?? 'in this span');
   const points = useMemo(() => data?.points ?? [], [data]);
   const summary = data ? summaryLine(points, unit, timeZone, toMs, spanWords, spanMs) : '';
   const times = useMemo(() => points.map((p) => Date.parse(p.at)), [points]);
@@ -151,7 +151,7 @@ export function ZoneHistory({
               cautionK={zone.cautionK}
               timeZone={timeZone}
               summary={summary}
-              emptyText={`No readings in ${spanWords}.`}
+              emptyText={`No readings ${spanWords}.`}
               activeIndex={active ? activeIndex : null}
               onPointAt={pointAt}
               height={chartHeight}
@@ -244,7 +244,7 @@ function CustomRange({ timeZone, initial, onApply }: CustomRangeProps) {
       <View style={styles.customFields}>
         <View style={styles.customField}>
           <TextField
-            label={`${HISTORY_WORDS.customFrom}, ${timeZone}`}
+            label={`${HISTORY_WORDS.customFrom} (${timeZone})`}
             value={fromText}
             onChangeText={setFromText}
             placeholder={HISTORY_WORDS.customHint}
@@ -255,7 +255,7 @@ function CustomRange({ timeZone, initial, onApply }: CustomRangeProps) {
         </View>
         <View style={styles.customField}>
           <TextField
-            label={`${HISTORY_WORDS.customTo}, ${timeZone}`}
+            label={`${HISTORY_WORDS.customTo} (${timeZone})`}
             value={toText}
             onChangeText={setToText}
             placeholder={HISTORY_WORDS.customHint}

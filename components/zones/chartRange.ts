@@ -15,11 +15,11 @@ const DAY_MS = 24 * HOUR_MS;
 export const MAX_CUSTOM_MS = 31 * DAY_MS;
 
 export const RANGES: readonly { value: RangeKey; label: string; words: string; ms: number }[] = [
-  { value: '6h', label: '6 h', words: 'the last 6 hours', ms: 6 * HOUR_MS },
-  { value: '24h', label: '24 h', words: 'the last 24 hours', ms: 24 * HOUR_MS },
-  { value: '7d', label: '7 days', words: 'the last 7 days', ms: 7 * DAY_MS },
-  { value: '30d', label: '30 days', words: 'the last 30 days', ms: 30 * DAY_MS },
-  { value: 'custom', label: 'Custom', words: 'this span', ms: 0 },
+  { value: '6h', label: '6 h', words: 'in the last 6 hours', ms: 6 * HOUR_MS },
+  { value: '24h', label: '24 h', words: 'in the last 24 hours', ms: 24 * HOUR_MS },
+  { value: '7d', label: '7 days', words: 'in the last 7 days', ms: 7 * DAY_MS },
+  { value: '30d', label: '30 days', words: 'in the last 30 days', ms: 30 * DAY_MS },
+  { value: 'custom', label: 'Custom', words: 'in this span', ms: 0 },
 ];
 
 export const DEFAULT_RANGE: RangeKey = '24h';
@@ -42,8 +42,8 @@ export function fixedWindow(key: Exclude<RangeKey, 'custom'>, nowMs: number) {
 
 /** The chart's heading for a fixed range: "Last 7 days". */
 export function rangeHeading(key: RangeKey): string {
-  const words = RANGES.find((r) => r.value === key)?.words ?? 'this span';
-  return key === 'custom' ? 'Chosen span' : words.replace(/^the l/, 'L');
+  const words = RANGES.find((r) => r.value === key)?.words ?? 'in this span';
+  return key === 'custom' ? 'Chosen span' : words.replace(/^in the l/, 'L');
 }
 
 /** The HTML datetime-local format a custom range's inputs use, on the shop's clock. */

@@ -50,7 +50,7 @@ export function lowestMargin(
 }
 
 /**
- * "Lowest margin +0.4 °C at 06:52", or why there is none. `spanWords` names the range ("the
+ * "Lowest margin +0.4 °C in the last 24 hours, at 06:52", or why there is none. `spanWords` names the range ("in the
  * last 7 days"), `spanMs` its length (a long span's times carry their date).
  */
 export function summaryLine(
@@ -58,15 +58,15 @@ export function summaryLine(
   unit: TemperatureUnit,
   timeZone: string,
   nowMs: number,
-  spanWords = 'the last 24 hours',
+  spanWords = 'in the last 24 hours',
   spanMs = 0,
 ): string {
-  if (points.length === 0) return `No readings in ${spanWords}.`;
+  if (points.length === 0) return `No readings ${spanWords}.`;
   const lowest = lowestMargin(points);
   if (!lowest)
     return 'No dew margin in this span: no surface temperature was measured or estimated.';
   const at = shopClock(lowest.atMs, nowMs, timeZone, spanMs);
-  return `Lowest margin ${formatMargin(lowest.marginK, unit)} in ${spanWords}, at ${at}`;
+  return `Lowest margin ${formatMargin(lowest.marginK, unit)} ${spanWords}, at ${at}`;
 }
 
 export interface ValueRow {

@@ -10,8 +10,8 @@ import { formatMargin, formatPercent, formatTemperature } from './format';
 
 export const HISTORY_WORDS = {
   rangeLabel: 'Span',
-  customFrom: 'From (shop time)',
-  customTo: 'To (shop time)',
+  customFrom: 'From',
+  customTo: 'To',
   customShow: 'Show span',
   customHint: 'YYYY-MM-DD HH:MM',
   humidityHeading: 'Humidity and wood moisture',

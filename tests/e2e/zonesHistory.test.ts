@@ -185,7 +185,9 @@ describe.each([
       await expect
         .poll(() => detail.getByTestId('zone-chart-plot').locator('svg path').count())
         .toBeGreaterThan(2);
-      await page.screenshot({ path: `${SHOTS}/zone-history-7d-${label}.png`, fullPage: true });
+      // The page scrolls inside the app's frame: bring the charts into the picture.
+      await detail.getByTestId('zone-charts').scrollIntoViewIfNeeded();
+      await page.screenshot({ path: `${SHOTS}/zone-history-7d-${label}.png` });
 
       // The keyboard reads a point: focus the charts, End for the newest, ← for the one before.
       const charts = detail.getByTestId('zone-charts');
@@ -216,7 +218,9 @@ describe.each([
         .poll(() => summary.textContent())
         .toMatch(new RegExp(`^Lowest margin ${formatMargin(dipK, 'F')} in the last 30 days, at `));
       expect(await detail.getByTestId('chart-legend').textContent()).toContain('surface low–high');
-      await page.screenshot({ path: `${SHOTS}/zone-history-30d-${label}.png`, fullPage: true });
+      // The page scrolls inside the app's frame: bring the charts into the picture.
+      await detail.getByTestId('zone-charts').scrollIntoViewIfNeeded();
+      await page.screenshot({ path: `${SHOTS}/zone-history-30d-${label}.png` });
 
       // Custom: the end before the start is refused in words; a valid span on the shop clock
       // (America/Chicago) shows, from four days ago at midnight to two days ago at midnight.
@@ -238,7 +242,9 @@ describe.each([
       await expect
         .poll(() => summary.textContent())
         .toMatch(new RegExp(`^Lowest margin ${formatMargin(dipK, 'F')} in this span, at `));
-      await page.screenshot({ path: `${SHOTS}/zone-history-custom-${label}.png`, fullPage: true });
+      // The page scrolls inside the app's frame: bring the charts into the picture.
+      await detail.getByTestId('zone-charts').scrollIntoViewIfNeeded();
+      await page.screenshot({ path: `${SHOTS}/zone-history-custom-${label}.png` });
 
       expect(errors).toEqual([]);
       await page.close();
