@@ -170,7 +170,17 @@ export function MarginChart({
               <VictoryArea
                 name="marginBand"
                 data={series.marginBand}
-                style={{ data: { fill: colors.iron, fillOpacity: 0.22, stroke: 'none' } }}
+                // Outlined as well as filled: a dip inside one bucket of a week is narrower than
+                // a pixel, and only its outline shows how far down it went.
+                style={{
+                  data: {
+                    fill: colors.iron,
+                    fillOpacity: 0.22,
+                    stroke: colors.iron,
+                    strokeOpacity: 0.7,
+                    strokeWidth: 1,
+                  },
+                }}
               />
             ) : null}
             <VictoryLine name="dew" data={series.dewPoint} style={{ data: LINE_STYLES.dew }} />

@@ -59,7 +59,9 @@ export function hourTickLabel(t: number, timeZone: string): string {
 }
 
 const DAY_MS = 86_400_000;
-const DAY_STEPS = [1, 2, 7, 14];
+const DAY_STEPS = [1, 2, 3, 7, 14];
+// A date label ("30 Nov", "Tue 3") is 6 characters: about 60 px keeps two apart on a phone.
+const DATE_LABEL_PX = 60;
 
 /**
  * Local midnights of the shop in [fromMs, toMs], every `stepDays` days (weekly steps on
@@ -112,7 +114,7 @@ export function axisTicks(
       label: (t) => hourTickLabel(t, timeZone),
     };
   }
-  const labels = Math.max(2, Math.floor(widthPx / 70));
+  const labels = Math.max(2, Math.floor(widthPx / DATE_LABEL_PX));
   const stepDays = DAY_STEPS.find((step) => spanMs / DAY_MS / step <= labels) ?? 28;
   return {
     ticks: midnightTicks(fromMs, toMs, timeZone, stepDays),

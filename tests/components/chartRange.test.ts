@@ -107,11 +107,14 @@ describe('axis ticks over days', () => {
   it('a 7-day chart on a phone gets daily midnights labelled with weekday and date', () => {
     const to = Date.parse('2026-03-31T12:00:00Z');
     const from = to - 7 * 24 * HOUR_MS;
-    // 340 px: 4 labels fit, so days go in steps of 2 (7 / 2 ≤ 4), on even days since
+    // 340 px: 5 date labels fit (60 px each), so days go in steps of 2 (7 / 2 ≤ 5), on even days since
     // 1970-01-01 so the ticks stay put as the window slides: 26 March 2026 is day 20,538.
     const axis = axisTicks(from, to, 'Europe/Berlin', 340);
     expect(axis.ticks.map((t) => axis.label(t))).toEqual(['26 Mar', '28 Mar', '30 Mar']);
-    // Wide: 1,000 px fits 14 labels, one a day.
+    // 180 px: 3 labels, 7 / 2 > 3, so every third day: day 20,538 (26 March) is 3 × 6,846.
+    const narrow = axisTicks(from, to, 'Europe/Berlin', 180);
+    expect(narrow.ticks.map((t) => narrow.label(t))).toEqual(['26 Mar', '29 Mar']);
+    // Wide: 1,000 px fits 16 labels, one a day.
     const wide = axisTicks(from, to, 'Europe/Berlin', 1000);
     expect(wide.ticks).toHaveLength(7);
     expect(wide.label(wide.ticks[0]!)).toBe('Wed 25');
@@ -119,8 +122,8 @@ describe('axis ticks over days', () => {
 
   it('a 30-day chart steps by weeks on Mondays, by fortnights on a phone', () => {
     const to = Date.parse('2026-03-31T12:00:00Z');
-    // 600 px: 8 labels fit, 30 / 7 ≤ 8. March 2026's Mondays: 2, 9, 16, 23, 30.
-    const wide = axisTicks(to - 30 * 24 * HOUR_MS, to, 'Europe/Berlin', 600);
+    // 340 px: 5 date labels fit (60 px each), 30 / 7 ≤ 5. March 2026's Mondays: 2, 9, 16, 23, 30.
+    const wide = axisTicks(to - 30 * 24 * HOUR_MS, to, 'Europe/Berlin', 340);
     expect(wide.ticks.map((t) => wide.label(t))).toEqual([
       '2 Mar',
       '9 Mar',
@@ -128,9 +131,9 @@ describe('axis ticks over days', () => {
       '23 Mar',
       '30 Mar',
     ]);
-    // 340 px: 4 labels, 30 / 7 > 4, so every other Monday, counted from 5 January 1970
-    // (2 March 2026 is 20,510 days later: 1,465 fortnights).
-    const phone = axisTicks(to - 30 * 24 * HOUR_MS, to, 'Europe/Berlin', 340);
+    // 200 px: 3 date labels (60 px each), 30 / 7 > 3, so every other Monday, counted from
+    // 5 January 1970 (2 March 2026 is 20,510 days later: 1,465 fortnights).
+    const phone = axisTicks(to - 30 * 24 * HOUR_MS, to, 'Europe/Berlin', 200);
     expect(phone.ticks.map((t) => phone.label(t))).toEqual(['2 Mar', '16 Mar', '30 Mar']);
   });
 });
