@@ -67,6 +67,9 @@ const SIGNED_OUT: Route[] = [
 const SIGNED_IN: Route[] = [
   { name: 'overview', path: () => shop() },
   { name: 'zone', path: () => `${shop()}/zones/${zoneId}` },
+  // The history's week span and its custom-span fields (opened by the address).
+  { name: 'zone-week', path: () => `${shop()}/zones/${zoneId}?range=7d` },
+  { name: 'zone-custom', path: () => `${shop()}/zones/${zoneId}?range=custom` },
   { name: 'alarms', path: () => `${shop()}/alarms` },
   { name: 'sensors', path: () => `${shop()}/sensors` },
   { name: 'members', path: () => `${shop()}/members` },
