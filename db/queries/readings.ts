@@ -161,7 +161,8 @@ export async function firstReadingAt(db: Db, zoneId: string): Promise<Date | nul
  * `plan.bucketSeconds` (date_bin from `plan.originMs`) that average the values but keep each
  * bucket's lowest AND highest margin, because the closest approach to the dew point is what a
  * chart must never smooth away, and the band between the two shows how far the margin swung.
- * The caller's plan keeps the bucket count within `points` (server/readings/bucketPlan.ts).
+ * The caller's plan keeps the bucket count within `points` (server/readings/bucketPlan.ts);
+ * without one the buckets are equal slices from `from`.
  * `bucketSeconds` is 0 for raw readings.
  */
 export async function querySeries(
@@ -171,13 +172,20 @@ export async function querySeries(
     from: Date;
     to: Date;
     points: number;
-    plan: { bucketSeconds: number; originMs: number };
+    /** Without one: equal buckets from `from`, at most `points` of them. */
+    plan?: { bucketSeconds: number; originMs: number };
   },
 ): Promise<{ bucketSeconds: number; rows: SeriesRow[] }> {
+  const spanS = (q.to.getTime() - q.from.getTime()) / 1000;
+  const plan = q.plan ?? {
+    // floor(span / width) + 1 buckets over [from, to] with both ends included.
+    bucketSeconds: Math.max(1, Math.ceil(spanS / Math.max(1, q.points - 1))),
+    originMs: q.from.getTime(),
+  };
   // Bucketed first: a long span (the usual case for a chart) then costs one index-only scan;
   // only a span of no more readings than points is read again, raw.
-  const { bucketSeconds } = q.plan;
-  const origin = new Date(q.plan.originMs);
+  const { bucketSeconds } = plan;
+  const origin = new Date(plan.originMs);
   const bucketed = await db.execute<RawRow>(sql`
     select date_bin(make_interval(secs => ${bucketSeconds}), at, ${origin}::timestamptz) as at,
            avg(air_c) as air_c, avg(rh_pct) as rh_pct, avg(surface_c) as surface_c,

@@ -4,6 +4,8 @@
 import psychrolib from 'psychrolib';
 import { afterAll, beforeAll, describe, expect, it } from 'vitest';
 
+import { querySeries } from '@/db/queries/readings';
+
 import { makeTestApp, ownerWithSensor, type TestApp } from '../support/app';
 import { postIngest } from '../support/ingest';
 
@@ -101,5 +103,17 @@ describe('zone history over 30 days', () => {
       const lowest = Math.min(...(capped.body.points as Point[]).map((p) => p.marginMin!));
       expect(lowest).toBeCloseTo(-0.5, 1);
     }
+
+    // Called without a plan (as other server code may), the query cuts equal slices from
+    // `from`: 31 days in at most 7, the dip still the lowest.
+    const plain = await querySeries(t.db, {
+      zoneId: o.zoneId,
+      from: new Date(toMs - 31 * DAY_MS),
+      to: new Date(toMs),
+      points: 7,
+    });
+    expect(plain.rows.length).toBeLessThanOrEqual(7);
+    expect(Math.min(...plain.rows.map((r) => r.marginMinK!))).toBeCloseTo(-0.5, 1);
+    expect(Math.max(...plain.rows.map((r) => r.marginMaxK!))).toBeCloseTo(dryMarginK, 1);
   }, 60_000);
 });
