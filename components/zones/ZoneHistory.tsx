@@ -1,7 +1,7 @@
 import { useMemo, useState } from 'react';
 import { StyleSheet, Text, View } from 'react-native';
 
-import { Button, Choice, TextField } from '@/components/forms';
+import { Button, Choice } from '@/components/forms';
 import {
   useReadingsQuery,
   useUnitPref,
@@ -12,19 +12,12 @@ import { colors, space, tabular, type } from '@/components/theme';
 import { Panel } from '@/components/ui';
 import { HISTORY_WORDS, pointReadout } from '@/ingest/words';
 
-import {
-  checkCustomRange,
-  DEFAULT_RANGE,
-  RANGES,
-  rangeHeading,
-  rangeMs,
-  toLocalInput,
-  type RangeKey,
-} from './chartRange';
+import { DEFAULT_RANGE, RANGES, rangeHeading, rangeMs, type RangeKey } from './chartRange';
 import { chartSpan, spanHeading } from './chartSpan';
 import { nearestIndex } from './chartSeries';
 import { shopClock, summaryLine, valueRows, type ValueRow } from './chartSummary';
 import { ChartKeys } from './ChartKeys';
+import { CustomRange } from './CustomRange';
 import { HumidityChart } from './HumidityChart';
 import { MarginChart } from './MarginChart';
 
@@ -215,63 +208,6 @@ export function ZoneHistory({
   );
 }
 
-interface CustomRangeProps {
-  timeZone: string;
-  initial: { fromMs: number; toMs: number };
-  onApply: (range: { fromMs: number; toMs: number }) => void;
-}
-
-/** Two clock times on the shop's clock, checked before anything is asked of the server. */
-function CustomRange({ timeZone, initial, onApply }: CustomRangeProps) {
-  const [fromText, setFromText] = useState(() =>
-    toLocalInput(initial.fromMs, timeZone).replace('T', ' '),
-  );
-  const [toText, setToText] = useState(() =>
-    toLocalInput(initial.toMs, timeZone).replace('T', ' '),
-  );
-  const [error, setError] = useState<{ field: 'from' | 'to'; message: string } | null>(null);
-  const apply = () => {
-    const check = checkCustomRange(fromText, toText, timeZone);
-    if (!check.ok) {
-      setError({ field: check.field, message: check.message });
-      return;
-    }
-    setError(null);
-    onApply({ fromMs: check.fromMs, toMs: check.toMs });
-  };
-  return (
-    <View style={styles.custom} testID="zone-custom-range">
-      <View style={styles.customFields}>
-        <View style={styles.customField}>
-          <TextField
-            label={`${HISTORY_WORDS.customFrom} (${timeZone})`}
-            value={fromText}
-            onChangeText={setFromText}
-            placeholder={HISTORY_WORDS.customHint}
-            error={error?.field === 'from' ? error.message : undefined}
-            onSubmitEditing={apply}
-            testID="zone-custom-from"
-          />
-        </View>
-        <View style={styles.customField}>
-          <TextField
-            label={`${HISTORY_WORDS.customTo} (${timeZone})`}
-            value={toText}
-            onChangeText={setToText}
-            placeholder={HISTORY_WORDS.customHint}
-            error={error?.field === 'to' ? error.message : undefined}
-            onSubmitEditing={apply}
-            testID="zone-custom-to"
-          />
-        </View>
-      </View>
-      <View style={styles.toggle}>
-        <Button label={HISTORY_WORDS.customShow} onPress={apply} testID="zone-custom-show" />
-      </View>
-    </View>
-  );
-}
-
 const COLUMNS: { key: keyof Omit<ValueRow, 'key'>; label: string }[] = [
   { key: 'time', label: 'Time' },
   { key: 'surface', label: 'Surface' },
@@ -314,9 +250,6 @@ const styles = StyleSheet.create({
   error: { color: colors.wet },
   toggle: { alignSelf: 'flex-start' },
   readout: { minHeight: 36 },
-  custom: { gap: space.sm },
-  customFields: { flexDirection: 'row', flexWrap: 'wrap', gap: space.md },
-  customField: { flexGrow: 1, flexBasis: 220 },
   table: { borderTopWidth: 1, borderTopColor: colors.border },
   row: {
     flexDirection: 'row',
