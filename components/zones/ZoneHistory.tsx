@@ -129,6 +129,26 @@ export function ZoneHistory({
       ) : null}
       {data && span ? (
         <>
+          {/* Above the charts, so a phone shows it beside the point being read. */}
+          <Text
+            style={[type.small, tabular, styles.readout]}
+            aria-live="polite"
+            testID="zone-chart-readout"
+          >
+            {active
+              ? pointReadout(
+                  {
+                    ...active,
+                    marginMin: active.marginMin,
+                    marginMax: active.marginMax ?? active.margin,
+                  },
+                  unit,
+                  clock(Date.parse(active.at)),
+                )
+              : points.length > 0
+                ? HISTORY_WORDS.readoutHint
+                : ''}
+          </Text>
           <ChartKeys
             count={points.length}
             activeIndex={activeIndex}
@@ -159,25 +179,6 @@ export function ZoneHistory({
               onPointAt={pointAt}
             />
           </ChartKeys>
-          <Text
-            style={[type.small, tabular, styles.readout]}
-            aria-live="polite"
-            testID="zone-chart-readout"
-          >
-            {active
-              ? pointReadout(
-                  {
-                    ...active,
-                    marginMin: active.marginMin,
-                    marginMax: active.marginMax ?? active.margin,
-                  },
-                  unit,
-                  clock(Date.parse(active.at)),
-                )
-              : points.length > 0
-                ? HISTORY_WORDS.readoutHint
-                : ''}
-          </Text>
           <Text style={[type.body, tabular]} testID="zone-chart-summary">
             {summary}
           </Text>

@@ -45,9 +45,12 @@ export function pointReadout(point: ReadoutPoint, unit: TemperatureUnit, clock: 
     `surface ${formatTemperature(point.surface, unit)}`,
     `${dewPointLabel(point.dewPoint)} ${formatTemperature(point.dewPoint, unit)}`,
   ];
+  const low = formatMargin(point.marginMin, unit);
+  const high = formatMargin(point.marginMax, unit);
+  // A bucket's low and high, unless they read the same (a steady bucket, or one reading).
   const spread =
-    point.count > 1 && point.marginMin !== null && point.marginMax !== null
-      ? ` (low ${formatMargin(point.marginMin, unit)}, high ${formatMargin(point.marginMax, unit)})`
+    point.count > 1 && point.marginMin !== null && point.marginMax !== null && low !== high
+      ? ` (low ${low}, high ${high})`
       : '';
   parts.push(`margin ${formatMargin(point.margin, unit)}${spread}`);
   parts.push(`RH ${formatPercent(point.rh)}`, `EMC ${formatPercent(point.emc, 1)}`);

@@ -199,6 +199,7 @@ describe.each([
       expect(newest).toMatch(/ · RH 50 % · EMC \d+\.\d %/);
       await page.keyboard.press('ArrowLeft');
       await expect.poll(() => readout.textContent()).not.toBe(newest);
+      await page.screenshot({ path: `${SHOTS}/zone-history-readout-${label}.png` });
       expect(await readout.textContent()).toMatch(/^\d+ \w+ \d\d:\d\d · air /);
 
       // 6 h: no dip, the address follows.
