@@ -47,6 +47,13 @@ export interface ChartQueryResult {
   baselineP95Ms: number;
   queries: number;
   pointsPerAnswer: number;
+  /**
+   * Buffer pages one week query touches (EXPLAIN BUFFERS, median of 20 zones), plain index
+   * and covering: a figure that does not move with other work on the machine, and the one that
+   * decides how the query fares once the table no longer fits in memory.
+   */
+  baselinePages: number;
+  pages: number;
 }
 
 const ZONE_INDEX = 'readings_zone_id_at_index';
@@ -186,6 +193,32 @@ async function timeQueries(
   return { samplesMs, points };
 }
 
+/**
+ * Median shared buffers (hit + read) of the week query's scan over 20 zones: the median, as a
+ * buffer pinned again counts again and an odd zone can show thousands of repeat hits.
+ */
+async function pagesPerQuery(pool: pg.Pool, zoneIds: string[], endMs: number): Promise<number> {
+  const counts: number[] = [];
+  const zones = zoneIds.slice(0, 20);
+  for (const zoneId of zones) {
+    // The series query's scan and its columns (db/queries/readings.ts); the grouping adds no
+    // page reads.
+    const result = await pool.query<{ 'QUERY PLAN': [{ Plan: Record<string, number> }] }>(
+      `explain (analyze, buffers, format json)
+       select avg(air_c), avg(rh_pct), avg(surface_c), avg(dew_point_c), min(margin_k),
+              max(margin_k), avg(emc_pct), max(level::text)
+       from readings where zone_id = $1 and at >= $2 and at <= $3`,
+      [zoneId, new Date(endMs - WEEK_MS), new Date(endMs)],
+    );
+    const plan = result.rows[0]!['QUERY PLAN'][0].Plan;
+    counts.push((plan['Shared Hit Blocks'] ?? 0) + (plan['Shared Read Blocks'] ?? 0));
+  }
+  return percentile(
+    counts.sort((a, b) => a - b),
+    50,
+  );
+}
+
 export async function measureChartQuery(
   databaseUrl: string,
   progress: (line: string) => void,
@@ -209,6 +242,7 @@ export async function measureChartQuery(
     // Warm-up: a first pass over the zones, as a running server's cache would be.
     await timeQueries(db, zoneIds, endMs, 50);
     const baseline = await timeQueries(db, zoneIds, endMs, queries);
+    const baselinePages = await pagesPerQuery(pool, zoneIds, endMs);
     const baseSorted = [...baseline.samplesMs].sort((a, b) => a - b);
 
     progress('migration 0010: the zone index covers the chart columns…');
@@ -226,6 +260,7 @@ export async function measureChartQuery(
     progress(`${queries} week queries, as shipped…`);
     await timeQueries(db, zoneIds, endMs, 50);
     const shipped = await timeQueries(db, zoneIds, endMs, queries);
+    const pages = await pagesPerQuery(pool, zoneIds, endMs);
     const sorted = [...shipped.samplesMs].sort((a, b) => a - b);
     return {
       ...seeded,
@@ -236,6 +271,8 @@ export async function measureChartQuery(
       baselineP95Ms: percentile(baseSorted, 95),
       queries,
       pointsPerAnswer: shipped.points,
+      baselinePages,
+      pages,
     };
   } finally {
     await pool.end();

@@ -48,6 +48,8 @@ export function figuresOf(r: BenchResult): Figures {
     chartQueryVsBaseline: r.chart ? round(r.chart.p95Ms / r.chart.baselineP95Ms, 3) : null,
     chartStoredReadings: r.chart ? r.chart.rows : null,
     chartSeedS: r.chart ? round(r.chart.seedS) : null,
+    chartQueryPages: r.chart ? round(r.chart.pages, 0) : null,
+    chartQueryBaselinePages: r.chart ? round(r.chart.baselinePages, 0) : null,
     failures:
       (r.bare?.failures ?? 0) +
       (r.ingest1?.failures ?? 0) +
@@ -180,7 +182,8 @@ export function formatReport(r: BenchResult): string {
         `rotating zones: p50 ${ms(c.p50Ms)} / p95 ${ms(c.p95Ms)} ms covering index, p50 ` +
         `${ms(c.baselineP50Ms)} / p95 ${ms(c.baselineP95Ms)} ms plain (zone_id, at) index ` +
         `(baseline, same run); p95 / target ${(c.p95Ms / TARGETS.chartQueryP95Ms.atMost).toFixed(2)}, ` +
-        `p95 / baseline ${(c.p95Ms / c.baselineP95Ms).toFixed(3)}`,
+        `p95 / baseline ${(c.p95Ms / c.baselineP95Ms).toFixed(3)}; pages touched per query ` +
+        `${int(c.pages)} covering vs ${int(c.baselinePages)} plain`,
     );
   }
 
