@@ -253,10 +253,10 @@ function alarmSentence(a: {
   unacknowledged: number;
 }): string {
   if (a.opened === 0) return 'No alarms.';
-  const answered =
-    a.medianAckMinutes === null
-      ? 'none acknowledged'
-      : `answered in ${formatAckMinutes(a.medianAckMinutes)} at the median`;
+  if (a.medianAckMinutes === null) {
+    return `${plural(a.opened, 'alarm')}, ${a.opened === 1 ? 'not' : 'none'} acknowledged.`;
+  }
+  const answered = `answered in ${formatAckMinutes(a.medianAckMinutes)} at the median`;
   const open = a.unacknowledged > 0 ? `; ${a.unacknowledged} not acknowledged yet` : '';
   return `${plural(a.opened, 'alarm')}, ${answered}${open}.`;
 }

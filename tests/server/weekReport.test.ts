@@ -8,6 +8,8 @@
 // least 3 K") and with 11 °C exactly 1 K (the wet limit: wet, ingest/levels.ts).
 import { afterAll, beforeAll, describe, expect, it } from 'vitest';
 
+import { kToFDelta } from '@/ingest/units';
+
 import { makeTestApp, verifiedPerson, type TestApp } from '../support/app';
 import { postIngest } from '../support/ingest';
 
@@ -140,5 +142,84 @@ describe('week report: Europe/Berlin, the spring change (167 h)', () => {
     expect(z.verdict).toContain('wet for 0.6 h');
     expect(report.shopWide).toMatchObject({ zones: 1, zonesWet: 1 });
     expect(report.shopWide.lowestMargin).toMatchObject({ marginK: 1, zoneName: 'Machine room' });
+  });
+});
+
+describe('week report: America/Chicago, the autumn change (169 h), and a zone with no readings', () => {
+  // US daylight time ends on the first Sunday of November at 02:00 local (Energy Policy Act of
+  // 2005, sec. 110): 2026-11-01, 07:00Z. The week of Monday 2026-10-26 runs from
+  // 2026-10-26T05:00Z (CDT, −05) to 2026-11-02T06:00Z (CST, −06): 169 hours.
+  it('has 169 hours, figures in °F sentences, and an empty zone that is not called dry', async () => {
+    const o = await shopIn('America/Chicago', 'Lumber rack');
+    await o.agent.patch('/api/v1/me').send({ unitPref: 'F' }).expect(200);
+    const empty = (
+      await o.agent
+        .post(`/api/v1/shops/${o.shopId}/zones`)
+        .send({ name: 'Finishing room' })
+        .expect(201)
+    ).body as { id: string };
+    // Every 5 min from 06:00Z to 06:55Z on the Sunday, across 01:00 CDT → 01:00 CST at 07:00Z:
+    // 11 readings stand 5 min, the last the 15 min cap: 70 min covered, all dry (air 15 °C,
+    // RH 70 %: dew point about 9.6 °C, surface 18 °C).
+    const readings = Array.from({ length: 12 }, (_, i) =>
+      r(new Date(Date.parse('2026-11-01T06:00:00Z') + i * 5 * MIN_MS).toISOString(), 15, 70, 18),
+    );
+    const ingest = await postIngest(t.app, o.token, { readings }).expect(202);
+    const marginK = ingest.body.results[0].margin as number;
+
+    const report = (
+      await o.agent.get(`/api/v1/shops/${o.shopId}/reports/week?start=2026-10-26`).expect(200)
+    ).body;
+    expect(report.unit).toBe('F');
+    expect(report.week).toMatchObject({
+      from: '2026-10-26T05:00:00.000Z',
+      to: '2026-11-02T06:00:00.000Z',
+      hours: 169,
+      note: 'This week had 169 hours: clocks went back on Sunday 1 November.',
+    });
+    const [lumber, finishing] = report.zones;
+    expect(lumber.name).toBe('Lumber rack');
+    expect(lumber.readings).toBe(12);
+    expect(lumber.coveragePct).toBeCloseTo((70 / (169 * 60)) * 100, 9);
+    expect(lumber.levelHours).toEqual({
+      dry: 70 / 60,
+      close: 0,
+      wet: 0,
+      unknown: 169 - 70 / 60,
+    });
+    expect(lumber.airC).toEqual({ min: 15, mean: 15, max: 15 });
+    // No ISO 9223 wetness (RH 70 %): 0 h a year is τ1 (≤ 10 h, ISO 9223:1992 Table 1).
+    expect(lumber.timeOfWetness).toEqual({ hours: 0, annualHours: 0, category: 't1' });
+    expect(lumber.lowestMargin).toEqual({ marginK, at: '2026-11-01T06:00:00.000Z' });
+    // Silent from the week's start to the first reading, and from 06:55Z + 15 min to the end.
+    expect(lumber.silentPeriods.map((p: { from: string; to: string }) => [p.from, p.to])).toEqual([
+      ['2026-10-26T05:00:00.000Z', '2026-11-01T06:00:00.000Z'],
+      ['2026-11-01T07:10:00.000Z', '2026-11-02T06:00:00.000Z'],
+    ]);
+    // 06:00Z is 01:00 CDT, the first of Sunday's two one o'clocks; the margin in °F (× 1.8).
+    expect(lumber.verdict).toContain(
+      `came within ${kToFDelta(marginK).toFixed(1)} °F of the dew point on Sunday at 01:00`,
+    );
+    expect(lumber.verdict).toContain('and it stayed dry.');
+
+    expect(finishing).toMatchObject({
+      zoneId: empty.id,
+      readings: 0,
+      coveragePct: 0,
+      airC: { min: null, mean: null, max: null },
+      rhPct: { min: null, mean: null, max: null },
+      emcPct: { min: null, mean: null, max: null },
+      lowestMargin: null,
+      levelHours: { dry: 0, close: 0, wet: 0, unknown: 169 },
+      timeOfWetness: { hours: 0, annualHours: null, category: null },
+      silentPeriods: [
+        { from: '2026-10-26T05:00:00.000Z', to: '2026-11-02T06:00:00.000Z', hours: 169 },
+      ],
+    });
+    expect(finishing.verdict).toContain('No readings from Finishing room');
+    expect(finishing.verdict).toContain('cannot be called dry');
+    // The shop: 70 min covered of 2 × 169 h.
+    expect(report.shopWide.coveragePct).toBeCloseTo((70 / (2 * 169 * 60)) * 100, 9);
+    expect(report.shopWide).toMatchObject({ zones: 2, zonesWet: 0, wetHours: 0, closeHours: 0 });
   });
 });
