@@ -23,7 +23,7 @@ import {
   typeSizes,
 } from './pdfLayout';
 import { ackOrMissing } from './pdfWords';
-import { drawZone, shopClock, zoneBlockHeight } from './pdfZone';
+import { LABEL_WIDTH_PT, drawZone, shopClock, zoneBlockHeight } from './pdfZone';
 
 export interface WeekReportPdfInput {
   report: WeekReport;
@@ -94,9 +94,11 @@ function drawShopWide(doc: PDFKit.PDFDocument, report: WeekReport, width: number
   for (const [label, value] of shopRows(report)) {
     const rowTop = doc.y;
     doc.font(FONT_REGULAR).fontSize(typeSizes.body).fillColor(pdfColors.iron);
-    doc.text(label, left + 8, rowTop, { width: 162 });
+    doc.text(label, left + 8, rowTop, { width: LABEL_WIDTH_PT - 12 });
     const labelBottom = doc.y;
-    doc.fillColor(pdfColors.ink).text(value, left + 170, rowTop, { width: width - 178 });
+    doc.fillColor(pdfColors.ink).text(value, left + LABEL_WIDTH_PT, rowTop, {
+      width: width - LABEL_WIDTH_PT - 8,
+    });
     doc.y = Math.max(doc.y, labelBottom) + 2;
   }
   doc.text(report.shopWide.verdict, left + 8, doc.y + 2, { width: width - 16 });

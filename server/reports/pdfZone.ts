@@ -22,7 +22,8 @@ import {
   worstLevel,
 } from './pdfWords';
 
-const LABEL_WIDTH_PT = 185;
+/** The label column of the figures tables (the zones' and the whole shop's). */
+export const LABEL_WIDTH_PT = 185;
 const ROW_GAP_PT = 2;
 const SECTION_GAP_PT = 16;
 const MAX_SILENT_LISTED = 4;
