@@ -89,15 +89,17 @@ export function zoneVerdict(
     return `No readings from ${z.name} in this period: nothing is known about it, so it cannot be called dry.`;
   }
   const parts: string[] = [];
+  // A lumber rack's surface is the stock or the rack, not a machine's iron.
+  const subject = z.purpose === 'lumber' ? 'The surface' : 'The iron';
   if (z.lowestMargin) {
     const when = formatReportMoment(z.lowestMargin.at, timeZone);
     const gap = `${deltaInUnit(Math.abs(z.lowestMargin.marginK), unit)} °${unit}`;
     parts.push(
       z.lowestMargin.marginK > 0
-        ? `The iron came within ${gap} of the dew point on ${when}`
+        ? `${subject} came within ${gap} of the dew point on ${when}`
         : z.lowestMargin.marginK === 0
-          ? `The iron reached the dew point on ${when}`
-          : `The iron went ${gap} below the dew point on ${when}`,
+          ? `${subject} reached the dew point on ${when}`
+          : `${subject} went ${gap} below the dew point on ${when}`,
     );
     const h = z.levelHours;
     parts[0] +=
@@ -108,6 +110,13 @@ export function zoneVerdict(
           : ', and it stayed dry.';
   } else {
     parts.push('No surface temperature came in, so the dew margin is unknown.');
+  }
+  const emc = z.emcPct;
+  if (z.purpose === 'lumber' && emc.min !== null && emc.mean !== null && emc.max !== null) {
+    // Wood moves towards the air's EMC slowly, so the mean says more than the extremes.
+    parts.push(
+      `The air would bring stored wood to ${formatPercent(emc.mean, 1)} moisture on average (EMC ${formatPercent(emc.min, 1)} to ${formatPercent(emc.max, 1)}).`,
+    );
   }
   if (z.timeOfWetness.hours > 0) {
     parts.push(
@@ -151,12 +160,19 @@ export function shopVerdict(
   } else {
     parts.push('No surface temperature came in this period, so no dew margin is known.');
   }
+  if (s.coveragePct === 0) {
+    // A silent shop looks like a dry one: say plainly that nothing is known.
+    parts.push('No readings came in, so nothing is known: the shop cannot be called dry.');
+    parts.push(alarmSentence({ ...s, opened: s.alarmsOpened }));
+    return parts.join(' ');
+  }
+  const whileReporting = s.coveragePct < 95 ? ' while the sensors reported' : '';
   parts.push(
     s.zonesWet > 0
       ? `${plural(s.zonesWet, 'zone')} had wet iron, ${formatHours(s.wetHours)} in all.`
       : s.closeHours > 0
-        ? `No iron was wet; ${formatHours(s.closeHours)} close to the dew point.`
-        : 'No iron was wet or close.',
+        ? `No iron was wet${whileReporting}; ${formatHours(s.closeHours)} close to the dew point.`
+        : `No iron was wet or close${whileReporting}.`,
   );
   parts.push(`Readings covered ${formatPercent(s.coveragePct)} of the time.`);
   parts.push(alarmSentence({ ...s, opened: s.alarmsOpened }));

@@ -90,6 +90,18 @@ describe('zone verdicts', () => {
   });
 });
 
+describe('lumber zones', () => {
+  it('speak of the surface, not the iron, and of the wood’s EMC, from the figures given', () => {
+    const text = zoneVerdict(
+      zone({ purpose: 'lumber', emcPct: { min: 9.1, mean: 10.84, max: 12.4 } }),
+      'C',
+      'UTC',
+    );
+    expect(text).toMatch(/^The surface went 0\.5 °C below the dew point/);
+    expect(text).toContain('stored wood to 10.8 % moisture on average (EMC 9.1 % to 12.4 %)');
+  });
+});
+
 describe('shop verdict', () => {
   const shop = (over: Partial<Omit<ShopWeekFigures, 'verdict'>> = {}) => ({
     zones: 2,
@@ -114,6 +126,12 @@ describe('shop verdict', () => {
     expect(wet).toContain('dry the air');
     expect(wet).toContain(CAUTIONS.fuelHeaters);
     expect(wet).toContain(CAUTIONS.appliancesAndCodes);
+    const silent = shopVerdict(shop({ coveragePct: 0, lowestMargin: null }), 'C', 'UTC');
+    expect(silent).toContain('the shop cannot be called dry');
+    expect(silent).not.toContain('No iron was wet');
+    expect(shopVerdict(shop({ coveragePct: 60 }), 'C', 'UTC')).toContain(
+      'No iron was wet or close while the sensors reported.',
+    );
     const dry = shopVerdict(shop(), 'C', 'UTC');
     expect(dry).toContain('No iron was wet or close.');
     expect(dry).not.toContain('heater');
