@@ -9,6 +9,9 @@ import { sql } from 'drizzle-orm';
 
 import type { AlarmKind } from '@/ingest/alarmKinds';
 import type { WeekFigures } from '@/ingest/reportWeek';
+import { TOW_AIR_ABOVE_C, TOW_RH_ABOVE_PCT } from '@/ingest/wetness';
+import type { PaperSize } from '@/ingest/wire/reports';
+import type { ZonePurpose } from '@/ingest/wire/zones';
 
 import type { Db } from '../index';
 
@@ -21,14 +24,14 @@ export interface ReportPeriod {
 export interface ReportZoneRow {
   id: string;
   name: string;
-  purpose: 'machines' | 'lumber' | 'finishing' | 'general';
+  purpose: ZonePurpose;
 }
 
 export interface ReportShopRow {
   id: string;
   name: string;
   timeZone: string;
-  paperSize: 'a4' | 'letter';
+  paperSize: PaperSize;
 }
 
 /** The shop as the report names it: its time zone sets the week, its paper size the PDF. */
@@ -95,10 +98,12 @@ export async function zoneWeekFigures(
     zoneIds.map((id) => sql`${id}::uuid`),
     sql`, `,
   );
-  // Zone by zone through the (zone_id, at) index: each zone's rows arrive in time order, so the
-  // window's (at, sensor_id) order costs an incremental sort of the ties only, never a sort of
-  // the whole week. Times are whole milliseconds (readings are stored from JavaScript dates), so
-  // the rounded float epoch is exact and the interval sums match the JavaScript reference.
+  // Zone by zone through the (zone_id, at) index (a lateral per zone): each zone's ~10,000 rows
+  // of a week sort in memory for the window, instead of the shop's 100,000 spilling to disk. If
+  // the index INCLUDEs sensor_id and the value columns, the scan is index-only and already in
+  // time order, so only ties get sorted (measured here: 10 zones' week 166 → 79 ms of CPU).
+  // Times are whole milliseconds (readings are stored from JavaScript dates), so the rounded
+  // float epoch is exact and the interval sums match the JavaScript reference.
   const result = await db.execute<FigureSqlRow>(sql`
     select z.id as zone_id, f.*
     from unnest(array[${ids}]) as z(id)
@@ -116,7 +121,9 @@ export async function zoneWeekFigures(
              coalesce(sum(ms) filter (where level = 'close'), 0) as close_ms,
              coalesce(sum(ms) filter (where level = 'wet'), 0) as wet_ms,
              -- ISO 9223 time of wetness: both limits strict (ingest/wetness.ts isWetIso9223).
-             coalesce(sum(ms) filter (where rh_pct > 80 and air_c > 0), 0) as tow_ms,
+             coalesce(sum(ms) filter (
+               where rh_pct > ${TOW_RH_ABOVE_PCT}::float8 and air_c > ${TOW_AIR_ABOVE_C}::float8
+             ), 0) as tow_ms,
              min(at_ms) as first_at_ms,
              -- The lowest margin and the earliest time it was seen: arrays compare element by
              -- element, so one pass finds both (no second scan, no window over the whole zone).
