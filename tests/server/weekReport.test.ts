@@ -9,6 +9,7 @@
 import { afterAll, beforeAll, describe, expect, it } from 'vitest';
 
 import { kToFDelta } from '@/ingest/units';
+import { weekReportSeries } from '@/server/reports/weekReport';
 
 import { makeTestApp, verifiedPerson, type TestApp } from '../support/app';
 import { postIngest } from '../support/ingest';
@@ -142,6 +143,15 @@ describe('week report: Europe/Berlin, the spring change (167 h)', () => {
     expect(z.verdict).toContain('wet for 0.6 h');
     expect(report.shopWide).toMatchObject({ zones: 1, zonesWet: 1 });
     expect(report.shopWide.lowestMargin).toMatchObject({ marginK: 1, zoneName: 'Machine room' });
+
+    // The PDF's and the screen's chart: the very series the zone history route answers.
+    const series = await weekReportSeries(t.db, report);
+    const history = await o.agent
+      .get(`/api/v1/shops/${o.shopId}/zones/${o.zoneId}/readings`)
+      .query({ from: report.week.from, to: report.week.periodEnd, points: 500 })
+      .expect(200);
+    expect(series.get(o.zoneId)).toEqual(history.body.points);
+    expect(history.body.points).toHaveLength(17);
   });
 });
 
