@@ -1,0 +1,199 @@
+// The Report screen in Debian's Chromium against the real server, for the demo owner (°C): a
+// week of readings posted by the demo sensors into the last complete week, the report opened
+// from the navigation, a week back and forth (the URL and the dates follow, a reload keeps the
+// week), the CSV and the PDF downloaded through the browser and read back, and screenshots at
+// 390×844 and 1440×900. Expected figures are worked out from the posted readings in the
+// comments; the dew point and margin come from the ingest answer (ingest/psychrometrics.ts,
+// checked against published tables in its own tests).
+import fs from 'node:fs';
+
+import Papa from 'papaparse';
+import type { Page } from 'playwright-core';
+import { afterAll, beforeAll, describe, expect, it } from 'vitest';
+
+import { shiftWeek, weekLabel, weekStartAt } from '@/components/report/reportWeek';
+import { DEMO_PEOPLE, DEMO_SHOP } from '@/db/seed';
+import { formatMargin } from '@/ingest/words';
+
+import {
+  postReading,
+  SHOTS,
+  signInAs,
+  startBrowserSuite,
+  watchPage,
+  type BrowserSuite,
+} from '../support/browser';
+
+let suite: BrowserSuite;
+const [owner] = DEMO_PEOPLE;
+const STEP_MS = 10 * 60_000;
+
+/** The last complete shop-local week: what the report shows without ?week=. */
+const lastWeek = () => shiftWeek(weekStartAt(Date.now(), DEMO_SHOP.timeZone), -1);
+
+/** Monday 00:00 of a week in Chicago as an instant: the Monday's UTC midnight plus the offset. */
+function chicagoMidnightMs(date: string): number {
+  // Chicago is UTC−6 in winter (CST) and UTC−5 in summer (CDT); the week's Monday tells which.
+  const noonMs = Date.parse(`${date}T12:00:00Z`);
+  const offsetH = new Intl.DateTimeFormat('en-US', {
+    timeZone: 'America/Chicago',
+    timeZoneName: 'shortOffset',
+  })
+    .formatToParts(noonMs)
+    .find((part) => part.type === 'timeZoneName')!
+    .value.replace('GMT', '');
+  return Date.parse(`${date}T00:00:00Z`) - Number(offsetH) * 3_600_000;
+}
+
+/** The machine room's margin, as ingest computed it for 15 °C / 50 % RH over a 14 °C surface. */
+let machineMarginK: number;
+/** The hours of last week in Chicago. */
+let weekHours: number;
+
+beforeAll(async () => {
+  suite = await startBrowserSuite();
+  // The Machine room's probe every 10 minutes through the whole of last week, from Monday 00:00
+  // to the next Monday 00:00 in Chicago (168 h, or 167 / 169 across a daylight-saving change):
+  // 15 °C air, 50 % RH, 14 °C surface, dry throughout.
+  const start = lastWeek();
+  const fromMs = chicagoMidnightMs(start);
+  const toMs = chicagoMidnightMs(shiftWeek(start, 1));
+  weekHours = (toMs - fromMs) / 3_600_000;
+  const sensor = suite.server.demo.tokens.find((s) => s.zone === 'Machine room')!;
+  const readings = [];
+  for (let atMs = fromMs; atMs < toMs; atMs += STEP_MS)
+    readings.push({ at: new Date(atMs).toISOString(), air: 15, rh: 50, surface: 14 });
+  // At most 1,000 readings a request (API.md).
+  for (let i = 0; i < readings.length; i += 500) {
+    const answer = await postReading(suite.server.baseUrl, sensor.token, {
+      readings: readings.slice(i, i + 500),
+    });
+    machineMarginK = answer.results[0]?.margin ?? machineMarginK;
+  }
+});
+afterAll(() => suite?.close());
+
+/** The week label once the report for it has loaded. */
+async function shownWeek(page: Page) {
+  await page.getByTestId('report-shop').waitFor();
+  return page.getByTestId('report-week-label').textContent();
+}
+
+function machineCard(page: Page) {
+  return page
+    .getByTestId('report-zone')
+    .filter({ has: page.getByTestId('report-zone-name').filter({ hasText: 'Machine room' }) });
+}
+
+describe('the week report on a phone (390×844)', () => {
+  it('opens from the navigation, pages a week back, and downloads the CSV and PDF', async () => {
+    const page = await suite.browser.newPage({ viewport: { width: 390, height: 844 } });
+    const errors = watchPage(page);
+    await signInAs(page, suite.server.baseUrl, owner.email);
+
+    await page.getByTestId('shop-nav-bar').getByTestId('nav-report').click();
+    await page.waitForURL(/\/report$/);
+    const start = lastWeek();
+    // The server's default week is the last complete one, named by its shop-local dates.
+    expect(await shownWeek(page)).toBe(weekLabel(start));
+    expect(await page.getByRole('heading', { level: 1 }).textContent()).toBe('Week report');
+    expect(await page.getByTestId('report-so-far').count()).toBe(0);
+
+    // The machine room: a reading every 10 min fills the week (1,008 for 168 h), all dry; air
+    // 15 °C throughout.
+    const card = machineCard(page);
+    expect(await card.getByTestId('report-zone-levels-dry').textContent()).toBe(
+      `Dry ${weekHours.toFixed(1)} h`,
+    );
+    expect(await card.getByTestId('report-zone-levels-wet').textContent()).toBe('Wet 0.0 h');
+    expect(await card.getByTestId('report-zone-figures-air').textContent()).toContain(
+      '15.0 °C / 15.0 °C / 15.0 °C',
+    );
+    expect(await card.getByTestId('report-zone-figures-lowestMargin').textContent()).toContain(
+      formatMargin(machineMarginK, 'C'),
+    );
+    // Its chart draws the week's lines.
+    await expect
+      .poll(() => card.getByTestId('zone-chart-plot').locator('svg path').count())
+      .toBeGreaterThan(2);
+    await page.screenshot({ path: `${SHOTS}/report-phone.png` });
+    await card.scrollIntoViewIfNeeded();
+    await page.screenshot({ path: `${SHOTS}/report-phone-zone.png` });
+
+    // A week back: the URL names it, the dates follow, and the previous week has no readings.
+    await page.getByTestId('report-week-previous').click();
+    const before = shiftWeek(start, -1);
+    await page.waitForURL(new RegExp(`/report\\?week=${before}$`));
+    await expect.poll(() => shownWeek(page)).toBe(weekLabel(before));
+    await expect.poll(() => machineCard(page).getByTestId('report-zone-empty').count()).toBe(1);
+    // A reload keeps the week.
+    await page.reload();
+    expect(await shownWeek(page)).toBe(weekLabel(before));
+    // And forward again.
+    await page.getByTestId('report-week-next').click();
+    await page.waitForURL(new RegExp(`/report\\?week=${start}$`));
+    await expect.poll(() => shownWeek(page)).toBe(weekLabel(start));
+
+    // The CSV through the browser's download: a header naming each column (time of wetness
+    // among them) and the machine room's row with its 15.0 °C air.
+    const [csvDownload] = await Promise.all([
+      page.waitForEvent('download'),
+      page.getByTestId('report-download-csv-button').click(),
+    ]);
+    expect(csvDownload.suggestedFilename()).toMatch(/\.csv$/);
+    const csv = fs.readFileSync((await csvDownload.path())!, 'utf8').replace(/^\uFEFF/, '');
+    const parsed = Papa.parse<string[]>(csv.trim(), { skipEmptyLines: true });
+    const [header, ...rows] = parsed.data;
+    expect(header!.some((name) => /wetness/i.test(name))).toBe(true);
+    const machine = rows.find((row) => row.includes('Machine room'));
+    expect(machine, csv).toBeDefined();
+    const airMean = header!.findIndex((name) => /air/i.test(name) && /mean/i.test(name));
+    expect(airMean, header!.join(' | ')).toBeGreaterThanOrEqual(0);
+    expect(Number(machine![airMean])).toBeCloseTo(15, 1);
+    // The button is ready again.
+    expect(await page.getByTestId('report-download-csv-button').textContent()).toBe('Download CSV');
+
+    // The PDF: its bytes start with the PDF signature (ISO 32000-1 §7.5.2 "%PDF-").
+    const [pdfDownload] = await Promise.all([
+      page.waitForEvent('download', { timeout: 20_000 }),
+      page.getByTestId('report-download-pdf-button').click(),
+    ]);
+    expect(pdfDownload.suggestedFilename()).toMatch(/\.pdf$/);
+    const pdf = fs.readFileSync((await pdfDownload.path())!);
+    expect(pdf.subarray(0, 5).toString('latin1')).toBe('%PDF-');
+
+    expect(errors).toEqual([]);
+    await page.close();
+  });
+});
+
+describe('the week report on a wide screen (1440×900)', () => {
+  it('adds a figures table with zones as rows beside the charts', async () => {
+    const page = await suite.browser.newPage({ viewport: { width: 1440, height: 900 } });
+    const errors = watchPage(page);
+    await signInAs(page, suite.server.baseUrl, owner.email);
+    await page.getByTestId('shop-nav-rail').getByTestId('nav-report').click();
+    await page.waitForURL(/\/report$/);
+    expect(await shownWeek(page)).toBe(weekLabel(lastWeek()));
+
+    const table = page.getByTestId('report-table');
+    const headers = await table.getByRole('columnheader').allTextContents();
+    // Every figure's header names its unit or is a count.
+    expect(headers[0]).toBe('Zone');
+    expect(headers.filter((h) => /°C|%|\(h/.test(h)).length).toBeGreaterThanOrEqual(5);
+    const names = await table.getByRole('rowheader').allTextContents();
+    expect(names.sort()).toEqual(['Finishing room', 'Lumber rack', 'Machine room']);
+    const machineRow = table.getByTestId('report-table-row').filter({ hasText: 'Machine room' });
+    expect(await machineRow.textContent()).toContain('15.0 °C / 15.0 °C / 15.0 °C');
+    // The cards beside it leave the figures to the table.
+    expect(await page.getByTestId('report-zone-figures').count()).toBe(0);
+    await expect
+      .poll(() => machineCard(page).getByTestId('zone-chart-plot').locator('svg path').count())
+      .toBeGreaterThan(2);
+    await page.screenshot({ path: `${SHOTS}/report-wide.png` });
+    await machineCard(page).scrollIntoViewIfNeeded();
+    await page.screenshot({ path: `${SHOTS}/report-wide-zones.png` });
+    expect(errors).toEqual([]);
+    await page.close();
+  });
+});
