@@ -50,6 +50,14 @@ export function ZoneWeekChart({
       </View>
     );
   }
+  // The chart's own empty text speaks of the last 24 hours; a past week says it for itself.
+  if (readings.data.points.length === 0) {
+    return (
+      <View style={[styles.placeholder, { height }]} testID="report-chart-empty">
+        <Text style={type.small}>No readings to chart this week.</Text>
+      </View>
+    );
+  }
   return (
     <MarginChart
       points={readings.data.points}

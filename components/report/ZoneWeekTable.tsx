@@ -5,7 +5,7 @@ import { colors, space, tabular, type } from '@/components/theme';
 import { Panel } from '@/components/ui';
 import type { TemperatureUnit } from '@/ingest/units';
 
-import { zoneFigureRows } from './reportFigures';
+import { zoneFigureRows, type FigureKey } from './reportFigures';
 import { REPORT_FIGURE_LABELS } from './reportLabels';
 
 interface ZoneWeekTableProps {
@@ -16,7 +16,7 @@ interface ZoneWeekTableProps {
 
 /** The wide screen's figures: zones as rows, each column headed by its figure and unit. */
 export function ZoneWeekTable({ zones, unit, timeZone }: ZoneWeekTableProps) {
-  const labels = Object.values(REPORT_FIGURE_LABELS(unit));
+  const labels = Object.entries(REPORT_FIGURE_LABELS(unit)) as [FigureKey, string][];
   return (
     <Panel title="Figures by zone">
       <View role="table" aria-label={`Week figures by zone, in °${unit}`} testID="report-table">
@@ -24,8 +24,12 @@ export function ZoneWeekTable({ zones, unit, timeZone }: ZoneWeekTableProps) {
           <Text role="columnheader" style={[type.label, styles.cell, styles.name]}>
             Zone
           </Text>
-          {labels.map((label) => (
-            <Text key={label} role="columnheader" style={[type.label, styles.cell]}>
+          {labels.map(([key, label]) => (
+            <Text
+              key={key}
+              role="columnheader"
+              style={[type.label, styles.cell, { flex: COLUMN_FLEX[key] }]}
+            >
               {label}
             </Text>
           ))}
@@ -36,7 +40,11 @@ export function ZoneWeekTable({ zones, unit, timeZone }: ZoneWeekTableProps) {
               {zone.name}
             </Text>
             {zoneFigureRows(zone, unit, timeZone).map((row) => (
-              <Text key={row.key} role="cell" style={[type.body, tabular, styles.cell]}>
+              <Text
+                key={row.key}
+                role="cell"
+                style={[type.body, tabular, styles.cell, { flex: COLUMN_FLEX[row.key] }]}
+              >
                 {row.value}
               </Text>
             ))}
@@ -46,6 +54,20 @@ export function ZoneWeekTable({ zones, unit, timeZone }: ZoneWeekTableProps) {
     </Panel>
   );
 }
+
+/** Room by what a column holds: three values with units get more than a count. */
+const COLUMN_FLEX: Record<FigureKey, number> = {
+  coverage: 0.8,
+  lowestMargin: 1.3,
+  air: 1.5,
+  rh: 1.2,
+  emc: 1.3,
+  timeOfWetness: 1.1,
+  alarmsOpened: 1.2,
+  ackTimes: 1.1,
+  unacknowledged: 1,
+  silent: 0.9,
+};
 
 const styles = StyleSheet.create({
   row: {
@@ -57,6 +79,6 @@ const styles = StyleSheet.create({
   },
   head: { alignItems: 'flex-end' },
   cell: { flex: 1, minWidth: 0, fontSize: 12, lineHeight: 16 },
-  name: { flex: 1.2 },
+  name: { flex: 1.1 },
   strong: { fontWeight: '600' },
 });

@@ -14,7 +14,7 @@ export function REPORT_FIGURE_LABELS(unit: TemperatureUnit) {
     timeOfWetness: 'Time of wetness, ISO 9223 (h, category)',
     alarmsOpened: 'Alarms opened',
     ackTimes: 'Time to acknowledge, median / longest',
-    unacknowledged: 'Unacknowledged alarms',
+    unacknowledged: 'Alarms not acknowledged',
     silent: 'Silent periods (count, h)',
   } as const;
 }
