@@ -73,7 +73,7 @@ export function DownloadButton({ shopId, start, format }: DownloadButtonProps) {
 }
 
 const styles = StyleSheet.create({
-  box: { gap: space.sm, flexShrink: 1 },
+  box: { gap: space.sm, flexShrink: 1, alignItems: 'flex-start' },
   error: { gap: space.sm, alignItems: 'flex-start' },
   errorText: { color: colors.wet },
 });

@@ -58,14 +58,15 @@ export function ZoneWeekTable({ zones, unit, timeZone }: ZoneWeekTableProps) {
 /** Room by what a column holds: three values with units get more than a count. */
 const COLUMN_FLEX: Record<FigureKey, number> = {
   coverage: 0.8,
-  lowestMargin: 1.3,
+  lowestMargin: 1.2,
   air: 1.5,
   rh: 1.2,
   emc: 1.3,
-  timeOfWetness: 1.1,
+  timeOfWetness: 1,
   alarmsOpened: 1.2,
   ackTimes: 1.1,
-  unacknowledged: 1,
+  // "acknowledged" is 12 characters: room for the word on one line at 1,440 px.
+  unacknowledged: 1.3,
   silent: 0.9,
 };
 
