@@ -8,3 +8,4 @@ export * from './zones';
 export * from './levels';
 export * from './rules';
 export * from './report';
+export * from './paper';
