@@ -2,31 +2,30 @@ import { StyleSheet, Text, View } from 'react-native';
 
 import { space, tabular, type } from '@/components/theme';
 
-export interface Figure {
-  key: string;
-  label: string;
-  value: string;
-}
+import type { Figure } from './reportFigures';
 
 interface FigureListProps {
-  figures: Figure[];
-  /** Two columns of figures where there is room (a wide panel); one on a phone. */
-  columns?: 1 | 2;
+  /** Rows of figures; the figures of a row sit side by side (min, mean, max). */
+  rows: Figure[][];
   testID?: string;
 }
 
-/** Label above value, as a description list would read: every number has its name beside it. */
-export function FigureList({ figures, columns = 1, testID }: FigureListProps) {
+/** Label above value, as a description list reads: every number has its name beside it. */
+export function FigureList({ rows, testID }: FigureListProps) {
   return (
-    <View style={[styles.list, columns === 2 && styles.two]} testID={testID}>
-      {figures.map((figure) => (
-        <View
-          key={figure.key}
-          style={[styles.item, columns === 2 && styles.half]}
-          testID={testID ? `${testID}-${figure.key}` : undefined}
-        >
-          <Text style={type.label}>{figure.label}</Text>
-          <Text style={[type.body, tabular]}>{figure.value}</Text>
+    <View style={styles.list} testID={testID}>
+      {rows.map((row) => (
+        <View key={row.map((figure) => figure.key).join()} style={styles.row}>
+          {row.map((figure) => (
+            <View
+              key={figure.key}
+              style={styles.item}
+              testID={testID ? `${testID}-${figure.key}` : undefined}
+            >
+              <Text style={type.label}>{figure.label}</Text>
+              <Text style={[type.body, tabular]}>{figure.value}</Text>
+            </View>
+          ))}
         </View>
       ))}
     </View>
@@ -34,8 +33,7 @@ export function FigureList({ figures, columns = 1, testID }: FigureListProps) {
 }
 
 const styles = StyleSheet.create({
-  list: { gap: space.sm },
-  two: { flexDirection: 'row', flexWrap: 'wrap', columnGap: space.lg },
-  item: { gap: 2 },
-  half: { flexBasis: '45%', flexGrow: 1 },
+  list: { gap: space.md },
+  row: { flexDirection: 'row', columnGap: space.md },
+  item: { flex: 1, minWidth: 0, gap: 2 },
 });

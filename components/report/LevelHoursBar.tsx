@@ -3,8 +3,7 @@ import { StyleSheet, Text, View } from 'react-native';
 import type { LevelHours } from '@/components/queries';
 import { colors, levelColors, levelWords, space, tabular, type } from '@/components/theme';
 import { LEVELS } from '@/ingest/wire/levels';
-
-import { formatHours } from './reportFigures';
+import { formatHours } from '@/ingest/words';
 
 interface LevelHoursBarProps {
   hours: LevelHours;

@@ -19,7 +19,7 @@ import { isLatestWeek, isPartialWeek, weekLabel } from './reportWeek';
 import { ShopWeekLine } from './ShopWeekLine';
 import { WeekPicker } from './WeekPicker';
 import { ZoneWeekCard } from './ZoneWeekCard';
-import { ZoneWeekTable } from './ZoneWeekTable';
+import { ZoneWeekTables } from './ZoneWeekTable';
 
 interface ReportScreenProps {
   /** The week's Monday from the URL (`?week=`); null: the week the server picks. */
@@ -92,14 +92,14 @@ function WeekBody({ report, zones, wide, shopId }: WeekBodyProps) {
         <DownloadButton shopId={shopId} start={week.start} format="csv" />
         <DownloadButton shopId={shopId} start={week.start} format="pdf" />
       </View>
-      <ShopWeekLine figures={report.shopWide} unit={unit} timeZone={timeZone} wide={wide} />
+      <ShopWeekLine figures={report.shopWide} unit={unit} timeZone={timeZone} />
       {report.zones.length === 0 ? (
         <Notice title="This shop has no zones yet" testID="report-no-zones">
           Add a zone and a sensor in the shop settings; its week shows here.
         </Notice>
       ) : null}
       {wide && report.zones.length > 0 ? (
-        <ZoneWeekTable zones={report.zones} unit={unit} timeZone={timeZone} />
+        <ZoneWeekTables zones={report.zones} unit={unit} timeZone={timeZone} />
       ) : null}
       <View style={[styles.zones, wide && styles.grid]}>
         {report.zones.map((zone) => (

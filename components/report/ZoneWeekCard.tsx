@@ -3,10 +3,11 @@ import { StyleSheet, Text, View } from 'react-native';
 import type { ZoneWeekFigures } from '@/components/queries';
 import { cardSurface, space, type } from '@/components/theme';
 import type { TemperatureUnit } from '@/ingest/units';
+import { formatHours } from '@/ingest/words';
 
 import { FigureList } from './FigureList';
 import { LevelHoursBar } from './LevelHoursBar';
-import { formatHours, reportTime, zoneFigureRows } from './reportFigures';
+import { FIGURE_SECTIONS, reportClock, zoneFigure } from './reportFigures';
 import { ZoneWeekChart } from './ZoneWeekChart';
 
 interface ZoneWeekCardProps {
@@ -53,18 +54,28 @@ export function ZoneWeekCard({
       {empty ? null : (
         <>
           <LevelHoursBar hours={zone.levelHours} testID="report-zone-levels" />
-          {showFigures ? (
-            <FigureList
-              figures={zoneFigureRows(zone, unit, timeZone)}
-              testID="report-zone-figures"
-            />
-          ) : null}
+          {showFigures
+            ? FIGURE_SECTIONS.map((section) => (
+                <View key={section.title} style={styles.section}>
+                  <Text style={type.label} role="heading" aria-level={3}>
+                    {section.title}
+                  </Text>
+                  <FigureList
+                    // The level hours are the bar's, written under it already.
+                    rows={section.rows
+                      .filter((row) => !row[0]!.startsWith('hours_'))
+                      .map((row) => row.map((key) => zoneFigure(zone, key, unit, timeZone)))}
+                    testID="report-zone-figures"
+                  />
+                </View>
+              ))
+            : null}
           {showFigures && zone.silentPeriods.length > 0 ? (
             <View style={styles.silent} testID="report-zone-silent">
               <Text style={type.label}>Silent</Text>
               {zone.silentPeriods.map((period) => (
                 <Text key={period.from} style={type.small}>
-                  {reportTime(period.from, timeZone)} – {reportTime(period.to, timeZone)} (
+                  {reportClock(period.from, timeZone)} – {reportClock(period.to, timeZone)} (
                   {formatHours(period.hours)})
                 </Text>
               ))}
@@ -90,4 +101,5 @@ export function ZoneWeekCard({
 const styles = StyleSheet.create({
   card: { ...cardSurface, padding: space.lg, gap: space.md },
   silent: { gap: 2 },
+  section: { gap: space.sm },
 });

@@ -4,9 +4,7 @@ import { useWeekReadingsQuery, type ZoneWeekFigures } from '@/components/queries
 import { colors, type } from '@/components/theme';
 import { MarginChart } from '@/components/zones/MarginChart';
 import type { TemperatureUnit } from '@/ingest/units';
-import { formatMargin } from '@/ingest/words';
-
-import { reportTime } from './reportFigures';
+import { formatMargin, formatReportMoment } from '@/ingest/words';
 
 interface ZoneWeekChartProps {
   shopId: string;
@@ -34,7 +32,7 @@ export function ZoneWeekChart({
 }: ZoneWeekChartProps) {
   const readings = useWeekReadingsQuery(shopId, zone.zoneId, week.from, week.periodEnd);
   const summary = zone.lowestMargin
-    ? `${zone.name}, the week: lowest dew margin ${formatMargin(zone.lowestMargin.marginK, unit)} at ${reportTime(zone.lowestMargin.at, timeZone)}`
+    ? `${zone.name}, the week: lowest dew margin ${formatMargin(zone.lowestMargin.marginK, unit)} on ${formatReportMoment(zone.lowestMargin.at, timeZone)}`
     : `${zone.name}, the week: no dew margin measured or estimated`;
   if (readings.isError) {
     return (

@@ -5,8 +5,7 @@ import { colors, space, tabular, type } from '@/components/theme';
 import { Panel } from '@/components/ui';
 import type { TemperatureUnit } from '@/ingest/units';
 
-import { zoneFigureRows, type FigureKey } from './reportFigures';
-import { REPORT_FIGURE_LABELS } from './reportLabels';
+import { FIGURE_SECTIONS, figureLabel, zoneFigure, type FigureSection } from './reportFigures';
 
 interface ZoneWeekTableProps {
   zones: ZoneWeekFigures[];
@@ -14,23 +13,48 @@ interface ZoneWeekTableProps {
   timeZone: string;
 }
 
-/** The wide screen's figures: zones as rows, each column headed by its figure and unit. */
-export function ZoneWeekTable({ zones, unit, timeZone }: ZoneWeekTableProps) {
-  const labels = Object.entries(REPORT_FIGURE_LABELS(unit)) as [FigureKey, string][];
+/**
+ * The wide screen's figures: a table per section, zones as rows, each column headed by the
+ * report's own label with its unit (the CSV's header). Two tables rather than one of twenty-odd
+ * columns, so no header is squeezed to a letter a line.
+ */
+export function ZoneWeekTables({ zones, unit, timeZone }: ZoneWeekTableProps) {
   return (
-    <Panel title="Figures by zone">
-      <View role="table" aria-label={`Week figures by zone, in °${unit}`} testID="report-table">
+    <>
+      {FIGURE_SECTIONS.map((section) => (
+        <SectionTable
+          key={section.title}
+          section={section}
+          zones={zones}
+          unit={unit}
+          timeZone={timeZone}
+        />
+      ))}
+    </>
+  );
+}
+
+function SectionTable({
+  section,
+  zones,
+  unit,
+  timeZone,
+}: ZoneWeekTableProps & { section: FigureSection }) {
+  const keys = section.rows.flat();
+  return (
+    <Panel title={section.title}>
+      <View
+        role="table"
+        aria-label={`${section.title}, by zone, in °${unit}`}
+        testID="report-table"
+      >
         <View role="row" style={[styles.row, styles.head]}>
           <Text role="columnheader" style={[type.label, styles.cell, styles.name]}>
-            Zone
+            {figureLabel('zone', unit)}
           </Text>
-          {labels.map(([key, label]) => (
-            <Text
-              key={key}
-              role="columnheader"
-              style={[type.label, styles.cell, { flex: COLUMN_FLEX[key] }]}
-            >
-              {label}
+          {keys.map((key) => (
+            <Text key={key} role="columnheader" style={[type.label, styles.cell]}>
+              {figureLabel(key, unit)}
             </Text>
           ))}
         </View>
@@ -39,13 +63,14 @@ export function ZoneWeekTable({ zones, unit, timeZone }: ZoneWeekTableProps) {
             <Text role="rowheader" style={[type.body, styles.cell, styles.name, styles.strong]}>
               {zone.name}
             </Text>
-            {zoneFigureRows(zone, unit, timeZone).map((row) => (
+            {keys.map((key) => (
               <Text
-                key={row.key}
+                key={key}
                 role="cell"
-                style={[type.body, tabular, styles.cell, { flex: COLUMN_FLEX[row.key] }]}
+                style={[type.body, tabular, styles.cell]}
+                testID={`report-table-${key}`}
               >
-                {row.value}
+                {zoneFigure(zone, key, unit, timeZone).value}
               </Text>
             ))}
           </View>
@@ -54,21 +79,6 @@ export function ZoneWeekTable({ zones, unit, timeZone }: ZoneWeekTableProps) {
     </Panel>
   );
 }
-
-/** Room by what a column holds: three values with units get more than a count. */
-const COLUMN_FLEX: Record<FigureKey, number> = {
-  coverage: 0.8,
-  lowestMargin: 1.2,
-  air: 1.5,
-  rh: 1.2,
-  emc: 1.3,
-  timeOfWetness: 1,
-  alarmsOpened: 1.2,
-  ackTimes: 1.1,
-  // "acknowledged" is 12 characters: room for the word on one line at 1,440 px.
-  unacknowledged: 1.3,
-  silent: 0.9,
-};
 
 const styles = StyleSheet.create({
   row: {
@@ -80,6 +90,6 @@ const styles = StyleSheet.create({
   },
   head: { alignItems: 'flex-end' },
   cell: { flex: 1, minWidth: 0, fontSize: 12, lineHeight: 16 },
-  name: { flex: 1.1 },
+  name: { flex: 1.3 },
   strong: { fontWeight: '600' },
 });

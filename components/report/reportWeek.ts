@@ -1,52 +1,38 @@
 /**
- * The report's weeks as shop-local calendar dates. A week is named by its Monday (YYYY-MM-DD,
- * what the API's `start` takes); moving a week is calendar arithmetic on that date, so a week
- * across a daylight-saving change (167 or 169 hours) still steps Monday to Monday. Only "which
- * week is it now" needs the shop's time zone. Pure: the current time is an argument.
+ * The report's weeks on the screen, as shop-local calendar dates. A week is named by its Monday
+ * (YYYY-MM-DD, what the API's `start` takes); moving a week is calendar arithmetic on that date
+ * (ingest/reportWeek.ts, the server's own calendar), so a week across a daylight-saving change
+ * (167 or 169 hours) still steps Monday to Monday. Pure: the current time is an argument.
  */
 import { formatInTimeZone } from 'date-fns-tz';
 
+import { addDays, isMonday, weekStartOf } from '@/ingest/reportWeek';
+
 const DAY_MS = 86_400_000;
-const DATE_RE = /^(\d{4})-(\d{2})-(\d{2})$/;
 
 /** Midnight UTC of a calendar date, or null when the text is not a real YYYY-MM-DD date. */
 function dateMs(date: string): number | null {
-  const match = DATE_RE.exec(date);
-  if (!match) return null;
-  const [year, month, day] = [Number(match[1]), Number(match[2]), Number(match[3])];
-  const ms = Date.UTC(year, month - 1, day);
-  // Date.UTC rolls 2026-02-30 over to 2 March; a date that does not come back is not real.
-  return new Date(ms).toISOString().slice(0, 10) === date ? ms : null;
+  const ms = Date.parse(`${date}T00:00:00Z`);
+  return /^\d{4}-\d{2}-\d{2}$/.test(date) && new Date(ms).toISOString().slice(0, 10) === date
+    ? ms
+    : null;
 }
 
 const dateOf = (ms: number) => new Date(ms).toISOString().slice(0, 10);
 
 /** A week's Monday from a URL's `?week=`: a real date that is a Monday, else null. */
 export function parseWeekStart(value: unknown): string | null {
-  if (typeof value !== 'string') return null;
-  const ms = dateMs(value);
-  // getUTCDay: 1 is Monday.
-  return ms !== null && new Date(ms).getUTCDay() === 1 ? value : null;
+  return typeof value === 'string' && isMonday(value) ? value : null;
 }
 
 /** The Monday `weeks` weeks after (negative: before) the Monday `start`. */
 export function shiftWeek(start: string, weeks: number): string {
-  const ms = dateMs(start);
-  if (ms === null) throw new Error(`not a date: ${start}`);
-  return dateOf(ms + weeks * 7 * DAY_MS);
-}
-
-/** The Monday of the shop-local week that holds `nowMs`. */
-export function weekStartAt(nowMs: number, timeZone: string): string {
-  const localDate = formatInTimeZone(nowMs, timeZone, 'yyyy-MM-dd');
-  // ISO day of week: 1 Monday … 7 Sunday.
-  const isoDay = Number(formatInTimeZone(nowMs, timeZone, 'i'));
-  return dateOf((dateMs(localDate) as number) - (isoDay - 1) * DAY_MS);
+  return addDays(start, weeks * 7);
 }
 
 /** Whether `start` is the shop's current week or a later one: nothing after it to go to. */
 export function isLatestWeek(start: string, nowMs: number, timeZone: string): boolean {
-  return start >= weekStartAt(nowMs, timeZone);
+  return start >= weekStartOf(nowMs, timeZone);
 }
 
 const day = (ms: number, withYear: boolean) =>

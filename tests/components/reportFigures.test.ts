@@ -1,6 +1,6 @@
 // A zone's week figures as the Report screen writes them, for a reader in °F: every temperature
 // converted with °F = °C × 9/5 + 32, the dew margin (a difference) × 1.8 with no offset, times on
-// the shop's clock, and each number beside its name. Expected strings are worked out by hand in
+// the shop's clock, and each number under the report's own column label (the CSV's header). Expected strings are worked out by hand in
 // the comments; the ISO 9223:1992 Table 1 category is checked against the annualised hours.
 // Also the file name a download is saved under, read from Content-Disposition (RFC 6266 with
 // RFC 8187's UTF-8 `filename*`), and the level-hours bar writing its numbers, not colour alone.
@@ -8,9 +8,18 @@ import { createElement } from 'react';
 import { renderToStaticMarkup } from 'react-dom/server';
 import { describe, expect, it } from 'vitest';
 
-import { filenameFromDisposition, type ZoneWeekFigures } from '@/components/queries';
+import {
+  filenameFromDisposition,
+  type ShopWeekFigures,
+  type ZoneWeekFigures,
+} from '@/components/queries';
 import { LevelHoursBar } from '@/components/report/LevelHoursBar';
-import { formatAckMinutes, zoneFigureRows } from '@/components/report/reportFigures';
+import {
+  FIGURE_SECTIONS,
+  SHOP_FIGURE_ROWS,
+  shopFigure,
+  zoneFigure,
+} from '@/components/report/reportFigures';
 import { WeekPicker } from '@/components/report/WeekPicker';
 import { ZoneWeekCard } from '@/components/report/ZoneWeekCard';
 
@@ -44,63 +53,112 @@ const zone: ZoneWeekFigures = {
 };
 
 describe('a zone’s figures in °F', () => {
-  const rows = Object.fromEntries(
-    zoneFigureRows(zone, 'F', 'Europe/Berlin').map((row) => [row.key, row]),
-  );
+  const figure = (key: string, z: ZoneWeekFigures = zone) =>
+    zoneFigure(z, key, 'F', 'Europe/Berlin');
 
   it('converts temperatures as temperatures and the margin as a difference', () => {
-    // 10 / 15 / 20 °C → 50.0 / 59.0 / 68.0 °F.
-    expect(rows.air).toEqual({
-      key: 'air',
-      label: 'Air min / mean / max (°F)',
-      value: '50.0 °F / 59.0 °F / 68.0 °F',
+    // 10 / 15 / 20 °C → 50.0 / 59.0 / 68.0 °F, under the report's own column labels.
+    expect(['air_min', 'air_mean', 'air_max'].map((key) => figure(key))).toEqual([
+      { key: 'air_min', label: 'Air min (°F)', value: '50.0 °F' },
+      { key: 'air_mean', label: 'Air mean (°F)', value: '59.0 °F' },
+      { key: 'air_max', label: 'Air max (°F)', value: '68.0 °F' },
+    ]);
+    // 0.5 K × 1.8 = 0.9 °F, never 0.5 × 1.8 + 32, labelled as a difference; Berlin's clock.
+    expect(figure('lowest_margin')).toEqual({
+      key: 'lowest_margin',
+      label: 'Lowest dew margin (°F difference)',
+      value: '+0.9 °F',
     });
-    // 0.5 K × 1.8 = 0.9 °F, never 0.5 × 1.8 + 32; Tuesday 06:52 Berlin time.
-    expect(rows.lowestMargin!.value).toBe('+0.9 °F, Tue 24 Mar 06:52');
-    expect(rows.lowestMargin!.label).toContain('°F');
+    expect(figure('lowest_margin_at').value).toBe('2026-03-24 06:52');
   });
 
   it('writes RH whole, EMC to a tenth, time of wetness with its ISO 9223 category', () => {
-    expect(rows.rh!.value).toBe('60 % / 72 % / 88 %');
-    expect(rows.emc!.value).toBe('11.2 % / 12.3 % / 15.1 %');
-    expect(rows.timeOfWetness!.value).toBe('31.5 h, τ3');
-    expect(rows.coverage!.value).toBe('96 %');
+    expect(['rh_min', 'rh_mean', 'rh_max'].map((key) => figure(key).value)).toEqual([
+      '60 %',
+      '72 %',
+      '88 %',
+    ]);
+    expect(['emc_min', 'emc_mean', 'emc_max'].map((key) => figure(key).value)).toEqual([
+      '11.2 %',
+      '12.3 %',
+      '15.1 %',
+    ]);
+    expect(figure('tow_hours').value).toBe('31.5 h');
+    expect(figure('tow_hours').label).toMatch(/wetness/i);
+    expect(figure('tow_category').value).toBe('T3');
+    expect(figure('coverage').value).toBe('96 %');
+    expect(figure('hours_close').value).toBe('9.5 h');
   });
 
   it('counts alarms by kind, acknowledgement times and silences', () => {
-    expect(rows.alarmsOpened!.value).toBe('3: 2 dew risk, 1 wet surface');
+    expect(figure('alarms_opened').value).toBe('3 (2 dew risk, 1 wet surface)');
     // Median 12 min; longest 150 min = 2.5 h.
-    expect(rows.ackTimes!.value).toBe('12 min / 2.5 h');
-    expect(rows.unacknowledged!.value).toBe('1');
+    expect(figure('ack_median').value).toBe('12 min');
+    expect(figure('ack_longest').value).toBe('2.5 h');
+    expect(figure('unacknowledged').value).toBe('1');
     // 1.5 h + 1.0 h of silence in two stretches.
-    expect(rows.silent!.value).toBe('2, 2.5 h');
+    expect(figure('silent_periods').value).toBe('2');
+    expect(figure('silent_hours').value).toBe('2.5 h');
   });
 
   it('shows dashes, not zeros, for what a silent zone never measured', () => {
     const none = { min: null, mean: null, max: null };
-    const silent = zoneFigureRows(
-      {
-        ...zone,
-        readings: 0,
-        airC: none,
-        rhPct: none,
-        emcPct: none,
-        lowestMargin: null,
-        timeOfWetness: { hours: 0, annualHours: null, category: null },
-        alarms: { ...zone.alarms, acknowledged: 0, medianAckMinutes: null },
-      },
-      'C',
-      'Europe/Berlin',
-    );
-    const values = Object.fromEntries(silent.map((row) => [row.key, row.value]));
-    expect(values).toMatchObject({ air: '—', rh: '—', emc: '—', lowestMargin: '—', ackTimes: '—' });
-    expect(values.timeOfWetness).toBe('0.0 h');
+    const silent: ZoneWeekFigures = {
+      ...zone,
+      readings: 0,
+      airC: none,
+      rhPct: none,
+      emcPct: none,
+      lowestMargin: null,
+      timeOfWetness: { hours: 0, annualHours: null, category: null },
+      alarms: { ...zone.alarms, acknowledged: 0, medianAckMinutes: null, longestAckMinutes: null },
+    };
+    for (const key of ['air_mean', 'rh_max', 'emc_min', 'lowest_margin', 'lowest_margin_at'])
+      expect(figure(key, silent).value).toBe('—');
+    expect(figure('tow_category', silent).value).toBe('—');
+    expect(figure('ack_median', silent).value).toBe('—');
   });
 
-  it('keeps minutes under two hours and hours past them', () => {
-    expect(formatAckMinutes(119.4)).toBe('119 min');
-    expect(formatAckMinutes(120)).toBe('2.0 h');
-    expect(formatAckMinutes(null)).toBe('—');
+  it('shows every figure a section names', () => {
+    for (const key of FIGURE_SECTIONS.flatMap((section) => section.rows.flat()))
+      expect(figure(key).value).not.toBe('');
+  });
+
+  it('names the whole shop’s figures by the same columns', () => {
+    const shop: ShopWeekFigures = {
+      zones: 3,
+      coveragePct: 88.4,
+      lowestMargin: {
+        zoneId: zone.zoneId,
+        zoneName: 'Machine room',
+        marginK: -0.5,
+        at: zone.lowestMargin!.at,
+      },
+      zonesWet: 1,
+      wetHours: 0.5,
+      closeHours: 9.5,
+      alarmsOpened: 3,
+      medianAckMinutes: 12,
+      unacknowledged: 1,
+      verdict: '',
+    };
+    const rows = SHOP_FIGURE_ROWS.flat().map((key) => shopFigure(shop, key, 'F', 'Europe/Berlin'));
+    // −0.5 K below the dew point is −0.9 °F, with the zone named.
+    expect(rows[0]).toEqual({
+      key: 'lowest_margin',
+      label: 'Lowest dew margin (°F difference)',
+      value: '-0.9 °F (Machine room)',
+    });
+    expect(rows.map((r) => r.value)).toEqual([
+      '-0.9 °F (Machine room)',
+      '2026-03-24 06:52',
+      '0.5 h',
+      '9.5 h',
+      '88 %',
+      '3',
+      '1',
+      '12 min',
+    ]);
   });
 });
 
@@ -132,7 +190,7 @@ describe('rendered as the web bundle renders it', () => {
     const html = decode(
       renderToStaticMarkup(createElement(LevelHoursBar, { hours: zone.levelHours })),
     );
-    for (const words of ['Dry 150.0 h', 'Close 9.5 h', 'Wet 0.5 h', 'Unknown 7.0 h'])
+    for (const words of ['Dry 150 h', 'Close 9.5 h', 'Wet 0.5 h', 'Unknown 7 h'])
       expect(html).toContain(words);
     // The coloured bar repeats the words, so assistive technology skips it.
     expect(html).toContain('aria-hidden="true"');

@@ -13,8 +13,8 @@ import {
   shiftWeek,
   weekLabel,
   weekSpanShort,
-  weekStartAt,
 } from '@/components/report/reportWeek';
+import { weekStartOf } from '@/ingest/reportWeek';
 
 describe('stepping weeks', () => {
   it.each([
@@ -48,7 +48,7 @@ describe('the week that holds now, on the shop clock', () => {
     { at: '2026-03-22T16:00:00Z', zone: 'Asia/Tokyo', expected: '2026-03-23' },
     { at: '2026-03-22T16:00:00Z', zone: 'America/Chicago', expected: '2026-03-16' },
   ])('$at in $zone is in the week of $expected', ({ at, zone, expected }) => {
-    expect(weekStartAt(Date.parse(at), zone)).toBe(expected);
+    expect(weekStartOf(Date.parse(at), zone)).toBe(expected);
   });
 
   it('offers no week after the current one', () => {

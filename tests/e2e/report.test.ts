@@ -11,9 +11,10 @@ import Papa from 'papaparse';
 import type { Page } from 'playwright-core';
 import { afterAll, beforeAll, describe, expect, it } from 'vitest';
 
-import { shiftWeek, weekLabel, weekStartAt } from '@/components/report/reportWeek';
+import { shiftWeek, weekLabel } from '@/components/report/reportWeek';
+import { weekStartOf } from '@/ingest/reportWeek';
 import { DEMO_PEOPLE, DEMO_SHOP } from '@/db/seed';
-import { formatMargin } from '@/ingest/words';
+import { formatHours, formatMargin } from '@/ingest/words';
 
 import {
   postReading,
@@ -29,7 +30,7 @@ const [owner] = DEMO_PEOPLE;
 const STEP_MS = 10 * 60_000;
 
 /** The last complete shop-local week: what the report shows without ?week=. */
-const lastWeek = () => shiftWeek(weekStartAt(Date.now(), DEMO_SHOP.timeZone), -1);
+const lastWeek = () => shiftWeek(weekStartOf(Date.now(), DEMO_SHOP.timeZone), -1);
 
 /** Monday 00:00 of a week in Chicago as an instant: the Monday's UTC midnight plus the offset. */
 function chicagoMidnightMs(date: string): number {
@@ -103,15 +104,18 @@ describe('the week report on a phone (390×844)', () => {
     // 15 °C throughout.
     const card = machineCard(page);
     expect(await card.getByTestId('report-zone-levels-dry').textContent()).toBe(
-      `Dry ${weekHours.toFixed(1)} h`,
+      `Dry ${formatHours(weekHours)}`,
     );
-    expect(await card.getByTestId('report-zone-levels-wet').textContent()).toBe('Wet 0.0 h');
-    expect(await card.getByTestId('report-zone-figures-air').textContent()).toContain(
-      '15.0 °C / 15.0 °C / 15.0 °C',
-    );
-    expect(await card.getByTestId('report-zone-figures-lowestMargin').textContent()).toContain(
+    expect(await card.getByTestId('report-zone-levels-wet').textContent()).toBe('Wet 0 h');
+    for (const key of ['air_min', 'air_mean', 'air_max'])
+      expect(await card.getByTestId(`report-zone-figures-${key}`).textContent()).toContain(
+        '15.0 °C',
+      );
+    expect(await card.getByTestId('report-zone-figures-lowest_margin').textContent()).toContain(
       formatMargin(machineMarginK, 'C'),
     );
+    // RH 50 % never passes ISO 9223's 80 %: no time of wetness.
+    expect(await card.getByTestId('report-zone-figures-tow_hours').textContent()).toContain('0 h');
     // Its chart draws the week's lines.
     await expect
       .poll(() => card.getByTestId('zone-chart-plot').locator('svg path').count())
@@ -176,15 +180,23 @@ describe('the week report on a wide screen (1440×900)', () => {
     await page.waitForURL(/\/report$/);
     expect(await shownWeek(page)).toBe(weekLabel(lastWeek()));
 
-    const table = page.getByTestId('report-table');
+    const table = page.getByTestId('report-table').first();
     const headers = await table.getByRole('columnheader').allTextContents();
-    // Every figure's header names its unit or is a count.
-    expect(headers[0]).toBe('Zone');
-    expect(headers.filter((h) => /°C|%|\(h/.test(h)).length).toBeGreaterThanOrEqual(5);
+    // The CSV's own headers, with their units.
+    expect(headers.slice(0, 2)).toEqual(['Zone', 'Data coverage (%)']);
+    expect(headers).toContain('Air mean (°C)');
     const names = await table.getByRole('rowheader').allTextContents();
     expect(names.sort()).toEqual(['Finishing room', 'Lumber rack', 'Machine room']);
     const machineRow = table.getByTestId('report-table-row').filter({ hasText: 'Machine room' });
-    expect(await machineRow.textContent()).toContain('15.0 °C / 15.0 °C / 15.0 °C');
+    expect(await machineRow.getByTestId('report-table-air_mean').textContent()).toBe('15.0 °C');
+    // The second table: the level hours, all dry.
+    const levels = page.getByTestId('report-table').nth(1);
+    const machineLevels = levels
+      .getByTestId('report-table-row')
+      .filter({ hasText: 'Machine room' });
+    expect(await machineLevels.getByTestId('report-table-hours_dry').textContent()).toBe(
+      formatHours(weekHours),
+    );
     // The cards beside it leave the figures to the table.
     expect(await page.getByTestId('report-zone-figures').count()).toBe(0);
     await expect
