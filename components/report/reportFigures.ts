@@ -14,7 +14,6 @@ import {
   ALARM_KIND_WORDS,
   MISSING,
   REPORT_COLUMNS,
-  formatAckMinutes,
   formatHours,
   formatMargin,
   formatPercent,
@@ -33,6 +32,9 @@ type Show = (zone: ZoneWeekFigures, unit: TemperatureUnit, timeZone: string) => 
 
 const orMissing = <T>(value: T | null, show: (v: T) => string) =>
   value === null ? MISSING : show(value);
+
+/** Whole minutes, as the column's "(min)" header says: "95 min", never "1.6 h" under it. */
+const minutes = (value: number) => `${Math.round(value)} min`;
 
 /** "3 (2 dew risk, 1 wet surface)", "0". */
 function alarmsOpened(zone: ZoneWeekFigures): string {
@@ -66,8 +68,8 @@ const SHOW: Record<string, Show> = {
   tow_category: (z) => orMissing(z.timeOfWetness.category, (c) => c.toUpperCase()),
   alarms_opened: alarmsOpened,
   unacknowledged: (z) => String(z.alarms.unacknowledged),
-  ack_median: (z) => orMissing(z.alarms.medianAckMinutes, formatAckMinutes),
-  ack_longest: (z) => orMissing(z.alarms.longestAckMinutes, formatAckMinutes),
+  ack_median: (z) => orMissing(z.alarms.medianAckMinutes, minutes),
+  ack_longest: (z) => orMissing(z.alarms.longestAckMinutes, minutes),
   silent_periods: (z) => String(z.silentPeriods.length),
   silent_hours: (z) => formatHours(z.silentPeriods.reduce((sum, p) => sum + p.hours, 0)),
 };
@@ -91,10 +93,15 @@ export const FIGURE_SECTIONS: readonly FigureSection[] = [
     ],
   },
   {
-    title: 'Wetness, alarms and silences',
+    title: 'Levels and wetness',
     rows: [
       ['hours_dry', 'hours_close', 'hours_wet', 'hours_unknown'],
       ['tow_hours', 'tow_category'],
+    ],
+  },
+  {
+    title: 'Alarms and silences',
+    rows: [
       ['alarms_opened', 'unacknowledged'],
       ['ack_median', 'ack_longest'],
       ['silent_periods', 'silent_hours'],
@@ -135,7 +142,7 @@ const SHOW_SHOP: Record<string, ShowShop> = {
   coverage: (s) => formatPercent(s.coveragePct),
   alarms_opened: (s) => String(s.alarmsOpened),
   unacknowledged: (s) => String(s.unacknowledged),
-  ack_median: (s) => orMissing(s.medianAckMinutes, formatAckMinutes),
+  ack_median: (s) => orMissing(s.medianAckMinutes, minutes),
 };
 
 export const SHOP_FIGURE_ROWS: readonly string[][] = [

@@ -92,9 +92,10 @@ describe('a zone’s figures in °F', () => {
 
   it('counts alarms by kind, acknowledgement times and silences', () => {
     expect(figure('alarms_opened').value).toBe('3 (2 dew risk, 1 wet surface)');
-    // Median 12 min; longest 150 min = 2.5 h.
+    // Median 12 min; longest 150 min, in minutes as the "(min)" header says.
     expect(figure('ack_median').value).toBe('12 min');
-    expect(figure('ack_longest').value).toBe('2.5 h');
+    expect(figure('ack_longest').label).toBe('Longest time to acknowledge (min)');
+    expect(figure('ack_longest').value).toBe('150 min');
     expect(figure('unacknowledged').value).toBe('1');
     // 1.5 h + 1.0 h of silence in two stretches.
     expect(figure('silent_periods').value).toBe('2');
