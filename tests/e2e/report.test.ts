@@ -1,7 +1,8 @@
 // The Report screen in Debian's Chromium against the real server, for the demo owner (°C): a
 // week of readings posted by the demo sensors into the last complete week, the report opened
 // from the navigation, a week back and forth (the URL and the dates follow, a reload keeps the
-// week), the CSV and the PDF downloaded through the browser and read back, and screenshots at
+// week), the CSV and the PDF downloaded through the browser and read back (a first PDF request
+// held and failed, to see the busy state, the server's sentence and the retry), and screenshots at
 // 390×844 and 1440×900. Expected figures are worked out from the posted readings in the
 // comments; the dew point and margin come from the ingest answer (ingest/psychrometrics.ts,
 // checked against published tables in its own tests).
@@ -157,14 +158,46 @@ describe('the week report on a phone (390×844)', () => {
     // The button is ready again.
     expect(await page.getByTestId('report-download-csv-button').textContent()).toBe('Download CSV');
 
-    // The PDF: its bytes start with the PDF signature (ISO 32000-1 §7.5.2 "%PDF-").
+    // A PDF that fails: while the answer is awaited the button says so and is busy; the
+    // server's sentence then shows with a retry. The first PDF request is held and answered
+    // 503 in the shared error shape; the retry goes through to the server.
+    let release: () => void = () => {};
+    const held = new Promise<void>((resolve) => (release = resolve));
+    await page.route(
+      '**/reports/week?*format=pdf*',
+      async (route) => {
+        await held;
+        await route.fulfill({
+          status: 503,
+          contentType: 'application/json',
+          body: JSON.stringify({
+            error: { code: 'storage_unavailable', message: 'Storage is busy.', details: [] },
+          }),
+        });
+      },
+      { times: 1 },
+    );
+    const pdfButton = page.getByTestId('report-download-pdf-button');
+    await pdfButton.click();
+    await expect.poll(() => pdfButton.textContent()).toBe('Preparing PDF…');
+    expect(await pdfButton.getAttribute('aria-busy')).toBe('true');
+    expect(await pdfButton.getAttribute('aria-disabled')).toBe('true');
+    release();
+    const failure = page.getByTestId('report-download-pdf-error');
+    await failure.waitFor();
+    expect(await failure.getAttribute('role')).toBe('alert');
+    expect(await failure.textContent()).toContain('Storage is busy.');
+    expect(await pdfButton.getAttribute('aria-busy')).toBeNull();
+
+    // The retry: the PDF's bytes start with the PDF signature (ISO 32000-1 §7.5.2 "%PDF-").
     const [pdfDownload] = await Promise.all([
       page.waitForEvent('download', { timeout: 20_000 }),
-      page.getByTestId('report-download-pdf-button').click(),
+      page.getByTestId('report-download-pdf-retry').click(),
     ]);
     expect(pdfDownload.suggestedFilename()).toMatch(/\.pdf$/);
     const pdf = fs.readFileSync((await pdfDownload.path())!);
     expect(pdf.subarray(0, 5).toString('latin1')).toBe('%PDF-');
+    await expect.poll(() => failure.count()).toBe(0);
 
     expect(errors).toEqual([]);
     await page.close();
