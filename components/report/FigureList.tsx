@@ -35,5 +35,6 @@ export function FigureList({ rows, testID }: FigureListProps) {
 const styles = StyleSheet.create({
   list: { gap: space.md },
   row: { flexDirection: 'row', columnGap: space.md },
-  item: { flex: 1, minWidth: 0, gap: 2 },
+  // Values of a row line up though one label wraps to two lines.
+  item: { flex: 1, minWidth: 0, gap: 2, justifyContent: 'space-between' },
 });
