@@ -68,6 +68,7 @@ const SIGNED_IN: Route[] = [
   { name: 'overview', path: () => shop() },
   { name: 'zone', path: () => `${shop()}/zones/${zoneId}` },
   { name: 'alarms', path: () => `${shop()}/alarms` },
+  { name: 'report', path: () => `${shop()}/report` },
   { name: 'sensors', path: () => `${shop()}/sensors` },
   { name: 'members', path: () => `${shop()}/members` },
   { name: 'settings', path: () => `${shop()}/settings` },
