@@ -110,6 +110,7 @@ const USER: Keys<User> = {
   name: true,
   unitPref: true,
   alarmMail: true,
+  weekReportMail: true,
   emailVerified: true,
 };
 const USER_RESPONSE: Keys<UserResponse> = { user: true };
