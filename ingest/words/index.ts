@@ -7,3 +7,4 @@ export * from './sensors';
 export * from './zones';
 export * from './levels';
 export * from './rules';
+export * from './weekMail';

@@ -4,6 +4,7 @@
  */
 import type { Db } from '@/db';
 import type { UnitPref } from '@/ingest/wire/people';
+import type { ReadingPoint } from '@/ingest/wire/readings';
 import type { WeekReport } from '@/ingest/wire/reports';
 
 export interface WeekReportInput {
@@ -17,4 +18,14 @@ export interface WeekReportInput {
 /** Null when the shop does not exist. */
 export async function buildWeekReport(db: Db, input: WeekReportInput): Promise<WeekReport | null> {
   throw new Error(`week report not merged yet (${String(db !== undefined)} ${input.shopId})`);
+}
+
+/** Each zone's margin series over the report's week, as the history API answers it. */
+export async function weekReportSeries(
+  db: Db,
+  report: WeekReport,
+): Promise<Map<string, ReadingPoint[]>> {
+  throw new Error(
+    `week report series not merged yet (${String(db !== undefined)} ${report.shop.id})`,
+  );
 }
