@@ -7,4 +7,5 @@ export * from './sensors';
 export * from './zones';
 export * from './levels';
 export * from './rules';
+export * from './report';
 export * from './weekMail';

@@ -4,36 +4,29 @@
  * zone's own verdict from the report. Times are written in the shop's zone: the mail may be
  * read anywhere, the week is the shop's.
  */
-import { formatInTimeZone, fromZonedTime } from 'date-fns-tz';
+import { formatInTimeZone } from 'date-fns-tz';
 
+import { addDays } from '../reportWeek';
 import type { TemperatureUnit } from '../units';
 import type { WeekReport, ZoneWeekFigures } from '../wire/reports';
 
-import { formatMargin, formatPercent, MISSING } from './format';
+import { formatMargin, formatPercent } from './format';
+import { formatHours } from './report';
 
-/** "Mon 23 Mar 2026": a shop-local calendar date (YYYY-MM-DD), read as that day. */
+/** "Mon 23 Mar": a calendar date (YYYY-MM-DD) as that day, read at noon UTC on it. */
 function calendarDay(date: string, pattern: string): string {
-  // Noon UTC of the date falls on that same calendar day in UTC, whatever the zone.
-  return formatInTimeZone(fromZonedTime(`${date}T12:00:00`, 'UTC'), 'UTC', pattern);
+  return formatInTimeZone(new Date(`${date}T12:00:00Z`), 'UTC', pattern);
 }
 
 /** "Mon 23 Mar – Sun 29 Mar 2026": the seven days of the week that starts on `weekStart`. */
 export function weekSpanWords(weekStart: string): string {
-  const [year, month, day] = weekStart.split('-').map(Number) as [number, number, number];
-  const sunday = new Date(Date.UTC(year, month - 1, day + 6)).toISOString().slice(0, 10);
+  const sunday = addDays(weekStart, 6);
   return `${calendarDay(weekStart, 'EEE d MMM')} – ${calendarDay(sunday, 'EEE d MMM yyyy')}`;
 }
 
 /** The subject: the shop and the week, so a mailbox lists each week apart. */
 export function weekMailSubject(shopName: string, weekStart: string): string {
   return `Week report: ${shopName}, ${weekSpanWords(weekStart)}`;
-}
-
-/** "2.5 h", "0 h", "—": hours to one decimal, a whole number without it. */
-export function formatHours(hours: number | null | undefined): string {
-  if (hours === null || hours === undefined || !Number.isFinite(hours)) return MISSING;
-  const text = (Math.round(hours * 10) / 10).toFixed(1);
-  return `${text.endsWith('.0') ? text.slice(0, -2) : text} h`;
 }
 
 /**

@@ -181,19 +181,19 @@ export async function sweepWeekReportMails(
     const week = weekReportMailDue(nowMs, timeZone);
     const shopIds = await shopsDueForWeekReport(deps.db, {
       timeZone,
-      weekStart: week.weekStart,
-      createdBefore: week.to,
+      weekStart: week.start,
+      createdBefore: new Date(week.toMs),
     });
     outcome.due += shopIds.length;
     for (const shopId of shopIds) {
       try {
-        const report = await deliverWeekReportMail(deps, shopId, week.weekStart);
+        const report = await deliverWeekReportMail(deps, shopId, week.start);
         if (report.outcome === 'sent' || report.outcome === 'nobody') outcome.delivered += 1;
         outcome.mails += report.sent;
       } catch (err) {
         outcome.failed += 1;
         deps.logger.warn(
-          { err, shopId, weekStart: week.weekStart },
+          { err, shopId, weekStart: week.start },
           'week report mail: delivery failed; the next sweep tries again',
         );
       }
