@@ -191,8 +191,9 @@ describe('the Berlin week of 23 March 2026 (167 h: EU summer time from 29 March)
 
 describe('two instances at the Chicago Monday 2 November 2026, 07:00 CST (13:00Z)', () => {
   it('mails each recipient once when both sweep at the same moment, and never again', async () => {
-    // Made before the week of 26 October (169 h: US daylight time ended 1 November).
-    const p = await shopWithPeople('Prairie Ash Works', 'America/Chicago', '2026-10-01T12:00:00Z');
+    // Made on Wednesday 28 October, in the week of 26 October (169 h: US daylight time ended
+    // 1 November); the week before is not its to get.
+    const p = await shopWithPeople('Prairie Ash Works', 'America/Chicago', '2026-10-28T15:00:00Z');
     await Promise.all([
       sweepWeekReportMails(depsOf(t, iso('2026-11-02T12:59:00Z'))),
       sweepWeekReportMails(depsOf(t2, iso('2026-11-02T12:59:00Z'))),
@@ -258,7 +259,7 @@ describe('a delivery that fails before any mail left', () => {
 });
 
 describe('the schedule on pg-boss, twice started', () => {
-  let bosses: PgBoss[] = [];
+  const bosses: PgBoss[] = [];
   afterAll(async () => {
     await Promise.all(bosses.map((b) => b.stop({ graceful: false, wait: true })));
   });
@@ -269,25 +270,21 @@ describe('the schedule on pg-boss, twice started', () => {
     const nowMs = iso('2026-06-15T05:00:00Z');
     // Two runners without cron on a schema of this file's own (no other file's worker takes
     // these jobs), each working the queue with the clock at 07:00.
-    bosses = await Promise.all(
-      [t, t2].map(() =>
-        startJobRunner({
-          databaseUrl: process.env.DATABASE_URL!,
-          logger: silentLogger(),
-          cron: false,
-          schema: 'pgboss_week_report_test',
-        }),
-      ),
-    );
-    await Promise.all(
-      bosses.map((boss, i) =>
-        scheduleWeekReportMails(boss, {
-          ...depsOf([t, t2][i]!, nowMs),
-          schedule: false,
-          pollingIntervalSeconds: 0.5,
-        }),
-      ),
-    );
+    // One after the other: the first start installs pg-boss's schema.
+    for (const app of [t, t2]) {
+      const boss = await startJobRunner({
+        databaseUrl: process.env.DATABASE_URL!,
+        logger: silentLogger(),
+        cron: false,
+        schema: 'pgboss_week_report_test',
+      });
+      bosses.push(boss);
+      await scheduleWeekReportMails(boss, {
+        ...depsOf(app, nowMs),
+        schedule: false,
+        pollingIntervalSeconds: 0.5,
+      });
+    }
     // What the cron would insert, from each instance: two sweep jobs.
     const ids = await Promise.all(bosses.map((boss) => boss.send(WEEK_REPORT_QUEUE, {})));
     expect(ids.every((id) => typeof id === 'string')).toBe(true);
