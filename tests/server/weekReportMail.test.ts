@@ -3,6 +3,7 @@
 // back with created_at so the weeks are fixed ones across daylight-saving changes; every other
 // test file's shop was made after those weeks and is never due in them.
 import type PgBoss from 'pg-boss';
+import request from 'supertest';
 import { afterAll, beforeAll, describe, expect, it } from 'vitest';
 
 import { findWeekReportMail } from '@/db/queries/weekReportMails';
@@ -34,7 +35,8 @@ const iso = (text: string) => Date.parse(text);
 let t: TestApp;
 let t2: TestApp;
 beforeAll(() => {
-  t = makeTestApp();
+  // With the development outbox page, as `npm start` serves it.
+  t = makeTestApp({ devOutbox: true });
   // A second server instance: its own pool and its own SMTP connection, the same database.
   t2 = makeTestApp();
 });
@@ -177,6 +179,24 @@ describe('the Berlin week of 23 March 2026 (167 h: EU summer time from 29 March)
       ]);
       expect(mail.attachments[0]!.content.subarray(0, 5).toString('latin1')).toBe('%PDF-');
     }
+
+    // The development outbox lists the mail with its PDF, which downloads as sent.
+    const page = await request(t.app).get('/dev/outbox').expect(200);
+    expect(page.text).toContain(`/dev/outbox/${owner.id}/attachments/0`);
+    expect(page.text).toContain('drybench-week-2026-03-23.pdf');
+    const file = await request(t.app)
+      .get(`/dev/outbox/${owner.id}/attachments/0`)
+      .buffer(true)
+      .parse((res, done) => {
+        const chunks: Buffer[] = [];
+        res.on('data', (c: Buffer) => chunks.push(c));
+        res.on('end', () => done(null, Buffer.concat(chunks)));
+      })
+      .expect(200);
+    expect(file.headers['content-type']).toBe('application/pdf');
+    expect(file.headers['content-disposition']).toContain('drybench-week-2026-03-23.pdf');
+    expect(Buffer.compare(file.body as Buffer, owner.attachments[0]!.content)).toBe(0);
+    await request(t.app).get(`/dev/outbox/${owner.id}/attachments/1`).expect(404);
   });
 
   it('sends nothing more on later sweeps (a restart, the rest of the week)', async () => {
