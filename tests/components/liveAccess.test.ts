@@ -21,7 +21,7 @@ describe('an access message from the live hub', () => {
         weekReportMail: true,
         emailVerified: true,
       },
-      shops: [{ id: 'a', name: 'A', role: 'member', timeZone: 'UTC' }],
+      shops: [{ id: 'a', name: 'A', role: 'member', timeZone: 'UTC', paperSize: 'a4' }],
     };
     client.setQueryData(meKeys.all, me);
     expect(client.getQueryState(meKeys.all)?.isInvalidated).toBe(false);
