@@ -65,5 +65,5 @@ export function weekReportPdfName(weekStart: string): string {
 
 /** What the body says of the report, per the week's state. */
 export function weekMailIntro(report: Pick<WeekReport, 'shop' | 'week'>): string {
-  return `${report.shop.name}, the week ${weekSpanWords(report.week.start)} (${report.shop.timeZone}, Monday 00:00 to Monday 00:00, ${report.week.hours} h).`;
+  return `${report.shop.name}: the week ${weekSpanWords(report.week.start)} (${report.week.hours} h, ${report.shop.timeZone} time).`;
 }

@@ -15,7 +15,7 @@ import {
   zoneWeekLine,
 } from '@/ingest/words';
 
-import { bulletList, escapeHtml, linkButton, mailPage, paragraph } from './html';
+import { escapeHtml, htmlList, linkButton, mailPage, paragraph } from './html';
 import type { MailMessage } from './mailer';
 
 export interface WeekReportMessageInput {
@@ -66,7 +66,13 @@ export function weekReportMessage(input: WeekReportMessageInput): MailMessage {
     paragraph(escapeHtml(report.shopWide.verdict)),
     report.week.note ? paragraph(escapeHtml(report.week.note)) : '',
     paragraph(zonesTitle),
-    zoneLines.length > 0 ? bulletList(zoneLines.map((z) => `${z.line}. ${z.verdict}`)) : '',
+    zoneLines.length > 0
+      ? htmlList(
+          zoneLines.map(
+            (z) => `<strong>${escapeHtml(z.line)}.</strong><br>${escapeHtml(z.verdict)}`,
+          ),
+        )
+      : '',
     linkButton({ href: input.reportUrl, label: 'Open the week report' }),
     paragraph(escapeHtml(attached)),
     paragraph(

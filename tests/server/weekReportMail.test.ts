@@ -115,7 +115,7 @@ describe('the Berlin week of 23 March 2026 (167 h: EU summer time from 29 March)
   let p: People;
   beforeAll(async () => {
     // Made on Wednesday 25 March, mid-week: its first report is of that week.
-    p = await shopWithPeople('Linden Yard Joinery', 'Europe/Berlin', '2026-03-25T09:00:00Z');
+    p = await shopWithPeople('Linden Yard Joinery & Sons', 'Europe/Berlin', '2026-03-25T09:00:00Z');
     // Thursday 26 March, CET (UTC+1): a reading every 10 min from 05:00 to 08:00 shop time,
     // 5 K above the dew point except 06:00-06:50, six readings at or below the 1 K wet limit
     // (the zone's default, db/schema/sensing.ts) with the lowest, 0.4 K, at 06:10.
@@ -150,8 +150,15 @@ describe('the Berlin week of 23 March 2026 (167 h: EU summer time from 29 March)
     expect(row?.recipients).toBe(2);
 
     // Subject: the shop and the week, Monday 23 to Sunday 29 March 2026.
-    expect(owner.subject).toBe('Week report: Linden Yard Joinery, Mon 23 Mar – Sun 29 Mar 2026');
-    expect(owner.text).toContain('167 h');
+    expect(owner.subject).toBe(
+      'Week report: Linden Yard Joinery & Sons, Mon 23 Mar – Sun 29 Mar 2026',
+    );
+    expect(owner.text.split('\n')[0]).toBe(
+      'Linden Yard Joinery & Sons: the week Mon 23 Mar – Sun 29 Mar 2026 (167 h, Europe/Berlin time).',
+    );
+    // A name people typed is escaped in the HTML part.
+    expect(owner.html).toContain('Linden Yard Joinery &amp; Sons');
+    expect(owner.html).not.toContain('Joinery & Sons');
     // The link to the Report screen of that week, and how to turn the mail off.
     const shopUrl = `${TEST_PUBLIC_URL}/shops/${p.owner.shopId}`;
     expect(owner.text).toContain(`${shopUrl}/report?week=2026-03-23`);
@@ -231,7 +238,9 @@ describe('two instances at the Chicago Monday 2 November 2026, 07:00 CST (13:00Z
     expect(countsOf(p)).toEqual({ owner: 1, memberF: 1, none: [0, 0, 0] });
     const mail = weekMails(t.outbox, p.owner.email)[0] ?? weekMails(t2.outbox, p.owner.email)[0];
     expect(mail?.subject).toBe('Week report: Prairie Ash Works, Mon 26 Oct – Sun 1 Nov 2026');
-    expect(mail?.text).toContain('169 h');
+    expect(mail?.text.split('\n')[0]).toBe(
+      'Prairie Ash Works: the week Mon 26 Oct – Sun 1 Nov 2026 (169 h, America/Chicago time).',
+    );
 
     // Two deliveries of the same shop-week racing head on: the claim is taken for both.
     const raced = await Promise.all([
