@@ -73,8 +73,8 @@ interface FigureSqlRow extends Record<string, unknown> {
   wet_ms: Num;
   tow_ms: Num;
   first_at_ms: Num;
-  low_margin: Num;
-  low_at_ms: Num;
+  /** [margin K, at ms] */
+  low: Num[] | null;
   silent: { f: number; t: number }[] | null;
 }
 
@@ -95,32 +95,15 @@ export async function zoneWeekFigures(
     zoneIds.map((id) => sql`${id}::uuid`),
     sql`, `,
   );
-  // Epoch milliseconds as exact numerics (extract gives numeric), so interval sums are exact.
+  // Zone by zone through the (zone_id, at) index: each zone's rows arrive in time order, so the
+  // window's (at, sensor_id) order costs an incremental sort of the ties only, never a sort of
+  // the whole week. Times are whole milliseconds (readings are stored from JavaScript dates), so
+  // the rounded float epoch is exact and the interval sums match the JavaScript reference.
   const result = await db.execute<FigureSqlRow>(sql`
-    with r as (
-      select zone_id, sensor_id, at, air_c, rh_pct, margin_k, emc_pct, level,
-             extract(epoch from at) * 1000 as at_ms,
-             extract(epoch from coalesce(
-               lead(at) over (partition by zone_id order by at, sensor_id), ${end}::timestamptz
-             )) * 1000 as until_ms
-      from readings
-      where zone_id in (${ids}) and at >= ${from}::timestamptz and at < ${end}::timestamptz
-    ), w as (
-      select *, least(until_ms - at_ms, ${cap}::numeric)::float8 as ms,
-             (until_ms - at_ms) > ${cap}::numeric as gap
-      from r
-    ), low as (
-      select distinct on (zone_id) zone_id, margin_k as low_margin, at_ms as low_at_ms
-      from w where margin_k is not null
-      order by zone_id, margin_k, at, sensor_id
-    ), silent as (
-      select zone_id,
-             json_agg(json_build_object(
-               'f', (at_ms + ${cap}::numeric)::float8, 't', until_ms::float8) order by at, sensor_id
-             ) as silent
-      from w where gap group by zone_id
-    ), agg as (
-      select zone_id, count(*)::int as n, sum(ms) as covered_ms,
+    select z.id as zone_id, f.*
+    from unnest(array[${ids}]) as z(id)
+    cross join lateral (
+      select count(*)::int as n, sum(ms) as covered_ms,
              min(air_c) as air_min, sum(air_c * ms) / nullif(sum(ms), 0) as air_mean,
              max(air_c) as air_max,
              min(rh_pct) as rh_min, sum(rh_pct * ms) / nullif(sum(ms), 0) as rh_mean,
@@ -134,13 +117,26 @@ export async function zoneWeekFigures(
              coalesce(sum(ms) filter (where level = 'wet'), 0) as wet_ms,
              -- ISO 9223 time of wetness: both limits strict (ingest/wetness.ts isWetIso9223).
              coalesce(sum(ms) filter (where rh_pct > 80 and air_c > 0), 0) as tow_ms,
-             min(at_ms)::float8 as first_at_ms
-      from w group by zone_id
-    )
-    select agg.*, low.low_margin, low.low_at_ms::float8 as low_at_ms, silent.silent
-    from agg
-    left join low using (zone_id)
-    left join silent using (zone_id)`);
+             min(at_ms) as first_at_ms,
+             -- The lowest margin and the earliest time it was seen: arrays compare element by
+             -- element, so one pass finds both (no second scan, no window over the whole zone).
+             min(array[margin_k, at_ms]) filter (where margin_k is not null) as low,
+             json_agg(json_build_object('f', at_ms + ${cap}::float8, 't', until_ms) order by at_ms)
+               filter (where until_ms - at_ms > ${cap}::float8) as silent
+      from (
+        select *, least(until_ms - at_ms, ${cap}::float8) as ms
+        from (
+          select air_c, rh_pct, margin_k, emc_pct, level,
+                 round(date_part('epoch', at) * 1000) as at_ms,
+                 round(date_part('epoch', coalesce(lead(at) over w, ${end}::timestamptz)) * 1000)
+                   as until_ms
+          from readings
+          where zone_id = z.id and at >= ${from}::timestamptz and at < ${end}::timestamptz
+          window w as (order by at, sensor_id)
+        ) r
+      ) w
+    ) f
+    where f.n > 0`);
 
   const periodMs = period.endMs - period.fromMs;
   const figures = new Map<string, Omit<WeekFigures, 'periodMs' | 'annualWetHours'>>();
@@ -160,8 +156,7 @@ export async function zoneWeekFigures(
       airC: { min: num(r.air_min), mean: num(r.air_mean), max: num(r.air_max) },
       rhPct: { min: num(r.rh_min), mean: num(r.rh_mean), max: num(r.rh_max) },
       emcPct: { min: num(r.emc_min), mean: num(r.emc_mean), max: num(r.emc_max) },
-      lowestMargin:
-        r.low_margin === null ? null : { marginK: Number(r.low_margin), atMs: Number(r.low_at_ms) },
+      lowestMargin: r.low ? { marginK: Number(r.low[0]), atMs: Number(r.low[1]) } : null,
       levelMs: { dry, close, wet, unknown: periodMs - dry - close - wet },
       wetnessMs: num0(r.tow_ms),
       silentPeriods,

@@ -1,19 +1,25 @@
 /**
- * The week report's words: the column labels with their units (one list for the CSV, the PDF
- * and the Report screen), the daylight-saving note and the plain verdicts written from the
- * figures in the reader's unit. The figures themselves arrive in °C, K, %, hours and minutes
- * (ingest/wire/reports.ts); only what is shown here is converted.
+ * The week report's words: the column labels with their units (./reportColumns, re-exported
+ * here: one list for the CSV, the PDF and the Report screen), the daylight-saving note and the
+ * plain verdicts written from the figures in the reader's unit. The figures themselves arrive in
+ * °C, K, %, hours and minutes (ingest/wire/reports.ts); only what is shown here is converted.
  */
 import { formatInTimeZone, fromZonedTime } from 'date-fns-tz';
 
-import { ALARM_KINDS, type AlarmKind } from '../alarmKinds';
 import { addDays, weekBounds } from '../reportWeek';
-import { cToF, kToFDelta, type TemperatureUnit } from '../units';
+import type { TemperatureUnit } from '../units';
 import type { ShopWeekFigures, WeekReport, ZoneWeekFigures } from '../wire/reports';
 import { CAUTIONS } from './advice';
-import { ALARM_KIND_WORDS } from './alarms';
 import { deltaInUnit, formatPercent } from './format';
-import { PURPOSE_WORDS } from './zones';
+
+export {
+  REPORT_COLUMNS,
+  SHOP_WIDE_LABEL,
+  formatReportTime,
+  type ReportCell,
+  type ReportCellKind,
+  type ReportColumn,
+} from './reportColumns';
 
 const HOUR_MS = 3_600_000;
 
@@ -32,194 +38,6 @@ export function formatAckMinutes(minutes: number): string {
 export function formatReportMoment(at: string, timeZone: string): string {
   return formatInTimeZone(new Date(at), timeZone, "EEEE 'at' HH:mm");
 }
-
-/** "2026-03-24 06:10" in the shop's time zone: the CSV's and the table's time cells. */
-export function formatReportTime(at: string, timeZone: string): string {
-  return formatInTimeZone(new Date(at), timeZone, 'yyyy-MM-dd HH:mm');
-}
-
-/** What a column holds, so each output can align, convert and neutralise it properly. */
-export type ReportCellKind = 'text' | 'number' | 'time';
-
-/** A cell's value in the reader's unit; null when the figure does not exist (no data). */
-export type ReportCell = string | number | null;
-
-export interface ReportColumn {
-  key: string;
-  kind: ReportCellKind;
-  /** The header, with the unit: "Air min (°F)". */
-  label: (unit: TemperatureUnit) => string;
-  /** A zone's value in the reader's unit (temperatures converted, differences scaled). */
-  zone: (z: ZoneWeekFigures, unit: TemperatureUnit, timeZone: string) => ReportCell;
-  /** The shop-wide value, where the shop-wide line has one. */
-  shop?: (s: ShopWeekFigures, unit: TemperatureUnit, timeZone: string) => ReportCell;
-}
-
-const temp = (c: number | null, unit: TemperatureUnit) =>
-  c === null ? null : unit === 'F' ? cToF(c) : c;
-const diff = (k: number | null, unit: TemperatureUnit) =>
-  k === null ? null : unit === 'F' ? kToFDelta(k) : k;
-
-const alarmColumn = (kind: AlarmKind): ReportColumn => ({
-  key: `alarms_${kind}`,
-  kind: 'number',
-  label: () => `${ALARM_KIND_WORDS[kind]} alarms opened`,
-  zone: (z) => z.alarms.openedByKind[kind],
-});
-
-/**
- * The report's columns, in order. A dew margin is a difference: in °F it is scaled ×1.8 with no
- * offset, and labelled as a difference so it never reads like an air temperature.
- */
-export const REPORT_COLUMNS: readonly ReportColumn[] = [
-  { key: 'zone', kind: 'text', label: () => 'Zone', zone: (z) => z.name },
-  {
-    key: 'purpose',
-    kind: 'text',
-    label: () => 'Purpose',
-    zone: (z) => PURPOSE_WORDS[z.purpose],
-  },
-  { key: 'readings', kind: 'number', label: () => 'Readings', zone: (z) => z.readings },
-  {
-    key: 'coverage',
-    kind: 'number',
-    label: () => 'Data coverage (%)',
-    zone: (z) => z.coveragePct,
-    shop: (s) => s.coveragePct,
-  },
-  ...(['min', 'mean', 'max'] as const).map((m): ReportColumn => ({
-    key: `air_${m}`,
-    kind: 'number',
-    label: (u) => `Air ${m} (°${u})`,
-    zone: (z, u) => temp(z.airC[m], u),
-  })),
-  ...(['min', 'mean', 'max'] as const).map((m): ReportColumn => ({
-    key: `rh_${m}`,
-    kind: 'number',
-    label: () => `RH ${m} (%)`,
-    zone: (z) => z.rhPct[m],
-  })),
-  ...(['min', 'mean', 'max'] as const).map((m): ReportColumn => ({
-    key: `emc_${m}`,
-    kind: 'number',
-    label: () => `Wood EMC ${m} (%)`,
-    zone: (z) => z.emcPct[m],
-  })),
-  {
-    key: 'lowest_margin',
-    kind: 'number',
-    label: (u) => `Lowest dew margin (°${u} difference)`,
-    zone: (z, u) => diff(z.lowestMargin?.marginK ?? null, u),
-    shop: (s, u) => diff(s.lowestMargin?.marginK ?? null, u),
-  },
-  {
-    key: 'lowest_margin_at',
-    kind: 'time',
-    label: () => 'Lowest dew margin at (shop time)',
-    zone: (z, _u, tz) => (z.lowestMargin ? formatReportTime(z.lowestMargin.at, tz) : null),
-    shop: (s, _u, tz) => (s.lowestMargin ? formatReportTime(s.lowestMargin.at, tz) : null),
-  },
-  {
-    key: 'hours_dry',
-    kind: 'number',
-    label: () => 'Dry (h)',
-    zone: (z) => z.levelHours.dry,
-  },
-  {
-    key: 'hours_close',
-    kind: 'number',
-    label: () => 'Close (h)',
-    zone: (z) => z.levelHours.close,
-    shop: (s) => s.closeHours,
-  },
-  {
-    key: 'hours_wet',
-    kind: 'number',
-    label: () => 'Wet (h)',
-    zone: (z) => z.levelHours.wet,
-    shop: (s) => s.wetHours,
-  },
-  {
-    key: 'hours_unknown',
-    kind: 'number',
-    label: () => 'Unknown or no data (h)',
-    zone: (z) => z.levelHours.unknown,
-  },
-  {
-    key: 'tow_hours',
-    kind: 'number',
-    label: () => 'Time of wetness, ISO 9223: RH > 80 % and air > 0 °C (h)',
-    zone: (z) => z.timeOfWetness.hours,
-  },
-  {
-    key: 'tow_annual',
-    kind: 'number',
-    label: () => 'Time of wetness per year at this rate (h)',
-    zone: (z) => z.timeOfWetness.annualHours,
-  },
-  {
-    key: 'tow_category',
-    kind: 'text',
-    label: () => 'Time-of-wetness category, ISO 9223 (one week only: an indication)',
-    zone: (z) => z.timeOfWetness.category?.toUpperCase() ?? null,
-  },
-  {
-    key: 'alarms_opened',
-    kind: 'number',
-    label: () => 'Alarms opened',
-    zone: (z) => z.alarms.opened,
-    shop: (s) => s.alarmsOpened,
-  },
-  ...ALARM_KINDS.map(alarmColumn),
-  {
-    key: 'alarms_acknowledged',
-    kind: 'number',
-    label: () => 'Alarms acknowledged',
-    zone: (z) => z.alarms.acknowledged,
-  },
-  {
-    key: 'ack_median',
-    kind: 'number',
-    label: () => 'Median time to acknowledge (min)',
-    zone: (z) => z.alarms.medianAckMinutes,
-    shop: (s) => s.medianAckMinutes,
-  },
-  {
-    key: 'ack_longest',
-    kind: 'number',
-    label: () => 'Longest time to acknowledge (min)',
-    zone: (z) => z.alarms.longestAckMinutes,
-  },
-  {
-    key: 'unacknowledged',
-    kind: 'number',
-    label: () => 'Alarms not acknowledged',
-    zone: (z) => z.alarms.unacknowledged,
-    shop: (s) => s.unacknowledged,
-  },
-  {
-    key: 'silent_periods',
-    kind: 'number',
-    label: () => 'Silent periods (over 15 min)',
-    zone: (z) => z.silentPeriods.length,
-  },
-  {
-    key: 'silent_hours',
-    kind: 'number',
-    label: () => 'Silent (h)',
-    zone: (z) => z.silentPeriods.reduce((sum, p) => sum + p.hours, 0),
-  },
-  {
-    key: 'verdict',
-    kind: 'text',
-    label: () => 'Verdict',
-    zone: (z) => z.verdict,
-    shop: (s) => s.verdict,
-  },
-];
-
-/** The first cell of the shop-wide line, which says what the line is. */
-export const SHOP_WIDE_LABEL = 'Whole shop (all zones)';
 
 /**
  * "This week had 167 hours: clocks went forward on Sunday 29 March." when the week is not 168
@@ -271,15 +89,17 @@ export function zoneVerdict(
     return `No readings from ${z.name} in this period: nothing is known about it, so it cannot be called dry.`;
   }
   const parts: string[] = [];
+  // A lumber rack's surface is the stock or the rack, not a machine's iron.
+  const subject = z.purpose === 'lumber' ? 'The surface' : 'The iron';
   if (z.lowestMargin) {
     const when = formatReportMoment(z.lowestMargin.at, timeZone);
     const gap = `${deltaInUnit(Math.abs(z.lowestMargin.marginK), unit)} °${unit}`;
     parts.push(
       z.lowestMargin.marginK > 0
-        ? `The iron came within ${gap} of the dew point on ${when}`
+        ? `${subject} came within ${gap} of the dew point on ${when}`
         : z.lowestMargin.marginK === 0
-          ? `The iron reached the dew point on ${when}`
-          : `The iron went ${gap} below the dew point on ${when}`,
+          ? `${subject} reached the dew point on ${when}`
+          : `${subject} went ${gap} below the dew point on ${when}`,
     );
     const h = z.levelHours;
     parts[0] +=
@@ -290,6 +110,13 @@ export function zoneVerdict(
           : ', and it stayed dry.';
   } else {
     parts.push('No surface temperature came in, so the dew margin is unknown.');
+  }
+  const emc = z.emcPct;
+  if (z.purpose === 'lumber' && emc.min !== null && emc.mean !== null && emc.max !== null) {
+    // Wood moves towards the air's EMC slowly, so the mean says more than the extremes.
+    parts.push(
+      `The air would bring stored wood to ${formatPercent(emc.mean, 1)} moisture on average (EMC ${formatPercent(emc.min, 1)} to ${formatPercent(emc.max, 1)}).`,
+    );
   }
   if (z.timeOfWetness.hours > 0) {
     parts.push(
@@ -333,12 +160,19 @@ export function shopVerdict(
   } else {
     parts.push('No surface temperature came in this period, so no dew margin is known.');
   }
+  if (s.coveragePct === 0) {
+    // A silent shop looks like a dry one: say plainly that nothing is known.
+    parts.push('No readings came in, so nothing is known: the shop cannot be called dry.');
+    parts.push(alarmSentence({ ...s, opened: s.alarmsOpened }));
+    return parts.join(' ');
+  }
+  const whileReporting = s.coveragePct < 95 ? ' while the sensors reported' : '';
   parts.push(
     s.zonesWet > 0
       ? `${plural(s.zonesWet, 'zone')} had wet iron, ${formatHours(s.wetHours)} in all.`
       : s.closeHours > 0
-        ? `No iron was wet; ${formatHours(s.closeHours)} close to the dew point.`
-        : 'No iron was wet or close.',
+        ? `No iron was wet${whileReporting}; ${formatHours(s.closeHours)} close to the dew point.`
+        : `No iron was wet or close${whileReporting}.`,
   );
   parts.push(`Readings covered ${formatPercent(s.coveragePct)} of the time.`);
   parts.push(alarmSentence({ ...s, opened: s.alarmsOpened }));

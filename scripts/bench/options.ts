@@ -1,7 +1,7 @@
 /** What one bench run does; `npm run bench -- --help` lists the flags. */
 import { parseArgs } from 'node:util';
 
-export const PHASES = ['bare', 'raw', 'ingest1', 'ingest50', 'live'] as const;
+export const PHASES = ['bare', 'raw', 'ingest1', 'ingest50', 'live', 'report'] as const;
 export type Phase = (typeof PHASES)[number];
 
 export interface BenchOptions {

@@ -11,6 +11,8 @@ export const TARGETS = {
   wsP99IdleMs: { atMost: 25 },
   wsP99LoadedMs: { atMost: 50 },
   rssMb: { atMost: 250 },
+  weekReportMs: { atMost: 300 },
+  weekReportPdfMs: { atMost: 1000 },
 } as const;
 
 export type Figures = Record<keyof typeof TARGETS, number | null> & Record<string, unknown>;
@@ -27,6 +29,10 @@ export function figuresOf(r: BenchResult): Figures {
     wsP99IdleMs: r.liveIdle ? round(r.liveIdle.delivery.p99Ms) : null,
     wsP99LoadedMs: r.liveLoaded ? round(r.liveLoaded.delivery.p99Ms) : null,
     rssMb: round(r.peakRssMb, 0),
+    // p95 over HTTP: a 10-zone shop's week of 1-minute readings (scripts/bench/weekReport.ts).
+    weekReportMs: r.weekReport ? round(r.weekReport.jsonP95Ms) : null,
+    weekReportPdfMs: r.weekReport?.pdfP95Ms != null ? round(r.weekReport.pdfP95Ms) : null,
+    weekReportPdfNote: r.weekReport?.pdfNote ?? null,
     rssAtStartMb: round(r.startRssMb, 0),
     date: r.startedAt.toISOString(),
     cpuCount: r.cpuCount,
@@ -159,6 +165,15 @@ export function formatReport(r: BenchResult): string {
       `background: ${int(o.backgroundReadingsPerS)} readings/s asked, ${o.backgroundBatch} per ` +
         `request from the fleet's sensors (not the watched shop); ${b.failures} failed, ` +
         `${b.skipped} not sent (server behind)`,
+    );
+  }
+
+  if (r.weekReport) {
+    const w = r.weekReport;
+    out.push(
+      `week report: ${int(w.readings)} readings (10 zones, 1 a minute, a week) inserted in ` +
+        `${w.insertS.toFixed(1)} s; JSON p50 ${ms(w.jsonP50Ms)} / p95 ${ms(w.jsonP95Ms)} ms; ` +
+        (w.pdfP95Ms === null ? `PDF not measured: ${w.pdfNote}` : `PDF p95 ${ms(w.pdfP95Ms)} ms`),
     );
   }
 

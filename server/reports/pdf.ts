@@ -10,9 +10,8 @@ import PDFDocument from 'pdfkit';
 
 import type { ReadingPoint } from '@/ingest/wire/readings';
 import type { WeekReport } from '@/ingest/wire/reports';
-import { formatMargin, formatPercent } from '@/ingest/words';
+import { formatHours, formatMargin, formatPercent, reportTitle } from '@/ingest/words';
 
-import { addCalendarDays } from './pdfChart';
 import {
   FONT_BOLD,
   FONT_FILES,
@@ -23,20 +22,13 @@ import {
   pdfColors,
   typeSizes,
 } from './pdfLayout';
-import { hoursText, minutesText } from './pdfWords';
-import { drawZone, shopClock, zoneBlockHeight } from './pdfZone';
+import { ackOrMissing } from './pdfWords';
+import { LABEL_WIDTH_PT, drawZone, shopClock, zoneBlockHeight } from './pdfZone';
 
 export interface WeekReportPdfInput {
   report: WeekReport;
   /** Each zone's margin series over the week, as GET …/zones/:zoneId/readings answers it. */
   series: Map<string, ReadingPoint[]>;
-}
-
-/** "Mon 2 Mar – Sun 8 Mar 2026": the shop's calendar days, whatever the server's zone. */
-export function weekDaysText(start: string): string {
-  const day = (ymd: string, pattern: string) =>
-    formatInTimeZone(new Date(`${ymd}T12:00:00Z`), 'UTC', pattern);
-  return `${day(start, 'EEE d MMM')} – ${day(addCalendarDays(start, 6), 'EEE d MMM yyyy')}`;
 }
 
 /** "2026-03-09 07:00 +01:00 (Europe/Berlin)". */
@@ -65,11 +57,11 @@ export function shopRows(report: WeekReport): [string, string][] {
     ],
     [
       'Hours wet / close, all zones',
-      `${hoursText(s.wetHours)} / ${hoursText(s.closeHours)}; ${s.zonesWet} zone${s.zonesWet === 1 ? '' : 's'} wet`,
+      `${formatHours(s.wetHours)} / ${formatHours(s.closeHours)}; ${s.zonesWet} zone${s.zonesWet === 1 ? '' : 's'} wet`,
     ],
     [
       'Alarms opened',
-      `${s.alarmsOpened}; median to acknowledge ${minutesText(s.medianAckMinutes)}; ${s.unacknowledged} not acknowledged`,
+      `${s.alarmsOpened}; median to acknowledge ${ackOrMissing(s.medianAckMinutes)}; ${s.unacknowledged} not acknowledged`,
     ],
   ];
 }
@@ -80,7 +72,7 @@ function drawHeader(doc: PDFKit.PDFDocument, report: WeekReport, width: number):
   doc.text(`Week report · ${report.shop.name}`, left, doc.y, { width });
   doc.moveDown(0.2);
   doc.font(FONT_REGULAR).fontSize(typeSizes.body + 1);
-  doc.text(`${weekDaysText(report.week.start)} (${report.shop.timeZone})`, { width });
+  doc.text(`${reportTitle(report)}, ${report.shop.timeZone} time`, { width });
   doc.fontSize(typeSizes.body).fillColor(pdfColors.iron);
   if (report.week.note) doc.text(report.week.note, { width });
   if (Date.parse(report.week.periodEnd) < Date.parse(report.week.to)) {
@@ -102,9 +94,11 @@ function drawShopWide(doc: PDFKit.PDFDocument, report: WeekReport, width: number
   for (const [label, value] of shopRows(report)) {
     const rowTop = doc.y;
     doc.font(FONT_REGULAR).fontSize(typeSizes.body).fillColor(pdfColors.iron);
-    doc.text(label, left + 8, rowTop, { width: 162 });
+    doc.text(label, left + 8, rowTop, { width: LABEL_WIDTH_PT - 12 });
     const labelBottom = doc.y;
-    doc.fillColor(pdfColors.ink).text(value, left + 170, rowTop, { width: width - 178 });
+    doc.fillColor(pdfColors.ink).text(value, left + LABEL_WIDTH_PT, rowTop, {
+      width: width - LABEL_WIDTH_PT - 8,
+    });
     doc.y = Math.max(doc.y, labelBottom) + 2;
   }
   doc.text(report.shopWide.verdict, left + 8, doc.y + 2, { width: width - 16 });

@@ -205,8 +205,11 @@ export function drawMarginChart(
       .fontSize(small)
       .fillColor(pdfColors.iron)
       .text(text, left, y - small / 2, { width: GUTTER_PT - 4, align: 'right', lineBreak: false });
-  yLabel(formatMargin(geometry.hiK, unit), box.y + small / 2);
-  yLabel(formatMargin(geometry.loK, unit), bottom - small / 2);
+  // An empty chart gets no scale: numbers there would describe nothing.
+  if (geometry.lines.length > 0) {
+    yLabel(formatMargin(geometry.hiK, unit), box.y + small / 2);
+    yLabel(formatMargin(geometry.loK, unit), bottom - small / 2);
+  }
   if (geometry.zeroY - box.y > small * 1.5 && bottom - geometry.zeroY > small * 1.5) {
     yLabel(formatMargin(0, unit), geometry.zeroY);
   }

@@ -1,7 +1,8 @@
 /**
- * The PDF's own phrasing of the week report's figures, in the reader's unit. Numbers go through
- * ingest/words' formatters (°C/°F, margins as differences); the times come in already written in
- * the shop's time zone by the caller, so these stay pure.
+ * The PDF's rows of the week report's figures, in the reader's unit. Every number goes through
+ * ingest/words' formatters (°C/°F, margins as differences, hours, minutes to acknowledge) and the
+ * week report's own words (ingest/words/report.ts), so the PDF, the CSV, the screen and the mail
+ * read alike; the times come in already written in the shop's time zone.
  */
 import { ALARM_KINDS } from '@/ingest/alarmKinds';
 import type { Level } from '@/ingest/wire/levels';
@@ -12,27 +13,16 @@ import type {
   MinMeanMax,
   TimeOfWetnessFigures,
 } from '@/ingest/wire/reports';
-import type { TowCategory } from '@/ingest/wetness';
 import {
   ALARM_KIND_WORDS,
   LEVEL_WORDS,
   MISSING,
+  REPORT_COLUMNS,
+  formatAckMinutes,
+  formatHours,
   formatPercent,
   formatTemperature,
 } from '@/ingest/words';
-
-/** Hours with one decimal: a 15 min gap cap makes finer steps meaningless. "12.5 h". */
-export function hoursText(hours: number): string {
-  return `${hours.toFixed(1)} h`;
-}
-
-/** "12 min", "2 h 05 min", "—". */
-export function minutesText(minutes: number | null): string {
-  if (minutes === null || !Number.isFinite(minutes)) return MISSING;
-  const whole = Math.round(minutes);
-  if (whole < 60) return `${whole} min`;
-  return `${Math.floor(whole / 60)} h ${String(whole % 60).padStart(2, '0')} min`;
-}
 
 /** "8.1 °C / 12.3 °C / 17.0 °C" — lowest, time-weighted mean, highest. */
 export function temperatureRangeText(values: MinMeanMax, unit: UnitPref): string {
@@ -46,9 +36,9 @@ export function percentRangeText(values: MinMeanMax, digits = 0): string {
 
 export const LEVEL_ORDER: readonly Level[] = ['dry', 'close', 'wet', 'unknown'];
 
-/** "150.0 / 12.5 / 1.5 / 4.0 h" in the order dry / close / wet / unknown. */
+/** "150 h / 12.5 h / 1.5 h / 4 h" in the order dry / close / wet / unknown. */
 export function levelHoursText(hours: LevelHours): string {
-  return `${LEVEL_ORDER.map((level) => hours[level].toFixed(1)).join(' / ')} h`;
+  return LEVEL_ORDER.map((level) => formatHours(hours[level])).join(' / ');
 }
 
 /** The worst level the zone spent any time in; unknown when it had no surface data at all. */
@@ -59,16 +49,19 @@ export function worstLevel(hours: LevelHours): Level {
   return 'unknown';
 }
 
-/** ISO 9223:1992 writes its time-of-wetness categories τ1 … τ5. */
-export function towCategoryText(category: TowCategory): string {
-  return `τ${category.slice(1)}`;
+/** A column of the shared report list, by key: its label and its cell, as the CSV has them. */
+function column(key: string) {
+  const found = REPORT_COLUMNS.find((c) => c.key === key);
+  if (!found) throw new Error(`report column ${key} is missing from ingest/words/report.ts`);
+  return found;
 }
 
-/** "12.5 h; 650 h a year at this rate: ISO 9223 τ3 (from one week)". */
+/** "12.5 h; 652 h a year at this rate, category T3 (one week only: an indication)". */
 export function timeOfWetnessText(tow: TimeOfWetnessFigures): string {
-  const week = hoursText(tow.hours);
+  const week = formatHours(tow.hours);
   if (tow.annualHours === null || tow.category === null) return week;
-  return `${week}; ${Math.round(tow.annualHours)} h a year at this rate: ISO 9223 ${towCategoryText(tow.category)} (from one week)`;
+  // Upper case as the CSV's category column writes it ("T3").
+  return `${week}; ${formatHours(Math.round(tow.annualHours))} a year at this rate, category ${tow.category.toUpperCase()} (one week only: an indication)`;
 }
 
 /** "3 opened (Dew risk 2, Wet surface 1)", "none". */
@@ -77,27 +70,34 @@ export function alarmsOpenedText(alarms: AlarmWeekFigures): string {
   const kinds = ALARM_KINDS.filter((kind) => alarms.openedByKind[kind] > 0).map(
     (kind) => `${ALARM_KIND_WORDS[kind]} ${alarms.openedByKind[kind]}`,
   );
-  return `${alarms.opened} opened (${kinds.join(', ')})`;
+  return `${alarms.opened} opened (${kinds.join(', ')}), ${alarms.acknowledged} acknowledged`;
 }
 
-/** "12 min / 40 min; 1 not acknowledged". */
+export const ackOrMissing = (minutes: number | null) =>
+  minutes === null ? MISSING : formatAckMinutes(minutes);
+
+/** "12 min / 1.6 h; 1 not acknowledged". */
 export function ackText(alarms: AlarmWeekFigures): string {
   if (alarms.opened === 0) return MISSING;
-  const times = `${minutesText(alarms.medianAckMinutes)} / ${minutesText(alarms.longestAckMinutes)}`;
+  const times = `${ackOrMissing(alarms.medianAckMinutes)} / ${ackOrMissing(alarms.longestAckMinutes)}`;
   return alarms.unacknowledged > 0 ? `${times}; ${alarms.unacknowledged} not acknowledged` : times;
 }
 
-/** The figures table's labels; each names its unit or its parts' order. */
+/** The shared label of the time-of-wetness column without its unit: the value carries "h". */
+const towLabel = column('tow_hours')
+  .label('C')
+  .replace(/ \(h\)$/, '');
+
+/** The figures table's labels; the values carry their units. */
 export const PDF_LABELS = {
   coverage: 'Data coverage',
   air: 'Air min / mean / max',
   rh: 'RH min / mean / max',
   lowestMargin: 'Lowest dew margin',
   levelHours: `Hours ${LEVEL_ORDER.map((l) => LEVEL_WORDS[l].toLowerCase()).join(' / ')}`,
-  timeOfWetness: 'Time of wetness',
+  timeOfWetness: towLabel,
   emc: 'Wood EMC min / mean / max',
   alarms: 'Alarms',
   ack: 'To acknowledge median / longest',
   silent: 'Silent periods',
-  verdict: 'Verdict',
 } as const;

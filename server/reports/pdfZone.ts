@@ -7,7 +7,7 @@ import { formatInTimeZone } from 'date-fns-tz';
 
 import type { ReadingPoint } from '@/ingest/wire/readings';
 import type { WeekReport, ZoneWeekFigures } from '@/ingest/wire/reports';
-import { LEVEL_WORDS, formatMargin, formatPercent } from '@/ingest/words';
+import { LEVEL_WORDS, formatHours, formatMargin, formatPercent } from '@/ingest/words';
 
 import { CHART_HEIGHT_PT, drawMarginChart } from './pdfChart';
 import { FONT_BOLD, FONT_REGULAR, levelPdfColors, pdfColors, typeSizes } from './pdfLayout';
@@ -15,7 +15,6 @@ import {
   PDF_LABELS,
   ackText,
   alarmsOpenedText,
-  hoursText,
   levelHoursText,
   percentRangeText,
   temperatureRangeText,
@@ -23,7 +22,8 @@ import {
   worstLevel,
 } from './pdfWords';
 
-const LABEL_WIDTH_PT = 185;
+/** The label column of the figures tables (the zones' and the whole shop's). */
+export const LABEL_WIDTH_PT = 185;
 const ROW_GAP_PT = 2;
 const SECTION_GAP_PT = 16;
 const MAX_SILENT_LISTED = 4;
@@ -43,7 +43,7 @@ function silentText(zone: ZoneWeekFigures, timeZone: string): string {
     .map((p) => `${shopClock(p.from, timeZone)} – ${shopClock(p.to, timeZone)}`);
   const more = zone.silentPeriods.length - listed.length;
   return [
-    `${zone.silentPeriods.length} (${hoursText(total)}):`,
+    `${zone.silentPeriods.length} (${formatHours(total)}):`,
     ...listed,
     ...(more > 0 ? [`and ${more} more`] : []),
   ].join('\n');

@@ -67,6 +67,26 @@ function alarmFigures(row: AlarmWeekRow | undefined): AlarmWeekFigures {
 
 const iso = (ms: number) => new Date(ms).toISOString();
 
+/**
+ * Zones per statement: a week of 1-minute data is ~10,000 rows a zone and one statement runs on
+ * one core, so a shop's zones are split over a few connections that PostgreSQL runs side by
+ * side (measured: 10 zones' week ~120 ms of CPU in one statement).
+ */
+const ZONES_PER_STATEMENT = 4;
+
+async function figuresInParallel(
+  db: Db,
+  zoneIds: string[],
+  period: Parameters<typeof zoneWeekFigures>[2],
+) {
+  const groups: string[][] = [];
+  for (let i = 0; i < zoneIds.length; i += ZONES_PER_STATEMENT) {
+    groups.push(zoneIds.slice(i, i + ZONES_PER_STATEMENT));
+  }
+  const parts = await Promise.all(groups.map((ids) => zoneWeekFigures(db, ids, period)));
+  return new Map(parts.flatMap((part) => [...part]));
+}
+
 /** Null when the shop does not exist. */
 export async function buildWeekReport(db: Db, input: WeekReportInput): Promise<WeekReport | null> {
   const shop = await reportShop(db, input.shopId);
@@ -78,7 +98,7 @@ export async function buildWeekReport(db: Db, input: WeekReportInput): Promise<W
   const periodMs = endMs - week.fromMs;
   const zones = await reportZones(db, shop.id);
   const [figures, alarms] = await Promise.all([
-    zoneWeekFigures(
+    figuresInParallel(
       db,
       zones.map((z) => z.id),
       { fromMs: week.fromMs, endMs, maxGapMs: TOW_MAX_GAP_MS },

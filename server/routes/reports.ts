@@ -51,17 +51,18 @@ export function reportsRouter(db: Db, now: () => number): Router {
     });
     if (!report) throw new ApiError(404, 'shop_not_found', 'No such shop.');
 
-    const filename = `drybench-week-${start}.${q.format}`;
+    // `start` is a checked date, so the name needs no escaping; quoted as the contract shows it.
+    const disposition = `attachment; filename="drybench-week-${start}.${q.format}"`;
     if (q.format === 'csv') {
       res.type('text/csv; charset=utf-8');
-      res.attachment(filename);
+      res.setHeader('Content-Disposition', disposition);
       return void res.send(weekReportCsv(report));
     }
     if (q.format === 'pdf') {
       const series = await weekReportSeries(db, report);
       const pdf = await renderWeekReportPdf({ report, series });
       res.type('application/pdf');
-      res.attachment(filename);
+      res.setHeader('Content-Disposition', disposition);
       return void res.send(pdf);
     }
     res.json(report satisfies WeekReport);

@@ -45,7 +45,7 @@ export const CHICAGO_WEEK: ShopWeek = {
   from: '2026-03-02T06:00:00.000Z',
   to: '2026-03-09T05:00:00.000Z',
   hours: 167,
-  note: 'This week has 167 hours: clocks went forward on Sun 8 Mar.',
+  note: 'This week had 167 hours: clocks went forward on Sunday 8 March.',
 };
 
 export function machineRoom(hours: number): ZoneWeekFigures {
