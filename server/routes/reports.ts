@@ -21,6 +21,8 @@ const weekQuery = z
       .string()
       .refine(isCalendarDate, 'Give the date as YYYY-MM-DD (a real date)')
       .refine(isMonday, 'A week starts on a Monday: give that Monday')
+      // Readings are refused before 2000 (the ingest contract), so no earlier week has any.
+      .refine((d) => d >= '2000-01-03', 'Give a week from 2000 on (the first Monday: 2000-01-03)')
       .optional(),
     format: z.enum(REPORT_FORMATS).default('json'),
   })

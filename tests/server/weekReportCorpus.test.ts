@@ -31,6 +31,8 @@ describe('week report query corpus', () => {
     // 2030-01-07 is a Monday (2030-01-01 is a Tuesday), years after the current week.
     ['start in the far future', 'start=2030-01-07', 'start'],
     ['start not a date', 'start=abc', 'start'],
+    // A Monday, but before any reading can exist (the ingest contract refuses years before 2000).
+    ['start before 2000', 'start=1999-12-27', 'start'],
     ['start empty', 'start=', 'start'],
     ['start with a time', 'start=2026-03-23T00:00:00Z', 'start'],
     ['start given twice (an array)', 'start=2026-03-23&start=2026-03-30', 'start'],
