@@ -287,18 +287,46 @@ describe('a delivery that fails before any mail left', () => {
   });
 });
 
+describe('a relay that refuses one recipient after another got the mail', () => {
+  it('records the week as sent to those who got it and mails nobody twice', async () => {
+    const p = await shopWithPeople('Birchwood Row', 'America/Chicago', '2026-09-15T12:00:00Z');
+    // Chicago, Monday 21 September 2026 07:00 CDT = 12:00Z: the week of 14 September is due.
+    const nowMs = iso('2026-09-21T12:00:00Z');
+    const refusingF: Mailer = {
+      send: (message: MailMessage) =>
+        message.to === p.memberF.email
+          ? Promise.reject(new Error(`550 mailbox unavailable: ${message.to}`))
+          : t.mailer.send(message),
+    };
+    const report = await deliverWeekReportMail(
+      depsOf(t, nowMs, refusingF),
+      p.owner.shopId,
+      '2026-09-14',
+    );
+    expect(report).toEqual({ outcome: 'sent', sent: 1 });
+    await waitForMail(t.outbox, p.owner.email, { subject: WEEK_SUBJECT });
+    const row = await findWeekReportMail(t.db, p.owner.shopId, '2026-09-14');
+    expect(row?.recipients).toBe(1);
+    // Later sweeps with a working relay do not send the owner a second copy.
+    await sweepWeekReportMails(depsOf(t, nowMs + 5 * MINUTE_MS));
+    await settle();
+    expect(countsOf(p)).toEqual({ owner: 1, memberF: 0, none: [0, 0, 0] });
+  });
+});
+
 describe('the schedule on pg-boss, twice started', () => {
   const bosses: PgBoss[] = [];
   afterAll(async () => {
     await Promise.all(bosses.map((b) => b.stop({ graceful: false, wait: true })));
   });
 
-  it('works sweeps from both instances and still mails each recipient once', async () => {
+  it('works sweeps from both instances, catches up after a down Monday, mails each once', async () => {
     const p = await shopWithPeople('Alder Hollow Mill', 'Europe/Berlin', '2026-06-01T08:00:00Z');
-    // Berlin, Monday 15 June 2026 07:00 CEST = 05:00Z: the week of 8 June is due.
-    const nowMs = iso('2026-06-15T05:00:00Z');
+    // Both servers were down on Monday 15 June and come back on Wednesday 17 June, 11:00 CEST
+    // (09:00Z): the week of 8 June is still due (until Monday 22 June 07:00) and goes now.
+    const nowMs = iso('2026-06-17T09:00:00Z');
     // Two runners without cron on a schema of this file's own (no other file's worker takes
-    // these jobs), each working the queue with the clock at 07:00.
+    // these jobs), each working the queue with that clock.
     // One after the other: the first start installs pg-boss's schema.
     for (const app of [t, t2]) {
       const boss = await startJobRunner({
@@ -330,6 +358,6 @@ describe('the schedule on pg-boss, twice started', () => {
     expect(countsOf(p)).toEqual({ owner: 1, memberF: 1, none: [0, 0, 0] });
     expect(
       (await findWeekReportMail(t.db, p.owner.shopId, '2026-06-08'))?.sentAt?.toISOString(),
-    ).toBe('2026-06-15T05:00:00.000Z');
+    ).toBe('2026-06-17T09:00:00.000Z');
   });
 });
