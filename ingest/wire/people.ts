@@ -20,6 +20,8 @@ export interface User {
   unitPref: UnitPref;
   /** Whether alarm e-mails reach this person in shops where they are an owner or member. */
   alarmMail: boolean;
+  /** Whether the week report reaches this person by e-mail on Mondays (owner or member). */
+  weekReportMail: boolean;
   /** Whether the address is proved; alarm and report e-mails wait for it. */
   emailVerified: boolean;
 }

@@ -9,3 +9,4 @@ export * from './levels';
 export * from './rules';
 export * from './paper';
 export * from './report';
+export * from './weekMail';

@@ -27,6 +27,7 @@ export function toUser(row: UserRow): User {
     name: row.name,
     unitPref: row.unitPref,
     alarmMail: row.alarmMail,
+    weekReportMail: row.weekReportMail,
     emailVerified: row.emailVerifiedAt !== null,
   };
 }

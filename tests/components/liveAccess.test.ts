@@ -18,6 +18,7 @@ describe('an access message from the live hub', () => {
         name: 'U',
         unitPref: 'C',
         alarmMail: true,
+        weekReportMail: true,
         emailVerified: true,
       },
       shops: [{ id: 'a', name: 'A', role: 'member', timeZone: 'UTC', paperSize: 'a4' }],

@@ -116,6 +116,7 @@ const USER: Keys<User> = {
   name: true,
   unitPref: true,
   alarmMail: true,
+  weekReportMail: true,
   emailVerified: true,
 };
 const USER_RESPONSE: Keys<UserResponse> = { user: true };
