@@ -17,8 +17,14 @@ export function alarmsHref(shopId: string): string {
   return `${shopHref(shopId)}/alarms`;
 }
 
+/** A shop's week report; with `week` (its Monday, YYYY-MM-DD) that week, else the last one. */
+export function reportHref(shopId: string, week?: string): string {
+  const path = `${shopHref(shopId)}/report`;
+  return week ? `${path}?week=${encodeURIComponent(week)}` : path;
+}
+
 /** The pages reached from a shop's navigation. */
-export type ShopSection = 'zones' | 'alarms' | 'sensors' | 'shop' | 'profile';
+export type ShopSection = 'zones' | 'alarms' | 'report' | 'sensors' | 'shop' | 'profile';
 
 export function shopSectionHref(shopId: string, section: ShopSection): string {
   switch (section) {
@@ -26,6 +32,8 @@ export function shopSectionHref(shopId: string, section: ShopSection): string {
       return shopHref(shopId);
     case 'alarms':
       return alarmsHref(shopId);
+    case 'report':
+      return reportHref(shopId);
     case 'sensors':
       return `${shopHref(shopId)}/sensors`;
     case 'shop':

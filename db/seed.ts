@@ -6,6 +6,7 @@
  */
 import { eq, sql } from 'drizzle-orm';
 
+import { defaultPaperSize } from '@/ingest/paperSize';
 import type { ZonePurpose } from '@/ingest/wire';
 
 import type { Db } from './index';
@@ -62,7 +63,10 @@ export async function seedDemo(
       .where(eq(shops.name, DEMO_SHOP.name));
     if (existing) return false;
     const passwordHash = await credentials.hashPassword(DEMO_PASSWORD);
-    const [shop] = await tx.insert(shops).values(DEMO_SHOP).returning({ id: shops.id });
+    const [shop] = await tx
+      .insert(shops)
+      .values({ ...DEMO_SHOP, paperSize: defaultPaperSize(DEMO_SHOP.timeZone) })
+      .returning({ id: shops.id });
     for (const person of DEMO_PEOPLE) {
       const [user] = await tx
         .insert(users)

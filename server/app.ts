@@ -33,6 +33,7 @@ import { invitationsRouter } from './routes/invitations';
 import { meRouter } from './routes/me';
 import { membersRouter } from './routes/members';
 import { readingsRouter } from './routes/readings';
+import { reportsRouter } from './routes/reports';
 import { sensorsRouter } from './routes/sensors';
 import { shopsRouter } from './routes/shops';
 import { zonesRouter } from './routes/zones';
@@ -117,6 +118,7 @@ export function createApp(deps: AppDeps): express.Express {
   api.use('/shops/:shopId/zones', zonesRouter(db, tokens));
   api.use('/shops/:shopId/sensors', sensorsRouter(db, tokens));
   api.use('/shops/:shopId/alarms', alarmsRouter(db, deps.pool, now));
+  api.use('/shops/:shopId/reports', reportsRouter(db, now));
   api.use('/shops/:shopId', membersRouter(db));
   api.use(invitationsRouter(people));
   api.use(notFound);

@@ -17,6 +17,7 @@ import {
   createAlarmMailQueue,
   queueAlarmMails,
   scheduleAlarmSweep,
+  scheduleWeekReportMails,
   startJobRunner,
   workAlarmMails,
 } from './jobs';
@@ -84,6 +85,14 @@ async function main() {
   await listener.ready;
   await scheduleAlarmSweep(jobs, alarms, { logger });
   await workAlarmMails(jobs, {
+    db,
+    pool,
+    mailer: mail.mailer,
+    publicUrl: config.publicUrl,
+    logger,
+  });
+  // Monday 07:00 shop time: last week's report to owners and members who keep it on.
+  await scheduleWeekReportMails(jobs, {
     db,
     pool,
     mailer: mail.mailer,

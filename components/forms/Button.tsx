@@ -14,6 +14,8 @@ interface ButtonProps {
    * ("Withdraw the invitation to ana@…" for a "Withdraw" among several); it starts with the label.
    */
   accessibilityLabel?: string;
+  /** Work started by the press is under way: announced as busy (aria-busy); pair it with disabled. */
+  busy?: boolean;
   /** The pressable, so a caller can move focus to it. */
   ref?: Ref<View>;
   testID?: string;
@@ -25,6 +27,7 @@ export function Button({
   disabled = false,
   variant = 'primary',
   accessibilityLabel,
+  busy = false,
   ref,
   testID,
 }: ButtonProps) {
@@ -35,8 +38,9 @@ export function Button({
       accessibilityRole="button"
       accessibilityLabel={accessibilityLabel}
       aria-label={accessibilityLabel}
-      accessibilityState={{ disabled }}
+      accessibilityState={{ disabled, busy }}
       aria-disabled={disabled}
+      aria-busy={busy || undefined}
       disabled={disabled}
       onPress={onPress}
       testID={testID}

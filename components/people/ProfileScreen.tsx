@@ -33,7 +33,7 @@ const UNIT_OPTIONS: readonly { value: UnitPref; label: string }[] = [
 
 /**
  * The signed-in person: name, whether the address is verified, temperature units, alarm
- * e-mails, password, signing out.
+ * e-mails, the Monday week-report e-mail, password, signing out.
  */
 export function ProfileScreen() {
   const shop = useFrameShop();
@@ -62,6 +62,7 @@ function ProfileBody({ user }: { user: User }) {
         <FormError message={profile.error?.message} />
       </Panel>
       <AlarmMailPanel user={user} />
+      <WeekReportMailPanel user={user} />
       <AlarmNotificationPanel />
       <PasswordForm />
       <Panel title="Sign out" hint="Ends your sessions on every device.">
@@ -112,6 +113,44 @@ function AlarmMailPanel({ user }: { user: User }) {
           : user.emailVerified
             ? `On: alarm e-mails go to ${user.email}.`
             : `On: alarm e-mails go to ${user.email} once the address is verified.`}
+      </Text>
+      <FormError message={profile.error?.message} />
+    </Panel>
+  );
+}
+
+const WEEK_MAIL_LABEL = 'Week report e-mail on Mondays';
+const WEEK_MAIL_HINT =
+  'For shops where you are an owner or member: last week’s report, Monday to Monday in the shop’s time zone, at 07:00 shop time each Monday, with the PDF attached.';
+
+/** The on/off for the Monday week report; the server reads it when each Monday's mail goes. */
+function WeekReportMailPanel({ user }: { user: User }) {
+  const profile = useProfileMutation();
+  return (
+    <Panel title="Week report e-mail" hint={WEEK_MAIL_HINT}>
+      <View style={styles.switchRow}>
+        <Text style={[type.body, styles.switchLabel]} nativeID="profile-week-mail-label">
+          {WEEK_MAIL_LABEL}
+        </Text>
+        <Switch
+          value={user.weekReportMail}
+          onValueChange={(weekReportMail) => profile.mutate({ weekReportMail })}
+          disabled={profile.isPending}
+          accessibilityLabel={WEEK_MAIL_LABEL}
+          aria-labelledby="profile-week-mail-label"
+          trackColor={{ false: colors.border, true: colors.dry }}
+          thumbColor={colors.card}
+          {...WEB_SWITCH_COLORS}
+          style={styles.switch}
+          testID="profile-week-mail"
+        />
+      </View>
+      <Text style={type.small} role="status" testID="profile-week-mail-status">
+        {!user.weekReportMail
+          ? 'Off: no week report e-mails.'
+          : user.emailVerified
+            ? `On: the week report goes to ${user.email} on Mondays.`
+            : `On: the week report goes to ${user.email} once the address is verified.`}
       </Text>
       <FormError message={profile.error?.message} />
     </Panel>

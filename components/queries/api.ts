@@ -34,7 +34,8 @@ export function isSignedOut(error: unknown): boolean {
   return isApiError(error, 401);
 }
 
-function parseErrorBody(status: number, body: unknown): ApiError {
+/** The server's error body (or a plain one when the body is not the shared shape) as an ApiError. */
+export function parseErrorBody(status: number, body: unknown): ApiError {
   if (typeof body === 'object' && body !== null && 'error' in body) {
     const error = (body as { error: unknown }).error;
     if (typeof error === 'object' && error !== null) {

@@ -4,6 +4,7 @@ export {
   apiRequest,
   isApiError,
   isSignedOut,
+  parseErrorBody,
   type ApiErrorDetail,
 } from './api';
 export {
@@ -125,3 +126,24 @@ export {
   type AlarmListState,
   type AlarmsResponse,
 } from './alarms';
+export {
+  WEEK_CHART_POINTS,
+  fetchWeekReportFile,
+  filenameFromDisposition,
+  reportKeys,
+  useWeekReadingsQuery,
+  useWeekReportQuery,
+  weekReadingsQueryOptions,
+  weekReportPath,
+  weekReportQueryOptions,
+  type AlarmWeekFigures,
+  type LevelHours,
+  type MinMeanMax,
+  type ReportFile,
+  type ReportFormat,
+  type ShopWeekFigures,
+  type SilentPeriod,
+  type TimeOfWetnessFigures,
+  type WeekReport,
+  type ZoneWeekFigures,
+} from './reports';

@@ -48,8 +48,12 @@ export function findShop(me: Me | undefined, shopId: string): ShopSummary | unde
 export function useProfileMutation() {
   const queryClient = useQueryClient();
   return useMutation({
-    mutationFn: (input: { name?: string; unitPref?: UnitPref; alarmMail?: boolean }) =>
-      apiRequest<UserResponse>('/api/v1/me', { method: 'PATCH', body: input }),
+    mutationFn: (input: {
+      name?: string;
+      unitPref?: UnitPref;
+      alarmMail?: boolean;
+      weekReportMail?: boolean;
+    }) => apiRequest<UserResponse>('/api/v1/me', { method: 'PATCH', body: input }),
     onSuccess: ({ user }) =>
       queryClient.setQueryData<Me>(meKeys.all, (me) => (me ? { ...me, user } : me)),
   });

@@ -2,6 +2,7 @@
 import { useMutation, useQueryClient } from '@tanstack/react-query';
 
 import type { Shop, ShopSummary } from '@/ingest/wire';
+import type { PaperSize } from '@/ingest/wire/reports';
 
 import { apiRequest } from './api';
 import { meKeys } from './me';
@@ -22,7 +23,7 @@ export function useShopCreateMutation() {
 export function useShopUpdateMutation(shopId: string) {
   const queryClient = useQueryClient();
   return useMutation({
-    mutationFn: (input: { name?: string; timeZone?: string }) =>
+    mutationFn: (input: { name?: string; timeZone?: string; paperSize?: PaperSize }) =>
       apiRequest<ShopSummary>(shopPath(shopId), { method: 'PATCH', body: input }),
     onSuccess: () => queryClient.invalidateQueries({ queryKey: meKeys.all }),
   });

@@ -49,6 +49,13 @@ const SHOP_PAGES: Record<string, ShopFramePage> = {
   index: ZONES_PAGE,
   zones: ZONES_PAGE,
   alarms: { active: 'alarms', title: 'Alarms', heading: 'Alarms', wide: true, banner: false },
+  report: {
+    active: 'report',
+    title: 'Week report',
+    heading: 'Week report',
+    wide: true,
+    banner: false,
+  },
   sensors: { active: 'sensors', title: 'Sensors', heading: 'Sensors', wide: false, banner: false },
   settings: {
     active: 'shop',

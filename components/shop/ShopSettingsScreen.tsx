@@ -35,16 +35,20 @@ import { colors, space, type } from '@/components/theme';
 import { canonicalTimeZone } from '@/ingest/timeZones';
 import { Panel, useDocumentTitle } from '@/components/ui';
 import { ZONE_PURPOSES } from '@/ingest/wire/zones';
-import { PURPOSE_WORDS } from '@/ingest/words';
+import { PAPER_SIZE_WORDS, PURPOSE_WORDS } from '@/ingest/words';
 
 import { useFrameShop } from './ShopFrame';
+import { PaperSizeForm } from './PaperSizeForm';
 import { ShopTabs } from './ShopTabs';
 import { ZoneLimitsForm } from './ZoneLimitsForm';
 import { ZonePurposeForm } from './ZonePurposeForm';
 
 const NEW_ZONE_PURPOSES = ZONE_PURPOSES.map((value) => ({ value, label: PURPOSE_WORDS[value] }));
 
-/** The shop's name and time zone, its zones and their limits, leaving and deleting it. */
+/**
+ * The shop's name and time zone, the week report's paper, its zones and their limits, leaving and
+ * deleting it.
+ */
 export function ShopSettingsScreen() {
   const shop = useFrameShop();
   useDocumentTitle('Shop settings', shop.name);
@@ -59,10 +63,16 @@ function SettingsBody({ shop }: { shop: ShopSummary }) {
     <>
       <ShopTabs shop={shop} current="settings" />
       {owner ? (
-        <ShopForm shop={shop} />
+        <>
+          <ShopForm shop={shop} />
+          <Panel title="Week report" testID="report-settings">
+            <PaperSizeForm shop={shop} />
+          </Panel>
+        </>
       ) : (
         <Panel title={shop.name}>
           <Text style={type.body}>Time zone: {shop.timeZone}</Text>
+          <Text style={type.body}>Report paper: {PAPER_SIZE_WORDS[shop.paperSize]}</Text>
           <Text style={type.body}>Your role: {shop.role}</Text>
         </Panel>
       )}

@@ -10,7 +10,13 @@ type Executor = Pick<Db, 'execute'>;
 
 export async function listShopsOfUser(db: Db, userId: string) {
   return db
-    .select({ id: shops.id, name: shops.name, timeZone: shops.timeZone, role: memberships.role })
+    .select({
+      id: shops.id,
+      name: shops.name,
+      timeZone: shops.timeZone,
+      paperSize: shops.paperSize,
+      role: memberships.role,
+    })
     .from(memberships)
     .innerJoin(shops, eq(shops.id, memberships.shopId))
     .where(eq(memberships.userId, userId))

@@ -1,5 +1,7 @@
 import { eq } from 'drizzle-orm';
 
+import type { PaperSize } from '@/ingest/wire/reports';
+
 import type { Db } from '../index';
 import { memberships, shops } from '../schema';
 
@@ -7,12 +9,17 @@ import { notifyAccessChanged } from './memberships';
 import { tokenHashesOfShop } from './sensors';
 import { transaction } from '../transaction';
 
-const shopColumns = { id: shops.id, name: shops.name, timeZone: shops.timeZone };
+const shopColumns = {
+  id: shops.id,
+  name: shops.name,
+  timeZone: shops.timeZone,
+  paperSize: shops.paperSize,
+};
 
 /** Creates a shop and makes its creator the owner, in one transaction. */
 export async function createShopWithOwner(
   db: Db,
-  input: { name: string; timeZone: string },
+  input: { name: string; timeZone: string; paperSize?: PaperSize },
   ownerId: string,
 ) {
   return transaction(db, async (tx) => {
@@ -32,7 +39,7 @@ export async function findShop(db: Db, shopId: string) {
 export async function updateShop(
   db: Db,
   shopId: string,
-  changes: { name?: string; timeZone?: string },
+  changes: { name?: string; timeZone?: string; paperSize?: PaperSize },
 ) {
   const [row] = await db
     .update(shops)

@@ -11,6 +11,8 @@ export interface UserRow {
   unitPref: TemperatureUnitPref;
   /** Whether alarm e-mails reach this person (as an owner or member of a shop). */
   alarmMail: boolean;
+  /** Whether the Monday week-report e-mail reaches this person (owner or member). */
+  weekReportMail: boolean;
   /** When the person proved the address (verification or invitation link); mail waits for it. */
   emailVerifiedAt: Date | null;
 }
@@ -21,6 +23,7 @@ const publicColumns = {
   name: users.name,
   unitPref: users.unitPref,
   alarmMail: users.alarmMail,
+  weekReportMail: users.weekReportMail,
   emailVerifiedAt: users.emailVerifiedAt,
 };
 
@@ -78,7 +81,12 @@ export async function findSessionState(db: Db, userId: string, shopId?: string) 
 export async function updateProfile(
   db: Db,
   userId: string,
-  changes: { name?: string; unitPref?: TemperatureUnitPref; alarmMail?: boolean },
+  changes: {
+    name?: string;
+    unitPref?: TemperatureUnitPref;
+    alarmMail?: boolean;
+    weekReportMail?: boolean;
+  },
 ): Promise<UserRow | null> {
   const [row] = await db
     .update(users)

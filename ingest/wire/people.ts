@@ -2,6 +2,7 @@
  * People and shops as the API answers them: GET/PATCH /me, sign-in and verification, shops,
  * members, invitations and invitation links. Times ISO 8601.
  */
+import type { PaperSize } from './reports';
 
 /** Owner: everything; member: acknowledge alarms, log care; viewer: read. */
 export const ROLES = ['owner', 'member', 'viewer'] as const;
@@ -19,6 +20,8 @@ export interface User {
   unitPref: UnitPref;
   /** Whether alarm e-mails reach this person in shops where they are an owner or member. */
   alarmMail: boolean;
+  /** Whether the week report reaches this person by e-mail on Mondays (owner or member). */
+  weekReportMail: boolean;
   /** Whether the address is proved; alarm and report e-mails wait for it. */
   emailVerified: boolean;
 }
@@ -39,6 +42,8 @@ export interface Shop {
 /** A shop with the reader's role in it: /me's list, GET and PATCH /shops/:shopId. */
 export interface ShopSummary extends Shop {
   role: Role;
+  /** The sheet the week report's PDF is laid out on; the owner changes it. */
+  paperSize: PaperSize;
 }
 
 export interface Me {

@@ -8,3 +8,6 @@ export * from './sensors';
 export * from './zones';
 export * from './levels';
 export * from './rules';
+export * from './paper';
+export * from './report';
+export * from './weekMail';

@@ -2,7 +2,7 @@
 import { parseArgs } from 'node:util';
 
 // `chart` runs last: it stores 10 M readings, which would slow every insert phase after it.
-export const PHASES = ['bare', 'raw', 'ingest1', 'ingest50', 'live', 'chart'] as const;
+export const PHASES = ['bare', 'raw', 'ingest1', 'ingest50', 'live', 'report', 'chart'] as const;
 export type Phase = (typeof PHASES)[number];
 
 export interface BenchOptions {

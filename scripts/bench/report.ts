@@ -12,6 +12,8 @@ export const TARGETS = {
   wsP99LoadedMs: { atMost: 50 },
   rssMb: { atMost: 250 },
   chartQueryP95Ms: { atMost: 20 },
+  weekReportMs: { atMost: 300 },
+  weekReportPdfMs: { atMost: 1000 },
 } as const;
 
 export type Figures = Record<keyof typeof TARGETS, number | null> & Record<string, unknown>;
@@ -29,6 +31,10 @@ export function figuresOf(r: BenchResult): Figures {
     wsP99LoadedMs: r.liveLoaded ? round(r.liveLoaded.delivery.p99Ms) : null,
     rssMb: round(r.peakRssMb, 0),
     chartQueryP95Ms: r.chart ? round(r.chart.p95Ms) : null,
+    // p95 over HTTP: a 10-zone shop's week of 1-minute readings (scripts/bench/weekReport.ts).
+    weekReportMs: r.weekReport ? round(r.weekReport.jsonP95Ms) : null,
+    weekReportPdfMs: r.weekReport?.pdfP95Ms != null ? round(r.weekReport.pdfP95Ms) : null,
+    weekReportPdfNote: r.weekReport?.pdfNote ?? null,
     rssAtStartMb: round(r.startRssMb, 0),
     date: r.startedAt.toISOString(),
     cpuCount: r.cpuCount,
@@ -184,6 +190,15 @@ export function formatReport(r: BenchResult): string {
         `(baseline, same run); p95 / target ${(c.p95Ms / TARGETS.chartQueryP95Ms.atMost).toFixed(2)}, ` +
         `p95 / baseline ${(c.p95Ms / c.baselineP95Ms).toFixed(3)}; pages touched per query ` +
         `${int(c.pages)} covering vs ${int(c.baselinePages)} plain`,
+    );
+  }
+
+  if (r.weekReport) {
+    const w = r.weekReport;
+    out.push(
+      `week report: ${int(w.readings)} readings (10 zones, 1 a minute, a week) inserted in ` +
+        `${w.insertS.toFixed(1)} s; JSON p50 ${ms(w.jsonP50Ms)} / p95 ${ms(w.jsonP95Ms)} ms; ` +
+        (w.pdfP95Ms === null ? `PDF not measured: ${w.pdfNote}` : `PDF p95 ${ms(w.pdfP95Ms)} ms`),
     );
   }
 

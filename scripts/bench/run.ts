@@ -18,6 +18,7 @@ import { freePort, machineCpuSeconds, memoryOf, startNodeChild, type Child } fro
 import { openRawInserter } from './rawInsert';
 import { createReadingSource, type ReadingSource } from './readings';
 import { coresOf, startCpuMeter, type CpuCores } from './usage';
+import { benchWeekReport, type WeekReportBench } from './weekReport';
 
 export interface LivePhase extends LiveLatencyResult {
   cpu: CpuCores;
@@ -37,6 +38,7 @@ export interface BenchResult {
   liveLoaded?: LivePhase & { background: PacedLoadResult };
   /** One zone's 7-day history with 10 M readings stored (scripts/bench/chartHistory.ts). */
   chart?: ChartQueryResult;
+  weekReport?: WeekReportBench;
   /** The Drybench server's resident memory once started and set up, before any load. */
   startRssMb: number;
   /** The Drybench server's peak resident memory over the whole run. */
@@ -180,6 +182,16 @@ export async function runBench(
     if (dbPair.length > 0) {
       progress(`${dbPair.map((c) => c.key).join(' and ')}, interleaved…`);
       Object.assign(result, await interleave(dbPair, timing));
+    }
+
+    // Before the live phases, so the report is timed without 200 sockets and background load.
+    if (has('report')) {
+      result.weekReport = await benchWeekReport({
+        url,
+        databaseUrl: database.url,
+        cookie: fixtures.cookie,
+        progress,
+      });
     }
 
     if (has('live')) {

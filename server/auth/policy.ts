@@ -81,4 +81,7 @@ export const POLICY: readonly PolicyRow[] = [
   // Alarms (API.md): everyone sees them; acknowledging is work done in the shop.
   { method: 'GET', path: '/shops/:shopId/alarms', access: 'viewer' },
   { method: 'POST', path: '/shops/:shopId/alarms/:alarmId/ack', access: 'member' },
+
+  // The week report: anyone in the shop reads it (a viewer may be the landlord it is for).
+  { method: 'GET', path: '/shops/:shopId/reports/week', access: 'viewer' },
 ];

@@ -9,3 +9,10 @@ export {
 } from './alarmMailJob';
 export { ALARM_SWEEP_CRON, ALARM_SWEEP_QUEUE, scheduleAlarmSweep } from './alarmSweep';
 export { startJobRunner, type JobRunnerOptions } from './runner';
+export {
+  createWeekReportQueue,
+  scheduleWeekReportMails,
+  WEEK_REPORT_CRON,
+  WEEK_REPORT_QUEUE,
+  type WeekReportJobOptions,
+} from './weekReportJob';

@@ -25,6 +25,12 @@ export function bulletList(items: readonly string[]): string {
   return `<ul style="margin:0 0 16px;padding-left:20px;${TEXT}">${li.join('')}</ul>`;
 }
 
+/** A list whose items are HTML already escaped (a bold lead and a sentence after it). */
+export function htmlList(itemsHtml: readonly string[]): string {
+  const li = itemsHtml.map((item) => `<li style="margin:0 0 10px">${item}</li>`);
+  return `<ul style="margin:0 0 16px;padding-left:20px;${TEXT}">${li.join('')}</ul>`;
+}
+
 /**
  * Cautions in a box of their own under a "Safety" heading: set apart by a border and by the word,
  * not by colour alone (some clients drop colours, some readers cannot tell them apart).

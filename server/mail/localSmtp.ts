@@ -37,7 +37,8 @@ export async function startLocalSmtpServer(options: {
     authOptional: true,
     disabledCommands: ['STARTTLS', 'AUTH'],
     logger: false,
-    size: 1024 * 1024,
+    // A week report's PDF (a page per few zones, the font embedded) rides along, base64 encoded.
+    size: 10 * 1024 * 1024,
     onData(stream, _session, callback) {
       simpleParser(stream)
         .then((parsed) => {
@@ -49,6 +50,11 @@ export async function startLocalSmtpServer(options: {
             subject: parsed.subject ?? '',
             text: parsed.text ?? '',
             html: typeof parsed.html === 'string' ? parsed.html : null,
+            attachments: parsed.attachments.map((a) => ({
+              filename: a.filename ?? '',
+              contentType: a.contentType,
+              content: a.content,
+            })),
           });
           // Never the text: reset and invitation mails carry their link in it.
           log.debug(

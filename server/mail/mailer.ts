@@ -1,11 +1,19 @@
 /** Sends mail over SMTP with nodemailer: the local server in development, a relay in production. */
 import nodemailer from 'nodemailer';
 
+/** A file sent with a message (the week report's PDF). */
+export interface MailAttachment {
+  filename: string;
+  contentType: string;
+  content: Buffer;
+}
+
 export interface MailMessage {
   to: string;
   subject: string;
   text: string;
   html: string;
+  attachments?: MailAttachment[];
 }
 
 export interface Mailer {

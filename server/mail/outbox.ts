@@ -11,6 +11,14 @@ export interface StoredMail {
   subject: string;
   text: string;
   html: string | null;
+  /** Files that came with the message (the week report's PDF), as received. */
+  attachments: StoredAttachment[];
+}
+
+export interface StoredAttachment {
+  filename: string;
+  contentType: string;
+  content: Buffer;
 }
 
 export interface Outbox {

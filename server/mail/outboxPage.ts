@@ -17,8 +17,20 @@ main{max-width:760px;margin:0 auto}article{background:#FFFDF8;border:1px solid #
 border-radius:10px;padding:16px;margin:0 0 16px}h1{font-size:18px}h2{font-size:16px;margin:0 0 4px}
 pre{white-space:pre-wrap;overflow-wrap:anywhere;margin:12px 0 0}a{color:#2C6E91}.meta{color:#56626B;font-size:12px}`;
 
+/** "drybench-week-2026-03-23.pdf (48 kB)" links, one per attached file. */
+function attachmentLinks(mail: StoredMail): string {
+  return mail.attachments
+    .map(
+      (a, i) =>
+        ` · <a href="/dev/outbox/${mail.id}/attachments/${i}">${escapeHtml(a.filename || `file ${i + 1}`)}</a> (${Math.ceil(a.content.length / 1024)} kB)`,
+    )
+    .join('');
+}
+
 function message(mail: StoredMail): string {
-  const html = mail.html ? ` · <a href="/dev/outbox/${mail.id}/html">HTML part</a>` : '';
+  const html =
+    (mail.html ? ` · <a href="/dev/outbox/${mail.id}/html">HTML part</a>` : '') +
+    attachmentLinks(mail);
   return `<article aria-label="${escapeHtml(mail.subject)}"><h2>${escapeHtml(mail.subject)}</h2>
 <div class="meta">to ${escapeHtml(mail.to.join(', '))} · from ${escapeHtml(mail.from)} · ${escapeHtml(mail.receivedAt)}${html}</div>
 <pre>${linkify(mail.text)}</pre></article>`;
@@ -43,6 +55,13 @@ ${list.length ? list.map(message).join('\n') : '<p>No mail yet.</p>'}</main></bo
       "sandbox allow-popups; default-src 'none'; style-src 'unsafe-inline'",
     );
     res.type('html').send(mail.html);
+  });
+  router.get('/dev/outbox/:id/attachments/:index', (req, res) => {
+    const file = outbox.get(req.params.id)?.attachments[Number(req.params.index)];
+    if (!file) return res.status(404).type('text').send('No such attachment.');
+    // Downloaded, never shown inline: the file came from a mail, not from this page.
+    res.attachment(file.filename || 'attachment');
+    res.type(file.contentType).send(file.content);
   });
   return router;
 }

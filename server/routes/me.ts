@@ -1,6 +1,6 @@
 /**
  * The signed-in person: GET /me (with their shops and whether the address is verified), profile
- * changes (name, units, alarm e-mails), password change and sending the verification link again.
+ * changes (name, units, alarm and week-report e-mails), password change and sending the verification link again.
  */
 import { Router } from 'express';
 import { z } from 'zod';
@@ -27,11 +27,16 @@ const profileBody = z
     name: personNameField.optional(),
     unitPref: unitPrefField.optional(),
     alarmMail: z.boolean('Send true or false').optional(),
+    weekReportMail: z.boolean('Send true or false').optional(),
   })
   .strict()
   .refine(
-    (b) => b.name !== undefined || b.unitPref !== undefined || b.alarmMail !== undefined,
-    'Change the name, the units or alarm e-mails',
+    (b) =>
+      b.name !== undefined ||
+      b.unitPref !== undefined ||
+      b.alarmMail !== undefined ||
+      b.weekReportMail !== undefined,
+    'Change the name, the units, alarm e-mails or the week report e-mail',
   );
 
 const passwordBody = z.object({

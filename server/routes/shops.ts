@@ -4,7 +4,9 @@ import { z } from 'zod';
 
 import type { Db } from '@/db';
 import { createShopWithOwner, deleteShop, findShop, updateShop } from '@/db/queries/shops';
+import { defaultPaperSize } from '@/ingest/paperSize';
 import { checkTimeZone } from '@/ingest/timeZones';
+import { PAPER_SIZES } from '@/ingest/wire/reports';
 
 import { roleOf, shopIdOf, userIdOf } from '../auth/middleware';
 import type { SensorTokenCache } from '../auth/sensorTokens';
@@ -34,11 +36,20 @@ const timeZone = z
     });
   });
 
+const paperSize = z.enum(PAPER_SIZES, { error: 'Choose a4 or letter' });
+
 const createShopBody = z.object({ name: shopName, timeZone });
 const updateShopBody = z
-  .object({ name: shopName.optional(), timeZone: timeZone.optional() })
+  .object({
+    name: shopName.optional(),
+    timeZone: timeZone.optional(),
+    paperSize: paperSize.optional(),
+  })
   .strict()
-  .refine((b) => b.name !== undefined || b.timeZone !== undefined, 'Change the name or time zone');
+  .refine(
+    (b) => b.name !== undefined || b.timeZone !== undefined || b.paperSize !== undefined,
+    'Change the name, time zone or paper size',
+  );
 const deleteShopBody = z.object({ confirmName: z.string().max(200) });
 
 const gone = () => new ApiError(404, 'shop_not_found', 'No such shop among yours.');
@@ -48,7 +59,12 @@ export function shopsRouter(db: Db, tokens: SensorTokenCache): Router {
 
   router.post('/', async (req, res) => {
     const body = parseInput(createShopBody, req.body);
-    const shop = await createShopWithOwner(db, body, userIdOf(res));
+    // The report's sheet follows where the shop is (ingest/paperSize.ts); the owner can change it.
+    const shop = await createShopWithOwner(
+      db,
+      { ...body, paperSize: defaultPaperSize(body.timeZone) },
+      userIdOf(res),
+    );
     res.status(201).json(toShop(shop));
   });
 

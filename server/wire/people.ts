@@ -27,6 +27,7 @@ export function toUser(row: UserRow): User {
     name: row.name,
     unitPref: row.unitPref,
     alarmMail: row.alarmMail,
+    weekReportMail: row.weekReportMail,
     emailVerified: row.emailVerifiedAt !== null,
   };
 }
@@ -36,7 +37,7 @@ export function toShop(row: Shop): Shop {
 }
 
 export function toShopSummary(row: ShopOfUserRow): ShopSummary {
-  return { ...toShop(row), role: row.role };
+  return { ...toShop(row), role: row.role, paperSize: row.paperSize };
 }
 
 export function toMember(row: MemberRow): Member {

@@ -18,9 +18,10 @@ describe('an access message from the live hub', () => {
         name: 'U',
         unitPref: 'C',
         alarmMail: true,
+        weekReportMail: true,
         emailVerified: true,
       },
-      shops: [{ id: 'a', name: 'A', role: 'member', timeZone: 'UTC' }],
+      shops: [{ id: 'a', name: 'A', role: 'member', timeZone: 'UTC', paperSize: 'a4' }],
     };
     client.setQueryData(meKeys.all, me);
     expect(client.getQueryState(meKeys.all)?.isInvalidated).toBe(false);

@@ -71,6 +71,7 @@ const SIGNED_IN: Route[] = [
   { name: 'zone-week', path: () => `${shop()}/zones/${zoneId}?range=7d` },
   { name: 'zone-custom', path: () => `${shop()}/zones/${zoneId}?range=custom` },
   { name: 'alarms', path: () => `${shop()}/alarms` },
+  { name: 'report', path: () => `${shop()}/report` },
   { name: 'sensors', path: () => `${shop()}/sensors` },
   { name: 'members', path: () => `${shop()}/members` },
   { name: 'settings', path: () => `${shop()}/settings` },

@@ -4,7 +4,8 @@
 // "Chicago" in the picker, and follows the checklist on the overview — zone, sensor, first
 // reading — each ticked as it happens, the list gone when all are done. The sole owner is told
 // why they cannot leave instead of being offered Leave. A zone added in one tab appears in
-// another open tab of the shop without a reload, and goes when it is deleted.
+// another open tab of the shop without a reload, and goes when it is deleted. The shop starts
+// on US Letter for its week report (a Chicago shop) and the owner can switch it to A4.
 import { randomUUID } from 'node:crypto';
 
 import AxeBuilder from '@axe-core/playwright';
@@ -180,6 +181,24 @@ describe.each([
     await page.getByTestId('zone-create-name').fill('Machine room');
     await page.getByTestId('zone-create-submit').click();
     await expect.poll(() => page.getByTestId('zone-edit-name').inputValue()).toBe('Machine room');
+    // A shop in Chicago starts on US Letter (ANSI, as paper is sold in the US); A4 is one tap.
+    const paperChecked = (size: 'a4' | 'letter') =>
+      page.getByTestId(`shop-edit-paper-${size}`).getAttribute('aria-checked');
+    const savedPaper = () =>
+      page.evaluate(async (url) => {
+        const res = await fetch(`/api/v1/shops/${url.split('/').at(-1)}`);
+        return ((await res.json()) as { paperSize: string }).paperSize;
+      }, shopUrl);
+    expect(await paperChecked('letter')).toBe('true');
+    expect(await page.getByTestId('report-settings').textContent()).toContain('8.5 × 11 in');
+    await page.getByTestId('shop-edit-paper-a4').click();
+    await expect.poll(() => paperChecked('a4')).toBe('true');
+    expect(await paperChecked('letter')).toBe('false');
+    expect(await savedPaper()).toBe('a4');
+    expect(await page.getByTestId('report-settings').textContent()).toContain('210 × 297 mm');
+    await page.getByTestId('shop-edit-paper-letter').click();
+    await expect.poll(() => paperChecked('letter')).toBe('true');
+    expect(await savedPaper()).toBe('letter');
     await shot('settings');
 
     await page.getByTestId('nav-zones').click();

@@ -81,3 +81,31 @@ describe('shop time zone', () => {
     expect(moved.body.timeZone).toBe(timeZone);
   });
 });
+
+// Bad-input corpus for the week report's paper (PATCH /shops/:id): 'a4' or 'letter' exactly;
+// anything else answers 400 with a field error on `paperSize` and changes nothing.
+const BAD_PAPERS: [what: string, paperSize: unknown][] = [
+  ['another ISO 216 size', 'A5'],
+  ['upper case', 'A4'],
+  ['a capitalised name', 'Letter'],
+  ['the label, not the value', 'US Letter'],
+  ['a number', 3],
+  ['null', null],
+  ['empty', ''],
+  ['an array', ['a4']],
+  ['an object', { size: 'a4' }],
+];
+
+describe('shop paper size', () => {
+  it.each(BAD_PAPERS)('refuses %s', async (_what, paperSize) => {
+    const before = await t.pool.query('select paper_size from shops where id = $1', [o.shopId]);
+    const res = await o.agent.patch(`/api/v1/shops/${o.shopId}`).send({ paperSize });
+    expect(res.status).toBe(400);
+    expect(res.body).toEqual(errorShape);
+    expect(res.body.error.code).toBe('invalid_input');
+    const detail = res.body.error.details.find((d: { path: string }) => d.path === 'paperSize');
+    expect(detail?.message).toMatch(/a4 or letter/);
+    const after = await t.pool.query('select paper_size from shops where id = $1', [o.shopId]);
+    expect(after.rows).toEqual(before.rows);
+  });
+});

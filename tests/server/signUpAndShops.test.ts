@@ -63,8 +63,15 @@ describe('people', () => {
       .expect(201);
     expect(shop.body).toMatchObject({ name: 'Birch Barn', timeZone: 'America/Denver' });
     const me = await agent.get('/api/v1/me').expect(200);
+    // Denver is in the US, so the week report starts on ANSI letter (ingest/paperSize.ts).
     expect(me.body.shops).toEqual([
-      { id: shop.body.id, name: 'Birch Barn', timeZone: 'America/Denver', role: 'owner' },
+      {
+        id: shop.body.id,
+        name: 'Birch Barn',
+        timeZone: 'America/Denver',
+        role: 'owner',
+        paperSize: 'letter',
+      },
     ]);
 
     const bad = await agent

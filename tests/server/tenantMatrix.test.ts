@@ -104,6 +104,8 @@ const SAMPLES: Record<string, Sample> = {
     status: { default: 404, anonymous: 201 },
   },
   'POST /shops/:shopId/alarms/:alarmId/ack': { body: () => ({ note: 'Wiped and covered' }) },
+  // The last complete week, as JSON, for everyone in the shop.
+  'GET /shops/:shopId/reports/week': { status: { default: 200 } },
 };
 
 /** The path with the world's ids; the target of /members/:userId is the viewer. */

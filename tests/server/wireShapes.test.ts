@@ -6,6 +6,7 @@ import request from 'supertest';
 import { afterAll, beforeAll, describe, expect, it } from 'vitest';
 
 import type {
+  AlarmWeekFigures,
   CreatedSensor,
   Invitation,
   InvitationAccepted,
@@ -20,6 +21,11 @@ import type {
   ReadingPoint,
   ReadingsResponse,
   Sensor,
+  ShopWeekFigures,
+  SilentPeriod,
+  TimeOfWetnessFigures,
+  WeekReport,
+  ZoneWeekFigures,
   SensorInterval,
   SensorPlacement,
   SensorsResponse,
@@ -111,12 +117,13 @@ const USER: Keys<User> = {
   name: true,
   unitPref: true,
   alarmMail: true,
+  weekReportMail: true,
   emailVerified: true,
 };
 const USER_RESPONSE: Keys<UserResponse> = { user: true };
 const VERIFICATION_SENT: Keys<VerificationSent> = { status: true, email: true };
 const SHOP: Keys<Shop> = { id: true, name: true, timeZone: true };
-const SHOP_SUMMARY: Keys<ShopSummary> = { ...SHOP, role: true };
+const SHOP_SUMMARY: Keys<ShopSummary> = { ...SHOP, role: true, paperSize: true };
 const ME: Keys<Me> = { user: true, shops: true };
 const MEMBERS_RESPONSE: Keys<MembersResponse> = { members: true };
 const MEMBER: Keys<Member> = { userId: true, name: true, email: true, role: true, since: true };
@@ -138,6 +145,69 @@ const INVITATION_LINK: Keys<InvitationLink> = {
 };
 const INVITATION_ACCEPTED: Keys<InvitationAccepted> = { shop: true, role: true };
 const INVITATION_ACCEPTED_SHOP: Keys<InvitationAccepted['shop']> = { id: true, name: true };
+
+const WEEK_REPORT: Keys<WeekReport> = {
+  shop: true,
+  week: true,
+  unit: true,
+  generatedAt: true,
+  shopWide: true,
+  zones: true,
+};
+const WEEK_REPORT_SHOP: Keys<WeekReport['shop']> = {
+  id: true,
+  name: true,
+  timeZone: true,
+  paperSize: true,
+};
+const WEEK_REPORT_WEEK: Keys<WeekReport['week']> = {
+  start: true,
+  from: true,
+  to: true,
+  hours: true,
+  periodEnd: true,
+  note: true,
+};
+const SHOP_WEEK: Keys<ShopWeekFigures> = {
+  zones: true,
+  coveragePct: true,
+  lowestMargin: true,
+  zonesWet: true,
+  wetHours: true,
+  closeHours: true,
+  alarmsOpened: true,
+  medianAckMinutes: true,
+  unacknowledged: true,
+  verdict: true,
+};
+const ZONE_WEEK: Keys<ZoneWeekFigures> = {
+  zoneId: true,
+  name: true,
+  purpose: true,
+  readings: true,
+  coveragePct: true,
+  airC: true,
+  rhPct: true,
+  emcPct: true,
+  lowestMargin: true,
+  levelHours: true,
+  timeOfWetness: true,
+  alarms: true,
+  silentPeriods: true,
+  verdict: true,
+};
+const MIN_MEAN_MAX = { min: true, mean: true, max: true };
+const LEVEL_HOURS = { dry: true, close: true, wet: true, unknown: true };
+const TOW: Keys<TimeOfWetnessFigures> = { hours: true, annualHours: true, category: true };
+const ALARM_WEEK: Keys<AlarmWeekFigures> = {
+  opened: true,
+  openedByKind: true,
+  acknowledged: true,
+  medianAckMinutes: true,
+  longestAckMinutes: true,
+  unacknowledged: true,
+};
+const SILENT_PERIOD: Keys<SilentPeriod> = { from: true, to: true, hours: true };
 
 /** Asserts an answer's own keys are exactly the shape's, whatever their order. */
 function expectKeys(value: unknown, shape: object, what: string) {
@@ -300,5 +370,41 @@ describe('the API answers the shapes of ingest/wire', () => {
       .send({ email: uniqueEmail('new'), password, name: 'Newer Hand' })
       .expect(202);
     expectKeys(signUp.body, VERIFICATION_SENT, 'sign-up');
+  });
+
+  it('reports: the week report, its shop line and a zone with readings', async () => {
+    const o = await ownerWithSensor(t);
+    // Monday 2026-03-02, Europe/Oslo (the helper's shop): a reading on the Tuesday.
+    await postIngest(t.app, o.token, {
+      at: '2026-03-03T06:10:00Z',
+      air: 12,
+      rh: 80,
+      surface: 9,
+    }).expect(202);
+    const res = await o.agent
+      .get(`/api/v1/shops/${o.shopId}/reports/week?start=2026-03-02`)
+      .expect(200);
+    const r = res.body;
+    expectKeys(r, WEEK_REPORT, 'week report');
+    expectKeys(r.shop, WEEK_REPORT_SHOP, 'report.shop');
+    expectKeys(r.week, WEEK_REPORT_WEEK, 'report.week');
+    expectKeys(r.shopWide, SHOP_WEEK, 'report.shopWide');
+    expectKeys(r.shopWide.lowestMargin, { zoneId: 1, zoneName: 1, marginK: 1, at: 1 }, 'shop low');
+    const zone = r.zones[0];
+    expectKeys(zone, ZONE_WEEK, 'report zone');
+    for (const key of ['airC', 'rhPct', 'emcPct']) expectKeys(zone[key], MIN_MEAN_MAX, key);
+    expectKeys(zone.lowestMargin, { marginK: 1, at: 1 }, 'zone low');
+    expectKeys(zone.levelHours, LEVEL_HOURS, 'levelHours');
+    expectKeys(zone.timeOfWetness, TOW, 'timeOfWetness');
+    expectKeys(zone.alarms, ALARM_WEEK, 'alarms');
+    expect(Object.keys(zone.alarms.openedByKind).sort()).toEqual([
+      'battery_low',
+      'dew_risk',
+      'humid_air',
+      'sensor_silent',
+      'wet_surface',
+    ]);
+    for (const p of zone.silentPeriods) expectKeys(p, SILENT_PERIOD, 'silent period');
+    expect(isIso(r.week.from) && isIso(r.generatedAt) && isIso(zone.lowestMargin.at)).toBe(true);
   });
 });
