@@ -24,7 +24,10 @@ export interface MinMeanMax {
   max: number | null;
 }
 
-/** Hours in each level over the period; they add up to `week.hours` (gaps count as unknown). */
+/**
+ * Hours in each level from `week.from` to `week.periodEnd` (gaps count as unknown): they add up
+ * to `week.hours` for a past week and to the hours so far for the current one.
+ */
 export interface LevelHours {
   dry: number;
   close: number;
