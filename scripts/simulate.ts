@@ -1,5 +1,5 @@
 // Runs the demo sensors against a running server.
-//   tsx scripts/simulate.ts [--url http://127.0.0.1:8080] [--interval 5] [--speed 1] [--backfill 24]
+//   tsx scripts/simulate.ts [--url http://127.0.0.1:8080] [--interval 5] [--speed 1] [--backfill 336]
 //                           [--outage 10/1]   (every 10 min, 1 min without network)
 import fs from 'node:fs';
 import { parseArgs } from 'node:util';
@@ -14,7 +14,9 @@ const { values } = parseArgs({
     url: { type: 'string', default: `http://127.0.0.1:${process.env.PORT ?? 8080}` },
     interval: { type: 'string', default: '5' },
     speed: { type: 'string', default: '1' },
-    backfill: { type: 'string', default: '24' },
+    // Two weeks, so the week report's default week (the last complete one) has its readings
+    // whatever the weekday: about 4,000 readings per sensor, a few seconds of ingest.
+    backfill: { type: 'string', default: '336' },
     tokens: { type: 'string', default: '.data/demo-sensors-dev.json' },
     // e.g. --outage 10/1: every 10 minutes the sensors lose the network for 1 minute.
     outage: { type: 'string', default: '' },
