@@ -8,7 +8,7 @@ import { HISTORY_WORDS } from '@/ingest/words';
 
 import { gapThresholdMs, type XY } from './chartSeries';
 import { axisTicks } from './chartTicks';
-import { AXIS_TEXT, CROSSHAIR_STYLE, PADDING } from './MarginChart';
+import { CROSSHAIR_STYLE, PADDING, TIME_AXIS_STYLE, VALUE_AXIS_STYLE } from './MarginChart';
 
 interface HumidityChartProps {
   points: ReadingPoint[];
@@ -114,24 +114,14 @@ export function HumidityChart({
               crossAxis={false}
               tickValues={[0, series.yMax / 2, series.yMax]}
               tickFormat={(t: number) => `${t} %`}
-              style={{
-                axis: { stroke: 'transparent' },
-                grid: { stroke: colors.border, strokeWidth: 1 },
-                ticks: { stroke: 'transparent' },
-                tickLabels: { ...AXIS_TEXT, padding: 6 },
-              }}
+              style={VALUE_AXIS_STYLE}
             />
             <VictoryAxis
               offsetY={PADDING.bottom}
               crossAxis={false}
               tickValues={axis.ticks}
               tickFormat={(t: number | Date) => axis.label(Number(t))}
-              style={{
-                axis: { stroke: colors.border },
-                ticks: { stroke: colors.border, size: 4 },
-                tickLabels: { ...AXIS_TEXT, padding: 4 },
-                grid: { stroke: 'transparent' },
-              }}
+              style={TIME_AXIS_STYLE}
             />
             <VictoryLine name="rh" data={series.rh} style={{ data: RH_STYLE }} />
             <VictoryLine name="emc" data={series.emc} style={{ data: EMC_STYLE }} />

@@ -51,6 +51,20 @@ const MAX_MARKED_POINTS = 90;
 export const PADDING = { top: 12, bottom: 32, left: 44, right: 12 };
 export const AXIS_TEXT = { fontFamily: fonts.regular, fontSize: 11, fill: colors.iron };
 export const CROSSHAIR_STYLE = { stroke: colors.ink, strokeWidth: 1, strokeDasharray: '3,3' };
+/** The value axis of both history panels: labels and grid lines, no axis line of its own. */
+export const VALUE_AXIS_STYLE = {
+  axis: { stroke: 'transparent' },
+  grid: { stroke: colors.border, strokeWidth: 1 },
+  ticks: { stroke: 'transparent' },
+  tickLabels: { ...AXIS_TEXT, padding: 6 },
+};
+/** The time axis of both history panels, pinned to the bottom edge. */
+export const TIME_AXIS_STYLE = {
+  axis: { stroke: colors.border },
+  ticks: { stroke: colors.border, size: 4 },
+  tickLabels: { ...AXIS_TEXT, padding: 4 },
+  grid: { stroke: 'transparent' },
+};
 
 /**
  * Air, surface and dew point (frost point below 0.01 °C) over time. The band above the dew point
@@ -136,12 +150,7 @@ export function MarginChart({
               // Not a crossing axis, so Victory keeps the 0° tick it would otherwise hide.
               crossAxis={false}
               tickFormat={(t: number) => `${t}${degrees}`}
-              style={{
-                axis: { stroke: 'transparent' },
-                grid: { stroke: colors.border, strokeWidth: 1 },
-                ticks: { stroke: 'transparent' },
-                tickLabels: { ...AXIS_TEXT, padding: 6 },
-              }}
+              style={VALUE_AXIS_STYLE}
             />
             <VictoryAxis
               // Pinned to the bottom edge; by default it would cross the y axis at 0 °C.
@@ -149,12 +158,7 @@ export function MarginChart({
               crossAxis={false}
               tickValues={axis.ticks}
               tickFormat={(t: number | Date) => axis.label(Number(t))}
-              style={{
-                axis: { stroke: colors.border },
-                ticks: { stroke: colors.border, size: 4 },
-                tickLabels: { ...AXIS_TEXT, padding: 4 },
-                grid: { stroke: 'transparent' },
-              }}
+              style={TIME_AXIS_STYLE}
             />
             <VictoryArea
               name="closeBand"

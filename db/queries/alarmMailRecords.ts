@@ -3,24 +3,24 @@
  * decided under a lock on the alarm's zone and kind so two instances cannot both pass the cap —
  * who has been sent it, the people who want it, and the alarm with the reading behind it.
  */
-import { and, desc, eq, gt, inArray, isNotNull, isNull, lt, lte, sql } from 'drizzle-orm';
+import { and, desc, eq, gt, inArray, isNull, lt, lte, sql } from 'drizzle-orm';
 import type pg from 'pg';
 
 import type { Db } from '../index';
 import {
   alarmMails,
   alarms,
-  memberships,
   readings,
   sensors,
   shops,
-  users,
   zones,
   type AlarmMailOutcome,
 } from '../schema';
 import { withTransaction } from '../transaction';
 
 import type { AlarmRow, Tx } from './alarms';
+
+import { mailRecipients } from './memberships';
 
 export type AlarmMailRow = typeof alarmMails.$inferSelect;
 
@@ -149,30 +149,9 @@ export async function lockAlarmMail(tx: Tx, alarmId: string): Promise<AlarmMailR
   return row ?? null;
 }
 
-/**
- * Owners and members of the shop who have alarm e-mails on and a verified address; viewers only
- * look, and an unproved address may be someone else's (a typo, or a sign-up in another's name).
- */
-export function alarmMailRecipients(db: Db, shopId: string) {
-  return db
-    .select({
-      userId: users.id,
-      email: users.email,
-      unitPref: users.unitPref,
-      role: memberships.role,
-    })
-    .from(memberships)
-    .innerJoin(users, eq(users.id, memberships.userId))
-    .where(
-      and(
-        eq(memberships.shopId, shopId),
-        inArray(memberships.role, ['owner', 'member']),
-        eq(users.alarmMail, true),
-        isNotNull(users.emailVerifiedAt),
-      ),
-    )
-    .orderBy(users.email);
-}
+/** Who gets the shop's alarm e-mails (memberships.ts mailRecipients). */
+export const alarmMailRecipients = (db: Db, shopId: string) =>
+  mailRecipients(db, shopId, 'alarmMail');
 
 /** The alarm with its zone, sensor and shop names and the shop's time zone; null when gone. */
 export async function alarmForMail(db: Db, alarmId: string) {

@@ -1,4 +1,4 @@
-import { and, eq } from 'drizzle-orm';
+import { and, eq, inArray, isNotNull } from 'drizzle-orm';
 
 import type { Db } from '../index';
 import { memberships, shops, users, type Role } from '../schema';
@@ -88,4 +88,32 @@ export async function changeMembership(
     await notifyAccessChanged(tx, [userId]);
     return { ok: true };
   });
+}
+
+/** The per-person switches that decide which e-mails of a shop reach someone. */
+export type MailSwitch = 'alarmMail' | 'weekReportMail';
+
+/**
+ * Owners and members of the shop who keep this e-mail on and proved their address; viewers only
+ * look, and an unproved address may be someone else's (a typo, or a sign-up in another's name).
+ */
+export function mailRecipients(db: Db, shopId: string, mail: MailSwitch) {
+  return db
+    .select({
+      userId: users.id,
+      email: users.email,
+      unitPref: users.unitPref,
+      role: memberships.role,
+    })
+    .from(memberships)
+    .innerJoin(users, eq(users.id, memberships.userId))
+    .where(
+      and(
+        eq(memberships.shopId, shopId),
+        inArray(memberships.role, ['owner', 'member']),
+        eq(users[mail], true),
+        isNotNull(users.emailVerifiedAt),
+      ),
+    )
+    .orderBy(users.email);
 }

@@ -2,10 +2,12 @@
  * The Monday week-report e-mail: which shops are due for which week, the claim that makes each
  * shop-week's mail go out once however many instances sweep, and who receives it.
  */
-import { and, eq, inArray, isNotNull, lt, sql } from 'drizzle-orm';
+import { and, eq, lt, sql } from 'drizzle-orm';
 
 import type { Db } from '../index';
-import { memberships, shops, users, weekReportMails } from '../schema';
+import { shops, weekReportMails } from '../schema';
+
+import { mailRecipients } from './memberships';
 
 export type WeekReportMailRow = typeof weekReportMails.$inferSelect;
 
@@ -83,27 +85,6 @@ export async function findWeekReportMail(
   return row ?? null;
 }
 
-/**
- * Owners and members of the shop who keep the week report e-mail on and proved their address;
- * viewers only look, and an unproved address may be someone else's.
- */
-export function weekReportRecipients(db: Db, shopId: string) {
-  return db
-    .select({
-      userId: users.id,
-      email: users.email,
-      unitPref: users.unitPref,
-      role: memberships.role,
-    })
-    .from(memberships)
-    .innerJoin(users, eq(users.id, memberships.userId))
-    .where(
-      and(
-        eq(memberships.shopId, shopId),
-        inArray(memberships.role, ['owner', 'member']),
-        eq(users.weekReportMail, true),
-        isNotNull(users.emailVerifiedAt),
-      ),
-    )
-    .orderBy(users.email);
-}
+/** Who gets the shop's week report e-mails (memberships.ts mailRecipients). */
+export const weekReportRecipients = (db: Db, shopId: string) =>
+  mailRecipients(db, shopId, 'weekReportMail');
