@@ -34,6 +34,7 @@ import { meRouter } from './routes/me';
 import { membersRouter } from './routes/members';
 import { readingsRouter } from './routes/readings';
 import { reportsRouter } from './routes/reports';
+import { trialsRouter } from './routes/trials';
 import { sensorsRouter } from './routes/sensors';
 import { shopsRouter } from './routes/shops';
 import { zonesRouter } from './routes/zones';
@@ -119,6 +120,7 @@ export function createApp(deps: AppDeps): express.Express {
   api.use('/shops/:shopId/sensors', sensorsRouter(db, tokens));
   api.use('/shops/:shopId/alarms', alarmsRouter(db, deps.pool, now));
   api.use('/shops/:shopId/reports', reportsRouter(db, now));
+  api.use('/shops/:shopId/trials', trialsRouter(db, now));
   api.use('/shops/:shopId', membersRouter(db));
   api.use(invitationsRouter(people));
   api.use(notFound);

@@ -84,4 +84,12 @@ export const POLICY: readonly PolicyRow[] = [
 
   // The week report: anyone in the shop reads it (a viewer may be the landlord it is for).
   { method: 'GET', path: '/shops/:shopId/reports/week', access: 'viewer' },
+
+  // Protection trials (API.md): testing treatments is work done in the shop, so members write
+  // as owners do; viewers read the standings.
+  { method: 'GET', path: '/shops/:shopId/trials', access: 'viewer' },
+  { method: 'POST', path: '/shops/:shopId/trials', access: 'member' },
+  { method: 'GET', path: '/shops/:shopId/trials/:trialId', access: 'viewer' },
+  { method: 'POST', path: '/shops/:shopId/trials/:trialId/tests', access: 'member' },
+  { method: 'PUT', path: '/shops/:shopId/trials/:trialId/tests/:testId/ranks', access: 'member' },
 ];

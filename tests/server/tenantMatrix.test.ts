@@ -106,6 +106,27 @@ const SAMPLES: Record<string, Sample> = {
   'POST /shops/:shopId/alarms/:alarmId/ack': { body: () => ({ note: 'Wiped and covered' }) },
   // The last complete week, as JSON, for everyone in the shop.
   'GET /shops/:shopId/reports/week': { status: { default: 200 } },
+  'GET /shops/:shopId/trials': { status: { default: 200 } },
+  'POST /shops/:shopId/trials': {
+    body: () => ({ name: 'Wax or oil', treatments: ['Paste wax', 'Camellia oil'] }),
+    status: { default: 201 },
+  },
+  'GET /shops/:shopId/trials/:trialId': { status: { default: 200 } },
+  'POST /shops/:shopId/trials/:trialId/tests': {
+    body: () => ({
+      name: 'Cold morning',
+      kind: 'condensation',
+      from: '2026-01-12T06:00:00Z',
+      to: '2026-01-12T10:00:00Z',
+    }),
+    status: { default: 201 },
+  },
+  'PUT /shops/:shopId/trials/:trialId/tests/:testId/ranks': {
+    body: (w) => ({
+      ranks: w.a.trial.treatments.map((t, i) => ({ treatmentId: t.id, rank: i + 1 })),
+    }),
+    status: { default: 200 },
+  },
 };
 
 /** The path with the world's ids; the target of /members/:userId is the viewer. */
@@ -118,6 +139,8 @@ function pathFor(row: PolicyRow, w: World, shop: World['a'] | World['b'] = w.a):
     invitationId: w.invitation.id,
     token: w.invitationToken,
     alarmId: randomUUID(),
+    trialId: w.a.trial.id,
+    testId: w.a.test.id,
   };
   return row.path.replace(/:(\w+)/g, (_m, name: string) => {
     const value = values[name];
@@ -160,7 +183,17 @@ describe('tenant matrix (generated from server/auth/policy.ts)', () => {
       POLICY.flatMap((row) => [...row.path.matchAll(/:(\w+)/g)].map((m) => m[1])),
     );
     expect([...params].sort()).toEqual(
-      ['alarmId', 'invitationId', 'sensorId', 'shopId', 'token', 'userId', 'zoneId'].sort(),
+      [
+        'alarmId',
+        'invitationId',
+        'sensorId',
+        'shopId',
+        'testId',
+        'token',
+        'trialId',
+        'userId',
+        'zoneId',
+      ].sort(),
     );
   });
 
@@ -175,6 +208,10 @@ describe('tenant matrix (generated from server/auth/policy.ts)', () => {
     expect(belowOwner.sort()).toEqual([
       'DELETE /shops/:shopId/membership',
       'POST /shops/:shopId/alarms/:alarmId/ack',
+      // Trials are work done in the shop: members add and rank tests (API.md).
+      'POST /shops/:shopId/trials',
+      'POST /shops/:shopId/trials/:trialId/tests',
+      'PUT /shops/:shopId/trials/:trialId/tests/:testId/ranks',
     ]);
   });
 
@@ -210,7 +247,9 @@ describe('tenant matrix (generated from server/auth/policy.ts)', () => {
   // Shop B's owner naming shop B in the path but one of shop A's zones, sensors, members or
   // invitations: the resource is not in their shop, so it does not exist for them.
   const nested = POLICY.filter(
-    (row) => isShopRole(row.access) && /:(zoneId|sensorId|userId|invitationId)/.test(row.path),
+    (row) =>
+      isShopRole(row.access) &&
+      /:(zoneId|sensorId|userId|invitationId|trialId|testId)/.test(row.path),
   );
   it.each(nested.map((row) => [key(row), row] as const))(
     "%s with another shop's id answers 404 and changes nothing",

@@ -6,6 +6,7 @@ import { createInvitation } from '@/db/queries/invitations';
 import { addMember } from '@/db/queries/memberships';
 import { insertSensor } from '@/db/queries/sensors';
 import { createShopWithOwner } from '@/db/queries/shops';
+import { insertTest, insertTrial } from '@/db/queries/trials';
 import { insertUser } from '@/db/queries/users';
 import { insertZone } from '@/db/queries/zones';
 import { hashToken, newLinkToken } from '@/server/auth/linkTokens';
@@ -48,7 +49,21 @@ async function shop(t: TestApp, label: string, ownerId: string) {
     name: `${label} sensor ${tag}`,
     tokenHash: hashToken(newLinkToken()),
   });
-  return { ...s, zone, sensor };
+  const trial = await insertTrial(t.db, s.id, {
+    name: `${label} trial ${tag}`,
+    createdBy: ownerId,
+    treatments: [`${label} wax ${tag}`, `${label} oil ${tag}`],
+  });
+  const test = await insertTest(t.db, s.id, trial.id, {
+    name: `${label} test ${tag}`,
+    kind: 'condensation',
+    from: new Date('2026-01-05T08:00:00Z'),
+    to: new Date('2026-01-06T08:00:00Z'),
+    zoneId: zone.id,
+    sensorId: null,
+    notes: null,
+  });
+  return { ...s, zone, sensor, trial, test };
 }
 
 /** Shop A with an owner, a member and a viewer; shop B owned by the stranger. */
@@ -86,10 +101,28 @@ export function secretsOf(world: World) {
       a.zone.name,
       a.sensor.id,
       a.sensor.name,
+      a.trial.id,
+      a.trial.name,
+      ...a.trial.treatments.flatMap((t) => [t.id, t.name]),
+      a.test.id,
+      a.test.name,
       world.owner.email,
       world.member.email,
       world.viewer.email,
     ],
-    b: [b.id, b.name, b.zone.id, b.zone.name, b.sensor.id, b.sensor.name, world.stranger.email],
+    b: [
+      b.id,
+      b.name,
+      b.zone.id,
+      b.zone.name,
+      b.sensor.id,
+      b.sensor.name,
+      b.trial.id,
+      b.trial.name,
+      ...b.trial.treatments.flatMap((t) => [t.id, t.name]),
+      b.test.id,
+      b.test.name,
+      world.stranger.email,
+    ],
   };
 }
