@@ -2,7 +2,7 @@
  * Protection trials: the trial with its treatments, its tests and each test's ranks. Every
  * statement names the shop, so an id from another shop finds nothing.
  */
-import { and, asc, count, eq, inArray } from 'drizzle-orm';
+import { and, asc, count, desc, eq, inArray } from 'drizzle-orm';
 
 import type { TrialTestKind } from '@/ingest/wire/trials';
 
@@ -99,14 +99,13 @@ export async function treatmentsOf(db: Db, shopId: string, trialIds: readonly st
 
 /** The shop's trials, newest first, with how many tests each has. */
 export async function listTrials(db: Db, shopId: string) {
-  const rows = await db
+  return db
     .select({ ...trialColumns, tests: count(trialTests.id) })
     .from(trials)
     .leftJoin(trialTests, eq(trialTests.trialId, trials.id))
     .where(eq(trials.shopId, shopId))
     .groupBy(trials.id)
-    .orderBy(asc(trials.createdAt));
-  return rows.reverse();
+    .orderBy(desc(trials.createdAt), desc(trials.id));
 }
 
 export async function testsOf(db: Db, shopId: string, trialId: string): Promise<TrialTestRow[]> {
