@@ -200,4 +200,30 @@ describe('protection trials', () => {
     expect(s.friedman).toBeNull();
     expect(s.verdict).toBe('Too few tests to tell: rank at least 1 more test.');
   });
+
+  it("refuses another shop's zone for a test and stores nothing", async () => {
+    const mine = await shopWithSensor();
+    const theirs = await shopWithSensor();
+    const base = `/api/v1/shops/${mine.shopId}/trials`;
+    const trial = (
+      await mine.agent
+        .post(base)
+        .send({ name: 'Oils', treatments: ['Oil', 'Bare'] })
+        .expect(201)
+    ).body;
+    const res = await mine.agent.post(`${base}/${trial.id}/tests`).send({
+      name: 'Borrowed zone',
+      kind: 'condensation',
+      from: '2026-03-23T00:00:00Z',
+      to: '2026-03-23T01:00:00Z',
+      zoneId: theirs.zoneId,
+    });
+    expect(res.status, res.text).toBe(400);
+    expect(res.body.error.details).toEqual([
+      { path: 'zoneId', message: 'No such zone in this shop' },
+    ]);
+    expect(res.text).not.toContain(theirs.shopId);
+    const got = (await mine.agent.get(`${base}/${trial.id}`).expect(200)).body;
+    expect(got.tests).toEqual([]);
+  });
 });
