@@ -36,6 +36,7 @@ import { readingsRouter } from './routes/readings';
 import { reportsRouter } from './routes/reports';
 import { sensorsRouter } from './routes/sensors';
 import { shopsRouter } from './routes/shops';
+import { surfacesRouter } from './routes/surfaces';
 import { zonesRouter } from './routes/zones';
 import { requestLogger } from './requestLog';
 
@@ -119,6 +120,7 @@ export function createApp(deps: AppDeps): express.Express {
   api.use('/shops/:shopId/sensors', sensorsRouter(db, tokens));
   api.use('/shops/:shopId/alarms', alarmsRouter(db, deps.pool, now));
   api.use('/shops/:shopId/reports', reportsRouter(db, now));
+  api.use('/shops/:shopId', surfacesRouter(db, now));
   api.use('/shops/:shopId', membersRouter(db));
   api.use(invitationsRouter(people));
   api.use(notFound);

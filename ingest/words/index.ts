@@ -11,3 +11,4 @@ export * from './rules';
 export * from './paper';
 export * from './report';
 export * from './weekMail';
+export * from './care';

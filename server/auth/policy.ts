@@ -84,4 +84,14 @@ export const POLICY: readonly PolicyRow[] = [
 
   // The week report: anyone in the shop reads it (a viewer may be the landlord it is for).
   { method: 'GET', path: '/shops/:shopId/reports/week', access: 'viewer' },
+
+  // The care log (API.md): coating and inspecting the iron is work done in the shop, so members
+  // log it and tune the coating budgets; viewers read.
+  { method: 'GET', path: '/shops/:shopId/surfaces', access: 'viewer' },
+  { method: 'POST', path: '/shops/:shopId/surfaces', access: 'member' },
+  { method: 'GET', path: '/shops/:shopId/surfaces/:surfaceId', access: 'viewer' },
+  { method: 'POST', path: '/shops/:shopId/surfaces/:surfaceId/care', access: 'member' },
+  { method: 'GET', path: '/shops/:shopId/surfaces/:surfaceId/exposure', access: 'viewer' },
+  { method: 'GET', path: '/shops/:shopId/coating-budgets', access: 'viewer' },
+  { method: 'PUT', path: '/shops/:shopId/coating-budgets', access: 'member' },
 ];

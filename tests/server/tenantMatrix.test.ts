@@ -7,6 +7,7 @@ import { randomUUID } from 'node:crypto';
 import request from 'supertest';
 import { afterAll, beforeAll, describe, expect, it } from 'vitest';
 
+import { insertSurface } from '@/db/queries/surfaces';
 import { POLICY, ROLE_RANK, isShopRole, type PolicyRow } from '@/server/auth/policy';
 
 import { makeTestApp, type TestApp } from '../support/app';
@@ -106,10 +107,44 @@ const SAMPLES: Record<string, Sample> = {
   'POST /shops/:shopId/alarms/:alarmId/ack': { body: () => ({ note: 'Wiped and covered' }) },
   // The last complete week, as JSON, for everyone in the shop.
   'GET /shops/:shopId/reports/week': { status: { default: 200 } },
+  'GET /shops/:shopId/surfaces': { status: { default: 200 } },
+  'POST /shops/:shopId/surfaces': {
+    body: (w) => ({ name: 'Jointer bed', zoneId: w.a.zone.id }),
+    status: { default: 201 },
+  },
+  'GET /shops/:shopId/surfaces/:surfaceId': { status: { default: 200 } },
+  'POST /shops/:shopId/surfaces/:surfaceId/care': {
+    body: () => ({ kind: 'inspection', at: new Date().toISOString(), rusting: 1 }),
+    status: { default: 201 },
+  },
+  'GET /shops/:shopId/surfaces/:surfaceId/exposure': { status: { default: 200 } },
+  'GET /shops/:shopId/coating-budgets': { status: { default: 200 } },
+  'PUT /shops/:shopId/coating-budgets': {
+    body: () => ({ budgets: [{ coating: 'wax', hoursWet: 3, hoursClose: 50, towHours: 400 }] }),
+    status: { default: 200 },
+  },
 };
 
+/** A surface of shop A for the routes that name one (the world itself has none). */
+async function surfaceFor(row: PolicyRow, w: World): Promise<string | undefined> {
+  if (!row.path.includes(':surfaceId')) return undefined;
+  const surface = await insertSurface(t.db, {
+    shopId: w.a.id,
+    zoneId: w.a.zone.id,
+    name: `Saw top ${randomUUID().slice(0, 8)}`,
+    material: 'cast iron',
+    sensorId: null,
+  });
+  return surface.id;
+}
+
 /** The path with the world's ids; the target of /members/:userId is the viewer. */
-function pathFor(row: PolicyRow, w: World, shop: World['a'] | World['b'] = w.a): string {
+function pathFor(
+  row: PolicyRow,
+  w: World,
+  shop: World['a'] | World['b'] = w.a,
+  surfaceId?: string,
+): string {
   const values: Record<string, string> = {
     shopId: shop.id,
     zoneId: w.a.zone.id,
@@ -118,6 +153,7 @@ function pathFor(row: PolicyRow, w: World, shop: World['a'] | World['b'] = w.a):
     invitationId: w.invitation.id,
     token: w.invitationToken,
     alarmId: randomUUID(),
+    surfaceId: surfaceId ?? '',
   };
   return row.path.replace(/:(\w+)/g, (_m, name: string) => {
     const value = values[name];
@@ -160,7 +196,16 @@ describe('tenant matrix (generated from server/auth/policy.ts)', () => {
       POLICY.flatMap((row) => [...row.path.matchAll(/:(\w+)/g)].map((m) => m[1])),
     );
     expect([...params].sort()).toEqual(
-      ['alarmId', 'invitationId', 'sensorId', 'shopId', 'token', 'userId', 'zoneId'].sort(),
+      [
+        'alarmId',
+        'invitationId',
+        'sensorId',
+        'shopId',
+        'surfaceId',
+        'token',
+        'userId',
+        'zoneId',
+      ].sort(),
     );
   });
 
@@ -175,6 +220,10 @@ describe('tenant matrix (generated from server/auth/policy.ts)', () => {
     expect(belowOwner.sort()).toEqual([
       'DELETE /shops/:shopId/membership',
       'POST /shops/:shopId/alarms/:alarmId/ack',
+      // Coating and inspecting the iron is shop work (API.md: owners and members write).
+      'POST /shops/:shopId/surfaces',
+      'POST /shops/:shopId/surfaces/:surfaceId/care',
+      'PUT /shops/:shopId/coating-budgets',
     ]);
   });
 
@@ -182,8 +231,10 @@ describe('tenant matrix (generated from server/auth/policy.ts)', () => {
     const w = await makeWorld(t);
     const secrets = secretsOf(w);
     const sample = SAMPLES[key(row)] ?? {};
+    const surfaceId = await surfaceFor(row, w);
     for (const actor of ACTORS) {
-      const res = await call(row, pathFor(row, w), cookieOf(w, actor), sample.body?.(w));
+      const path = pathFor(row, w, w.a, surfaceId);
+      const res = await call(row, path, cookieOf(w, actor), sample.body?.(w));
       const where = `${key(row)} as ${actor}: ${res.status} ${res.text.slice(0, 200)}`;
       expect(res.status, where).not.toBe(500);
       const refused = refusal(row, actor);
@@ -210,14 +261,21 @@ describe('tenant matrix (generated from server/auth/policy.ts)', () => {
   // Shop B's owner naming shop B in the path but one of shop A's zones, sensors, members or
   // invitations: the resource is not in their shop, so it does not exist for them.
   const nested = POLICY.filter(
-    (row) => isShopRole(row.access) && /:(zoneId|sensorId|userId|invitationId)/.test(row.path),
+    (row) =>
+      isShopRole(row.access) && /:(zoneId|sensorId|userId|invitationId|surfaceId)/.test(row.path),
   );
   it.each(nested.map((row) => [key(row), row] as const))(
     "%s with another shop's id answers 404 and changes nothing",
     async (_name, row) => {
       const w = await makeWorld(t);
       const sample = SAMPLES[key(row)] ?? {};
-      const res = await call(row, pathFor(row, w, w.b), w.stranger.cookie, sample.body?.(w));
+      const surfaceId = await surfaceFor(row, w);
+      const res = await call(
+        row,
+        pathFor(row, w, w.b, surfaceId),
+        w.stranger.cookie,
+        sample.body?.(w),
+      );
       expect(res.status, res.text).toBe(404);
       for (const secret of secretsOf(w).a) expect(res.text).not.toContain(secret);
       const zones = await request(t.app)
