@@ -18,7 +18,13 @@ import {
   upsertCoatingBudgets,
   zoneInShop,
 } from '@/db/queries/surfaces';
-import { CARE_KINDS, COATING_TYPES, type SurfaceDetail } from '@/ingest/wire/surfaces';
+import {
+  CARE_KINDS,
+  COATING_TYPES,
+  type CoatingBudgetsResponse,
+  type SurfaceDetail,
+  type SurfacesResponse,
+} from '@/ingest/wire/surfaces';
 
 import { isUuid, shopIdOf, userIdOf } from '../auth/middleware';
 import { surfaceExposure } from '../care/exposure';
@@ -126,7 +132,7 @@ export function surfacesRouter(db: Db, now: () => number): Router {
 
   router.get('/surfaces', async (_req, res) => {
     const rows = await listSurfaces(db, shopIdOf(res));
-    res.json({ surfaces: rows.map(toSurface) });
+    res.json({ surfaces: rows.map(toSurface) } satisfies SurfacesResponse);
   });
 
   router.post('/surfaces', async (req, res) => {
@@ -190,14 +196,16 @@ export function surfacesRouter(db: Db, now: () => number): Router {
   });
 
   router.get('/coating-budgets', async (_req, res) => {
-    res.json({ budgets: toCoatingBudgets(await listCoatingBudgets(db, shopIdOf(res))) });
+    const rows = await listCoatingBudgets(db, shopIdOf(res));
+    res.json({ budgets: toCoatingBudgets(rows) } satisfies CoatingBudgetsResponse);
   });
 
   router.put('/coating-budgets', async (req, res) => {
     const body = parseInput(budgetsBody, req.body);
     const shopId = shopIdOf(res);
     await upsertCoatingBudgets(db, shopId, body.budgets);
-    res.json({ budgets: toCoatingBudgets(await listCoatingBudgets(db, shopId)) });
+    const rows = await listCoatingBudgets(db, shopId);
+    res.json({ budgets: toCoatingBudgets(rows) } satisfies CoatingBudgetsResponse);
   });
 
   return router;
