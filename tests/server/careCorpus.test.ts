@@ -170,6 +170,29 @@ describe('care log bad input', () => {
     }
   });
 
+  it('refuses to delete a zone that holds a surface, so its care log is not lost', async () => {
+    const zone = await o.agent
+      .post(`/api/v1/shops/${o.shopId}/zones`)
+      .send({ name: 'Outfeed corner' })
+      .expect(201);
+    await o.agent
+      .post(`/api/v1/shops/${o.shopId}/surfaces`)
+      .send({ name: 'Outfeed table', zoneId: zone.body.id })
+      .expect(201);
+    const before = await counts();
+    const res = await o.agent.delete(`/api/v1/shops/${o.shopId}/zones/${zone.body.id}`);
+    expect(res.status).toBe(409);
+    expect(res.body).toEqual(errorShape);
+    expect(res.body.error.code).toBe('zone_has_surfaces');
+    expect(await counts()).toEqual(before);
+    // An empty zone still goes.
+    const empty = await o.agent
+      .post(`/api/v1/shops/${o.shopId}/zones`)
+      .send({ name: 'Spare corner' })
+      .expect(201);
+    await o.agent.delete(`/api/v1/shops/${o.shopId}/zones/${empty.body.id}`).expect(204);
+  });
+
   it('stores a valid entry after all that (the corpus is not refusing everything)', async () => {
     const before = await counts();
     await o.agent
