@@ -119,5 +119,15 @@ describe('care wire shapes', () => {
       isDefault: false,
     });
     expect(put.body.budgets.filter((b: CoatingBudget) => !b.isDefault)).toHaveLength(1);
+
+    // The shop can still be deleted: surfaces, the care log and budgets go with it.
+    await o.agent.delete(base).send({ confirmName: 'Test shop' }).expect(204);
+    const { rows } = await t.pool.query(
+      `select (select count(*)::int from surfaces where shop_id = $1)
+            + (select count(*)::int from care_entries where shop_id = $1)
+            + (select count(*)::int from coating_budgets where shop_id = $1) as left_over`,
+      [o.shopId],
+    );
+    expect(rows[0].left_over).toBe(0);
   });
 });
