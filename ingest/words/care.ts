@@ -54,16 +54,18 @@ export interface RecoatWordsInput {
 /** One sentence saying whether a re-coat is suggested and why. */
 export function recoatReason({ cause, coating, exposure, budget }: RecoatWordsInput): string {
   const coat = coating ? COATING_TYPE_LABELS[coating].toLowerCase() : 'coat';
+  // Every cause but no_coat comes with an exposure; zeros keep the sentence whole regardless.
+  const e = exposure ?? { hoursWet: 0, hoursClose: 0, towHours: 0 };
   switch (cause) {
     case 'no_coat':
       return 'No coat is logged for this surface yet: coat it and log the coat.';
     case 'wet':
-      return `Re-coat suggested: wet for ${hours(exposure!.hoursWet)} since the ${coat}, more than its budget of ${hours(budget.hoursWet)}.`;
+      return `Re-coat suggested: wet for ${hours(e.hoursWet)} since the ${coat}, more than its budget of ${hours(budget.hoursWet)}.`;
     case 'close':
-      return `Re-coat suggested: close to the dew point for ${hours(exposure!.hoursClose)} since the ${coat}, more than its budget of ${hours(budget.hoursClose)}.`;
+      return `Re-coat suggested: close to the dew point for ${hours(e.hoursClose)} since the ${coat}, more than its budget of ${hours(budget.hoursClose)}.`;
     case 'tow':
-      return `Re-coat suggested: ${hours(exposure!.towHours)} of time of wetness (ISO 9223) since the ${coat}, more than its budget of ${hours(budget.towHours)}.`;
+      return `Re-coat suggested: ${hours(e.towHours)} of time of wetness (ISO 9223) since the ${coat}, more than its budget of ${hours(budget.towHours)}.`;
     case 'none':
-      return `The ${coat} is within its budget: wet ${hours(exposure!.hoursWet)} of ${hours(budget.hoursWet)}, close ${hours(exposure!.hoursClose)} of ${hours(budget.hoursClose)}, time of wetness ${hours(exposure!.towHours)} of ${hours(budget.towHours)}.`;
+      return `The ${coat} is within its budget: wet ${hours(e.hoursWet)} of ${hours(budget.hoursWet)}, close ${hours(e.hoursClose)} of ${hours(budget.hoursClose)}, time of wetness ${hours(e.towHours)} of ${hours(budget.towHours)}.`;
   }
 }

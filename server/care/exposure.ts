@@ -6,7 +6,7 @@
 import type { Db } from '@/db';
 import { zoneWeekFigures } from '@/db/queries/reports';
 import { lastCoating, listCoatingBudgets, type SurfaceRow } from '@/db/queries/surfaces';
-import { recoatCause, type ExposureHours } from '@/ingest/care';
+import { DEFAULT_COATING_BUDGETS, recoatCause, type ExposureHours } from '@/ingest/care';
 import { TOW_MAX_GAP_MS } from '@/ingest/wetness';
 import type { SurfaceExposure } from '@/ingest/wire/surfaces';
 import { RECOAT_CAUTIONS, recoatReason } from '@/ingest/words/care';
@@ -25,8 +25,10 @@ export async function surfaceExposure(
     lastCoating(db, shopId, surface.id),
     listCoatingBudgets(db, shopId),
   ]);
-  const budgets = toCoatingBudgets(budgetRows);
-  const budget = budgets.find((b) => b.coating === (coat?.coatingType ?? 'other'))!;
+  // Without a coat there is nothing to measure against; the generic budget fills the slot.
+  const type = coat?.coatingType ?? 'other';
+  const budget =
+    toCoatingBudgets(budgetRows).find((b) => b.coating === type) ?? DEFAULT_COATING_BUDGETS[type];
 
   let exposure: ExposureHours | null = null;
   if (coat) {
