@@ -37,6 +37,7 @@ import { reportsRouter } from './routes/reports';
 import { trialsRouter } from './routes/trials';
 import { sensorsRouter } from './routes/sensors';
 import { shopsRouter } from './routes/shops';
+import { surfacesRouter } from './routes/surfaces';
 import { zonesRouter } from './routes/zones';
 import { requestLogger } from './requestLog';
 
@@ -121,6 +122,7 @@ export function createApp(deps: AppDeps): express.Express {
   api.use('/shops/:shopId/alarms', alarmsRouter(db, deps.pool, now));
   api.use('/shops/:shopId/reports', reportsRouter(db, now));
   api.use('/shops/:shopId/trials', trialsRouter(db, now));
+  api.use('/shops/:shopId', surfacesRouter(db, now));
   api.use('/shops/:shopId', membersRouter(db));
   api.use(invitationsRouter(people));
   api.use(notFound);

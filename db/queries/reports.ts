@@ -19,6 +19,11 @@ export interface ReportPeriod {
   fromMs: number;
   endMs: number;
   maxGapMs: number;
+  /**
+   * Only this sensor's readings (a probe on one surface, for the care log's exposure); without
+   * it, the whole zone's, as the week report reads them.
+   */
+  sensorId?: string;
 }
 
 export interface ReportZoneRow {
@@ -139,6 +144,7 @@ export async function zoneWeekFigures(
                    as until_ms
           from readings
           where zone_id = z.id and at >= ${from}::timestamptz and at < ${end}::timestamptz
+            ${period.sensorId ? sql`and sensor_id = ${period.sensorId}::uuid` : sql``}
           window w as (order by at, sensor_id)
         ) r
       ) w

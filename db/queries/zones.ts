@@ -127,12 +127,12 @@ export async function listZonesWithLatest(db: Db, shopId: string) {
 export type ZoneWithLatestRow = Awaited<ReturnType<typeof listZonesWithLatest>>[number];
 
 /** Why a zone cannot be deleted, or null when it was. */
-export type ZoneDeleteRefusal = 'not_found' | 'has_sensors' | 'has_readings';
+export type ZoneDeleteRefusal = 'not_found' | 'has_sensors' | 'has_readings' | 'has_surfaces';
 
 /**
  * Deletes a zone made by mistake. Readings, sensors and alarms cascade with a zone, so a zone
  * with a sensor still in it, or any stored reading, is refused: its history outlives a rename,
- * not a delete. Removed sensors without readings go with it. The zone row is locked first so a
+ * not a delete. So is one with a surface, whose care log would cascade with it. Removed sensors without readings go with it. The zone row is locked first so a
  * sensor placed or a reading stored meanwhile waits and then sees the zone gone.
  */
 export async function deleteEmptyZone(
@@ -144,13 +144,15 @@ export async function deleteEmptyZone(
     sql`select id from zones where shop_id = ${shopId} and id = ${zoneId} for update`,
   );
   if (locked.rows.length === 0) return 'not_found';
-  const uses = await db.execute<{ sensors: boolean; readings: boolean }>(sql`
+  const uses = await db.execute<{ sensors: boolean; readings: boolean; surfaces: boolean }>(sql`
     select
       exists (select 1 from sensors where zone_id = ${zoneId} and removed_at is null) as sensors,
-      exists (select 1 from readings where zone_id = ${zoneId}) as readings`);
+      exists (select 1 from readings where zone_id = ${zoneId}) as readings,
+      exists (select 1 from surfaces where zone_id = ${zoneId}) as surfaces`);
   const use = uses.rows[0];
   if (use?.sensors) return 'has_sensors';
   if (use?.readings) return 'has_readings';
+  if (use?.surfaces) return 'has_surfaces';
   await db.delete(zones).where(and(eq(zones.shopId, shopId), eq(zones.id, zoneId)));
   return null;
 }

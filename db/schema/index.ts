@@ -8,3 +8,4 @@ export * from './sensing';
 export * from './alarms';
 export * from './reports';
 export * from './trials';
+export * from './care';

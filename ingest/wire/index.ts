@@ -11,3 +11,4 @@ export * from './sensors';
 export * from './zones';
 export * from './reports';
 export * from './trials';
+export * from './surfaces';

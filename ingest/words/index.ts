@@ -12,3 +12,4 @@ export * from './paper';
 export * from './report';
 export * from './weekMail';
 export * from './trials';
+export * from './care';

@@ -92,4 +92,13 @@ export const POLICY: readonly PolicyRow[] = [
   { method: 'GET', path: '/shops/:shopId/trials/:trialId', access: 'viewer' },
   { method: 'POST', path: '/shops/:shopId/trials/:trialId/tests', access: 'member' },
   { method: 'PUT', path: '/shops/:shopId/trials/:trialId/tests/:testId/ranks', access: 'member' },
+  // The care log (API.md): coating and inspecting the iron is work done in the shop, so members
+  // log it and tune the coating budgets; viewers read.
+  { method: 'GET', path: '/shops/:shopId/surfaces', access: 'viewer' },
+  { method: 'POST', path: '/shops/:shopId/surfaces', access: 'member' },
+  { method: 'GET', path: '/shops/:shopId/surfaces/:surfaceId', access: 'viewer' },
+  { method: 'POST', path: '/shops/:shopId/surfaces/:surfaceId/care', access: 'member' },
+  { method: 'GET', path: '/shops/:shopId/surfaces/:surfaceId/exposure', access: 'viewer' },
+  { method: 'GET', path: '/shops/:shopId/coating-budgets', access: 'viewer' },
+  { method: 'PUT', path: '/shops/:shopId/coating-budgets', access: 'member' },
 ];

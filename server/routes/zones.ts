@@ -128,6 +128,13 @@ export function zonesRouter(db: Db, tokens: SensorTokenCache): Router {
         'This zone has readings, which are its history: rename it instead of deleting it.',
       );
     }
+    if (refusal === 'has_surfaces') {
+      throw new ApiError(
+        409,
+        'zone_has_surfaces',
+        'This zone has surfaces with their care log: move or keep them; a zone is deleted only when empty.',
+      );
+    }
     res.status(204).end();
   });
 

@@ -7,6 +7,7 @@ import { randomUUID } from 'node:crypto';
 import request from 'supertest';
 import { afterAll, beforeAll, describe, expect, it } from 'vitest';
 
+import { insertSurface } from '@/db/queries/surfaces';
 import { POLICY, ROLE_RANK, isShopRole, type PolicyRow } from '@/server/auth/policy';
 
 import { makeTestApp, type TestApp } from '../support/app';
@@ -127,10 +128,44 @@ const SAMPLES: Record<string, Sample> = {
     }),
     status: { default: 200 },
   },
+  'GET /shops/:shopId/surfaces': { status: { default: 200 } },
+  'POST /shops/:shopId/surfaces': {
+    body: (w) => ({ name: 'Jointer bed', zoneId: w.a.zone.id }),
+    status: { default: 201 },
+  },
+  'GET /shops/:shopId/surfaces/:surfaceId': { status: { default: 200 } },
+  'POST /shops/:shopId/surfaces/:surfaceId/care': {
+    body: () => ({ kind: 'inspection', at: new Date().toISOString(), rusting: 1 }),
+    status: { default: 201 },
+  },
+  'GET /shops/:shopId/surfaces/:surfaceId/exposure': { status: { default: 200 } },
+  'GET /shops/:shopId/coating-budgets': { status: { default: 200 } },
+  'PUT /shops/:shopId/coating-budgets': {
+    body: () => ({ budgets: [{ coating: 'wax', hoursWet: 3, hoursClose: 50, towHours: 400 }] }),
+    status: { default: 200 },
+  },
 };
 
+/** A surface of shop A for the routes that name one (the world itself has none). */
+async function surfaceFor(row: PolicyRow, w: World): Promise<string | undefined> {
+  if (!row.path.includes(':surfaceId')) return undefined;
+  const surface = await insertSurface(t.db, {
+    shopId: w.a.id,
+    zoneId: w.a.zone.id,
+    name: `Saw top ${randomUUID().slice(0, 8)}`,
+    material: 'cast iron',
+    sensorId: null,
+  });
+  return surface.id;
+}
+
 /** The path with the world's ids; the target of /members/:userId is the viewer. */
-function pathFor(row: PolicyRow, w: World, shop: World['a'] | World['b'] = w.a): string {
+function pathFor(
+  row: PolicyRow,
+  w: World,
+  shop: World['a'] | World['b'] = w.a,
+  surfaceId?: string,
+): string {
   const values: Record<string, string> = {
     shopId: shop.id,
     zoneId: w.a.zone.id,
@@ -141,6 +176,7 @@ function pathFor(row: PolicyRow, w: World, shop: World['a'] | World['b'] = w.a):
     alarmId: randomUUID(),
     trialId: w.a.trial.id,
     testId: w.a.test.id,
+    surfaceId: surfaceId ?? '',
   };
   return row.path.replace(/:(\w+)/g, (_m, name: string) => {
     const value = values[name];
@@ -188,6 +224,7 @@ describe('tenant matrix (generated from server/auth/policy.ts)', () => {
         'invitationId',
         'sensorId',
         'shopId',
+        'surfaceId',
         'testId',
         'token',
         'trialId',
@@ -212,6 +249,10 @@ describe('tenant matrix (generated from server/auth/policy.ts)', () => {
       'POST /shops/:shopId/trials',
       'POST /shops/:shopId/trials/:trialId/tests',
       'PUT /shops/:shopId/trials/:trialId/tests/:testId/ranks',
+      // Coating and inspecting the iron is shop work (API.md: owners and members write).
+      'POST /shops/:shopId/surfaces',
+      'POST /shops/:shopId/surfaces/:surfaceId/care',
+      'PUT /shops/:shopId/coating-budgets',
     ]);
   });
 
@@ -219,8 +260,10 @@ describe('tenant matrix (generated from server/auth/policy.ts)', () => {
     const w = await makeWorld(t);
     const secrets = secretsOf(w);
     const sample = SAMPLES[key(row)] ?? {};
+    const surfaceId = await surfaceFor(row, w);
     for (const actor of ACTORS) {
-      const res = await call(row, pathFor(row, w), cookieOf(w, actor), sample.body?.(w));
+      const path = pathFor(row, w, w.a, surfaceId);
+      const res = await call(row, path, cookieOf(w, actor), sample.body?.(w));
       const where = `${key(row)} as ${actor}: ${res.status} ${res.text.slice(0, 200)}`;
       expect(res.status, where).not.toBe(500);
       const refused = refusal(row, actor);
@@ -249,14 +292,20 @@ describe('tenant matrix (generated from server/auth/policy.ts)', () => {
   const nested = POLICY.filter(
     (row) =>
       isShopRole(row.access) &&
-      /:(zoneId|sensorId|userId|invitationId|trialId|testId)/.test(row.path),
+      /:(zoneId|sensorId|userId|invitationId|trialId|testId|surfaceId)/.test(row.path),
   );
   it.each(nested.map((row) => [key(row), row] as const))(
     "%s with another shop's id answers 404 and changes nothing",
     async (_name, row) => {
       const w = await makeWorld(t);
       const sample = SAMPLES[key(row)] ?? {};
-      const res = await call(row, pathFor(row, w, w.b), w.stranger.cookie, sample.body?.(w));
+      const surfaceId = await surfaceFor(row, w);
+      const res = await call(
+        row,
+        pathFor(row, w, w.b, surfaceId),
+        w.stranger.cookie,
+        sample.body?.(w),
+      );
       expect(res.status, res.text).toBe(404);
       for (const secret of secretsOf(w).a) expect(res.text).not.toContain(secret);
       const zones = await request(t.app)
