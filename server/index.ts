@@ -9,6 +9,7 @@ import { startNotificationListener } from '@/db/listener';
 
 import { createAlarmEngine } from './alarms';
 import { createApp } from './app';
+import { createS3Storage } from './storage';
 import { allowedHostsOf } from './auth/hosts';
 import { createSensorTokenCache } from './auth/sensorTokens';
 import { createSessionSigner } from './auth/session';
@@ -67,6 +68,7 @@ async function main() {
     alarms,
     webDir: config.webDir,
     mailer: mail.mailer,
+    storage: config.storage && createS3Storage(config.storage),
     publicUrl: config.publicUrl,
     allowedHosts,
     trustProxy: config.trustProxy,

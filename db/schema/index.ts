@@ -7,3 +7,4 @@ export * from './people';
 export * from './sensing';
 export * from './alarms';
 export * from './reports';
+export * from './photos';

@@ -84,4 +84,10 @@ export const POLICY: readonly PolicyRow[] = [
 
   // The week report: anyone in the shop reads it (a viewer may be the landlord it is for).
   { method: 'GET', path: '/shops/:shopId/reports/week', access: 'viewer' },
+
+  // Photos for the care log and trials: taking one is work done in the shop; everyone in the
+  // shop sees them, through the checked proxy only (the bucket is never public).
+  { method: 'POST', path: '/shops/:shopId/photos', access: 'member' },
+  { method: 'GET', path: '/shops/:shopId/photos/:photoId', access: 'viewer' },
+  { method: 'GET', path: '/shops/:shopId/photos/:photoId/thumb', access: 'viewer' },
 ];
