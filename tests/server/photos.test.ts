@@ -6,7 +6,9 @@ import sharp from 'sharp';
 import { afterAll, beforeAll, describe, expect, it } from 'vitest';
 
 import { photos } from '@/db/schema';
+import { readConfig } from '@/server/config';
 import { PHOTO_MAX_BYTES } from '@/server/photos';
+import { StorageUnavailableError } from '@/server/storage';
 
 import { makeTestApp, type TestApp } from '../support/app';
 import { errorShape } from '../support/errorShape';
@@ -184,6 +186,76 @@ describe('photo upload and the checked proxy', () => {
     }
     expect(await photoRows(w.a.id)).toBe(rowsBefore);
     expect(await s3.keys(`shops/${w.a.id}/`)).toEqual(keysBefore);
+  });
+});
+
+describe('a store that fails half-way', () => {
+  it('deletes the photo it put when the thumbnail cannot be stored, and writes no row', async () => {
+    // The real store, with its second put refused as an unreachable store refuses it.
+    let puts = 0;
+    const faulty = makeTestApp({
+      storage: s3.config,
+      wrapStorage: (real) => ({
+        ...real,
+        async put(key, body, contentType) {
+          puts += 1;
+          if (puts === 2) throw new StorageUnavailableError(new Error('injected: thumbnail put'));
+          return real.put(key, body, contentType);
+        },
+      }),
+    });
+    try {
+      const world = await makeWorld(faulty);
+      const jpeg = await solid(500, 400).jpeg().toBuffer();
+      const res = await request(faulty.app)
+        .post(`/api/v1/shops/${world.a.id}/photos`)
+        .set('Cookie', world.member.cookie)
+        .attach('photo', jpeg, 'half.jpg');
+      expectErrorShape(res, 503, 'storage_unavailable');
+      // The first put did land before the fault; the clean-up took it away again.
+      expect(puts).toBe(2);
+      expect(await s3.keys(`shops/${world.a.id}/`)).toEqual([]);
+      expect(await photoRows(world.a.id)).toBe(0);
+    } finally {
+      await faulty.pool.end();
+    }
+  });
+});
+
+describe('storage settings', () => {
+  const base = { DATABASE_URL: 'postgres://x@127.0.0.1/db', SESSION_SECRET: 's'.repeat(32) };
+
+  it('reads S3_* into the storage config, path-style endpoint and default region', () => {
+    const config = readConfig({
+      ...base,
+      S3_ENDPOINT: 'https://objects.example.net',
+      S3_BUCKET: 'shop-photos',
+      S3_ACCESS_KEY_ID: 'AKIDEXAMPLE',
+      S3_SECRET_ACCESS_KEY: 'secret',
+    });
+    expect(config.storage).toEqual({
+      endpoint: 'https://objects.example.net',
+      bucket: 'shop-photos',
+      accessKeyId: 'AKIDEXAMPLE',
+      secretAccessKey: 'secret',
+      region: 'us-east-1',
+    });
+    expect(readConfig(base).storage).toBeUndefined();
+  });
+
+  it('refuses a bucket without keys and an endpoint that is not http(s)', () => {
+    expect(() => readConfig({ ...base, S3_BUCKET: 'shop-photos' })).toThrow(
+      /S3_BUCKET needs S3_ACCESS_KEY_ID and S3_SECRET_ACCESS_KEY/,
+    );
+    expect(() =>
+      readConfig({
+        ...base,
+        S3_ENDPOINT: 'ftp://objects.example.net',
+        S3_BUCKET: 'b-1',
+        S3_ACCESS_KEY_ID: 'a',
+        S3_SECRET_ACCESS_KEY: 'b',
+      }),
+    ).toThrow(/S3_ENDPOINT must be an http\(s\) URL/);
   });
 });
 
