@@ -25,8 +25,21 @@ export const THUMB_LONG_SIDE_PX = 320;
 // sharp's own default (268 Mpx) would let a small, highly compressed file unpack into gigabytes.
 const MAX_INPUT_PIXELS = 50_000_000;
 
-/** Types accepted, as file-type names them. HEIC only where this sharp build decodes it. */
-const ACCEPTED_MIME = new Set(['image/jpeg', 'image/png', 'image/webp', 'image/heic']);
+/**
+ * HEIC only where this sharp build decodes it: the prebuilt libvips reads HEIF with AV1 inside
+ * (.avif) but not HEVC, which is what phones write. (Phone browsers mostly hand a JPEG to an
+ * upload field anyway.)
+ */
+export const HEIC_READABLE = sharp.format.heif.input.fileSuffix?.includes('.heic') ?? false;
+
+/** Types accepted, as file-type names them. */
+const ACCEPTED_MIME = new Set([
+  'image/jpeg',
+  'image/png',
+  'image/webp',
+  ...(HEIC_READABLE ? ['image/heic'] : []),
+]);
+const ACCEPTED_NAMES = HEIC_READABLE ? 'JPEG, PNG, WebP or HEIC' : 'JPEG, PNG or WebP';
 
 export const PHOTO_FIELD = 'photo';
 
@@ -85,7 +98,7 @@ const unsupported = () =>
   new ApiError(
     415,
     'unsupported_media_type',
-    'Send a JPEG, PNG, WebP or HEIC photo; the file is not one (its name does not count).',
+    `Send a ${ACCEPTED_NAMES} photo; the file is not one (its name does not count).`,
   );
 
 /** Sniff, decode and re-encode; the output carries no metadata (sharp's default). */
@@ -111,12 +124,12 @@ export async function preparePhoto(input: Buffer): Promise<PreparedPhoto> {
     const thumb = await encode(THUMB_LONG_SIDE_PX, 75);
     return { full, thumb };
   } catch {
-    // The right magic bytes but no image sharp can decode (truncated, a HEVC-coded HEIC this
-    // build lacks, too many pixels): still not something we can store.
+    // The right magic bytes but no image sharp can decode (truncated, corrupt, too many
+    // pixels): still not something we can store.
     throw new ApiError(
       415,
       'unsupported_media_type',
-      'The photo could not be read as an image; send a JPEG, PNG or WebP.',
+      `The photo could not be read as an image; send a ${ACCEPTED_NAMES}.`,
     );
   }
 }
