@@ -1,7 +1,7 @@
 // The local S3 fake for `npm start`: s3rver on loopback, its objects under the git-ignored
 // .data/, the photo bucket made at start. A deployment sets S3_* to real object storage and
 // does not run this.
-//   tsx scripts/s3-fake.ts [--port 54330] [--dir .data/s3-dev] [--bucket drybench-photos]
+//   tsx scripts/s3-fake.ts [--port 54325] [--dir .data/s3-dev] [--bucket drybench-photos]
 import fs from 'node:fs';
 import { parseArgs } from 'node:util';
 
@@ -9,7 +9,7 @@ import S3rver from 's3rver';
 
 const { values } = parseArgs({
   options: {
-    port: { type: 'string', default: '54330' },
+    port: { type: 'string', default: '54325' },
     dir: { type: 'string', default: '.data/s3-dev' },
     bucket: { type: 'string', default: 'drybench-photos' },
   },
