@@ -117,7 +117,7 @@ export function createApp(deps: AppDeps): express.Express {
   api.use(healthRouter(deps.pool));
   api.use('/auth', authRouter(people));
   api.use('/me', meRouter(people));
-  api.use('/shops', shopsRouter(db, tokens));
+  api.use('/shops', shopsRouter(db, tokens, deps.storage));
   api.use('/shops/:shopId/zones/:zoneId/readings', readingsRouter(db, now));
   api.use('/shops/:shopId/zones', zonesRouter(db, tokens));
   api.use('/shops/:shopId/sensors', sensorsRouter(db, tokens));

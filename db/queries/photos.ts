@@ -24,3 +24,12 @@ export async function findShopPhoto(
     .where(and(eq(photos.shopId, shopId), eq(photos.id, photoId)));
   return row ?? null;
 }
+
+/** Every object key of a shop's photos (both sizes), for removing them with the shop. */
+export async function shopPhotoKeys(db: Db, shopId: string): Promise<string[]> {
+  const rows = await db
+    .select({ objectKey: photos.objectKey, thumbKey: photos.thumbKey })
+    .from(photos)
+    .where(eq(photos.shopId, shopId));
+  return rows.flatMap((r) => [r.objectKey, r.thumbKey]);
+}

@@ -181,3 +181,16 @@ export async function storePhoto(
     throw err;
   }
 }
+
+/**
+ * Removes objects a few at a time, best effort: they are already unreachable (their rows are
+ * gone), so a store that is down leaves them behind rather than failing the caller.
+ */
+export async function deleteObjects(storage: Storage, keys: readonly string[]): Promise<number> {
+  let failed = 0;
+  for (let i = 0; i < keys.length; i += 8) {
+    const results = await Promise.allSettled(keys.slice(i, i + 8).map((k) => storage.delete(k)));
+    failed += results.filter((r) => r.status === 'rejected').length;
+  }
+  return failed;
+}

@@ -189,6 +189,37 @@ describe('photo upload and the checked proxy', () => {
   });
 });
 
+describe('deleting a shop', () => {
+  it('removes its photos from the bucket, and leaves other shops’ alone', async () => {
+    const world = await makeWorld(t);
+    const jpeg = await solid(50, 40).jpeg().toBuffer();
+    for (const name of ['one.jpg', 'two.jpg']) {
+      await request(t.app)
+        .post(`/api/v1/shops/${world.a.id}/photos`)
+        .set('Cookie', world.member.cookie)
+        .attach('photo', jpeg, name)
+        .expect(201);
+    }
+    const kept = await request(t.app)
+      .post(`/api/v1/shops/${world.b.id}/photos`)
+      .set('Cookie', world.stranger.cookie)
+      .attach('photo', jpeg, 'b.jpg')
+      .expect(201);
+    // Two photos, each with its thumbnail.
+    expect(await s3.keys(`shops/${world.a.id}/`)).toHaveLength(4);
+
+    await request(t.app)
+      .delete(`/api/v1/shops/${world.a.id}`)
+      .set('Cookie', world.owner.cookie)
+      .send({ confirmName: world.a.name })
+      .expect(204);
+    expect(await s3.keys(`shops/${world.a.id}/`)).toEqual([]);
+    expect(await photoRows(world.a.id)).toBe(0);
+    expect(await s3.keys(`shops/${world.b.id}/`)).toHaveLength(2);
+    await getBytes(kept.body.url, world.stranger.cookie).expect(200);
+  });
+});
+
 describe('a store that fails half-way', () => {
   it('deletes the photo it put when the thumbnail cannot be stored, and writes no row', async () => {
     // The real store, with its second put refused as an unreachable store refuses it.
