@@ -101,8 +101,35 @@ const unsupported = () =>
     `Send a ${ACCEPTED_NAMES} photo; the file is not one (its name does not count).`,
   );
 
+// At most this many photos decode at once on one server: each decode holds its full-size
+// pixels (12 Mpx × 3 bytes ≈ 36 MB for a phone photo), and more at once than cores only adds
+// memory, not speed. The rest wait their turn in order.
+const MAX_PARALLEL_DECODES = 2;
+let decoding = 0;
+const waiting: (() => void)[] = [];
+
+async function inTurn<T>(work: () => Promise<T>): Promise<T> {
+  if (decoding >= MAX_PARALLEL_DECODES) {
+    await new Promise<void>((resolve) => waiting.push(resolve));
+  } else {
+    decoding += 1;
+  }
+  try {
+    return await work();
+  } finally {
+    // Hand the slot straight to the next in line, or give it back.
+    const next = waiting.shift();
+    if (next) next();
+    else decoding -= 1;
+  }
+}
+
 /** Sniff, decode and re-encode; the output carries no metadata (sharp's default). */
-export async function preparePhoto(input: Buffer): Promise<PreparedPhoto> {
+export function preparePhoto(input: Buffer): Promise<PreparedPhoto> {
+  return inTurn(() => decodeAndEncode(input));
+}
+
+async function decodeAndEncode(input: Buffer): Promise<PreparedPhoto> {
   const type = await fileTypeFromBuffer(input);
   if (!type || !ACCEPTED_MIME.has(type.mime)) throw unsupported();
   const encode = async (longSidePx: number, quality: number) => {

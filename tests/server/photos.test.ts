@@ -323,6 +323,29 @@ describe('photo bad-input corpus', () => {
     expect(await photoRows(w.a.id)).toBe(rowsBefore);
   });
 
+  it('refuses a small file that would unpack to more than 50 Mpx', async () => {
+    // 8000 × 7000 = 56 Mpx of one colour: a PNG of ~180 kB that would take 168 MB to decode.
+    const bomb = await solid(8000, 7000).png({ compressionLevel: 9 }).toBuffer();
+    expect(bomb.length).toBeLessThan(1024 * 1024);
+    const res = await upload(bomb, 'flat.png');
+    expectErrorShape(res, 415, 'unsupported_media_type');
+  });
+
+  it('takes several uploads at once, each whole and distinct', async () => {
+    const sizes = [
+      [640, 480],
+      [480, 640],
+      [300, 300],
+      [1000, 250],
+    ] as const;
+    const answers = await Promise.all(
+      sizes.map(async ([wPx, hPx]) => upload(await solid(wPx, hPx).jpeg().toBuffer(), 'many.jpg')),
+    );
+    expect(answers.map((r) => r.status)).toEqual([201, 201, 201, 201]);
+    expect(answers.map((r) => [r.body.widthPx, r.body.heightPx])).toEqual(sizes);
+    expect(new Set(answers.map((r) => r.body.id)).size).toBe(4);
+  });
+
   it('refuses a file over 10 MiB with 413 photo_too_large', async () => {
     // A JPEG start-of-image marker padded past the limit by one byte.
     const big = Buffer.alloc(PHOTO_MAX_BYTES + 1, 0x20);
