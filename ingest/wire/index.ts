@@ -10,3 +10,4 @@ export * from './readings';
 export * from './sensors';
 export * from './zones';
 export * from './reports';
+export * from './photos';

@@ -10,15 +10,13 @@ import { z } from 'zod';
 
 import type { Db } from '@/db';
 import { findShopPhoto } from '@/db/queries/photos';
+import { PHOTO_SUBJECT_KINDS, type CreatedPhoto } from '@/ingest/wire/photos';
 
 import { shopIdOf, userIdOf } from '../auth/middleware';
 import { ApiError } from '../errors';
 import { preparePhoto, receivePhoto, storePhoto } from '../photos';
 import { StorageUnavailableError, type Storage } from '../storage';
 import { parseInput } from '../validate';
-
-/** What a photo can belong to; the care log and trials check the id against their own tables. */
-export const PHOTO_SUBJECT_KINDS = ['care_entry', 'trial_test'] as const;
 
 const subjectFields = z
   .object({
@@ -66,7 +64,7 @@ export function photosRouter(db: Db, storage: Storage | undefined): Router {
       ...photoUrls(shopId, row.id),
       widthPx: row.widthPx,
       heightPx: row.heightPx,
-    });
+    } satisfies CreatedPhoto);
   });
 
   const send = async (res: Response, photoIdText: unknown, which: 'objectKey' | 'thumbKey') => {
