@@ -111,6 +111,11 @@ async function main() {
     `Drybench server listening on http://${config.host}:${config.port}`,
   );
   log.info(`Drybench ${mail.describe}`);
+  log.info(
+    config.storage
+      ? `Drybench photos go to bucket ${config.storage.bucket} at ${config.storage.endpoint ?? `the S3 default for ${config.storage.region}`}`
+      : 'Drybench has no photo storage (S3_BUCKET unset): photo uploads answer 503.',
+  );
   if (config.devOutboxRefusal) log.warn(config.devOutboxRefusal);
   if (!config.publicUrlSet && (config.host === '0.0.0.0' || config.host === '::')) {
     log.warn(
