@@ -19,7 +19,7 @@ cleanup() {
   for pid in "${pids[@]}"; do kill -TERM "$pid" 2>/dev/null || true; done
   wait 2>/dev/null || true
   bash scripts/db.sh stop "$PG_NAME"
-  echo "Stopped the server, the demo sensors and PostgreSQL."
+  echo "Stopped the server, the demo sensors, the S3 fake and PostgreSQL."
 }
 trap cleanup EXIT INT TERM
 
@@ -33,6 +33,16 @@ export DEV_OUTBOX=${DEV_OUTBOX:-true}
 
 # Plain node with the tsx loader (not npx): one process each, so $! is the process itself.
 run_ts=(node --import tsx)
+
+# Photos go to a local S3 fake (s3rver on loopback, objects in .data/) unless S3_BUCKET names
+# real object storage. s3rver accepts only its well-known key pair.
+if [ -z "${S3_BUCKET:-}" ]; then
+  S3_PORT=${S3_PORT:-54325}
+  export S3_ENDPOINT=http://127.0.0.1:$S3_PORT S3_BUCKET=drybench-photos
+  export S3_ACCESS_KEY_ID=S3RVER S3_SECRET_ACCESS_KEY=S3RVER
+  "${run_ts[@]}" scripts/s3-fake.ts --port "$S3_PORT" --dir ".data/s3-$PG_NAME" --bucket "$S3_BUCKET" &
+  pids+=($!)
+fi
 
 "${run_ts[@]}" scripts/migrate.ts
 "${run_ts[@]}" scripts/seed.ts "$tokens"

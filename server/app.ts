@@ -22,6 +22,7 @@ import type { SessionSigner } from './auth/session';
 import type { TrustProxy } from './config';
 import type { Logger } from './logger';
 import type { SurfaceEstimator } from './readings/surfaceEstimates';
+import type { Storage } from './storage';
 import type { ReadingWriter } from './readings/writer';
 import { errorHandler, notFound } from './errors';
 import { outboxRouter, type Mailer, type Outbox } from './mail';
@@ -31,6 +32,7 @@ import { healthRouter } from './routes/health';
 import { ingestRouter } from './routes/ingest';
 import { invitationsRouter } from './routes/invitations';
 import { meRouter } from './routes/me';
+import { photosRouter } from './routes/photos';
 import { membersRouter } from './routes/members';
 import { readingsRouter } from './routes/readings';
 import { reportsRouter } from './routes/reports';
@@ -56,6 +58,8 @@ export interface AppDeps {
   /** Per-sensor request limit of the ingest route; the default suits real sensors. */
   sensorRate?: RateLimitOptions;
   mailer: Mailer;
+  /** Photo storage (server/storage/); omitted, photo uploads and reads answer 503. */
+  storage?: Storage;
   /** Where people reach the app (links in e-mail; a trusted origin). */
   publicUrl: string;
   /** Host header values answered (server/auth/hosts.ts); every other gets 421. */
@@ -115,7 +119,7 @@ export function createApp(deps: AppDeps): express.Express {
   api.use(healthRouter(deps.pool));
   api.use('/auth', authRouter(people));
   api.use('/me', meRouter(people));
-  api.use('/shops', shopsRouter(db, tokens));
+  api.use('/shops', shopsRouter(db, tokens, deps.storage));
   api.use('/shops/:shopId/zones/:zoneId/readings', readingsRouter(db, now));
   api.use('/shops/:shopId/zones', zonesRouter(db, tokens));
   api.use('/shops/:shopId/sensors', sensorsRouter(db, tokens));
@@ -123,6 +127,7 @@ export function createApp(deps: AppDeps): express.Express {
   api.use('/shops/:shopId/reports', reportsRouter(db, now));
   api.use('/shops/:shopId/trials', trialsRouter(db, now));
   api.use('/shops/:shopId', surfacesRouter(db, now));
+  api.use('/shops/:shopId/photos', photosRouter(db, deps.storage));
   api.use('/shops/:shopId', membersRouter(db));
   api.use(invitationsRouter(people));
   api.use(notFound);

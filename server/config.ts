@@ -6,6 +6,7 @@ import { z } from 'zod';
 import { DEFAULT_QUERY_TIMEOUT_MS, DEFAULT_STATEMENT_TIMEOUT_MS } from '@/db';
 
 import { DEFAULT_MAX_PENDING_ROWS } from './readings/writer';
+import type { StorageConfig } from './storage';
 
 /** What Express's `trust proxy` setting receives: off, every hop, a hop count, or addresses. */
 export type TrustProxy = boolean | number | string[];
@@ -89,6 +90,15 @@ const envSchema = z.object({
     .toLowerCase()
     .pipe(z.enum(LOG_LEVELS, { error: `LOG_LEVEL must be one of ${LOG_LEVELS.join(', ')}` }))
     .default('info'),
+  // Photo storage over the S3 API (server/storage/). Unset, photo uploads answer 503;
+  // `npm start` and the tests point these at a local fake.
+  S3_ENDPOINT: z
+    .url({ protocol: /^https?$/, error: 'S3_ENDPOINT must be an http(s) URL' })
+    .optional(),
+  S3_BUCKET: z.string().min(3).optional(),
+  S3_ACCESS_KEY_ID: z.string().min(1).optional(),
+  S3_SECRET_ACCESS_KEY: z.string().min(1).optional(),
+  S3_REGION: z.string().min(1).default('us-east-1'),
 });
 
 export interface Config {
@@ -121,6 +131,8 @@ export interface Config {
   /** Absent: the live hub's default. */
   liveSocketsPerUser?: number;
   logLevel: LogLevel;
+  /** Where photos are stored; absent when S3_BUCKET is not set. */
+  storage?: StorageConfig;
 }
 
 /** 127.0.0.0/8, ::1 and the name localhost: addresses only this machine can reach. */
@@ -147,13 +159,21 @@ export function devOutboxAllowed(c: { host: string; production: boolean }): bool
 
 // The server's statement_timeout should fire first: it cancels the statement on the database
 // too, where the client-side limit only stops waiting for it.
-const checkedEnvSchema = envSchema.refine(
-  (e) => e.DB_STATEMENT_TIMEOUT_MS < e.DB_QUERY_TIMEOUT_MS,
-  {
+const checkedEnvSchema = envSchema
+  .refine((e) => e.DB_STATEMENT_TIMEOUT_MS < e.DB_QUERY_TIMEOUT_MS, {
     path: ['DB_QUERY_TIMEOUT_MS'],
     message: 'DB_QUERY_TIMEOUT_MS must be longer than DB_STATEMENT_TIMEOUT_MS',
-  },
-);
+  })
+  .refine(
+    // Half a storage setting would fail at the first upload; say so at start-up instead.
+    (e) =>
+      e.S3_BUCKET === undefined ||
+      (e.S3_ACCESS_KEY_ID !== undefined && e.S3_SECRET_ACCESS_KEY !== undefined),
+    {
+      path: ['S3_BUCKET'],
+      message: 'S3_BUCKET needs S3_ACCESS_KEY_ID and S3_SECRET_ACCESS_KEY',
+    },
+  );
 
 export function readConfig(
   env: Readonly<Record<string, string | undefined>> = process.env,
@@ -191,6 +211,16 @@ export function readConfig(
     trustProxy: e.TRUST_PROXY,
     liveSocketsPerUser: e.LIVE_SOCKETS_PER_USER,
     logLevel: e.LOG_LEVEL,
+    storage:
+      e.S3_BUCKET !== undefined
+        ? {
+            endpoint: e.S3_ENDPOINT,
+            bucket: e.S3_BUCKET,
+            accessKeyId: e.S3_ACCESS_KEY_ID!,
+            secretAccessKey: e.S3_SECRET_ACCESS_KEY!,
+            region: e.S3_REGION,
+          }
+        : undefined,
   };
 }
 

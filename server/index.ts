@@ -9,6 +9,7 @@ import { startNotificationListener } from '@/db/listener';
 
 import { createAlarmEngine } from './alarms';
 import { createApp } from './app';
+import { createS3Storage } from './storage';
 import { allowedHostsOf } from './auth/hosts';
 import { createSensorTokenCache } from './auth/sensorTokens';
 import { createSessionSigner } from './auth/session';
@@ -67,6 +68,7 @@ async function main() {
     alarms,
     webDir: config.webDir,
     mailer: mail.mailer,
+    storage: config.storage && createS3Storage(config.storage),
     publicUrl: config.publicUrl,
     allowedHosts,
     trustProxy: config.trustProxy,
@@ -109,6 +111,11 @@ async function main() {
     `Drybench server listening on http://${config.host}:${config.port}`,
   );
   log.info(`Drybench ${mail.describe}`);
+  log.info(
+    config.storage
+      ? `Drybench photos go to bucket ${config.storage.bucket} at ${config.storage.endpoint ?? `the S3 default for ${config.storage.region}`}`
+      : 'Drybench has no photo storage (S3_BUCKET unset): photo uploads answer 503.',
+  );
   if (config.devOutboxRefusal) log.warn(config.devOutboxRefusal);
   if (!config.publicUrlSet && (config.host === '0.0.0.0' || config.host === '::')) {
     log.warn(

@@ -9,3 +9,4 @@ export * from './alarms';
 export * from './reports';
 export * from './trials';
 export * from './care';
+export * from './photos';

@@ -12,3 +12,4 @@ export * from './zones';
 export * from './reports';
 export * from './trials';
 export * from './surfaces';
+export * from './photos';

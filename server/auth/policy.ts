@@ -101,4 +101,9 @@ export const POLICY: readonly PolicyRow[] = [
   { method: 'GET', path: '/shops/:shopId/surfaces/:surfaceId/exposure', access: 'viewer' },
   { method: 'GET', path: '/shops/:shopId/coating-budgets', access: 'viewer' },
   { method: 'PUT', path: '/shops/:shopId/coating-budgets', access: 'member' },
+  // Photos for the care log and trials: taking one is work done in the shop; everyone in the
+  // shop sees them, through the checked proxy only (the bucket is never public).
+  { method: 'POST', path: '/shops/:shopId/photos', access: 'member' },
+  { method: 'GET', path: '/shops/:shopId/photos/:photoId', access: 'viewer' },
+  { method: 'GET', path: '/shops/:shopId/photos/:photoId/thumb', access: 'viewer' },
 ];

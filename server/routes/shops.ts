@@ -3,6 +3,7 @@ import { Router } from 'express';
 import { z } from 'zod';
 
 import type { Db } from '@/db';
+import { shopPhotoKeys } from '@/db/queries/photos';
 import { createShopWithOwner, deleteShop, findShop, updateShop } from '@/db/queries/shops';
 import { defaultPaperSize } from '@/ingest/paperSize';
 import { checkTimeZone } from '@/ingest/timeZones';
@@ -11,6 +12,8 @@ import { PAPER_SIZES } from '@/ingest/wire/reports';
 import { roleOf, shopIdOf, userIdOf } from '../auth/middleware';
 import type { SensorTokenCache } from '../auth/sensorTokens';
 import { ApiError } from '../errors';
+import { deleteObjects } from '../photos';
+import type { Storage } from '../storage';
 import { parseInput } from '../validate';
 import { toShop, toShopSummary } from '../wire/people';
 
@@ -54,7 +57,11 @@ const deleteShopBody = z.object({ confirmName: z.string().max(200) });
 
 const gone = () => new ApiError(404, 'shop_not_found', 'No such shop among yours.');
 
-export function shopsRouter(db: Db, tokens: SensorTokenCache): Router {
+export function shopsRouter(
+  db: Db,
+  tokens: SensorTokenCache,
+  storage: Storage | undefined,
+): Router {
   const router = Router();
 
   router.post('/', async (req, res) => {
@@ -94,10 +101,13 @@ export function shopsRouter(db: Db, tokens: SensorTokenCache): Router {
         [{ path: 'confirmName', message: `Type “${shop.name}”` }],
       );
     }
+    const photoKeys = await shopPhotoKeys(db, shop.id);
     const { tokenHashes } = await deleteShop(db, shop.id);
     // The sensors are gone with the shop: their tokens must stop working on every instance now,
     // not when each instance's cache entry expires.
     await tokens.invalidate(tokenHashes);
+    // The photo rows went with the shop; their bytes must not outlive it in the bucket.
+    if (storage) await deleteObjects(storage, photoKeys);
     res.status(204).end();
   });
 

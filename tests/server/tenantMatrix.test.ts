@@ -5,25 +5,34 @@
 import { randomUUID } from 'node:crypto';
 
 import request from 'supertest';
+import sharp from 'sharp';
 import { afterAll, beforeAll, describe, expect, it } from 'vitest';
 
 import { insertSurface } from '@/db/queries/surfaces';
 import { POLICY, ROLE_RANK, isShopRole, type PolicyRow } from '@/server/auth/policy';
 
 import { makeTestApp, type TestApp } from '../support/app';
+import { startS3Fake, type S3Fake } from '../support/s3';
 import { ACTORS, makeWorld, secretsOf, type Actor, type World } from '../support/tenants';
 
 let t: TestApp;
-beforeAll(() => {
-  t = makeTestApp();
+let s3: S3Fake;
+beforeAll(async () => {
+  s3 = await startS3Fake();
+  t = makeTestApp({ storage: s3.config });
 });
-afterAll(() => t.pool.end());
+afterAll(async () => {
+  await t.pool.end();
+  await s3.dispose();
+});
 
 const key = (row: PolicyRow) => `${row.method} ${row.path}`;
 const fresh = () => `${randomUUID().slice(0, 8)}@matrix.example`;
 
 interface Sample {
   body?: (w: World) => object;
+  /** Sent as the multipart file field `photo` instead of a JSON body. */
+  photo?: () => Promise<Buffer>;
   /** Status for an actor the policy lets through (`default` for all of them). */
   status?: Partial<Record<Actor | 'default', number>>;
 }
@@ -144,6 +153,16 @@ const SAMPLES: Record<string, Sample> = {
     body: () => ({ budgets: [{ coating: 'wax', hoursWet: 3, hoursClose: 50, towHours: 400 }] }),
     status: { default: 200 },
   },
+  'POST /shops/:shopId/photos': {
+    photo: () =>
+      sharp({ create: { width: 8, height: 8, channels: 3, background: '#808080' } })
+        .jpeg()
+        .toBuffer(),
+    status: { default: 201 },
+  },
+  // Shop A's photo, stored by its owner before the actors ask.
+  'GET /shops/:shopId/photos/:photoId': { status: { default: 200 } },
+  'GET /shops/:shopId/photos/:photoId/thumb': { status: { default: 200 } },
 };
 
 /** A surface of shop A for the routes that name one (the world itself has none). */
@@ -159,14 +178,31 @@ async function surfaceFor(row: PolicyRow, w: World): Promise<string | undefined>
   return surface.id;
 }
 
+/** A real photo in shop A (objects in the S3 fake) when the route names one, else no id. */
+async function photoFor(row: PolicyRow, w: World): Promise<string | undefined> {
+  if (!row.path.includes(':photoId')) return undefined;
+  const jpeg = await sharp({
+    create: { width: 16, height: 16, channels: 3, background: '#806040' },
+  })
+    .jpeg()
+    .toBuffer();
+  const res = await request(t.app)
+    .post(`/api/v1/shops/${w.a.id}/photos`)
+    .set('Cookie', w.owner.cookie)
+    .attach('photo', jpeg, 'matrix.jpg')
+    .expect(201);
+  return res.body.id as string;
+}
+
 /** The path with the world's ids; the target of /members/:userId is the viewer. */
 function pathFor(
   row: PolicyRow,
   w: World,
   shop: World['a'] | World['b'] = w.a,
-  surfaceId?: string,
+  ids: { surfaceId?: string; photoId?: string } = {},
 ): string {
-  const values: Record<string, string> = {
+  const values: Record<string, string | undefined> = {
+    ...ids,
     shopId: shop.id,
     zoneId: w.a.zone.id,
     sensorId: w.a.sensor.id,
@@ -176,7 +212,6 @@ function pathFor(
     alarmId: randomUUID(),
     trialId: w.a.trial.id,
     testId: w.a.test.id,
-    surfaceId: surfaceId ?? '',
   };
   return row.path.replace(/:(\w+)/g, (_m, name: string) => {
     const value = values[name];
@@ -189,10 +224,17 @@ function cookieOf(w: World, actor: Actor): string | null {
   return actor === 'anonymous' ? null : w[actor].cookie;
 }
 
-async function call(row: PolicyRow, path: string, cookie: string | null, body?: object) {
+async function call(
+  row: PolicyRow,
+  path: string,
+  cookie: string | null,
+  body?: object,
+  photo?: Buffer,
+) {
   const method = row.method.toLowerCase() as 'get' | 'post' | 'patch' | 'put' | 'delete';
   let req = request(t.app)[method](`/api/v1${path}`);
   if (cookie) req = req.set('Cookie', cookie);
+  if (photo) return req.attach('photo', photo, 'matrix.jpg');
   return body ? req.send(body) : req;
 }
 
@@ -222,6 +264,7 @@ describe('tenant matrix (generated from server/auth/policy.ts)', () => {
       [
         'alarmId',
         'invitationId',
+        'photoId',
         'sensorId',
         'shopId',
         'surfaceId',
@@ -253,6 +296,8 @@ describe('tenant matrix (generated from server/auth/policy.ts)', () => {
       'POST /shops/:shopId/surfaces',
       'POST /shops/:shopId/surfaces/:surfaceId/care',
       'PUT /shops/:shopId/coating-budgets',
+      // Photos of care and trials are taken by whoever does the work.
+      'POST /shops/:shopId/photos',
     ]);
   });
 
@@ -260,11 +305,17 @@ describe('tenant matrix (generated from server/auth/policy.ts)', () => {
     const w = await makeWorld(t);
     const secrets = secretsOf(w);
     const sample = SAMPLES[key(row)] ?? {};
-    const surfaceId = await surfaceFor(row, w);
+    const ids = { surfaceId: await surfaceFor(row, w), photoId: await photoFor(row, w) };
+    const photo = await sample.photo?.();
     for (const actor of ACTORS) {
-      const path = pathFor(row, w, w.a, surfaceId);
-      const res = await call(row, path, cookieOf(w, actor), sample.body?.(w));
-      const where = `${key(row)} as ${actor}: ${res.status} ${res.text.slice(0, 200)}`;
+      const res = await call(
+        row,
+        pathFor(row, w, w.a, ids),
+        cookieOf(w, actor),
+        sample.body?.(w),
+        photo,
+      );
+      const where = `${key(row)} as ${actor}: ${res.status} ${(res.text ?? '').slice(0, 200)}`;
       expect(res.status, where).not.toBe(500);
       const refused = refusal(row, actor);
       if (refused) {
@@ -276,7 +327,8 @@ describe('tenant matrix (generated from server/auth/policy.ts)', () => {
       }
       // Leaks: nobody outside shop A sees its data (the invitation link's holder excepted:
       // the token is the key), and nobody but the stranger sees shop B's.
-      const text = res.text;
+      // Photos answer bytes, not text: nothing of either shop's to find in them.
+      const text = res.text ?? '';
       const outsideA = actor === 'anonymous' || actor === 'stranger';
       if (outsideA && !row.path.includes(':token')) {
         for (const secret of secrets.a) expect(text, where).not.toContain(secret);
@@ -287,24 +339,25 @@ describe('tenant matrix (generated from server/auth/policy.ts)', () => {
     }
   });
 
-  // Shop B's owner naming shop B in the path but one of shop A's zones, sensors, members or
-  // invitations: the resource is not in their shop, so it does not exist for them.
+  // Shop B's owner naming shop B in the path but one of shop A's zones, sensors, members,
+  // invitations or photos: the resource is not in their shop, so it does not exist for them.
   const nested = POLICY.filter(
     (row) =>
       isShopRole(row.access) &&
-      /:(zoneId|sensorId|userId|invitationId|trialId|testId|surfaceId)/.test(row.path),
+      /:(zoneId|sensorId|userId|invitationId|trialId|testId|surfaceId|photoId)/.test(row.path),
   );
   it.each(nested.map((row) => [key(row), row] as const))(
     "%s with another shop's id answers 404 and changes nothing",
     async (_name, row) => {
       const w = await makeWorld(t);
       const sample = SAMPLES[key(row)] ?? {};
-      const surfaceId = await surfaceFor(row, w);
+      const ids = { surfaceId: await surfaceFor(row, w), photoId: await photoFor(row, w) };
       const res = await call(
         row,
-        pathFor(row, w, w.b, surfaceId),
+        pathFor(row, w, w.b, ids),
         w.stranger.cookie,
         sample.body?.(w),
+        await sample.photo?.(),
       );
       expect(res.status, res.text).toBe(404);
       for (const secret of secretsOf(w).a) expect(res.text).not.toContain(secret);

@@ -18,6 +18,7 @@ import { silentLogger, type Logger } from '@/server/logger';
 import { createSurfaceEstimator } from '@/server/readings/surfaceEstimates';
 import { createReadingWriter, type WriterOptions } from '@/server/readings/writer';
 import { VERIFICATION_SUBJECT } from '@/server/mail';
+import { createS3Storage, type Storage, type StorageConfig } from '@/server/storage';
 
 import { linkToken, waitForMail } from './mail';
 
@@ -54,6 +55,10 @@ export interface TestAppOptions {
   queryTimeoutMs?: number;
   /** The group writer's options (e.g. a small maxPendingRows to test back-pressure). */
   writer?: Partial<WriterOptions>;
+  /** Photo storage (tests/support/s3.ts starts a real S3 fake); omitted, photos answer 503. */
+  storage?: StorageConfig;
+  /** Fault tests wrap the real store to make one call fail at a chosen moment. */
+  wrapStorage?: (storage: Storage) => Storage;
 }
 
 /** Where links in test e-mail point; also a trusted origin of the test app. */
@@ -119,6 +124,8 @@ export function makeTestApp(options: TestAppOptions = {}) {
     webDir: options.webDir,
     sensorRate: options.sensorRate,
     mailer,
+    storage:
+      options.storage && (options.wrapStorage ?? ((s) => s))(createS3Storage(options.storage)),
     publicUrl: TEST_PUBLIC_URL,
     allowedHosts: options.allowedHosts ?? TEST_ALLOWED_HOSTS,
     trustProxy: options.trustProxy,
