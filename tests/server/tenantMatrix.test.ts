@@ -285,20 +285,22 @@ describe('tenant matrix (generated from server/auth/policy.ts)', () => {
       (row) =>
         row.method !== 'GET' && row.path.startsWith('/shops/:shopId') && row.access !== 'owner',
     ).map(key);
-    expect(belowOwner.sort()).toEqual([
-      'DELETE /shops/:shopId/membership',
-      'POST /shops/:shopId/alarms/:alarmId/ack',
-      // Trials are work done in the shop: members add and rank tests (API.md).
-      'POST /shops/:shopId/trials',
-      'POST /shops/:shopId/trials/:trialId/tests',
-      'PUT /shops/:shopId/trials/:trialId/tests/:testId/ranks',
-      // Coating and inspecting the iron is shop work (API.md: owners and members write).
-      'POST /shops/:shopId/surfaces',
-      'POST /shops/:shopId/surfaces/:surfaceId/care',
-      'PUT /shops/:shopId/coating-budgets',
-      // Photos of care and trials are taken by whoever does the work.
-      'POST /shops/:shopId/photos',
-    ]);
+    expect(belowOwner.sort()).toEqual(
+      [
+        'DELETE /shops/:shopId/membership',
+        'POST /shops/:shopId/alarms/:alarmId/ack',
+        // Trials are work done in the shop: members add and rank tests (API.md).
+        'POST /shops/:shopId/trials',
+        'POST /shops/:shopId/trials/:trialId/tests',
+        'PUT /shops/:shopId/trials/:trialId/tests/:testId/ranks',
+        // Coating and inspecting the iron is shop work (API.md: owners and members write).
+        'POST /shops/:shopId/surfaces',
+        'POST /shops/:shopId/surfaces/:surfaceId/care',
+        'PUT /shops/:shopId/coating-budgets',
+        // Photos of care and trials are taken by whoever does the work.
+        'POST /shops/:shopId/photos',
+      ].sort(),
+    );
   });
 
   it.each(POLICY.map((row) => [key(row), row] as const))('%s', async (_name, row) => {
