@@ -4,7 +4,7 @@
 // Conditions come from readings posted through POST /api/v1/ingest and are worked out by hand.
 import { afterAll, beforeAll, describe, expect, it } from 'vitest';
 
-import { makeTestApp, verifiedPerson, type TestApp } from '../support/app';
+import { makeTestApp, ownerWithSensor, type TestApp } from '../support/app';
 import { postIngest } from '../support/ingest';
 
 let t: TestApp;
@@ -15,28 +15,8 @@ afterAll(() => t.pool.end());
 
 const MIN_MS = 60_000;
 
-async function shopWithSensor() {
-  const owner = await verifiedPerson(t, 'Owner');
-  const shop = (
-    await owner.agent
-      .post('/api/v1/shops')
-      .send({ name: 'Tamarack', timeZone: 'America/Chicago' })
-      .expect(201)
-  ).body as { id: string };
-  const zone = (
-    await owner.agent
-      .post(`/api/v1/shops/${shop.id}/zones`)
-      .send({ name: 'Machine room' })
-      .expect(201)
-  ).body as { id: string };
-  const sensor = (
-    await owner.agent
-      .post(`/api/v1/shops/${shop.id}/sensors`)
-      .send({ name: 'Saw probe', zoneId: zone.id })
-      .expect(201)
-  ).body as { token: string };
-  return { agent: owner.agent, shopId: shop.id, zoneId: zone.id, token: sensor.token };
-}
+// A shop of its own with one zone and one probe, made through the API.
+const shopWithSensor = () => ownerWithSensor(t);
 
 const every10 = (startIso: string, n: number, air: number, rh: number, surface: number) =>
   Array.from({ length: n }, (_, i) => ({

@@ -3,8 +3,8 @@
 import Papa from 'papaparse';
 import { afterAll, beforeAll, describe, expect, it } from 'vitest';
 
-import { makeTestApp, verifiedPerson, type TestApp } from '../support/app';
-import { postIngest } from '../support/ingest';
+import { makeTestApp, type TestApp } from '../support/app';
+import { fahrenheitShopWithSixReadings } from '../support/weekReports';
 
 let t: TestApp;
 beforeAll(() => {
@@ -12,38 +12,19 @@ beforeAll(() => {
 });
 afterAll(() => t.pool.end());
 
-const MIN = 60_000;
-
 describe('week report CSV', () => {
   it('parses back to the JSON figures in °F, with formula-like names neutralised', async () => {
-    const o = await verifiedPerson(t, 'Owner');
-    await o.agent.patch('/api/v1/me').send({ unitPref: 'F' }).expect(200);
-    const shopId = (
-      await o.agent.post('/api/v1/shops').send({ name: 'Tamarack', timeZone: 'UTC' }).expect(201)
-    ).body.id as string;
-    const zone = async (name: string) =>
-      (await o.agent.post(`/api/v1/shops/${shopId}/zones`).send({ name }).expect(201)).body
-        .id as string;
     const hyperlink = '=HYPERLINK("http://example.com","Click")';
-    const z1 = await zone(hyperlink);
-    await zone('-1+2');
-    const token = (
-      await o.agent
-        .post(`/api/v1/shops/${shopId}/sensors`)
-        .send({ name: 'Saw probe', zoneId: z1 })
-        .expect(201)
-    ).body.token as string;
     // Week of Monday 2026-06-15 (UTC shop). Air 10 °C at RH 100 % has its dew point at 10 °C, so a
     // 13 °C surface is exactly 3 K above it: 5.4 °F as a difference (×1.8, no offset). Air 20 °C
     // is 68 °F (×1.8 + 32). Six readings 10 min apart: 5 × 10 + 15 (the cap, for the last) = 65 min covered.
-    const startMs = Date.parse('2026-06-16T06:00:00Z');
-    const readings = Array.from({ length: 6 }, (_, i) => ({
-      at: new Date(startMs + i * 10 * MIN).toISOString(),
-      air: i < 3 ? 10 : 20,
-      rh: i < 3 ? 100 : 50,
-      surface: i < 3 ? 13 : 25,
-    }));
-    await postIngest(t.app, token, { readings }).expect(202);
+    const o = await fahrenheitShopWithSixReadings(t, {
+      name: 'Tamarack',
+      timeZone: 'UTC',
+      zones: [hyperlink, '-1+2'],
+      firstAt: '2026-06-16T06:00:00Z',
+    });
+    const shopId = o.shopId;
 
     const path = `/api/v1/shops/${shopId}/reports/week?start=2026-06-15`;
     const json = (await o.agent.get(path).expect(200)).body;

@@ -5,16 +5,14 @@
 import type { Response } from 'superagent';
 import { afterAll, beforeAll, describe, expect, it } from 'vitest';
 
-import { makeTestApp, verifiedPerson, type TestApp } from '../support/app';
-import { postIngest } from '../support/ingest';
+import { makeTestApp, type TestApp } from '../support/app';
+import { fahrenheitShopWithSixReadings } from '../support/weekReports';
 
 let t: TestApp;
 beforeAll(() => {
   t = makeTestApp();
 });
 afterAll(() => t.pool.end());
-
-const MIN = 60_000;
 
 async function pdfText(data: Buffer) {
   const { PDFParse } = await import('pdf-parse');
@@ -40,36 +38,16 @@ function binary(res: Response, done: (err: Error | null, body: Buffer) => void) 
 
 describe('week report PDF through the route', () => {
   it('answers the shop’s zones on its paper, in °F, as an attachment', async () => {
-    const o = await verifiedPerson(t, 'Owner');
-    await o.agent.patch('/api/v1/me').send({ unitPref: 'F' }).expect(200);
-    const shopId = (
-      await o.agent
-        .post('/api/v1/shops')
-        .send({ name: 'Tamarack Joinery', timeZone: 'America/Chicago' })
-        .expect(201)
-    ).body.id as string;
-    const zone = async (name: string) =>
-      (await o.agent.post(`/api/v1/shops/${shopId}/zones`).send({ name }).expect(201)).body
-        .id as string;
-    const machines = await zone('Machine room');
-    await zone('Finishing room');
-    const token = (
-      await o.agent
-        .post(`/api/v1/shops/${shopId}/sensors`)
-        .send({ name: 'Saw probe', zoneId: machines })
-        .expect(201)
-    ).body.token as string;
     // Week of Monday 2026-06-15 in Chicago (CDT, UTC−5 all week: 168 h). Air 10 °C at RH 100 %
     // has its dew point at 10 °C, so a 13 °C surface is 3 K above it: +5.4 °F as a difference.
     // 10 °C = 50.0 °F, 20 °C = 68.0 °F. The first reading, 11:00 UTC, is 06:00 CDT on Tue 16 Jun.
-    const startMs = Date.parse('2026-06-16T11:00:00Z');
-    const readings = Array.from({ length: 6 }, (_, i) => ({
-      at: new Date(startMs + i * 10 * MIN).toISOString(),
-      air: i < 3 ? 10 : 20,
-      rh: i < 3 ? 100 : 50,
-      surface: i < 3 ? 13 : 25,
-    }));
-    await postIngest(t.app, token, { readings }).expect(202);
+    const o = await fahrenheitShopWithSixReadings(t, {
+      name: 'Tamarack Joinery',
+      timeZone: 'America/Chicago',
+      zones: ['Machine room', 'Finishing room'],
+      firstAt: '2026-06-16T11:00:00Z',
+    });
+    const shopId = o.shopId;
 
     const path = `/api/v1/shops/${shopId}/reports/week?start=2026-06-15`;
     const json = (await o.agent.get(path).expect(200)).body;

@@ -7,6 +7,9 @@ import type { ReadingPoint } from '@/ingest/wire/readings';
 import type { UnitPref } from '@/ingest/wire/people';
 import type { PaperSize, WeekReport, ZoneWeekFigures } from '@/ingest/wire/reports';
 
+import { verifiedPerson, type TestApp } from './app';
+import { postIngest } from './ingest';
+
 export const LONG_ZONE_NAME =
   'Lumber rack along the north wall, behind the jointer and the long outfeed table';
 
@@ -207,4 +210,44 @@ export function marginSeries(
     });
   }
   return points;
+}
+
+/**
+ * A °F reader's shop in `timeZone` with two zones, the first with a probe that posted six
+ * readings 10 min apart from `firstAt`, through the real ingest route: three at air 10 °C,
+ * RH 100 %, surface 13 °C (the dew point equals the air at 100 %, so the margin is exactly
+ * 3 K), then three at air 20 °C, RH 50 %, surface 25 °C.
+ */
+export async function fahrenheitShopWithSixReadings(
+  t: TestApp,
+  shop: { name: string; timeZone: string; zones: [string, string]; firstAt: string },
+) {
+  const o = await verifiedPerson(t, 'Owner');
+  await o.agent.patch('/api/v1/me').send({ unitPref: 'F' }).expect(200);
+  const shopId = (
+    await o.agent
+      .post('/api/v1/shops')
+      .send({ name: shop.name, timeZone: shop.timeZone })
+      .expect(201)
+  ).body.id as string;
+  const zone = async (name: string) =>
+    (await o.agent.post(`/api/v1/shops/${shopId}/zones`).send({ name }).expect(201)).body
+      .id as string;
+  const probed = await zone(shop.zones[0]);
+  await zone(shop.zones[1]);
+  const token = (
+    await o.agent
+      .post(`/api/v1/shops/${shopId}/sensors`)
+      .send({ name: 'Saw probe', zoneId: probed })
+      .expect(201)
+  ).body.token as string;
+  const startMs = Date.parse(shop.firstAt);
+  const readings = Array.from({ length: 6 }, (_, i) => ({
+    at: new Date(startMs + i * 10 * 60_000).toISOString(),
+    air: i < 3 ? 10 : 20,
+    rh: i < 3 ? 100 : 50,
+    surface: i < 3 ? 13 : 25,
+  }));
+  await postIngest(t.app, token, { readings }).expect(202);
+  return { agent: o.agent, shopId };
 }
