@@ -44,7 +44,7 @@ export function TrialStandingsPanel({ trial }: { trial: Trial }) {
                 {fmt(r.total, 1)}
               </Text>
               <Text role="cell" style={[type.body, tabular, styles.num]}>
-                {fmt(r.meanRank, 2)}
+                {r.meanRank.toFixed(2)}
               </Text>
             </View>
           ))}
