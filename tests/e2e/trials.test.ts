@@ -93,6 +93,17 @@ describe('protection trials', () => {
     trialPath = new URL(page.url()).pathname;
     expect(await page.getByTestId('trial-name').textContent()).toBe('Saw table protection');
 
+    // A test that ends before it starts is refused with the server's words on the end field.
+    await page.getByTestId('trial-test-name').fill('Backwards');
+    await page.getByTestId('trial-test-kind-wear').click();
+    await page.getByTestId('trial-test-from').fill('2026-03-02 18:00');
+    await page.getByTestId('trial-test-to').fill('2026-03-02 07:00');
+    await page.getByTestId('trial-test-submit').click();
+    await expect
+      .poll(() => page.getByTestId('trial-test-to-error').textContent())
+      .toBe('The test must end after it starts');
+    expect(await page.getByTestId('trial-test').count()).toBe(0);
+
     for (const [i, ranks] of RANKS.entries()) {
       await page.getByTestId('trial-test-name').fill(`Wet rag night ${i + 1}`);
       await page.getByTestId('trial-test-kind-condensation').click();
