@@ -4,6 +4,7 @@ import { StyleSheet, Text, View } from 'react-native';
 
 import { Choice, Form, FormError, SubmitButton, TextField } from '@/components/forms';
 import { trialsHref } from '@/components/hrefs';
+import { useBreakpoints } from '@/components/layout';
 import {
   isApiError,
   useTrialQuery,
@@ -27,6 +28,7 @@ import { TrialStandingsPanel } from './TrialStandingsPanel';
 export function TrialScreen({ trialId }: { trialId: string }) {
   const shop = useFrameShop();
   const trial = useTrialQuery(shop.id, trialId);
+  const { isWide } = useBreakpoints();
   useDocumentTitle(trial.data ? `${trial.data.name} · Trials` : 'Trials', shop.name);
   if (trial.isError) {
     return (
@@ -39,17 +41,32 @@ export function TrialScreen({ trialId }: { trialId: string }) {
   if (!trial.data) return <Notice title="Loading the trial…" />;
   const data = trial.data;
   const writer = shop.role !== 'viewer';
+  const tests = data.tests.map((test) => (
+    <TestPanel key={test.id} shop={shop} trial={data} test={test} writer={writer} />
+  ));
+  const addTest = writer ? <NewTestForm shop={shop} trialId={data.id} /> : null;
   return (
     <>
       <BackLink shopId={shop.id} />
       <Text style={type.title} role="heading" aria-level={2} testID="trial-name">
         {data.name}
       </Text>
-      <TrialStandingsPanel trial={data} />
-      {data.tests.map((test) => (
-        <TestPanel key={test.id} shop={shop} trial={data} test={test} writer={writer} />
-      ))}
-      {writer ? <NewTestForm shop={shop} trialId={data.id} /> : null}
+      {isWide ? (
+        // Wide: the standings and the new test beside the tests, so ranking shows its effect.
+        <View style={styles.columns}>
+          <View style={styles.column}>
+            <TrialStandingsPanel trial={data} />
+            {addTest}
+          </View>
+          <View style={styles.column}>{tests}</View>
+        </View>
+      ) : (
+        <>
+          <TrialStandingsPanel trial={data} />
+          {tests}
+          {addTest}
+        </>
+      )}
     </>
   );
 }
@@ -238,6 +255,8 @@ function NewTestForm({ shop, trialId }: { shop: ShopSummary; trialId: string }) 
 
 const styles = StyleSheet.create({
   form: { gap: space.lg },
+  columns: { flexDirection: 'row', alignItems: 'flex-start', gap: space.xl },
+  column: { flex: 1, minWidth: 0, gap: space.lg },
   ranks: { flexDirection: 'row', flexWrap: 'wrap', gap: space.md },
   rankField: { minWidth: 150, flexGrow: 1, flexBasis: 150 },
   link: {

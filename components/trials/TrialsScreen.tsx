@@ -3,6 +3,7 @@ import { useState } from 'react';
 import { StyleSheet, Text, View } from 'react-native';
 
 import { trialHref } from '@/components/hrefs';
+import { useBreakpoints } from '@/components/layout';
 import { Form, FormError, SubmitButton, TextField } from '@/components/forms';
 import {
   isApiError,
@@ -21,34 +22,47 @@ export function TrialsScreen() {
   const shop = useFrameShop();
   useDocumentTitle('Trials', shop.name);
   const trials = useTrialsQuery(shop.id);
+  const { isWide } = useBreakpoints();
+  const list = trials.isError ? (
+    <Notice title="Trials could not be loaded">{trials.error.message}</Notice>
+  ) : !trials.data ? (
+    <Notice title="Loading trials…" />
+  ) : trials.data.trials.length === 0 ? (
+    <Notice title="No trials yet" testID="trials-empty">
+      A trial compares treatments of the cast iron (a wax, an oil, a cover, nothing) over tests you
+      rank them in.
+    </Notice>
+  ) : (
+    <View style={styles.list} testID="trial-list">
+      {trials.data.trials.map((trial) => (
+        <Panel key={trial.id} testID="trial-card">
+          <Link href={trialHref(shop.id, trial.id)} style={styles.link} testID="trial-link">
+            {trial.name}
+          </Link>
+          <Text style={type.small}>
+            {trial.treatments.map((t) => t.name).join(', ')} · {trial.tests}{' '}
+            {trial.tests === 1 ? 'test' : 'tests'}
+          </Text>
+        </Panel>
+      ))}
+    </View>
+  );
+  const form = shop.role === 'viewer' ? null : <NewTrialForm shop={shop} />;
   return (
     <>
       <ShopTabs shop={shop} current="trials" />
-      {trials.isError ? (
-        <Notice title="Trials could not be loaded">{trials.error.message}</Notice>
-      ) : !trials.data ? (
-        <Notice title="Loading trials…" />
-      ) : trials.data.trials.length === 0 ? (
-        <Notice title="No trials yet" testID="trials-empty">
-          A trial compares treatments of the cast iron (a wax, an oil, a cover, nothing) over tests
-          you rank them in.
-        </Notice>
-      ) : (
-        <View style={styles.list} testID="trial-list">
-          {trials.data.trials.map((trial) => (
-            <Panel key={trial.id} testID="trial-card">
-              <Link href={trialHref(shop.id, trial.id)} style={styles.link} testID="trial-link">
-                {trial.name}
-              </Link>
-              <Text style={type.small}>
-                {trial.treatments.map((t) => t.name).join(', ')} · {trial.tests}{' '}
-                {trial.tests === 1 ? 'test' : 'tests'}
-              </Text>
-            </Panel>
-          ))}
+      {isWide ? (
+        // Wide: the trials beside the form that starts one.
+        <View style={styles.columns}>
+          <View style={styles.column}>{list}</View>
+          <View style={styles.column}>{form}</View>
         </View>
+      ) : (
+        <>
+          {list}
+          {form}
+        </>
       )}
-      {shop.role === 'viewer' ? null : <NewTrialForm shop={shop} />}
     </>
   );
 }
@@ -98,7 +112,7 @@ function NewTrialForm({ shop }: { shop: ShopSummary }) {
           onChangeText={setTreatments}
           multiline
           numberOfLines={4}
-          placeholder={'Paste wax\nCamellia oil\nBare iron'}
+          placeholder={'e.g. Paste wax\nCamellia oil\nBare iron'}
           editable={!create.isPending}
           error={fieldError('treatments')}
           testID="trial-create-treatments"
@@ -120,6 +134,8 @@ function NewTrialForm({ shop }: { shop: ShopSummary }) {
 
 const styles = StyleSheet.create({
   list: { gap: space.md },
+  columns: { flexDirection: 'row', alignItems: 'flex-start', gap: space.xl },
+  column: { flex: 1, minWidth: 0, gap: space.lg },
   form: { gap: space.lg },
   link: {
     ...type.heading,
