@@ -46,3 +46,11 @@ export function shopSectionHref(shopId: string, section: ShopSection): string {
 export function membersHref(shopId: string): string {
   return `${shopHref(shopId)}/members`;
 }
+
+export function trialsHref(shopId: string): string {
+  return `${shopHref(shopId)}/trials`;
+}
+
+export function trialHref(shopId: string, trialId: string): string {
+  return `${trialsHref(shopId)}/${encodeURIComponent(trialId)}`;
+}

@@ -147,3 +147,22 @@ export {
   type WeekReport,
   type ZoneWeekFigures,
 } from './reports';
+export {
+  trialKeys,
+  trialQueryOptions,
+  trialsQueryOptions,
+  useTrialCreateMutation,
+  useTrialQuery,
+  useTrialRanksMutation,
+  useTrialTestCreateMutation,
+  useTrialsQuery,
+  type NewTrialTest,
+  type Trial,
+  type TrialPair,
+  type TrialStandings,
+  type TrialSummary,
+  type TrialTest,
+  type TrialTestKind,
+  type TrialTreatment,
+  type TrialsResponse,
+} from './trials';

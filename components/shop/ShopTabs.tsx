@@ -1,21 +1,22 @@
 import { Link } from 'expo-router';
 import { StyleSheet, Text, View } from 'react-native';
 
-import { membersHref, shopSectionHref } from '@/components/hrefs';
+import { membersHref, shopSectionHref, trialsHref } from '@/components/hrefs';
 import type { ShopSummary } from '@/components/queries';
 import { colors, fonts, space, TAP_TARGET_PX } from '@/components/theme';
 
-/** The two pages under "Shop": its settings and its members. */
+/** The pages under "Shop": its settings, its members and its protection trials. */
 export function ShopTabs({
   shop,
   current,
 }: {
   shop: ShopSummary;
-  current: 'settings' | 'members';
+  current: 'settings' | 'members' | 'trials';
 }) {
   const tabs = [
     { key: 'settings', label: 'Settings', href: shopSectionHref(shop.id, 'shop') },
     { key: 'members', label: 'Members', href: membersHref(shop.id) },
+    { key: 'trials', label: 'Trials', href: trialsHref(shop.id) },
   ] as const;
   return (
     <View style={styles.row} role="tablist" aria-label={`${shop.name} pages`}>

@@ -2,6 +2,7 @@
  * The words of a protection trial's standings: who ranked best, whether the differences are
  * more than chance, and the caution when there are too few tests to tell.
  */
+import type { TrialTestKind } from '../wire/trials';
 import { MIN_TESTS_FOR_CONFIDENCE, SIGNIFICANCE_P, type Standings } from '../trials/standings';
 
 /** p as people read it: two significant figures, "p < 0.001" below that. */
@@ -46,3 +47,12 @@ export function trialVerdict(standings: Standings, names: readonly string[]): st
       : '';
   return `${lead}; ${chance}.${caution}`;
 }
+
+/** The kinds of test as the screens and files name them. */
+export const TRIAL_KIND_WORDS: Record<TrialTestKind, string> = {
+  condensation: 'Condensation',
+  standing_liquid: 'Standing liquid',
+  wear: 'Wear',
+  humid_storage: 'Humid storage',
+  other: 'Other',
+};

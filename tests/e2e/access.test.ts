@@ -23,6 +23,7 @@ import {
 let suite: BrowserSuite;
 const [owner, member] = DEMO_PEOPLE;
 /** Set up once: the demo shop's first zone and a pending invitation with a long address. */
+let trialId = '';
 let zoneId: string;
 const LONG_INVITEE = 'ana.maria.oyelaran.vasquez@cedarloftjoinery.example';
 
@@ -44,6 +45,35 @@ beforeAll(async () => {
   // A pending invitation, so the members screen shows its "Withdraw" (a rerun finds it there).
   const res = await agent.post(`${base}/invitations`).send({ email: LONG_INVITEE, role: 'member' });
   expect([201, 409]).toContain(res.status);
+  // A trial with one ranked test, so its screen shows the standings and a rank form (a rerun
+  // finds it there).
+  const trials = (await agent.get(`${base}/trials`).expect(200)).body.trials as { id: string }[];
+  if (trials[0]) {
+    trialId = trials[0].id;
+    return;
+  }
+  const trial = (
+    await agent
+      .post(`${base}/trials`)
+      .send({ name: 'Saw table waxes', treatments: ['Paste wax', 'Bare iron'] })
+      .expect(201)
+  ).body as { id: string; treatments: { id: string }[] };
+  trialId = trial.id;
+  const test = (
+    await agent
+      .post(`${base}/trials/${trialId}/tests`)
+      .send({
+        name: 'Wet rag night',
+        kind: 'condensation',
+        from: '2026-03-02T18:00:00Z',
+        to: '2026-03-03T07:00:00Z',
+      })
+      .expect(201)
+  ).body as { id: string };
+  await agent
+    .put(`${base}/trials/${trialId}/tests/${test.id}/ranks`)
+    .send({ ranks: trial.treatments.map((t, i) => ({ treatmentId: t.id, rank: i + 1 })) })
+    .expect(200);
 });
 afterAll(() => suite?.close());
 
@@ -76,6 +106,8 @@ const SIGNED_IN: Route[] = [
   { name: 'members', path: () => `${shop()}/members` },
   { name: 'settings', path: () => `${shop()}/settings` },
   { name: 'profile', path: () => `${shop()}/profile` },
+  { name: 'trials', path: () => `${shop()}/trials` },
+  { name: 'trial', path: () => `${shop()}/trials/${trialId}` },
   { name: 'new-shop', path: () => '/new-shop' },
   { name: 'shop-not-found', path: () => '/shops/00000000-0000-4000-8000-000000000000' },
 ];

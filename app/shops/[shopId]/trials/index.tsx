@@ -1,0 +1,5 @@
+import { TrialsScreen } from '@/components/trials/TrialsScreen';
+
+export default function ShopTrials() {
+  return <TrialsScreen />;
+}

@@ -1,0 +1,147 @@
+import { Link } from 'expo-router';
+import { useState } from 'react';
+import { StyleSheet, Text, View } from 'react-native';
+
+import { trialHref } from '@/components/hrefs';
+import { useBreakpoints } from '@/components/layout';
+import { Form, FormError, SubmitButton, TextField } from '@/components/forms';
+import {
+  isApiError,
+  useTrialCreateMutation,
+  useTrialsQuery,
+  type ShopSummary,
+} from '@/components/queries';
+import { useFrameShop } from '@/components/shop/ShopFrame';
+import { ShopTabs } from '@/components/shop/ShopTabs';
+import { colors, space, type } from '@/components/theme';
+import { Notice, Panel, useDocumentTitle } from '@/components/ui';
+import { TRIAL_MAX_TREATMENTS, TRIAL_MIN_TREATMENTS } from '@/ingest/wire';
+
+/** A shop's protection trials and the form that starts one. */
+export function TrialsScreen() {
+  const shop = useFrameShop();
+  useDocumentTitle('Trials', shop.name);
+  const trials = useTrialsQuery(shop.id);
+  const { isWide } = useBreakpoints();
+  const list = trials.isError ? (
+    <Notice title="Trials could not be loaded">{trials.error.message}</Notice>
+  ) : !trials.data ? (
+    <Notice title="Loading trials…" />
+  ) : trials.data.trials.length === 0 ? (
+    <Notice title="No trials yet" testID="trials-empty">
+      A trial compares treatments of the cast iron (a wax, an oil, a cover, nothing) over tests you
+      rank them in.
+    </Notice>
+  ) : (
+    <View style={styles.list} testID="trial-list">
+      {trials.data.trials.map((trial) => (
+        <Panel key={trial.id} testID="trial-card">
+          <Link href={trialHref(shop.id, trial.id)} style={styles.link} testID="trial-link">
+            {trial.name}
+          </Link>
+          <Text style={type.small}>
+            {trial.treatments.map((t) => t.name).join(', ')} · {trial.tests}{' '}
+            {trial.tests === 1 ? 'test' : 'tests'}
+          </Text>
+        </Panel>
+      ))}
+    </View>
+  );
+  const form = shop.role === 'viewer' ? null : <NewTrialForm shop={shop} />;
+  return (
+    <>
+      <ShopTabs shop={shop} current="trials" />
+      {isWide ? (
+        // Wide: the trials beside the form that starts one.
+        <View style={styles.columns}>
+          <View style={styles.column}>{list}</View>
+          <View style={styles.column}>{form}</View>
+        </View>
+      ) : (
+        <>
+          {list}
+          {form}
+        </>
+      )}
+    </>
+  );
+}
+
+/** One treatment a line: the names as typed, blank lines dropped. */
+function treatmentNames(text: string): string[] {
+  return text
+    .split('\n')
+    .map((line) => line.trim())
+    .filter((line) => line.length > 0);
+}
+
+function NewTrialForm({ shop }: { shop: ShopSummary }) {
+  const create = useTrialCreateMutation(shop.id);
+  const [name, setName] = useState('');
+  const [treatments, setTreatments] = useState('');
+  const submit = () =>
+    create.mutate(
+      { name: name.trim(), treatments: treatmentNames(treatments) },
+      {
+        onSuccess: () => {
+          setName('');
+          setTreatments('');
+        },
+      },
+    );
+  const details = isApiError(create.error) ? create.error.details : [];
+  const fieldError = (path: string) => details.find((d) => d.path.startsWith(path))?.message;
+  return (
+    <Panel
+      title="New trial"
+      hint={`Name ${TRIAL_MIN_TREATMENTS} to ${TRIAL_MAX_TREATMENTS} treatments, one a line.`}
+    >
+      <Form onSubmit={submit} style={styles.form}>
+        <TextField
+          label="Trial name"
+          value={name}
+          onChangeText={setName}
+          placeholder="e.g. Saw table waxes"
+          editable={!create.isPending}
+          error={fieldError('name')}
+          testID="trial-create-name"
+        />
+        <TextField
+          label="Treatments (one a line)"
+          value={treatments}
+          onChangeText={setTreatments}
+          multiline
+          numberOfLines={4}
+          placeholder={'e.g. Paste wax\nCamellia oil\nBare iron'}
+          editable={!create.isPending}
+          error={fieldError('treatments')}
+          testID="trial-create-treatments"
+        />
+        <FormError
+          message={create.error && details.length === 0 ? create.error.message : undefined}
+        />
+        <SubmitButton
+          label="Start trial"
+          sendingLabel="Starting…"
+          sending={create.isPending}
+          onPress={submit}
+          testID="trial-create-submit"
+        />
+      </Form>
+    </Panel>
+  );
+}
+
+const styles = StyleSheet.create({
+  list: { gap: space.md },
+  columns: { flexDirection: 'row', alignItems: 'flex-start', gap: space.xl },
+  column: { flex: 1, minWidth: 0, gap: space.lg },
+  form: { gap: space.lg },
+  link: {
+    ...type.heading,
+    color: colors.air,
+    textDecorationLine: 'underline',
+    alignSelf: 'flex-start',
+    paddingVertical: space.md,
+  },
+});

@@ -1,0 +1,183 @@
+// A protection trial in Debian's Chromium against the real server: an owner starts a trial of
+// four treatments, adds five tests on the shop's clock, ranks them, and reads the standings;
+// the figures on screen are checked against a Friedman test worked by hand and the API's answer.
+import type { Page } from 'playwright-core';
+import { afterAll, beforeAll, describe, expect, it } from 'vitest';
+
+import { verifiedPerson } from '../support/app';
+import { SHOTS, startBrowserSuite, watchPage, type BrowserSuite } from '../support/browser';
+
+let suite: BrowserSuite;
+let server: BrowserSuite['server'];
+
+beforeAll(async () => {
+  suite = await startBrowserSuite();
+  server = suite.server;
+});
+afterAll(() => suite?.close());
+
+const TREATMENTS = ['Paste wax', 'Camellia oil', 'Dry lubricant', 'Bare iron'];
+/**
+ * Ranks per test (1 = best), no ties. Rank totals 6, 10, 15, 19 (n = 5 tests, k = 4).
+ * Friedman (Friedman 1937; Conover, Practical Nonparametric Statistics, 3rd ed., §5.8):
+ * χ² = 12 / (n k (k + 1)) · ΣR² − 3 n (k + 1) = 12/100 · (36 + 100 + 225 + 361) − 75 = 11.64,
+ * df = k − 1 = 3; p = P(χ²₃ > 11.64) = erfc(√5.82) + √(2·11.64/π)·e^(−5.82) = 0.008724
+ * (the χ² survival function for 3 df, closed form). Kendall's W = χ² / (n (k − 1)) = 11.64 / 15
+ * = 0.776 (Kendall & Babington Smith 1939).
+ */
+const RANKS = [
+  [1, 2, 3, 4],
+  [1, 3, 2, 4],
+  [1, 2, 4, 3],
+  [2, 1, 3, 4],
+  [1, 2, 3, 4],
+];
+
+async function signIn(page: Page, email: string, password: string) {
+  await page.goto(`${server.baseUrl}/sign-in`);
+  await page.getByTestId('sign-in-email').fill(email);
+  await page.getByTestId('sign-in-password').fill(password);
+  await page.getByTestId('sign-in-submit').click();
+  await page.waitForURL(/\/shops\/[0-9a-f-]+/);
+}
+
+interface ApiTrial {
+  id: string;
+  tests: { from: string; to: string; ranks: unknown[] }[];
+  standings: {
+    tests: number;
+    rankTotals: { treatmentId: string; total: number; meanRank: number }[];
+    friedman: { statistic: number; df: number; p: number } | null;
+    kendallW: number | null;
+    pairs: unknown[];
+    verdict: string;
+  };
+  treatments: { id: string; name: string }[];
+}
+
+describe('protection trials', () => {
+  let trialPath = '';
+  let owner: Awaited<ReturnType<typeof verifiedPerson>>;
+
+  it('starts a trial, adds and ranks five tests, and shows the standings (phone)', async () => {
+    owner = await verifiedPerson({ app: server.baseUrl, outbox: server.app.outbox }, 'Ines Joiner');
+    const shop = (
+      await owner.agent
+        .post('/api/v1/shops')
+        .send({ name: 'Tamarack Bench Works', timeZone: 'America/Chicago' })
+        .expect(201)
+    ).body as { id: string };
+    const page = await suite.browser.newPage({ viewport: { width: 390, height: 844 } });
+    const errors = watchPage(page);
+    await signIn(page, owner.email, owner.password);
+
+    // Reached from Shop → Trials.
+    await page.goto(`${server.baseUrl}/shops/${shop.id}/settings`);
+    await page.getByTestId('tab-trials').click();
+    await page.waitForURL(/\/trials$/);
+    await page.getByTestId('trials-empty').waitFor();
+    expect(await page.locator('h1').allTextContents()).toEqual(['Trials']);
+
+    // One treatment is refused with the server's own words, nothing is created.
+    await page.getByTestId('trial-create-name').fill('Saw table protection');
+    await page.getByTestId('trial-create-treatments').fill('Paste wax');
+    await page.getByTestId('trial-create-submit').click();
+    await expect
+      .poll(() => page.getByTestId('trial-create-treatments-error').textContent())
+      .toBe('Compare at least 2 treatments');
+
+    await page.getByTestId('trial-create-treatments').fill(TREATMENTS.join('\n'));
+    await page.getByTestId('trial-create-submit').click();
+    await page.getByTestId('trial-link').click();
+    await page.waitForURL(/\/trials\/[0-9a-f-]+$/);
+    trialPath = new URL(page.url()).pathname;
+    expect(await page.getByTestId('trial-name').textContent()).toBe('Saw table protection');
+
+    // A test that ends before it starts is refused with the server's words on the end field.
+    await page.getByTestId('trial-test-name').fill('Backwards');
+    await page.getByTestId('trial-test-kind-wear').click();
+    await page.getByTestId('trial-test-from').fill('2026-03-02 18:00');
+    await page.getByTestId('trial-test-to').fill('2026-03-02 07:00');
+    await page.getByTestId('trial-test-submit').click();
+    await expect
+      .poll(() => page.getByTestId('trial-test-to-error').textContent())
+      .toBe('The test must end after it starts');
+    expect(await page.getByTestId('trial-test').count()).toBe(0);
+
+    for (const [i, ranks] of RANKS.entries()) {
+      await page.getByTestId('trial-test-name').fill(`Wet rag night ${i + 1}`);
+      await page.getByTestId('trial-test-kind-condensation').click();
+      await page.getByTestId('trial-test-from').fill(`2026-03-0${i + 2} 18:00`);
+      await page.getByTestId('trial-test-to').fill(`2026-03-0${i + 3} 07:00`);
+      await page.getByTestId('trial-test-submit').click();
+      await expect.poll(() => page.getByTestId('trial-test').count()).toBe(i + 1);
+      const panel = page.getByTestId('trial-test').nth(i);
+      const fields = panel.getByTestId('trial-rank');
+      for (const [j, rank] of ranks.entries()) await fields.nth(j).fill(String(rank));
+      await panel.getByTestId('trial-rank-submit').click();
+      await expect.poll(() => panel.textContent()).toContain('· ranked');
+      await expect
+        .poll(() => page.getByTestId('trial-standings').textContent())
+        .toContain(`${i + 1} ${i === 0 ? 'test' : 'tests'} ranked`);
+    }
+
+    // The API's own answer for the same trial.
+    const api = (await owner.agent.get(`/api/v1${trialPath}`).expect(200)).body as ApiTrial;
+    // Times typed on the shop's clock: 18:00 in Chicago on 2 March 2026 is CST (UTC−6; DST
+    // starts 8 March), so 00:00 UTC on 3 March.
+    expect(api.tests[0]!.from).toBe('2026-03-03T00:00:00.000Z');
+    expect(api.standings.tests).toBe(5);
+    const totals = TREATMENTS.map(
+      (name) =>
+        api.standings.rankTotals.find(
+          (r) => r.treatmentId === api.treatments.find((t) => t.name === name)!.id,
+        )!.total,
+    );
+    expect(totals).toEqual([6, 10, 15, 19]); // hand sums of RANKS' columns
+    expect(api.standings.friedman!.statistic).toBeCloseTo(11.64, 9); // worked above
+    expect(api.standings.friedman!.df).toBe(3);
+    expect(api.standings.friedman!.p).toBeCloseTo(0.008724, 6); // χ²₃ survival, worked above
+    expect(api.standings.kendallW).toBeCloseTo(0.776, 9);
+
+    // The screen shows the same figures.
+    expect(await page.getByTestId('trial-friedman').textContent()).toBe('11.64');
+    expect(await page.getByTestId('trial-df').textContent()).toBe('3');
+    expect(await page.getByTestId('trial-p').textContent()).toBe('p = 0.0087');
+    expect(await page.getByTestId('trial-w').textContent()).toBe('0.78');
+    expect(await page.getByTestId('trial-verdict').textContent()).toBe(api.standings.verdict);
+    expect(api.standings.verdict).toContain('Paste wax ranked best');
+    expect(api.standings.verdict).toContain('more than chance (p = 0.0087)');
+    const standings = await page.getByTestId('trial-standing').allTextContents();
+    expect(standings).toEqual([
+      'Paste wax61.20',
+      'Camellia oil102.00',
+      'Dry lubricant153.00',
+      'Bare iron193.80',
+    ]);
+    // p < 0.05, so the pairs are listed.
+    expect(api.standings.pairs.length).toBeGreaterThan(0);
+    expect(await page.getByTestId('trial-pair').count()).toBe(api.standings.pairs.length);
+    await page.screenshot({ path: `${SHOTS}/trial-phone.png`, fullPage: true });
+    expect(errors).toEqual([]);
+    await page.close();
+  });
+
+  it('shows the same standings on a wide screen', async () => {
+    expect(trialPath).not.toBe('');
+    const page = await suite.browser.newPage({ viewport: { width: 1440, height: 900 } });
+    const errors = watchPage(page);
+    await signIn(page, owner.email, owner.password);
+    await page.goto(`${server.baseUrl}${trialPath}`);
+    await page.getByTestId('trial-standings').waitFor();
+    expect(await page.locator('h1').allTextContents()).toEqual(['Trials']);
+    expect(await page.getByTestId('trial-p').textContent()).toBe('p = 0.0087');
+    expect(await page.getByTestId('trial-test').count()).toBe(5);
+    await page.screenshot({ path: `${SHOTS}/trial-wide.png`, fullPage: true });
+    await page.goto(`${server.baseUrl}${trialPath.replace(/\/[^/]+$/, '')}`);
+    await page.getByTestId('trial-card').waitFor();
+    expect(await page.getByTestId('trial-card').textContent()).toContain('5 tests');
+    await page.screenshot({ path: `${SHOTS}/trials-wide.png`, fullPage: true });
+    expect(errors).toEqual([]);
+    await page.close();
+  });
+});
