@@ -36,29 +36,18 @@ async function ownerAgent() {
   return agent;
 }
 
-beforeAll(async () => {
-  suite = await startBrowserSuite();
-  const agent = await ownerAgent();
-  const base = `/api/v1/shops/${suite.server.demo.shopId}`;
-  const zones = (await agent.get(`${base}/zones`).expect(200)).body.zones as { id: string }[];
-  zoneId = zones[0]!.id;
-  // A pending invitation, so the members screen shows its "Withdraw" (a rerun finds it there).
-  const res = await agent.post(`${base}/invitations`).send({ email: LONG_INVITEE, role: 'member' });
-  expect([201, 409]).toContain(res.status);
-  // A trial with one ranked test, so its screen shows the standings and a rank form (a rerun
-  // finds it there).
+// A trial with one ranked test, so its screen shows the standings and a rank form (a rerun
+// finds it there).
+async function demoTrial(agent: Awaited<ReturnType<typeof ownerAgent>>, base: string) {
   const trials = (await agent.get(`${base}/trials`).expect(200)).body.trials as { id: string }[];
-  if (trials[0]) {
-    trialId = trials[0].id;
-    return;
-  }
+  if (trials[0]) return trials[0].id;
   const trial = (
     await agent
       .post(`${base}/trials`)
       .send({ name: 'Saw table waxes', treatments: ['Paste wax', 'Bare iron'] })
       .expect(201)
   ).body as { id: string; treatments: { id: string }[] };
-  trialId = trial.id;
+  const trialId = trial.id;
   const test = (
     await agent
       .post(`${base}/trials/${trialId}/tests`)
@@ -74,6 +63,19 @@ beforeAll(async () => {
     .put(`${base}/trials/${trialId}/tests/${test.id}/ranks`)
     .send({ ranks: trial.treatments.map((t, i) => ({ treatmentId: t.id, rank: i + 1 })) })
     .expect(200);
+  return trialId;
+}
+
+beforeAll(async () => {
+  suite = await startBrowserSuite();
+  const agent = await ownerAgent();
+  const base = `/api/v1/shops/${suite.server.demo.shopId}`;
+  const zones = (await agent.get(`${base}/zones`).expect(200)).body.zones as { id: string }[];
+  zoneId = zones[0]!.id;
+  // A pending invitation, so the members screen shows its "Withdraw" (a rerun finds it there).
+  const res = await agent.post(`${base}/invitations`).send({ email: LONG_INVITEE, role: 'member' });
+  expect([201, 409]).toContain(res.status);
+  trialId = await demoTrial(agent, base);
 });
 afterAll(() => suite?.close());
 
