@@ -1,8 +1,19 @@
 import { Link } from 'expo-router';
 import { useState } from 'react';
+import { Controller } from 'react-hook-form';
 import { StyleSheet, Text, View } from 'react-native';
+import * as z from 'zod/mini';
 
-import { Choice, Form, FormError, SubmitButton, TextField } from '@/components/forms';
+import {
+  Choice,
+  Form,
+  FormError,
+  FormField,
+  SubmitButton,
+  TextField,
+  useApiForm,
+} from '@/components/forms';
+import { nameSchema } from '@/components/forms/schemas';
 import { trialsHref } from '@/components/hrefs';
 import { useBreakpoints } from '@/components/layout';
 import {
@@ -158,93 +169,84 @@ const KIND_OPTIONS = TRIAL_TEST_KINDS.map((kind) => ({
   label: TRIAL_KIND_WORDS[kind],
 }));
 
+/** The add-a-test form's values: times as typed on the shop's clock, read by fromLocalInput. */
+type NewTestValues = { name: string; kind: string; from: string; to: string };
+
+function newTestSchema(timeZone: string) {
+  const localTime = (message: string) =>
+    z.string().check(z.refine((text) => fromLocalInput(text, timeZone) !== null, message));
+  return z.object({
+    name: nameSchema,
+    kind: z.string().check(z.minLength(1, 'Choose the kind of test')),
+    from: localTime('Give the start as YYYY-MM-DD HH:MM'),
+    to: localTime('Give the end as YYYY-MM-DD HH:MM'),
+  });
+}
+
 function NewTestForm({ shop, trialId }: { shop: ShopSummary; trialId: string }) {
   const create = useTrialTestCreateMutation(shop.id, trialId);
-  const [name, setName] = useState('');
-  const [kind, setKind] = useState<TrialTestKind | null>(null);
-  const [fromText, setFromText] = useState('');
-  const [toText, setToText] = useState('');
-  const [localError, setLocalError] = useState<{ field: string; message: string } | null>(null);
-  const submit = () => {
-    const fromMs = fromLocalInput(fromText, shop.timeZone);
-    const toMs = fromLocalInput(toText, shop.timeZone);
-    const problem =
-      kind === null
-        ? { field: 'kind', message: 'Choose the kind of test' }
-        : fromMs === null
-          ? { field: 'from', message: 'Give the start as YYYY-MM-DD HH:MM' }
-          : toMs === null
-            ? { field: 'to', message: 'Give the end as YYYY-MM-DD HH:MM' }
-            : null;
-    setLocalError(problem);
-    if (problem || kind === null || fromMs === null || toMs === null) return;
-    create.mutate(
-      {
-        name: name.trim(),
-        kind,
-        from: new Date(fromMs).toISOString(),
-        to: new Date(toMs).toISOString(),
-      },
-      {
-        onSuccess: () => {
-          setName('');
-          setFromText('');
-          setToText('');
-        },
-      },
-    );
-  };
-  const details = isApiError(create.error) ? create.error.details : [];
-  const fieldError = (field: string) =>
-    localError?.field === field
-      ? localError.message
-      : details.find((d) => d.path === field)?.message;
+  const { form, control, submit, sending, formError } = useApiForm<NewTestValues>({
+    schema: newTestSchema(shop.timeZone),
+    defaultValues: { name: '', kind: '', from: '', to: '' },
+    fields: ['name', 'kind', 'from', 'to'],
+    send: async (values) => {
+      await create.mutateAsync({
+        name: values.name.trim(),
+        kind: values.kind as TrialTestKind,
+        // The schema has checked both times, so neither is null here.
+        from: new Date(fromLocalInput(values.from, shop.timeZone)!).toISOString(),
+        to: new Date(fromLocalInput(values.to, shop.timeZone)!).toISOString(),
+      });
+      form.reset({ name: '', kind: values.kind, from: '', to: '' });
+    },
+  });
   return (
     <Panel title="Add a test" hint={`Times on the shop's clock (${shop.timeZone}).`}>
       <Form onSubmit={submit} style={styles.form}>
-        <TextField
+        <FormField
+          control={control}
+          name="name"
           label="Test name"
-          value={name}
-          onChangeText={setName}
           placeholder="e.g. Wet glass overnight"
-          editable={!create.isPending}
-          error={fieldError('name')}
+          editable={!sending}
           testID="trial-test-name"
         />
-        <Choice
-          label="Kind of test"
-          options={KIND_OPTIONS}
-          value={kind}
-          onChange={setKind}
-          disabled={create.isPending}
-          error={fieldError('kind')}
-          testID="trial-test-kind"
+        <Controller
+          control={control}
+          name="kind"
+          render={({ field, fieldState }) => (
+            <Choice
+              label="Kind of test"
+              options={KIND_OPTIONS}
+              value={(field.value || null) as TrialTestKind | null}
+              onChange={field.onChange}
+              disabled={sending}
+              error={fieldState.error?.message}
+              testID="trial-test-kind"
+            />
+          )}
         />
-        <TextField
+        <FormField
+          control={control}
+          name="from"
           label="From (YYYY-MM-DD HH:MM)"
-          value={fromText}
-          onChangeText={setFromText}
           placeholder="2026-03-02 18:00"
-          editable={!create.isPending}
-          error={fieldError('from')}
+          editable={!sending}
           testID="trial-test-from"
         />
-        <TextField
+        <FormField
+          control={control}
+          name="to"
           label="To (YYYY-MM-DD HH:MM)"
-          value={toText}
-          onChangeText={setToText}
           placeholder="2026-03-03 07:00"
-          editable={!create.isPending}
-          error={fieldError('to')}
+          editable={!sending}
           testID="trial-test-to"
         />
-        <FormError
-          message={create.error && details.length === 0 ? create.error.message : undefined}
-        />
+        <FormError message={formError} />
         <SubmitButton
           label="Add test"
           sendingLabel="Adding…"
-          sending={create.isPending}
+          sending={sending}
           onPress={submit}
           testID="trial-test-submit"
         />

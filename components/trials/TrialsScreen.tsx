@@ -1,16 +1,12 @@
 import { Link } from 'expo-router';
-import { useState } from 'react';
+import * as z from 'zod/mini';
 import { StyleSheet, Text, View } from 'react-native';
 
 import { trialHref } from '@/components/hrefs';
 import { useBreakpoints } from '@/components/layout';
-import { Form, FormError, SubmitButton, TextField } from '@/components/forms';
-import {
-  isApiError,
-  useTrialCreateMutation,
-  useTrialsQuery,
-  type ShopSummary,
-} from '@/components/queries';
+import { Form, FormError, FormField, SubmitButton, useApiForm } from '@/components/forms';
+import { nameSchema } from '@/components/forms/schemas';
+import { useTrialCreateMutation, useTrialsQuery, type ShopSummary } from '@/components/queries';
 import { useFrameShop } from '@/components/shop/ShopFrame';
 import { ShopTabs } from '@/components/shop/ShopTabs';
 import { colors, space, type } from '@/components/theme';
@@ -67,6 +63,10 @@ export function TrialsScreen() {
   );
 }
 
+// The server checks the treatments (count, duplicates); the form checks only the name first.
+const newTrialSchema = z.object({ name: nameSchema, treatments: z.string() });
+type NewTrialValues = { name: string; treatments: string };
+
 /** One treatment a line: the names as typed, blank lines dropped. */
 function treatmentNames(text: string): string[] {
   return text
@@ -77,53 +77,49 @@ function treatmentNames(text: string): string[] {
 
 function NewTrialForm({ shop }: { shop: ShopSummary }) {
   const create = useTrialCreateMutation(shop.id);
-  const [name, setName] = useState('');
-  const [treatments, setTreatments] = useState('');
-  const submit = () =>
-    create.mutate(
-      { name: name.trim(), treatments: treatmentNames(treatments) },
-      {
-        onSuccess: () => {
-          setName('');
-          setTreatments('');
-        },
-      },
-    );
-  const details = isApiError(create.error) ? create.error.details : [];
-  const fieldError = (path: string) => details.find((d) => d.path.startsWith(path))?.message;
+  const { form, control, submit, sending, formError } = useApiForm<NewTrialValues>({
+    schema: newTrialSchema,
+    defaultValues: { name: '', treatments: '' },
+    fields: ['name', 'treatments'],
+    // The server names a treatment by its index (treatments.2); the form has one text box.
+    fieldOf: (path) => (path.startsWith('treatments') ? 'treatments' : path),
+    send: async (values) => {
+      await create.mutateAsync({
+        name: values.name.trim(),
+        treatments: treatmentNames(values.treatments),
+      });
+      form.reset();
+    },
+  });
   return (
     <Panel
       title="New trial"
       hint={`Name ${TRIAL_MIN_TREATMENTS} to ${TRIAL_MAX_TREATMENTS} treatments, one a line.`}
     >
       <Form onSubmit={submit} style={styles.form}>
-        <TextField
+        <FormField
+          control={control}
+          name="name"
           label="Trial name"
-          value={name}
-          onChangeText={setName}
           placeholder="e.g. Saw table waxes"
-          editable={!create.isPending}
-          error={fieldError('name')}
+          editable={!sending}
           testID="trial-create-name"
         />
-        <TextField
+        <FormField
+          control={control}
+          name="treatments"
           label="Treatments (one a line)"
-          value={treatments}
-          onChangeText={setTreatments}
           multiline
           numberOfLines={4}
           placeholder={'e.g. Paste wax\nCamellia oil\nBare iron'}
-          editable={!create.isPending}
-          error={fieldError('treatments')}
+          editable={!sending}
           testID="trial-create-treatments"
         />
-        <FormError
-          message={create.error && details.length === 0 ? create.error.message : undefined}
-        />
+        <FormError message={formError} />
         <SubmitButton
           label="Start trial"
           sendingLabel="Starting…"
-          sending={create.isPending}
+          sending={sending}
           onPress={submit}
           testID="trial-create-submit"
         />
