@@ -70,7 +70,7 @@ export async function seedDemoCare(db: Db, shopId: string, nowMs: number): Promi
       ).map((s) => s.name),
     );
 
-    for (const demo of DEMO_SURFACES) {
+    for (const [index, demo] of DEMO_SURFACES.entries()) {
       const zoneId = zoneIds.get(demo.zone);
       // A zone the owner renamed or removed takes its surfaces with it.
       if (existing.has(demo.name) || !zoneId) continue;
@@ -82,6 +82,9 @@ export async function seedDemoCare(db: Db, shopId: string, nowMs: number): Promi
           name: demo.name,
           material: demo.material,
           sensorId: (demo.probe && sensorIds.get(demo.probe)) || null,
+          // A second apart, in the scenario's order: lists sort by creation, and one
+          // transaction's now() would leave them in id (random) order.
+          createdAt: new Date(nowMs - (DEMO_SURFACES.length - index) * 1000),
         })
         .returning({ id: surfaces.id });
       added.surfaces += 1;

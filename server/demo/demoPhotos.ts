@@ -110,7 +110,7 @@ export function drawTrialPanel(picture: TrialPanelPicture): Promise<Buffer> {
   const n = picture.coupons.length;
   const gap = 36;
   const couponW = (W - 2 * 60 - (n - 1) * gap) / n;
-  const couponH = 560;
+  const couponH = 600;
   const top = 150;
   let body = '';
   picture.coupons.forEach((coupon, i) => {
@@ -121,15 +121,15 @@ export function drawTrialPanel(picture: TrialPanelPicture): Promise<Buffer> {
     body += rustSpecks(box, coupon.rustedPct, random);
     // A strip of masking tape with the treatment written on it.
     const tapeY = top + couponH + 28;
-    body += `<rect x="${f1(box.x + 8)}" y="${tapeY}" width="${f1(box.w - 16)}" height="64" fill="#e8dcbc" transform="rotate(${f1((random() - 0.5) * 3)} ${f1(box.x + box.w / 2)} ${tapeY + 32})"/>`;
+    body += `<rect x="${f1(box.x + 8)}" y="${tapeY}" width="${f1(box.w - 16)}" height="84" fill="#e8dcbc" transform="rotate(${f1((random() - 0.5) * 3)} ${f1(box.x + box.w / 2)} ${tapeY + 42})"/>`;
     const words = coupon.label.split(' ');
     const lines =
       coupon.label.length > 14 && words.length > 1
         ? [words.slice(0, Math.ceil(words.length / 2)), words.slice(Math.ceil(words.length / 2))]
         : [words];
     lines.forEach((line, j) => {
-      const y = tapeY + (lines.length === 1 ? 41 : 27 + j * 26);
-      body += `<text x="${f1(box.x + box.w / 2)}" y="${y}" font-family="${FONT}" font-size="22" fill="#2a2622" text-anchor="middle">${escapeXml(line.join(' '))}</text>`;
+      const y = tapeY + (lines.length === 1 ? 52 : 36 + j * 32);
+      body += `<text x="${f1(box.x + box.w / 2)}" y="${y}" font-family="${FONT}" font-size="28" fill="#2a2622" text-anchor="middle">${escapeXml(line.join(' '))}</text>`;
     });
   });
   const svg = `<svg xmlns="http://www.w3.org/2000/svg" width="${W}" height="${H}">
@@ -189,13 +189,13 @@ export function drawInspection(picture: InspectionPicture): Promise<Buffer> {
       body += rustSpecks(bar, pct * (0.4 + i * 0.35), random);
     }
   }
-  const tag = { x: W - 420, y: H - 120 };
+  const tag = { x: W - 560, y: H - 150 };
   const svg = `<svg xmlns="http://www.w3.org/2000/svg" width="${W}" height="${H}">
 <defs><linearGradient id="iron" x1="0" y1="0" x2="1" y2="1"><stop offset="0" stop-color="#828b92"/><stop offset="0.6" stop-color="#6c757c"/><stop offset="1" stop-color="#5d656c"/></linearGradient></defs>
 ${body}
-<rect x="${tag.x}" y="${tag.y}" width="390" height="92" rx="4" fill="#fffdf8" fill-opacity="0.92"/>
-<text x="${tag.x + 18}" y="${tag.y + 38}" font-family="${FONT}" font-size="26" font-weight="bold" fill="#1f2427">${escapeXml(picture.surfaceName)}</text>
-<text x="${tag.x + 18}" y="${tag.y + 72}" font-family="${FONT}" font-size="21" fill="#1f2427">${escapeXml(picture.caption)}</text>
+<rect x="${tag.x}" y="${tag.y}" width="530" height="122" rx="4" fill="#fffdf8" fill-opacity="0.92"/>
+<text x="${tag.x + 18}" y="${tag.y + 50}" font-family="${FONT}" font-size="36" font-weight="bold" fill="#1f2427">${escapeXml(picture.surfaceName)}</text>
+<text x="${tag.x + 18}" y="${tag.y + 96}" font-family="${FONT}" font-size="28" fill="#1f2427">${escapeXml(picture.caption)}</text>
 </svg>`;
   return toJpeg(svg);
 }

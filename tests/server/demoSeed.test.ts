@@ -251,6 +251,14 @@ describe('the demo seed', () => {
     const agent = await ownerAgent();
     const base = `/api/v1/shops/${first.shopId}/surfaces`;
     const list = (await agent.get(base).expect(200)).body as SurfacesResponse;
+    // Listed in the scenario's order, the lumber rack without any.
+    expect(list.surfaces.map((s) => s.name)).toEqual([
+      'Table saw top',
+      'Jointer beds',
+      'Band saw table',
+      'Hand-plane shelf',
+      'Clamp rack',
+    ]);
     const exposure = async (name: string) => {
       const s = list.surfaces.find((x) => x.name === name)!;
       return (await agent.get(`${base}/${s.id}/exposure`).expect(200)).body as SurfaceExposure;
