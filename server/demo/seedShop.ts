@@ -67,8 +67,9 @@ export async function seedDemoShop(db: Db, credentials: SeedCredentials, options
         photos += 1;
       } catch (err) {
         if (!(err instanceof StorageUnavailableError)) throw err;
+        const left = subjects.length - photos;
         options.log(
-          `Photo storage is out of reach: ${subjects.length - photos} demo photos skipped; the next seed adds them.`,
+          `Photo storage is out of reach: ${left} demo ${left === 1 ? 'photo' : 'photos'} skipped; the next seed adds them.`,
         );
         break;
       }

@@ -6,7 +6,7 @@ import sharp from 'sharp';
 import request from 'supertest';
 import { afterAll, beforeAll, describe, expect, it } from 'vitest';
 import { getTimezoneOffset } from 'date-fns-tz';
-import { count, eq } from 'drizzle-orm';
+import { and, count, eq } from 'drizzle-orm';
 
 import { createDatabase } from '@/db';
 import { runMigrations } from '@/db/migrate';
@@ -137,6 +137,47 @@ describe('the demo seed', () => {
     expect(again.photos).toBe(0);
     expect(await counts()).toEqual(before);
     expect(log).toEqual([]);
+  });
+
+  it('skips photos without storage or with it away, never failing, and adds them next time', async () => {
+    const db = server.app.db;
+    // Take one inspection's photo away (row and objects), as if an earlier seed had no storage.
+    const [gone] = await db
+      .select()
+      .from(photos)
+      .where(and(eq(photos.shopId, first.shopId), eq(photos.ownerKind, 'care_entry')))
+      .limit(1);
+    const storage = createS3Storage(s3.config);
+    await db.delete(photos).where(eq(photos.id, gone!.id));
+    await storage.delete(gone!.objectKey);
+    await storage.delete(gone!.thumbKey);
+    const run = async (withStorage: boolean) => {
+      const lines: string[] = [];
+      const result = await seedDemoShop(db, credentials, {
+        storage: withStorage ? storage : undefined,
+        nowMs: Date.now(),
+        log: (line) => lines.push(line),
+      });
+      tokens = result.tokens;
+      return { photos: result.photos, lines };
+    };
+
+    expect(await run(false)).toEqual({
+      photos: 0,
+      lines: ['No photo storage configured (S3_BUCKET unset): the demo photos are skipped.'],
+    });
+    await s3.stop();
+    try {
+      expect(await run(true)).toEqual({
+        photos: 0,
+        lines: ['Photo storage is out of reach: 1 demo photo skipped; the next seed adds them.'],
+      });
+    } finally {
+      await s3.start();
+    }
+    expect(await run(true)).toEqual({ photos: 1, lines: [] });
+    const after = await counts();
+    expect([after.photos, after.objects]).toEqual([9, 18]);
   });
 
   it('has a finished trial ranked in every test, with the standings worked by hand', async () => {
