@@ -181,7 +181,7 @@ export function drawInspection(picture: InspectionPicture): Promise<Buffer> {
   } else {
     body += `<rect width="${W}" height="${H}" fill="#d9d2c2"/>`;
     for (let i = 0; i < 6; i += 1) {
-      const bar = { x: 40, y: 80 + i * 125, w: W - 80, h: 56 };
+      const bar = { x: 40, y: 60 + i * 112, w: W - 80, h: 56 };
       body += `<rect x="${bar.x}" y="${bar.y + 6}" width="${bar.w}" height="${bar.h}" fill="#8f8878" fill-opacity="0.5"/>`;
       body += `<rect x="${bar.x}" y="${bar.y}" width="${bar.w}" height="${bar.h}" fill="url(#iron)"/>`;
       body += grindMarks(bar, random, 20);
