@@ -6,6 +6,7 @@ import { afterAll, beforeAll, describe, expect, it } from 'vitest';
 
 import { verifiedPerson } from '../support/app';
 import { SHOTS, startBrowserSuite, watchPage, type BrowserSuite } from '../support/browser';
+import { WORKED, WORKED_RANKS } from '../support/trialExample';
 
 let suite: BrowserSuite;
 let server: BrowserSuite['server'];
@@ -17,21 +18,8 @@ beforeAll(async () => {
 afterAll(() => suite?.close());
 
 const TREATMENTS = ['Paste wax', 'Camellia oil', 'Dry lubricant', 'Bare iron'];
-/**
- * Ranks per test (1 = best), no ties. Rank totals 6, 10, 15, 19 (n = 5 tests, k = 4).
- * Friedman (Friedman 1937; Conover, Practical Nonparametric Statistics, 3rd ed., §5.8):
- * χ² = 12 / (n k (k + 1)) · ΣR² − 3 n (k + 1) = 12/100 · (36 + 100 + 225 + 361) − 75 = 11.64,
- * df = k − 1 = 3; p = P(χ²₃ > 11.64) = erfc(√5.82) + √(2·11.64/π)·e^(−5.82) = 0.008724
- * (the χ² survival function for 3 df, closed form). Kendall's W = χ² / (n (k − 1)) = 11.64 / 15
- * = 0.776 (Kendall & Babington Smith 1939).
- */
-const RANKS = [
-  [1, 2, 3, 4],
-  [1, 3, 2, 4],
-  [1, 2, 4, 3],
-  [2, 1, 3, 4],
-  [1, 2, 3, 4],
-];
+// Ranked as tests/support/trialExample.ts works out: χ² = 11.64, df = 3, p = 0.008724, W = 0.776.
+const RANKS = WORKED_RANKS;
 
 async function signIn(page: Page, email: string, password: string) {
   await page.goto(`${server.baseUrl}/sign-in`);
@@ -133,11 +121,11 @@ describe('protection trials', () => {
           (r) => r.treatmentId === api.treatments.find((t) => t.name === name)!.id,
         )!.total,
     );
-    expect(totals).toEqual([6, 10, 15, 19]); // hand sums of RANKS' columns
-    expect(api.standings.friedman!.statistic).toBeCloseTo(11.64, 9); // worked above
+    expect(totals).toEqual(WORKED.totals); // hand sums of RANKS' columns
+    expect(api.standings.friedman!.statistic).toBeCloseTo(WORKED.statistic, 9);
     expect(api.standings.friedman!.df).toBe(3);
-    expect(api.standings.friedman!.p).toBeCloseTo(0.008724, 6); // χ²₃ survival, worked above
-    expect(api.standings.kendallW).toBeCloseTo(0.776, 9);
+    expect(api.standings.friedman!.p).toBeCloseTo(WORKED.p, 6); // χ²₃ survival
+    expect(api.standings.kendallW).toBeCloseTo(WORKED.kendallW, 9);
 
     // The screen shows the same figures.
     expect(await page.getByTestId('trial-friedman').textContent()).toBe('11.64');
