@@ -94,8 +94,13 @@ function drawRanksTable(doc: Doc, e: TrialExport, width: number): void {
   const cellWidth = (width - NAME_COL_PT) / n;
   heading(doc, 'Ranks', width);
 
-  const row = (label: string, cells: string[], bold: boolean) => {
-    keepTogether(doc, ROW_PT);
+  const header = trial.treatments.map((_t, j) => `T${j + 1}`);
+  const row = (label: string, cells: string[], bold: boolean, isHeader = false) => {
+    if (doc.y + ROW_PT > pageBottom(doc)) {
+      // A long trial runs over: the next page repeats the column heads.
+      doc.addPage();
+      if (!isHeader) row('Test', header, true, true);
+    }
     const y = doc.y;
     doc
       .font(bold ? FONT_BOLD : FONT_REGULAR)
@@ -120,11 +125,7 @@ function drawRanksTable(doc: Doc, e: TrialExport, width: number): void {
     doc.y = y + ROW_PT;
   };
 
-  row(
-    'Test',
-    trial.treatments.map((_t, j) => `T${j + 1}`),
-    true,
-  );
+  row('Test', header, true, true);
   for (const test of trial.tests) {
     row(
       test.name,
@@ -216,6 +217,8 @@ function drawStandings(doc: Doc, e: TrialExport, width: number): void {
 
 function drawFriedman(doc: Doc, e: TrialExport, width: number): void {
   const { standings } = e.trial;
+  // With nothing ranked the standings already said so.
+  if (standings.tests === 0) return;
   heading(doc, 'More than chance?', width);
   const f = standings.friedman;
   if (f) {
@@ -230,6 +233,8 @@ function drawFriedman(doc: Doc, e: TrialExport, width: number): void {
   body(doc, TRIAL_FRIEDMAN_METHOD, width, pdfColors.iron);
   if (standings.pairs.length > 0) {
     doc.moveDown(0.6);
+    // The pairs and their method stay on one page when they fit on one.
+    keepTogether(doc, (standings.pairs.length + 5) * ROW_PT);
     heading(doc, 'Pairs', width);
     const nameOf = (id: string) => e.trial.treatments.find((t) => t.id === id)?.name ?? '—';
     for (const pair of standings.pairs) {
