@@ -126,10 +126,10 @@ export {
   type AlarmListState,
   type AlarmsResponse,
 } from './alarms';
+export { fetchFile, filenameFromDisposition, type DownloadedFile, type FileFormat } from './files';
 export {
   WEEK_CHART_POINTS,
   fetchWeekReportFile,
-  filenameFromDisposition,
   reportKeys,
   useWeekReadingsQuery,
   useWeekReportQuery,
@@ -139,7 +139,6 @@ export {
   type AlarmWeekFigures,
   type LevelHours,
   type MinMeanMax,
-  type ReportFile,
   type ReportFormat,
   type ShopWeekFigures,
   type SilentPeriod,
@@ -148,6 +147,7 @@ export {
   type ZoneWeekFigures,
 } from './reports';
 export {
+  fetchTrialFile,
   trialKeys,
   trialQueryOptions,
   trialsQueryOptions,

@@ -8,6 +8,7 @@ import { queryOptions, useMutation, useQuery, useQueryClient } from '@tanstack/r
 import type { Trial, TrialTest, TrialTestKind, TrialsResponse } from '@/ingest/wire';
 
 import { apiRequest } from './api';
+import { fetchFile, type DownloadedFile, type FileFormat } from './files';
 import { shopPath } from './shops';
 
 // The shapes are the server's own (ingest/wire/trials.ts); screens import them from here.
@@ -31,6 +32,15 @@ export const trialKeys = {
 const trialsPath = (shopId: string) => `${shopPath(shopId)}/trials`;
 const trialPath = (shopId: string, trialId: string) =>
   `${trialsPath(shopId)}/${encodeURIComponent(trialId)}`;
+
+/** The trial as a CSV or PDF file (GET …/trials/:trialId?format=csv|pdf). */
+export function fetchTrialFile(
+  shopId: string,
+  trialId: string,
+  format: FileFormat,
+): Promise<DownloadedFile> {
+  return fetchFile(`${trialPath(shopId, trialId)}?format=${format}`, format);
+}
 
 export function trialsQueryOptions(shopId: string) {
   return queryOptions({
@@ -68,6 +78,8 @@ export interface NewTrialTest {
   kind: TrialTestKind;
   from: string;
   to: string;
+  /** The zone whose readings give the test's conditions. */
+  zoneId?: string;
 }
 
 function useTrialMutation<I>(shopId: string, trialId: string, fn: (input: I) => Promise<unknown>) {

@@ -4,6 +4,7 @@ import { StyleSheet, Text, View } from 'react-native';
 import { Button } from '@/components/forms';
 import { useBreakpoints } from '@/components/layout';
 import {
+  fetchWeekReportFile,
   useUnitPref,
   useWeekReportQuery,
   useZonesQuery,
@@ -12,9 +13,8 @@ import {
 } from '@/components/queries';
 import { useFrameShop } from '@/components/shop/ShopFrame';
 import { space, type } from '@/components/theme';
-import { Notice, useDocumentTitle, useNow } from '@/components/ui';
+import { DownloadButton, Notice, useDocumentTitle, useNow } from '@/components/ui';
 
-import { DownloadButton } from './DownloadButton';
 import { isLatestWeek, isPartialWeek, weekLabel } from './reportWeek';
 import { ShopWeekLine } from './ShopWeekLine';
 import { WeekPicker } from './WeekPicker';
@@ -89,8 +89,15 @@ function WeekBody({ report, zones, wide, shopId }: WeekBodyProps) {
         </Text>
       ) : null}
       <View style={styles.downloads}>
-        <DownloadButton shopId={shopId} start={week.start} format="csv" />
-        <DownloadButton shopId={shopId} start={week.start} format="pdf" />
+        {(['csv', 'pdf'] as const).map((format) => (
+          <DownloadButton
+            key={format}
+            format={format}
+            fetchFile={() => fetchWeekReportFile(shopId, week.start, format)}
+            fallbackName={`drybench-week-${week.start}.${format}`}
+            testID="report-download"
+          />
+        ))}
       </View>
       <ShopWeekLine figures={report.shopWide} unit={unit} timeZone={timeZone} />
       {report.zones.length === 0 ? (

@@ -1,44 +1,41 @@
 import { Link } from 'expo-router';
-import { useState } from 'react';
 import { Controller } from 'react-hook-form';
 import { StyleSheet, Text, View } from 'react-native';
 import * as z from 'zod/mini';
 
-import {
-  Choice,
-  Form,
-  FormError,
-  FormField,
-  SubmitButton,
-  TextField,
-  useApiForm,
-} from '@/components/forms';
+import { Choice, Form, FormError, FormField, SubmitButton, useApiForm } from '@/components/forms';
 import { nameSchema } from '@/components/forms/schemas';
 import { trialsHref } from '@/components/hrefs';
 import { useBreakpoints } from '@/components/layout';
 import {
-  isApiError,
+  fetchTrialFile,
   useTrialQuery,
-  useTrialRanksMutation,
   useTrialTestCreateMutation,
+  useUnitPref,
+  useZonesQuery,
   type ShopSummary,
-  type Trial,
-  type TrialTest,
   type TrialTestKind,
+  type Zone,
 } from '@/components/queries';
 import { useFrameShop } from '@/components/shop/ShopFrame';
 import { colors, space, type } from '@/components/theme';
-import { Notice, Panel, useDocumentTitle } from '@/components/ui';
-import { fromLocalInput, toLocalInput } from '@/components/zones/chartRange';
+import { DownloadButton, Notice, Panel, useDocumentTitle } from '@/components/ui';
+import { fromLocalInput } from '@/components/zones/chartRange';
 import { TRIAL_TEST_KINDS } from '@/ingest/wire';
 import { TRIAL_KIND_WORDS } from '@/ingest/words';
 
 import { TrialStandingsPanel } from './TrialStandingsPanel';
+import { TrialTestCard } from './TrialTestCard';
 
-/** One trial: its standings, its tests with their ranks, and the form that adds a test. */
+/**
+ * One trial: its standings, its tests with their ranks and recorded conditions, the form that
+ * adds a test, and the trial as a CSV or PDF file.
+ */
 export function TrialScreen({ trialId }: { trialId: string }) {
   const shop = useFrameShop();
   const trial = useTrialQuery(shop.id, trialId);
+  const zones = useZonesQuery(shop.id).data?.zones ?? [];
+  const unit = useUnitPref();
   const { isWide } = useBreakpoints();
   useDocumentTitle(trial.data ? `${trial.data.name} · Trials` : 'Trials', shop.name);
   if (trial.isError) {
@@ -52,16 +49,36 @@ export function TrialScreen({ trialId }: { trialId: string }) {
   if (!trial.data) return <Notice title="Loading the trial…" />;
   const data = trial.data;
   const writer = shop.role !== 'viewer';
+  const zoneName = (id: string | null) => zones.find((z) => z.id === id)?.name ?? null;
   const tests = data.tests.map((test) => (
-    <TestPanel key={test.id} shop={shop} trial={data} test={test} writer={writer} />
+    <TrialTestCard
+      key={test.id}
+      shop={shop}
+      trial={data}
+      test={test}
+      zoneName={zoneName(test.zoneId)}
+      unit={unit}
+      writer={writer}
+    />
   ));
-  const addTest = writer ? <NewTestForm shop={shop} trialId={data.id} /> : null;
+  const addTest = writer ? <NewTestForm shop={shop} trialId={data.id} zones={zones} /> : null;
   return (
     <>
       <BackLink shopId={shop.id} />
       <Text style={type.title} role="heading" aria-level={2} testID="trial-name">
         {data.name}
       </Text>
+      <View style={styles.downloads}>
+        {(['csv', 'pdf'] as const).map((format) => (
+          <DownloadButton
+            key={format}
+            format={format}
+            fetchFile={() => fetchTrialFile(shop.id, data.id, format)}
+            fallbackName={`trial.${format}`}
+            testID="trial-download"
+          />
+        ))}
+      </View>
       {isWide ? (
         // Wide: the standings and the new test beside the tests, so ranking shows its effect.
         <View style={styles.columns}>
@@ -90,87 +107,16 @@ function BackLink({ shopId }: { shopId: string }) {
   );
 }
 
-function rankText(test: TrialTest, treatmentId: string): string {
-  const rank = test.ranks.find((r) => r.treatmentId === treatmentId)?.rank;
-  return rank === undefined ? '' : String(rank);
-}
-
-interface TestPanelProps {
-  shop: ShopSummary;
-  trial: Trial;
-  test: TrialTest;
-  writer: boolean;
-}
-
-/** A test's window and its ranks, one field a treatment (1 = best; a shared rank for a tie). */
-function TestPanel({ shop, trial, test, writer }: TestPanelProps) {
-  const save = useTrialRanksMutation(shop.id, trial.id);
-  const [ranks, setRanks] = useState<Record<string, string>>(() =>
-    Object.fromEntries(trial.treatments.map((t) => [t.id, rankText(test, t.id)])),
-  );
-  const [localError, setLocalError] = useState<string | null>(null);
-  const span = `${toLocalInput(Date.parse(test.from), shop.timeZone).replace('T', ' ')} – ${toLocalInput(
-    Date.parse(test.to),
-    shop.timeZone,
-  ).replace('T', ' ')}`;
-  const submit = () => {
-    const entries = trial.treatments.map((t) => ({
-      treatmentId: t.id,
-      rank: Number((ranks[t.id] ?? '').trim().replace(',', '.')),
-    }));
-    if (entries.some((e) => !Number.isFinite(e.rank) || e.rank <= 0)) {
-      setLocalError(`Give every treatment a rank from 1 (best) to ${trial.treatments.length}`);
-      return;
-    }
-    setLocalError(null);
-    save.mutate({ testId: test.id, ranks: entries });
-  };
-  const serverError = isApiError(save.error)
-    ? (save.error.details[0]?.message ?? save.error.message)
-    : save.error?.message;
-  return (
-    <Panel title={test.name} testID="trial-test">
-      <Text style={type.small}>
-        {TRIAL_KIND_WORDS[test.kind]} · {span} ({shop.timeZone}) ·{' '}
-        {test.ranks.length > 0 ? 'ranked' : 'not ranked yet'}
-      </Text>
-      <Form onSubmit={submit} style={styles.ranks}>
-        {trial.treatments.map((t) => (
-          <View key={t.id} style={styles.rankField}>
-            <TextField
-              label={`Rank of ${t.name} in ${test.name}`}
-              value={ranks[t.id] ?? ''}
-              onChangeText={(text) => setRanks((r) => ({ ...r, [t.id]: text }))}
-              inputMode="decimal"
-              editable={writer && !save.isPending}
-              testID="trial-rank"
-            />
-          </View>
-        ))}
-      </Form>
-      {writer ? (
-        <>
-          <FormError message={localError ?? serverError} />
-          <SubmitButton
-            label="Save ranks"
-            sendingLabel="Saving…"
-            sending={save.isPending}
-            onPress={submit}
-            testID="trial-rank-submit"
-          />
-        </>
-      ) : null}
-    </Panel>
-  );
-}
-
 const KIND_OPTIONS = TRIAL_TEST_KINDS.map((kind) => ({
   value: kind,
   label: TRIAL_KIND_WORDS[kind],
 }));
 
 /** The add-a-test form's values: times as typed on the shop's clock, read by fromLocalInput. */
-type NewTestValues = { name: string; kind: string; from: string; to: string };
+type NewTestValues = { name: string; kind: string; from: string; to: string; zone: string };
+
+/** The zone choice's value for a test run outside any zone (nothing is recorded). */
+const NO_ZONE = 'none';
 
 function newTestSchema(timeZone: string) {
   const localTime = (message: string) =>
@@ -180,15 +126,29 @@ function newTestSchema(timeZone: string) {
     kind: z.string().check(z.minLength(1, 'Choose the kind of test')),
     from: localTime('Give the start as YYYY-MM-DD HH:MM'),
     to: localTime('Give the end as YYYY-MM-DD HH:MM'),
+    zone: z.string(),
   });
 }
 
-function NewTestForm({ shop, trialId }: { shop: ShopSummary; trialId: string }) {
+function NewTestForm({
+  shop,
+  trialId,
+  zones,
+}: {
+  shop: ShopSummary;
+  trialId: string;
+  zones: readonly Zone[];
+}) {
+  const zoneOptions = [
+    { value: NO_ZONE, label: 'No zone' },
+    ...zones.map((zone) => ({ value: zone.id, label: zone.name })),
+  ];
   const create = useTrialTestCreateMutation(shop.id, trialId);
   const { form, control, submit, sending, formError } = useApiForm<NewTestValues>({
     schema: newTestSchema(shop.timeZone),
-    defaultValues: { name: '', kind: '', from: '', to: '' },
-    fields: ['name', 'kind', 'from', 'to'],
+    defaultValues: { name: '', kind: '', from: '', to: '', zone: NO_ZONE },
+    fields: ['name', 'kind', 'from', 'to', 'zone'],
+    fieldOf: (path) => (path === 'zoneId' ? 'zone' : path),
     send: async (values) => {
       await create.mutateAsync({
         name: values.name.trim(),
@@ -196,8 +156,9 @@ function NewTestForm({ shop, trialId }: { shop: ShopSummary; trialId: string }) 
         // The schema has checked both times, so neither is null here.
         from: new Date(fromLocalInput(values.from, shop.timeZone)!).toISOString(),
         to: new Date(fromLocalInput(values.to, shop.timeZone)!).toISOString(),
+        ...(values.zone === NO_ZONE ? {} : { zoneId: values.zone }),
       });
-      form.reset({ name: '', kind: values.kind, from: '', to: '' });
+      form.reset({ name: '', kind: values.kind, from: '', to: '', zone: values.zone });
     },
   });
   return (
@@ -242,6 +203,23 @@ function NewTestForm({ shop, trialId }: { shop: ShopSummary; trialId: string }) 
           editable={!sending}
           testID="trial-test-to"
         />
+        {zones.length > 0 ? (
+          <Controller
+            control={control}
+            name="zone"
+            render={({ field, fieldState }) => (
+              <Choice
+                label="Zone (its readings give the conditions)"
+                options={zoneOptions}
+                value={field.value || NO_ZONE}
+                onChange={field.onChange}
+                disabled={sending}
+                error={fieldState.error?.message}
+                testID="trial-test-zone"
+              />
+            )}
+          />
+        ) : null}
         <FormError message={formError} />
         <SubmitButton
           label="Add test"
@@ -259,8 +237,7 @@ const styles = StyleSheet.create({
   form: { gap: space.lg },
   columns: { flexDirection: 'row', alignItems: 'flex-start', gap: space.xl },
   column: { flex: 1, minWidth: 0, gap: space.lg },
-  ranks: { flexDirection: 'row', flexWrap: 'wrap', gap: space.md },
-  rankField: { minWidth: 150, flexGrow: 1, flexBasis: 150 },
+  downloads: { flexDirection: 'row', flexWrap: 'wrap', gap: space.sm },
   link: {
     ...type.body,
     color: colors.air,

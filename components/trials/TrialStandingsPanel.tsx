@@ -3,7 +3,7 @@ import { StyleSheet, Text, View } from 'react-native';
 import type { Trial } from '@/components/queries';
 import { colors, space, tabular, type } from '@/components/theme';
 import { Panel } from '@/components/ui';
-import { formatP } from '@/ingest/words';
+import { TRIAL_PAIRS_METHOD, formatP, trialPairText } from '@/ingest/words';
 
 /**
  * The standings the server computed (ingest/trials/standings.ts): rank totals and mean ranks
@@ -71,10 +71,10 @@ export function TrialStandingsPanel({ trial }: { trial: Trial }) {
           </Text>
           {standings.pairs.map((pair) => (
             <Text key={`${pair.better}-${pair.worse}`} style={type.body} testID="trial-pair">
-              {nameOf(pair.better)} over {nameOf(pair.worse)}: {formatP(pair.adjustedP)}
-              {pair.differs ? ' — differs' : ' — could be chance'}
+              {trialPairText(nameOf(pair.better), nameOf(pair.worse), pair)}
             </Text>
           ))}
+          <Text style={type.small}>{TRIAL_PAIRS_METHOD}</Text>
         </View>
       ) : null}
     </Panel>

@@ -6,22 +6,13 @@
  * and when the report was made, in the shop's time zone.
  */
 import { formatInTimeZone } from 'date-fns-tz';
-import PDFDocument from 'pdfkit';
 
 import type { ReadingPoint } from '@/ingest/wire/readings';
 import type { WeekReport } from '@/ingest/wire/reports';
 import { formatHours, formatMargin, formatPercent, reportTitle } from '@/ingest/words';
 
-import {
-  FONT_BOLD,
-  FONT_FILES,
-  FONT_REGULAR,
-  FOOTER_PT,
-  MARGIN_PT,
-  PAPER_POINTS,
-  pdfColors,
-  typeSizes,
-} from './pdfLayout';
+import { drawFooters, startPdf } from './pdfDocument';
+import { FONT_BOLD, FONT_REGULAR, pdfColors, typeSizes } from './pdfLayout';
 import { ackOrMissing } from './pdfWords';
 import { LABEL_WIDTH_PT, drawZone, shopClock, zoneBlockHeight } from './pdfZone';
 
@@ -113,63 +104,13 @@ function drawShopWide(doc: PDFKit.PDFDocument, report: WeekReport, width: number
   doc.y = bottom + 14;
 }
 
-/** Writes "page i of n" and the making time on every page, once all pages exist. */
-function drawFooters(doc: PDFKit.PDFDocument, report: WeekReport, width: number): void {
-  const range = doc.bufferedPageRange();
-  const made = `Drybench · made ${generatedText(report)}`;
-  for (let i = range.start; i < range.start + range.count; i += 1) {
-    doc.switchToPage(i);
-    // Writing inside the bottom margin would make pdfkit start a new page.
-    const bottomMargin = doc.page.margins.bottom;
-    doc.page.margins.bottom = 0;
-    const y = doc.page.height - MARGIN_PT - typeSizes.small;
-    const left = doc.page.margins.left;
-    doc.font(FONT_REGULAR).fontSize(typeSizes.small).fillColor(pdfColors.iron);
-    doc.text(made, left, y, { width: width - 90, lineBreak: false });
-    doc.text(`page ${i - range.start + 1} of ${range.count}`, left + width - 90, y, {
-      width: 90,
-      align: 'right',
-      lineBreak: false,
-    });
-    doc.page.margins.bottom = bottomMargin;
-  }
-}
-
 export async function renderWeekReportPdf(input: WeekReportPdfInput): Promise<Buffer> {
   const { report, series } = input;
-  const paper = PAPER_POINTS[report.shop.paperSize];
-  const doc = new PDFDocument({
-    size: [paper.width, paper.height],
-    margins: {
-      top: MARGIN_PT,
-      left: MARGIN_PT,
-      right: MARGIN_PT,
-      bottom: MARGIN_PT + FOOTER_PT,
-    },
-    bufferPages: true,
-    // Start on our face: the default Helvetica would otherwise be set up and referenced.
-    font: FONT_FILES[FONT_REGULAR],
-    lang: 'en',
-    displayTitle: true,
-    info: {
-      Title: `Week report ${report.shop.name} ${report.week.start}`,
-      Author: 'Drybench',
-      Creator: 'Drybench',
-      Subject: `Week of ${report.week.start}, ${report.shop.timeZone}`,
-      CreationDate: new Date(report.generatedAt),
-    },
+  const { doc, width, done } = startPdf(report.shop.paperSize, {
+    Title: `Week report ${report.shop.name} ${report.week.start}`,
+    Subject: `Week of ${report.week.start}, ${report.shop.timeZone}`,
+    CreationDate: new Date(report.generatedAt),
   });
-  doc.registerFont(FONT_REGULAR, FONT_FILES[FONT_REGULAR]);
-  doc.registerFont(FONT_BOLD, FONT_FILES[FONT_BOLD]);
-
-  const chunks: Buffer[] = [];
-  doc.on('data', (chunk: Buffer) => chunks.push(chunk));
-  const done = new Promise<Buffer>((resolve, reject) => {
-    doc.on('end', () => resolve(Buffer.concat(chunks)));
-    doc.on('error', reject);
-  });
-
-  const width = paper.width - 2 * MARGIN_PT;
   drawHeader(doc, report, width);
   drawShopWide(doc, report, width);
 
@@ -181,7 +122,7 @@ export async function renderWeekReportPdf(input: WeekReportPdfInput): Promise<Bu
     drawZone(doc, zone, report, series.get(zone.zoneId) ?? []);
   }
 
-  drawFooters(doc, report, width);
+  drawFooters(doc, `Drybench · made ${generatedText(report)}`, width);
   doc.end();
   return done;
 }

@@ -1,7 +1,8 @@
 /**
  * Protection trials: create a trial with its treatments, add tests, rank the treatments in each
- * test, and read the standings (ingest/trials/standings.ts). Owners and members write, viewers
- * read (server/auth/policy.ts).
+ * test, and read the standings (ingest/trials/standings.ts) as JSON, or the whole trial as a CSV
+ * or PDF file (server/trials/trialCsv.ts, trialPdf.ts). Owners and members write, viewers read
+ * (server/auth/policy.ts).
  */
 import { Router } from 'express';
 import { z } from 'zod';
@@ -18,6 +19,8 @@ import {
   testsOf,
   treatmentsOf,
 } from '@/db/queries/trials';
+import { reportShop, reportZones } from '@/db/queries/reports';
+import { findUserById } from '@/db/queries/users';
 import { findZone } from '@/db/queries/zones';
 import { transaction } from '@/db/transaction';
 import {
@@ -31,6 +34,9 @@ import {
 import { isUuid, shopIdOf, userIdOf } from '../auth/middleware';
 import { ApiError } from '../errors';
 import { trialConditions } from '../trials/conditions';
+import { trialCsv } from '../trials/trialCsv';
+import { TRIAL_EXPORT_FORMATS, trialExportFileName, type TrialExport } from '../trials/trialExport';
+import { renderTrialPdf } from '../trials/trialPdf';
 import { parseInput } from '../validate';
 import { toTrial, toTrialSummary, toTrialTest } from '../wire/trials';
 
@@ -95,6 +101,9 @@ const ranksBody = z
   })
   .strict();
 
+/** GET …/trials/:trialId answers JSON unless a file is asked for. */
+const trialQuery = z.object({ format: z.enum(TRIAL_EXPORT_FORMATS).default('json') }).strict();
+
 const noTrial = () => new ApiError(404, 'not_found', 'No such trial in this shop.');
 const noTest = () => new ApiError(404, 'not_found', 'No such test in this trial.');
 const badRanks = (message: string) =>
@@ -137,6 +146,7 @@ export function trialsRouter(db: Db, now: () => number): Router {
   router.get('/:trialId', async (req, res) => {
     const shopId = shopIdOf(res);
     const trial = await trialOf(shopId, req.params.trialId);
+    const { format } = parseInput(trialQuery, req.query, 'query');
     const treatments = await treatmentsOf(db, shopId, [trial.id]);
     const tests = await testsOf(db, shopId, trial.id);
     const ranks = await ranksOf(
@@ -144,8 +154,34 @@ export function trialsRouter(db: Db, now: () => number): Router {
       shopId,
       tests.map((t) => t.id),
     );
-    const conditions = await trialConditions(db, tests, now());
-    res.json(toTrial(trial, treatments, tests, ranks, conditions) satisfies Trial);
+    const nowMs = now();
+    const conditions = await trialConditions(db, tests, nowMs);
+    const answer = toTrial(trial, treatments, tests, ranks, conditions) satisfies Trial;
+    if (format === 'json') return void res.json(answer);
+
+    const shop = await reportShop(db, shopId);
+    if (!shop) throw noTrial();
+    const user = await findUserById(db, userIdOf(res));
+    const zoneNames = new Map((await reportZones(db, shopId)).map((z) => [z.id, z.name]));
+    const file: TrialExport = {
+      trial: answer,
+      shop,
+      unit: user?.unitPref ?? 'C',
+      zoneNames,
+      generatedAt: new Date(nowMs).toISOString(),
+    };
+    // The name keeps only ASCII letters, digits and hyphens (trialFileName): no escaping needed.
+    res.setHeader(
+      'Content-Disposition',
+      `attachment; filename="${trialExportFileName(file, format)}"`,
+    );
+    if (format === 'csv') {
+      res.type('text/csv; charset=utf-8');
+      return void res.send(trialCsv(file));
+    }
+    const pdf = await renderTrialPdf(file);
+    res.type('application/pdf');
+    res.send(pdf);
   });
 
   router.post('/:trialId/tests', async (req, res) => {

@@ -1,11 +1,17 @@
 // A protection trial in Debian's Chromium against the real server: an owner starts a trial of
-// four treatments, adds five tests on the shop's clock, ranks them, and reads the standings;
-// the figures on screen are checked against a Friedman test worked by hand and the API's answer.
+// four treatments, adds five tests on the shop's clock (the first in a zone with readings),
+// ranks them, reads the standings and the zone's conditions, and downloads the CSV and PDF;
+// the figures are checked against a Friedman test worked by hand and the API's answer.
+import fs from 'node:fs';
+
+import Papa from 'papaparse';
 import type { Page } from 'playwright-core';
 import { afterAll, beforeAll, describe, expect, it } from 'vitest';
 
 import { verifiedPerson } from '../support/app';
+import { postIngest } from '../support/ingest';
 import { SHOTS, startBrowserSuite, watchPage, type BrowserSuite } from '../support/browser';
+import { WORKED, WORKED_RANKS } from '../support/trialExample';
 
 let suite: BrowserSuite;
 let server: BrowserSuite['server'];
@@ -17,21 +23,8 @@ beforeAll(async () => {
 afterAll(() => suite?.close());
 
 const TREATMENTS = ['Paste wax', 'Camellia oil', 'Dry lubricant', 'Bare iron'];
-/**
- * Ranks per test (1 = best), no ties. Rank totals 6, 10, 15, 19 (n = 5 tests, k = 4).
- * Friedman (Friedman 1937; Conover, Practical Nonparametric Statistics, 3rd ed., §5.8):
- * χ² = 12 / (n k (k + 1)) · ΣR² − 3 n (k + 1) = 12/100 · (36 + 100 + 225 + 361) − 75 = 11.64,
- * df = k − 1 = 3; p = P(χ²₃ > 11.64) = erfc(√5.82) + √(2·11.64/π)·e^(−5.82) = 0.008724
- * (the χ² survival function for 3 df, closed form). Kendall's W = χ² / (n (k − 1)) = 11.64 / 15
- * = 0.776 (Kendall & Babington Smith 1939).
- */
-const RANKS = [
-  [1, 2, 3, 4],
-  [1, 3, 2, 4],
-  [1, 2, 4, 3],
-  [2, 1, 3, 4],
-  [1, 2, 3, 4],
-];
+// Ranked as tests/support/trialExample.ts works out: χ² = 11.64, df = 3, p = 0.008724, W = 0.776.
+const RANKS = WORKED_RANKS;
 
 async function signIn(page: Page, email: string, password: string) {
   await page.goto(`${server.baseUrl}/sign-in`);
@@ -67,7 +60,36 @@ describe('protection trials', () => {
         .send({ name: 'Tamarack Bench Works', timeZone: 'America/Chicago' })
         .expect(201)
     ).body as { id: string };
-    const page = await suite.browser.newPage({ viewport: { width: 390, height: 844 } });
+    // A zone with a probe that saw the first test's night: at 100 % RH the dew point is the air
+    // temperature, so a 12 °C surface over 10 °C air is a 2 K margin (close) and 11 °C a 1 K
+    // margin (wet, ingest/levels.ts). Six readings 10 min apart from 00:00 UTC on 3 March (18:00
+    // in Chicago), the last standing 15 min (the cap, ingest/wetness.ts): wet 00:30–01:05 =
+    // 35 min = 0.58 h, ISO 9223 wetness (RH > 80 %, T > 0 °C) 00:00–01:05 = 65 min = 1.08 h.
+    const zone = (
+      await owner.agent
+        .post(`/api/v1/shops/${shop.id}/zones`)
+        .send({ name: 'Machine room' })
+        .expect(201)
+    ).body as { id: string };
+    const sensor = (
+      await owner.agent
+        .post(`/api/v1/shops/${shop.id}/sensors`)
+        .send({ name: 'Saw probe', zoneId: zone.id })
+        .expect(201)
+    ).body as { token: string };
+    await postIngest(server.baseUrl, sensor.token, {
+      readings: [12, 12, 12, 11, 11, 11].map((surface, i) => ({
+        at: new Date(Date.parse('2026-03-03T00:00:00Z') + i * 600_000).toISOString(),
+        air: 10,
+        rh: 100,
+        surface,
+      })),
+    }).expect(202);
+
+    const page = await suite.browser.newPage({
+      viewport: { width: 390, height: 844 },
+      acceptDownloads: true,
+    });
     const errors = watchPage(page);
     await signIn(page, owner.email, owner.password);
 
@@ -109,10 +131,20 @@ describe('protection trials', () => {
       await page.getByTestId('trial-test-kind-condensation').click();
       await page.getByTestId('trial-test-from').fill(`2026-03-0${i + 2} 18:00`);
       await page.getByTestId('trial-test-to').fill(`2026-03-0${i + 3} 07:00`);
+      await page.getByTestId(`trial-test-zone-${i === 0 ? zone.id : 'none'}`).click();
       await page.getByTestId('trial-test-submit').click();
       await expect.poll(() => page.getByTestId('trial-test').count()).toBe(i + 1);
       const panel = page.getByTestId('trial-test').nth(i);
       const fields = panel.getByTestId('trial-rank');
+      if (i === 0) {
+        // A rank past the number of treatments is refused on its field, which takes the focus.
+        await fields.nth(0).fill('7');
+        await panel.getByTestId('trial-rank-submit').click();
+        await expect
+          .poll(() => panel.getByTestId('trial-rank-error').first().textContent())
+          .toBe('Give a rank from 1 (best) to 4; tied treatments may share one');
+        expect(await fields.nth(0).evaluate((el) => el === document.activeElement)).toBe(true);
+      }
       for (const [j, rank] of ranks.entries()) await fields.nth(j).fill(String(rank));
       await panel.getByTestId('trial-rank-submit').click();
       await expect.poll(() => panel.textContent()).toContain('· ranked');
@@ -133,11 +165,11 @@ describe('protection trials', () => {
           (r) => r.treatmentId === api.treatments.find((t) => t.name === name)!.id,
         )!.total,
     );
-    expect(totals).toEqual([6, 10, 15, 19]); // hand sums of RANKS' columns
-    expect(api.standings.friedman!.statistic).toBeCloseTo(11.64, 9); // worked above
+    expect(totals).toEqual(WORKED.totals); // hand sums of RANKS' columns
+    expect(api.standings.friedman!.statistic).toBeCloseTo(WORKED.statistic, 9);
     expect(api.standings.friedman!.df).toBe(3);
-    expect(api.standings.friedman!.p).toBeCloseTo(0.008724, 6); // χ²₃ survival, worked above
-    expect(api.standings.kendallW).toBeCloseTo(0.776, 9);
+    expect(api.standings.friedman!.p).toBeCloseTo(WORKED.p, 6); // χ²₃ survival
+    expect(api.standings.kendallW).toBeCloseTo(WORKED.kendallW, 9);
 
     // The screen shows the same figures.
     expect(await page.getByTestId('trial-friedman').textContent()).toBe('11.64');
@@ -157,6 +189,48 @@ describe('protection trials', () => {
     // p < 0.05, so the pairs are listed.
     expect(api.standings.pairs.length).toBeGreaterThan(0);
     expect(await page.getByTestId('trial-pair').count()).toBe(api.standings.pairs.length);
+
+    // The first test's zone and its night, worked out above, in °C (the owner's unit).
+    const conditions = page.getByTestId('trial-test-conditions');
+    expect(await conditions.count()).toBe(1);
+    const seen = (await conditions.textContent())!;
+    for (const text of ['In Machine room', '+1.0 °C', '100 %', '0.6 h', '1.1 h']) {
+      expect(seen).toContain(text);
+    }
+    await conditions.scrollIntoViewIfNeeded();
+    await page.screenshot({ path: `${SHOTS}/trial-test-phone.png` });
+
+    // The CSV through the browser's download, read back: the Friedman line carries the worked
+    // statistic and p.
+    const [csvDownload] = await Promise.all([
+      page.waitForEvent('download'),
+      page.getByTestId('trial-download-csv-button').click(),
+    ]);
+    expect(csvDownload.suggestedFilename()).toMatch(
+      /^trial-saw-table-protection-\d{4}-\d{2}-\d{2}\.csv$/,
+    );
+    const csv = fs.readFileSync((await csvDownload.path())!, 'utf8');
+    expect(csv).toContain('11.64');
+    const rows = Papa.parse<Record<string, string>>(csv, {
+      header: true,
+      skipEmptyLines: true,
+    }).data;
+    const friedman = rows.find((r) => r.Section === 'friedman')!;
+    expect(Number(friedman['Friedman chi-square'])).toBeCloseTo(WORKED.statistic, 9);
+    expect(Number(friedman.p)).toBeCloseTo(WORKED.p, 6);
+    const first = rows.find((r) => r.Section === 'rank' && r.Test === 'Wet rag night 1')!;
+    expect(first).toMatchObject({ Zone: 'Machine room', 'Lowest dew margin (°C difference)': '1' });
+
+    // The PDF: its bytes start with the PDF signature (ISO 32000-1 §7.5.2 "%PDF-").
+    const [pdfDownload] = await Promise.all([
+      page.waitForEvent('download', { timeout: 20_000 }),
+      page.getByTestId('trial-download-pdf-button').click(),
+    ]);
+    expect(pdfDownload.suggestedFilename()).toMatch(/^trial-saw-table-protection-.*\.pdf$/);
+    const pdf = fs.readFileSync((await pdfDownload.path())!);
+    expect(pdf.subarray(0, 5).toString('latin1')).toBe('%PDF-');
+    expect(await page.getByTestId('trial-download-pdf-button').textContent()).toBe('Download PDF');
+
     await page.screenshot({ path: `${SHOTS}/trial-phone.png`, fullPage: true });
     expect(errors).toEqual([]);
     await page.close();
@@ -172,6 +246,10 @@ describe('protection trials', () => {
     expect(await page.locator('h1').allTextContents()).toEqual(['Trials']);
     expect(await page.getByTestId('trial-p').textContent()).toBe('p = 0.0087');
     expect(await page.getByTestId('trial-test').count()).toBe(5);
+    expect(await page.getByTestId('trial-download-csv-button').textContent()).toBe('Download CSV');
+    await expect
+      .poll(() => page.getByTestId('trial-test-conditions').textContent())
+      .toContain('+1.0 °C');
     await page.screenshot({ path: `${SHOTS}/trial-wide.png`, fullPage: true });
     await page.goto(`${server.baseUrl}${trialPath.replace(/\/[^/]+$/, '')}`);
     await page.getByTestId('trial-card').waitFor();

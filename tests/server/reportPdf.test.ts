@@ -13,6 +13,7 @@ import type { ReadingPoint } from '@/ingest/wire/readings';
 import type { WeekReport } from '@/ingest/wire/reports';
 import { renderWeekReportPdf } from '@/server/reports/pdf';
 import { marginChartGeometry } from '@/server/reports/pdfChart';
+import { parsePdf } from '@/tests/support/pdf';
 import {
   BERLIN_WEEK,
   CHICAGO_WEEK,
@@ -23,31 +24,6 @@ import {
   tamarackReport,
   type ShopWeek,
 } from '@/tests/support/weekReports';
-
-interface Parsed {
-  /** All pages' text with runs of white space made one space (wrapped lines join up). */
-  flat: string;
-  pages: { width: number; height: number }[];
-  info: Record<string, unknown>;
-  total: number;
-}
-
-async function parsePdf(data: Buffer): Promise<Parsed> {
-  const { PDFParse } = await import('pdf-parse');
-  const parser = new PDFParse({ data: new Uint8Array(data) });
-  try {
-    const text = await parser.getText();
-    const info = await parser.getInfo({ parsePageInfo: true });
-    return {
-      flat: text.text.replace(/\s+/g, ' '),
-      pages: info.pages.map((p) => ({ width: p.width, height: p.height })),
-      info: info.info as Record<string, unknown>,
-      total: text.total,
-    };
-  } finally {
-    await parser.destroy();
-  }
-}
 
 function seriesFor(week: ShopWeek): Map<string, ReadingPoint[]> {
   return new Map([

@@ -2,10 +2,10 @@
 // application/pdf as an attachment, laid out on the shop's paper (US Letter for a Chicago shop
 // until the owner picks A4), and its text (read back with pdf-parse) carries every zone with the
 // figures the JSON answer has, in the reader's unit, the chart fed from the zone's stored series.
-import type { Response } from 'superagent';
 import { afterAll, beforeAll, describe, expect, it } from 'vitest';
 
 import { makeTestApp, type TestApp } from '../support/app';
+import { binary, parsePdf as pdfText } from '../support/pdf';
 import { fahrenheitShopWithSixReadings } from '../support/weekReports';
 
 let t: TestApp;
@@ -13,28 +13,6 @@ beforeAll(() => {
   t = makeTestApp();
 });
 afterAll(() => t.pool.end());
-
-async function pdfText(data: Buffer) {
-  const { PDFParse } = await import('pdf-parse');
-  const parser = new PDFParse({ data: new Uint8Array(data) });
-  try {
-    const text = await parser.getText();
-    const info = await parser.getInfo({ parsePageInfo: true });
-    return {
-      flat: text.text.replace(/\s+/g, ' '),
-      pages: info.pages.map((p) => ({ width: p.width, height: p.height })),
-    };
-  } finally {
-    await parser.destroy();
-  }
-}
-
-/** superagent leaves an application/pdf body unread unless given a parser that collects it. */
-function binary(res: Response, done: (err: Error | null, body: Buffer) => void) {
-  const chunks: Buffer[] = [];
-  res.on('data', (chunk: Buffer) => chunks.push(chunk));
-  res.on('end', () => done(null, Buffer.concat(chunks)));
-}
 
 describe('week report PDF through the route', () => {
   it('answers the shop’s zones on its paper, in °F, as an attachment', async () => {

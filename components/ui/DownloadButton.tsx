@@ -2,39 +2,41 @@ import { useState } from 'react';
 import { StyleSheet, Text, View } from 'react-native';
 
 import { Button } from '@/components/forms';
-import { fetchWeekReportFile } from '@/components/queries';
+import type { DownloadedFile, FileFormat } from '@/components/queries';
 import { colors, space, type } from '@/components/theme';
 
 import { saveFile } from './saveFile';
 
-type Format = 'csv' | 'pdf';
-
-const FORMAT_WORDS: Record<Format, string> = { csv: 'CSV', pdf: 'PDF' };
+const FORMAT_WORDS: Record<FileFormat, string> = { csv: 'CSV', pdf: 'PDF' };
 
 interface DownloadButtonProps {
-  shopId: string;
-  /** The week's Monday, shop-local, YYYY-MM-DD. */
-  start: string;
-  format: Format;
+  format: FileFormat;
+  /** Fetches the file with the session (components/queries: fetchWeekReportFile, fetchTrialFile). */
+  fetchFile: () => Promise<DownloadedFile>;
+  /** The name the file is saved under when the server names none. */
+  fallbackName: string;
+  /** Test ids: `<testID>-<format>`, `…-button`, `…-error`, `…-retry`. */
+  testID: string;
 }
 
 type State = { step: 'idle' } | { step: 'busy' } | { step: 'failed'; message: string };
 
 /**
- * Fetches the week's CSV or PDF with the session and saves it under the server's file name.
- * While the file is made the button says so and is busy; a failure keeps the server's sentence
- * beside a retry.
+ * Fetches a CSV or PDF the server makes (a week report, a trial) with the session and saves it
+ * under the server's file name. While the file is made the button says so and is busy; a
+ * failure keeps the server's sentence beside a retry.
  */
-export function DownloadButton({ shopId, start, format }: DownloadButtonProps) {
+export function DownloadButton({ format, fetchFile, fallbackName, testID }: DownloadButtonProps) {
   const [state, setState] = useState<State>({ step: 'idle' });
   const words = FORMAT_WORDS[format];
   const busy = state.step === 'busy';
+  const id = `${testID}-${format}`;
 
   const download = async () => {
     setState({ step: 'busy' });
     try {
-      const file = await fetchWeekReportFile(shopId, start, format);
-      await saveFile(file.blob, file.filename ?? `drybench-week-${start}.${format}`);
+      const file = await fetchFile();
+      await saveFile(file.blob, file.filename ?? fallbackName);
       setState({ step: 'idle' });
     } catch (error) {
       setState({
@@ -45,17 +47,17 @@ export function DownloadButton({ shopId, start, format }: DownloadButtonProps) {
   };
 
   return (
-    <View style={styles.box} testID={`report-download-${format}`}>
+    <View style={styles.box} testID={id}>
       <Button
         label={busy ? `Preparing ${words}…` : `Download ${words}`}
         variant="quiet"
         disabled={busy}
         busy={busy}
         onPress={() => void download()}
-        testID={`report-download-${format}-button`}
+        testID={`${id}-button`}
       />
       {state.step === 'failed' ? (
-        <View style={styles.error} role="alert" testID={`report-download-${format}-error`}>
+        <View style={styles.error} role="alert" testID={`${id}-error`}>
           <Text style={[type.body, styles.errorText]}>
             The {words} could not be downloaded: {state.message}
           </Text>
@@ -64,7 +66,7 @@ export function DownloadButton({ shopId, start, format }: DownloadButtonProps) {
             variant="quiet"
             accessibilityLabel={`Try again to download the ${words}`}
             onPress={() => void download()}
-            testID={`report-download-${format}-retry`}
+            testID={`${id}-retry`}
           />
         </View>
       ) : null}

@@ -1,7 +1,7 @@
 /**
  * Saves a fetched file in the browser: an object URL for the bytes and a click on an
  * `<a download>` naming the file. The object URL is released after the click has been handled,
- * so a week of PDFs does not pile up in the tab's memory.
+ * so a run of PDFs does not pile up in the tab's memory.
  */
 export async function saveFile(blob: Blob, filename: string): Promise<void> {
   const url = URL.createObjectURL(blob);

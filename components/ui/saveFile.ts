@@ -5,6 +5,6 @@
  */
 export async function saveFile(blob: Blob, filename: string): Promise<void> {
   throw new Error(
-    `${filename} (${blob.size} bytes) cannot be saved here: download reports from Drybench in a browser.`,
+    `${filename} (${blob.size} bytes) cannot be saved here: download files from Drybench in a browser.`,
   );
 }
