@@ -30,6 +30,7 @@ import {
 
 import { isUuid, shopIdOf, userIdOf } from '../auth/middleware';
 import { ApiError } from '../errors';
+import { photosOfSubjects } from '../photos';
 import { trialConditions } from '../trials/conditions';
 import { parseInput } from '../validate';
 import { toTrial, toTrialSummary, toTrialTest } from '../wire/trials';
@@ -145,7 +146,13 @@ export function trialsRouter(db: Db, now: () => number): Router {
       tests.map((t) => t.id),
     );
     const conditions = await trialConditions(db, tests, now());
-    res.json(toTrial(trial, treatments, tests, ranks, conditions) satisfies Trial);
+    const photos = await photosOfSubjects(
+      db,
+      shopId,
+      'trial_test',
+      tests.map((t) => t.id),
+    );
+    res.json(toTrial(trial, treatments, tests, ranks, conditions, photos) satisfies Trial);
   });
 
   router.post('/:trialId/tests', async (req, res) => {
@@ -188,7 +195,8 @@ export function trialsRouter(db: Db, now: () => number): Router {
     }
     await transaction(db, (tx) => replaceRanks(tx, shopId, test.id, body.ranks));
     const ranks = await ranksOf(db, shopId, [test.id]);
-    res.json(toTrialTest(test, ranks));
+    const photos = await photosOfSubjects(db, shopId, 'trial_test', [test.id]);
+    res.json(toTrialTest(test, ranks, undefined, photos.get(test.id)));
   });
 
   return router;
