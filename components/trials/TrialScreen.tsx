@@ -34,6 +34,7 @@ import { TRIAL_TEST_KINDS } from '@/ingest/wire';
 import { TRIAL_KIND_WORDS } from '@/ingest/words';
 
 import { TrialStandingsPanel } from './TrialStandingsPanel';
+import { TrialTestPhotos } from './TrialTestPhotos';
 
 /** One trial: its standings, its tests with their ranks, and the form that adds a test. */
 export function TrialScreen({ trialId }: { trialId: string }) {
@@ -160,6 +161,7 @@ function TestPanel({ shop, trial, test, writer }: TestPanelProps) {
           />
         </>
       ) : null}
+      <TrialTestPhotos shop={shop} trialId={trial.id} test={test} />
     </Panel>
   );
 }
