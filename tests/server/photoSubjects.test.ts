@@ -224,6 +224,79 @@ describe('photos of a trial test', () => {
   });
 });
 
+/** How many statements the app sends while answering one GET (counted on the pool). */
+async function statementsFor(path: string): Promise<number> {
+  const pool = t.pool as unknown as { query: (...args: unknown[]) => unknown };
+  const real = pool.query;
+  let n = 0;
+  pool.query = function (this: unknown, ...args: unknown[]) {
+    n += 1;
+    return real.apply(this, args);
+  };
+  try {
+    await request(t.app).get(path).set('Cookie', w.owner.cookie).expect(200);
+  } finally {
+    pool.query = real;
+  }
+  return n;
+}
+
+describe('listing photos costs one query, whatever the number of subjects', () => {
+  it('answers a trial with one photographed test and with four in as many statements', async () => {
+    const trial = (
+      await request(t.app)
+        .post(`${base}/trials`)
+        .set('Cookie', w.member.cookie)
+        .send({ name: 'Statement count', treatments: ['Wax', 'Oil'] })
+        .expect(201)
+    ).body as { id: string };
+    const addTest = async (day: number) => {
+      const test = await request(t.app)
+        .post(`${base}/trials/${trial.id}/tests`)
+        .set('Cookie', w.member.cookie)
+        // No zone: the conditions during a test are read per zoned test, which is not counted here.
+        .send({
+          name: `Day ${day}`,
+          kind: 'wear',
+          from: `2026-02-0${day}T08:00:00Z`,
+          to: `2026-02-0${day}T17:00:00Z`,
+        })
+        .expect(201);
+      await post(testPath(trial.id, test.body.id), await solid(30, 20).jpeg().toBuffer()).expect(
+        201,
+      );
+    };
+    await addTest(1);
+    const one = await statementsFor(`${base}/trials/${trial.id}`);
+    for (const day of [2, 3, 4]) await addTest(day);
+    const four = await statementsFor(`${base}/trials/${trial.id}`);
+    expect(one).toBeGreaterThan(0);
+    expect(four).toBe(one);
+  });
+
+  it('answers a surface with one photographed entry and with four in as many statements', async () => {
+    const { surfaceId: id, entryId: first } = await surfaceWithEntry(
+      w.a.id,
+      w.a.zone.id,
+      w.member.cookie,
+      'Outfeed table',
+    );
+    await post(carePath(id, first), await solid(30, 20).jpeg().toBuffer()).expect(201);
+    const one = await statementsFor(`${base}/surfaces/${id}`);
+    for (const day of ['05', '06', '07']) {
+      const entry = await request(t.app)
+        .post(`${base}/surfaces/${id}/care`)
+        .set('Cookie', w.member.cookie)
+        .send({ kind: 'inspection', at: `2026-02-${day}T08:00:00Z`, rusting: 1 })
+        .expect(201);
+      await post(carePath(id, entry.body.id), await solid(30, 20).jpeg().toBuffer()).expect(201);
+    }
+    const four = await statementsFor(`${base}/surfaces/${id}`);
+    expect(one).toBeGreaterThan(0);
+    expect(four).toBe(one);
+  });
+});
+
 describe('photo subject corpus: refused, and nothing stored', () => {
   const jpeg = () => solid(64, 48).jpeg().toBuffer();
   const text = () => Promise.resolve(Buffer.from('Waxed the top on Friday. Not an image.\n'));
