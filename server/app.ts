@@ -127,7 +127,7 @@ export function createApp(deps: AppDeps): express.Express {
   api.use('/shops/:shopId/reports', reportsRouter(db, now));
   api.use('/shops/:shopId/trials', trialsRouter(db, now));
   api.use('/shops/:shopId', surfacesRouter(db, now));
-  api.use('/shops/:shopId/photos', photosRouter(db, deps.storage));
+  api.use('/shops/:shopId', photosRouter(db, deps.storage));
   api.use('/shops/:shopId', membersRouter(db));
   api.use(invitationsRouter(people));
   api.use(notFound);

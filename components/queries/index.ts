@@ -61,6 +61,14 @@ export {
   type MembersResponse,
 } from './members';
 export {
+  photoPaths,
+  uploadPhoto,
+  usePhotoDeleteMutation,
+  usePhotoUploadMutation,
+  type CreatedPhoto,
+  type Photo,
+} from './photos';
+export {
   DAY_WINDOW,
   appendReadingPoint,
   readingKeys,

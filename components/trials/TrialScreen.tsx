@@ -26,6 +26,7 @@ import { TRIAL_KIND_WORDS } from '@/ingest/words';
 
 import { TrialStandingsPanel } from './TrialStandingsPanel';
 import { TrialTestCard } from './TrialTestCard';
+import { TrialTestPhotos } from './TrialTestPhotos';
 
 /**
  * One trial: its standings, its tests with their ranks and recorded conditions, the form that
@@ -59,7 +60,9 @@ export function TrialScreen({ trialId }: { trialId: string }) {
       zoneName={zoneName(test.zoneId)}
       unit={unit}
       writer={writer}
-    />
+    >
+      <TrialTestPhotos shop={shop} trialId={data.id} test={test} />
+    </TrialTestCard>
   ));
   const addTest = writer ? <NewTestForm shop={shop} trialId={data.id} zones={zones} /> : null;
   return (

@@ -3,6 +3,7 @@
  * GET …/surfaces/:surfaceId, POST …/care, GET …/exposure, GET|PUT …/coating-budgets.
  * Times are ISO 8601 (UTC), exposures in hours.
  */
+import type { Photo } from './photos';
 
 /** What was done to a surface: a coat put on, or a look at it. */
 export const CARE_KINDS = ['coating', 'inspection'] as const;
@@ -35,6 +36,8 @@ export interface CareEntry {
   coating: { type: CoatingType; product: string | null } | null;
   rusting: RustingGrade | null;
   note: string | null;
+  /** Its photos, oldest first (ingest/wire/photos.ts). */
+  photos: Photo[];
 }
 
 /** One surface with its care log, newest first. */

@@ -2,6 +2,7 @@
  * Protection trials on the wire: a shop compares 2–12 treatments of its cast iron (a wax, an
  * oil, a cover, nothing) over tests it ranks them in; the standings say which ranked best.
  */
+import type { Photo } from './photos';
 
 /** What a test exposed the treatments to, in our own words. */
 export const TRIAL_TEST_KINDS = [
@@ -43,6 +44,8 @@ export interface TrialTest {
   notes: string | null;
   /** Empty until the test is ranked; otherwise one per treatment. */
   ranks: { treatmentId: string; rank: number }[];
+  /** Its photos, oldest first (ingest/wire/photos.ts). */
+  photos: Photo[];
   /** Only in a trial's detail, for a test with a zone. */
   conditions?: TrialTestConditions | null;
 }

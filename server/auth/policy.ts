@@ -104,6 +104,14 @@ export const POLICY: readonly PolicyRow[] = [
   // Photos for the care log and trials: taking one is work done in the shop; everyone in the
   // shop sees them, through the checked proxy only (the bucket is never public).
   { method: 'POST', path: '/shops/:shopId/photos', access: 'member' },
+  {
+    method: 'POST',
+    path: '/shops/:shopId/surfaces/:surfaceId/care/:entryId/photos',
+    access: 'member',
+  },
+  { method: 'POST', path: '/shops/:shopId/trials/:trialId/tests/:testId/photos', access: 'member' },
   { method: 'GET', path: '/shops/:shopId/photos/:photoId', access: 'viewer' },
   { method: 'GET', path: '/shops/:shopId/photos/:photoId/thumb', access: 'viewer' },
+  // A member removes the photos they added (the route checks whose it is); owners any.
+  { method: 'DELETE', path: '/shops/:shopId/photos/:photoId', access: 'member' },
 ];

@@ -12,10 +12,12 @@ import multer from 'multer';
 import sharp from 'sharp';
 
 import type { Db } from '@/db';
-import { insertPhoto, type PhotoRow } from '@/db/queries/photos';
+import { insertPhoto, subjectPhotos, type PhotoRow } from '@/db/queries/photos';
+import type { Photo, PhotoSubjectKind } from '@/ingest/wire/photos';
 
 import { ApiError } from '../errors';
 import type { Storage } from '../storage';
+import { photosBySubject } from '../wire/photos';
 
 /** Phone cameras write 3–8 MB JPEGs; 10 MiB leaves room without inviting huge uploads. */
 export const PHOTO_MAX_BYTES = 10 * 1024 * 1024;
@@ -220,4 +222,17 @@ export async function deleteObjects(storage: Storage, keys: readonly string[]): 
     failed += results.filter((r) => r.status === 'rejected').length;
   }
   return failed;
+}
+
+/**
+ * The photos of many subjects of one kind (a surface's care entries, a trial's tests) by subject
+ * id, oldest first: one query for the whole list, never one per entry.
+ */
+export async function photosOfSubjects(
+  db: Db,
+  shopId: string,
+  kind: PhotoSubjectKind,
+  subjectIds: readonly string[],
+): Promise<Map<string, Photo[]>> {
+  return photosBySubject(await subjectPhotos(db, shopId, kind, subjectIds));
 }

@@ -29,6 +29,7 @@ import {
 import { isUuid, shopIdOf, userIdOf } from '../auth/middleware';
 import { surfaceExposure } from '../care/exposure';
 import { ApiError } from '../errors';
+import { photosOfSubjects } from '../photos';
 import { parseInput } from '../validate';
 import { toCareEntry, toCoatingBudgets, toSurface } from '../wire/surfaces';
 
@@ -168,7 +169,16 @@ export function surfacesRouter(db: Db, now: () => number): Router {
     const shopId = shopIdOf(res);
     const surface = await surfaceOf(shopId, req.params.surfaceId);
     const care = await listCareEntries(db, shopId, surface.id);
-    res.json({ ...toSurface(surface), care: care.map(toCareEntry) } satisfies SurfaceDetail);
+    const photos = await photosOfSubjects(
+      db,
+      shopId,
+      'care_entry',
+      care.map((c) => c.id),
+    );
+    res.json({
+      ...toSurface(surface),
+      care: care.map((c) => toCareEntry(c, photos.get(c.id))),
+    } satisfies SurfaceDetail);
   });
 
   router.post('/surfaces/:surfaceId/care', async (req, res) => {

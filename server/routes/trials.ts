@@ -33,6 +33,7 @@ import {
 
 import { isUuid, shopIdOf, userIdOf } from '../auth/middleware';
 import { ApiError } from '../errors';
+import { photosOfSubjects } from '../photos';
 import { trialConditions } from '../trials/conditions';
 import { trialCsv } from '../trials/trialCsv';
 import { TRIAL_EXPORT_FORMATS, trialExportFileName, type TrialExport } from '../trials/trialExport';
@@ -156,7 +157,13 @@ export function trialsRouter(db: Db, now: () => number): Router {
     );
     const nowMs = now();
     const conditions = await trialConditions(db, tests, nowMs);
-    const answer = toTrial(trial, treatments, tests, ranks, conditions) satisfies Trial;
+    const photos = await photosOfSubjects(
+      db,
+      shopId,
+      'trial_test',
+      tests.map((t) => t.id),
+    );
+    const answer = toTrial(trial, treatments, tests, ranks, conditions, photos) satisfies Trial;
     if (format === 'json') return void res.json(answer);
 
     const shop = await reportShop(db, shopId);
@@ -224,7 +231,8 @@ export function trialsRouter(db: Db, now: () => number): Router {
     }
     await transaction(db, (tx) => replaceRanks(tx, shopId, test.id, body.ranks));
     const ranks = await ranksOf(db, shopId, [test.id]);
-    res.json(toTrialTest(test, ranks));
+    const photos = await photosOfSubjects(db, shopId, 'trial_test', [test.id]);
+    res.json(toTrialTest(test, ranks, undefined, photos.get(test.id)));
   });
 
   return router;

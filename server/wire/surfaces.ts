@@ -1,6 +1,7 @@
 /** Surface and care rows to what the API answers (ingest/wire/surfaces.ts). */
 import type { BudgetRow, CareEntryRow, SurfaceRow } from '@/db/queries/surfaces';
 import { DEFAULT_COATING_BUDGETS } from '@/ingest/care';
+import type { Photo } from '@/ingest/wire/photos';
 import {
   COATING_TYPES,
   type CareEntry,
@@ -20,7 +21,8 @@ export function toSurface(row: SurfaceRow): Surface {
   };
 }
 
-export function toCareEntry(row: CareEntryRow): CareEntry {
+/** `photos`: the entry's own, oldest first (none for an entry just logged). */
+export function toCareEntry(row: CareEntryRow, photos: Photo[] = []): CareEntry {
   return {
     id: row.id,
     kind: row.kind,
@@ -29,6 +31,7 @@ export function toCareEntry(row: CareEntryRow): CareEntry {
     coating: row.coatingType ? { type: row.coatingType, product: row.product } : null,
     rusting: row.rusting === null ? null : (row.rusting as RustingGrade),
     note: row.note,
+    photos,
   };
 }
 

@@ -4,6 +4,7 @@
  */
 import type { RankRow, TreatmentRow, TrialRow, TrialTestRow } from '@/db/queries/trials';
 import { trialStandings } from '@/ingest/trials/standings';
+import type { Photo } from '@/ingest/wire/photos';
 import type {
   Trial,
   TrialStandings,
@@ -17,6 +18,7 @@ export function toTrialTest(
   row: TrialTestRow,
   ranks: readonly RankRow[],
   conditions?: TrialTestConditions | null,
+  photos: Photo[] = [],
 ): TrialTest {
   return {
     id: row.id,
@@ -30,6 +32,7 @@ export function toTrialTest(
     ranks: ranks
       .filter((r) => r.testId === row.id)
       .map((r) => ({ treatmentId: r.treatmentId, rank: r.rank })),
+    photos,
     ...(conditions === undefined ? {} : { conditions }),
   };
 }
@@ -79,6 +82,7 @@ export function toTrial(
   tests: readonly TrialTestRow[],
   ranks: readonly RankRow[],
   conditions: ReadonlyMap<string, TrialTestConditions | null> = new Map(),
+  photos: ReadonlyMap<string, Photo[]> = new Map(),
 ): Trial {
   return {
     id: trial.id,
@@ -86,7 +90,7 @@ export function toTrial(
     createdAt: trial.createdAt.toISOString(),
     treatments: treatments.map((t) => ({ id: t.id, name: t.name })),
     tests: tests.map((t) =>
-      toTrialTest(t, ranks, t.zoneId ? (conditions.get(t.id) ?? null) : null),
+      toTrialTest(t, ranks, t.zoneId ? (conditions.get(t.id) ?? null) : null, photos.get(t.id)),
     ),
     standings: toStandings(treatments, tests, ranks),
   };

@@ -36,6 +36,7 @@ const CARE_ENTRY: Keys<CareEntry> = {
   coating: true,
   rusting: true,
   note: true,
+  photos: true,
 };
 const CARE_BY: Keys<NonNullable<CareEntry['by']>> = { id: true, name: true };
 const CARE_COATING: Keys<NonNullable<CareEntry['coating']>> = { type: true, product: true };

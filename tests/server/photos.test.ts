@@ -11,6 +11,7 @@ import { PHOTO_MAX_BYTES } from '@/server/photos';
 import { createS3Storage, StorageUnavailableError } from '@/server/storage';
 
 import { makeTestApp, type TestApp } from '../support/app';
+import { binaryBody } from '../support/binary';
 import { errorShape } from '../support/errorShape';
 import { exifTags, GPS_LATITUDE } from '../support/exif';
 import { startS3Fake, type S3Fake } from '../support/s3';
@@ -57,15 +58,7 @@ const upload = (buf: Buffer, filename: string, cookie = w.member.cookie, shopId 
 
 /** Reads a binary answer whole (supertest only buffers text types by itself). */
 const getBytes = (path: string, cookie: string) =>
-  request(t.app)
-    .get(path)
-    .set('Cookie', cookie)
-    .buffer(true)
-    .parse((res, done) => {
-      const chunks: Buffer[] = [];
-      res.on('data', (c: Buffer) => chunks.push(c));
-      res.on('end', () => done(null, Buffer.concat(chunks)));
-    });
+  request(t.app).get(path).set('Cookie', cookie).buffer(true).parse(binaryBody);
 
 function expectErrorShape(res: request.Response, status: number, code: string) {
   expect({ status: res.status, code: res.body?.error?.code }, res.text.slice(0, 300)).toEqual({
@@ -96,6 +89,7 @@ describe('photo upload and the checked proxy', () => {
       // fit inside 2048: 3000×2000 × 2048/3000 = 2048 × 1365.33 → 1365 (sharp rounds).
       widthPx: 2048,
       heightPx: 1365,
+      addedById: w.member.id,
     });
 
     // Read back through the route, as the viewer (everyone in the shop sees photos).
@@ -424,9 +418,15 @@ describe('photo bad-input corpus', () => {
       'invalid_input',
     );
     expectErrorShape(await send({ colour: 'red' }), 400, 'invalid_input');
-    const ok = await send({ subjectKind: 'trial_test', subjectId: id }).expect(201);
+    // A well-formed id of no test of this shop: refused before anything is stored.
+    expectErrorShape(
+      await send({ subjectKind: 'trial_test', subjectId: id }),
+      404,
+      'trial_test_not_found',
+    );
+    const ok = await send({ subjectKind: 'trial_test', subjectId: w.a.test.id }).expect(201);
     const [row] = await t.db.select().from(photos).where(eq(photos.id, ok.body.id));
-    expect([row!.ownerKind, row!.ownerId]).toEqual(['trial_test', id]);
+    expect([row!.ownerKind, row!.ownerId]).toEqual(['trial_test', w.a.test.id]);
   });
 
   it('refuses a cut-off multipart body with 400', async () => {

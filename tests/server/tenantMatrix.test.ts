@@ -8,7 +8,7 @@ import request from 'supertest';
 import sharp from 'sharp';
 import { afterAll, beforeAll, describe, expect, it } from 'vitest';
 
-import { insertSurface } from '@/db/queries/surfaces';
+import { insertCareEntry, insertSurface } from '@/db/queries/surfaces';
 import { POLICY, ROLE_RANK, isShopRole, type PolicyRow } from '@/server/auth/policy';
 
 import { makeTestApp, type TestApp } from '../support/app';
@@ -28,6 +28,11 @@ afterAll(async () => {
 
 const key = (row: PolicyRow) => `${row.method} ${row.path}`;
 const fresh = () => `${randomUUID().slice(0, 8)}@matrix.example`;
+
+const tinyJpeg = (background: string) =>
+  sharp({ create: { width: 8, height: 8, channels: 3, background } })
+    .jpeg()
+    .toBuffer();
 
 interface Sample {
   body?: (w: World) => object;
@@ -153,21 +158,31 @@ const SAMPLES: Record<string, Sample> = {
     body: () => ({ budgets: [{ coating: 'wax', hoursWet: 3, hoursClose: 50, towHours: 400 }] }),
     status: { default: 200 },
   },
-  'POST /shops/:shopId/photos': {
-    photo: () =>
-      sharp({ create: { width: 8, height: 8, channels: 3, background: '#808080' } })
-        .jpeg()
-        .toBuffer(),
+  'POST /shops/:shopId/photos': { photo: () => tinyJpeg('#808080'), status: { default: 201 } },
+  'POST /shops/:shopId/surfaces/:surfaceId/care/:entryId/photos': {
+    photo: () => tinyJpeg('#406080'),
+    status: { default: 201 },
+  },
+  'POST /shops/:shopId/trials/:trialId/tests/:testId/photos': {
+    photo: () => tinyJpeg('#604080'),
     status: { default: 201 },
   },
   // Shop A's photo, stored by its owner before the actors ask.
   'GET /shops/:shopId/photos/:photoId': { status: { default: 200 } },
+  // The owner added it: the member may not delete it, the owner may.
+  'DELETE /shops/:shopId/photos/:photoId': { status: { member: 403, owner: 204 } },
   'GET /shops/:shopId/photos/:photoId/thumb': { status: { default: 200 } },
 };
 
-/** A surface of shop A for the routes that name one (the world itself has none). */
-async function surfaceFor(row: PolicyRow, w: World): Promise<string | undefined> {
-  if (!row.path.includes(':surfaceId')) return undefined;
+/**
+ * A surface of shop A, with an inspection logged on it, for the routes that name one (the world
+ * itself has none).
+ */
+async function surfaceFor(
+  row: PolicyRow,
+  w: World,
+): Promise<{ surfaceId?: string; entryId?: string }> {
+  if (!row.path.includes(':surfaceId')) return {};
   const surface = await insertSurface(t.db, {
     shopId: w.a.id,
     zoneId: w.a.zone.id,
@@ -175,7 +190,18 @@ async function surfaceFor(row: PolicyRow, w: World): Promise<string | undefined>
     material: 'cast iron',
     sensorId: null,
   });
-  return surface.id;
+  const entry = await insertCareEntry(t.db, {
+    shopId: w.a.id,
+    surfaceId: surface.id,
+    kind: 'inspection',
+    at: new Date('2026-01-05T09:00:00Z'),
+    byUserId: w.owner.id,
+    coatingType: null,
+    product: null,
+    rusting: 1,
+    note: null,
+  });
+  return { surfaceId: surface.id, entryId: entry.id };
 }
 
 /** A real photo in shop A (objects in the S3 fake) when the route names one, else no id. */
@@ -199,7 +225,7 @@ function pathFor(
   row: PolicyRow,
   w: World,
   shop: World['a'] | World['b'] = w.a,
-  ids: { surfaceId?: string; photoId?: string } = {},
+  ids: { surfaceId?: string; entryId?: string; photoId?: string } = {},
 ): string {
   const values: Record<string, string | undefined> = {
     ...ids,
@@ -263,6 +289,7 @@ describe('tenant matrix (generated from server/auth/policy.ts)', () => {
     expect([...params].sort()).toEqual(
       [
         'alarmId',
+        'entryId',
         'invitationId',
         'photoId',
         'sensorId',
@@ -297,8 +324,12 @@ describe('tenant matrix (generated from server/auth/policy.ts)', () => {
         'POST /shops/:shopId/surfaces',
         'POST /shops/:shopId/surfaces/:surfaceId/care',
         'PUT /shops/:shopId/coating-budgets',
-        // Photos of care and trials are taken by whoever does the work.
+        // Photos of care and trials are taken by whoever does the work, and a member removes
+        // the ones they added (the route refuses anyone else's).
         'POST /shops/:shopId/photos',
+        'POST /shops/:shopId/surfaces/:surfaceId/care/:entryId/photos',
+        'POST /shops/:shopId/trials/:trialId/tests/:testId/photos',
+        'DELETE /shops/:shopId/photos/:photoId',
       ].sort(),
     );
   });
@@ -307,7 +338,7 @@ describe('tenant matrix (generated from server/auth/policy.ts)', () => {
     const w = await makeWorld(t);
     const secrets = secretsOf(w);
     const sample = SAMPLES[key(row)] ?? {};
-    const ids = { surfaceId: await surfaceFor(row, w), photoId: await photoFor(row, w) };
+    const ids = { ...(await surfaceFor(row, w)), photoId: await photoFor(row, w) };
     const photo = await sample.photo?.();
     for (const actor of ACTORS) {
       const res = await call(
@@ -346,14 +377,16 @@ describe('tenant matrix (generated from server/auth/policy.ts)', () => {
   const nested = POLICY.filter(
     (row) =>
       isShopRole(row.access) &&
-      /:(zoneId|sensorId|userId|invitationId|trialId|testId|surfaceId|photoId)/.test(row.path),
+      /:(zoneId|sensorId|userId|invitationId|trialId|testId|surfaceId|entryId|photoId)/.test(
+        row.path,
+      ),
   );
   it.each(nested.map((row) => [key(row), row] as const))(
     "%s with another shop's id answers 404 and changes nothing",
     async (_name, row) => {
       const w = await makeWorld(t);
       const sample = SAMPLES[key(row)] ?? {};
-      const ids = { surfaceId: await surfaceFor(row, w), photoId: await photoFor(row, w) };
+      const ids = { ...(await surfaceFor(row, w)), photoId: await photoFor(row, w) };
       const res = await call(
         row,
         pathFor(row, w, w.b, ids),

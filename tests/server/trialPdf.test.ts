@@ -49,6 +49,7 @@ function trialOf(testRanks: number[][], treatments: number): Trial {
         .filter((r) => r.testId === t.id)
         .map((r) => ({ treatmentId: r.treatmentId, rank: r.rank })),
       conditions: null,
+      photos: [],
     })),
     standings: toStandings(tr, tests, ranks),
   };

@@ -8,6 +8,7 @@ import { expect } from 'vitest';
 
 import { DEMO_PASSWORD } from '@/db/seed';
 
+import type { TestAppOptions } from './app';
 import { CHROMIUM_ARGS, startLiveServer } from './liveServer';
 
 export const SHOTS = 'test-results/screenshots';
@@ -18,11 +19,11 @@ export interface BrowserSuite {
   close(): Promise<void>;
 }
 
-export async function startBrowserSuite(): Promise<BrowserSuite> {
+export async function startBrowserSuite(options: TestAppOptions = {}): Promise<BrowserSuite> {
   if (!fs.existsSync('dist/index.html'))
     throw new Error('dist/ is missing: run scripts/build-web.sh');
   fs.mkdirSync(SHOTS, { recursive: true });
-  const server = await startLiveServer();
+  const server = await startLiveServer(options);
   const browser = await chromium.launch({
     executablePath: '/usr/bin/chromium',
     args: CHROMIUM_ARGS,

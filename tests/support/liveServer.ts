@@ -51,9 +51,12 @@ export async function startInstance(options: TestAppOptions & { strictHosts?: bo
   };
 }
 
-/** An instance with the demo shop seeded (its sensor tokens re-issued), for browser tests. */
-export async function startLiveServer() {
-  const instance = await startInstance({ strictHosts: true });
+/**
+ * An instance with the demo shop seeded (its sensor tokens re-issued), for browser tests;
+ * `options` adds what a test needs, e.g. photo storage (tests/support/s3.ts).
+ */
+export async function startLiveServer(options: TestAppOptions = {}) {
+  const instance = await startInstance({ ...options, strictHosts: true });
   const demo = await seedDemo(instance.app.db, {
     hashPassword,
     newToken: newSensorToken,
