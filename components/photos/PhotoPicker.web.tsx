@@ -64,7 +64,14 @@ export function PhotoPicker({ path, refresh, accessibilityLabel, testID }: Photo
             message={upload.error.message}
             testID={testID ? `${testID}-error` : undefined}
           />
-          {last ? <Button label="Try again" variant="quiet" onPress={() => send(last)} /> : null}
+          {last ? (
+            <Button
+              label="Try again"
+              variant="quiet"
+              onPress={() => send(last)}
+              testID={testID ? `${testID}-retry` : undefined}
+            />
+          ) : null}
         </View>
       ) : null}
     </View>
