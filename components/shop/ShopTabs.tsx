@@ -1,21 +1,22 @@
 import { Link } from 'expo-router';
 import { StyleSheet, Text, View } from 'react-native';
 
-import { membersHref, shopSectionHref, trialsHref } from '@/components/hrefs';
+import { careHref, membersHref, shopSectionHref, trialsHref } from '@/components/hrefs';
 import type { ShopSummary } from '@/components/queries';
 import { colors, fonts, space, TAP_TARGET_PX } from '@/components/theme';
 
-/** The pages under "Shop": its settings, its members and its protection trials. */
+/** The pages under "Shop": its settings, its members, the care of its surfaces and its trials. */
 export function ShopTabs({
   shop,
   current,
 }: {
   shop: ShopSummary;
-  current: 'settings' | 'members' | 'trials';
+  current: 'settings' | 'members' | 'care' | 'trials';
 }) {
   const tabs = [
     { key: 'settings', label: 'Settings', href: shopSectionHref(shop.id, 'shop') },
     { key: 'members', label: 'Members', href: membersHref(shop.id) },
+    { key: 'care', label: 'Care', href: careHref(shop.id) },
     { key: 'trials', label: 'Trials', href: trialsHref(shop.id) },
   ] as const;
   return (
