@@ -16,7 +16,7 @@ import { ChartKeys } from '@/components/zones/ChartKeys';
 import { MarginChart, type ChartMark } from '@/components/zones/MarginChart';
 import { CARE_KIND_WORDS, HISTORY_WORDS, pointReadout } from '@/ingest/words';
 
-import { careMarks, chartHours } from './careText';
+import { careMarks, chartHours, marksLine } from './careText';
 
 const POINTS = 500;
 
@@ -93,9 +93,7 @@ export function SurfaceChart({ shopId, zone, care, timeZone, nowMs }: SurfaceCha
             {summary}
           </Text>
           <Text style={type.small} testID="surface-chart-marks">
-            {marks.length === 0
-              ? 'No coat or inspection in this span.'
-              : `${marks.length} care ${marks.length === 1 ? 'entry' : 'entries'} marked: ▲ coat, ◆ inspection.`}
+            {marksLine(marks.length, points.length > 0)}
           </Text>
         </>
       ) : readings.isError ? (

@@ -106,3 +106,11 @@ export function careMarks(entries: readonly CareEntry[], fromMs: number, toMs: n
     .filter((m) => m.atMs >= fromMs && m.atMs <= toMs)
     .sort((a, b) => a.atMs - b.atMs);
 }
+
+/** The chart's marks in words, under it: how many, which shape is which, or why none show. */
+export function marksLine(count: number, hasReadings: boolean): string {
+  if (count === 0) return 'No coat or inspection in this span.';
+  const entries = `${count} care ${count === 1 ? 'entry' : 'entries'}`;
+  if (!hasReadings) return `${entries} in this span, but no readings to draw them over.`;
+  return `${entries} marked: ▲ coat, ◆ inspection.`;
+}

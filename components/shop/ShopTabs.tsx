@@ -49,6 +49,9 @@ const styles = StyleSheet.create({
   },
   tab: {
     minHeight: TAP_TARGET_PX,
+    // "Care" is narrower than a finger: the tab is widened to the tap target, centred.
+    minWidth: TAP_TARGET_PX,
+    alignItems: 'center',
     justifyContent: 'center',
     paddingVertical: space.sm,
     borderBottomWidth: 3,
@@ -56,6 +59,6 @@ const styles = StyleSheet.create({
     marginBottom: -1,
   },
   selected: { borderBottomColor: colors.ink },
-  label: { fontFamily: fonts.medium, fontSize: 16, color: colors.iron },
+  label: { fontFamily: fonts.medium, fontSize: 16, color: colors.iron, textAlign: 'center' },
   selectedLabel: { color: colors.ink },
 });
