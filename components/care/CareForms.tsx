@@ -1,4 +1,4 @@
-import { Controller } from 'react-hook-form';
+import { Controller, type Control } from 'react-hook-form';
 import { StyleSheet } from 'react-native';
 import * as z from 'zod/mini';
 
@@ -61,7 +61,7 @@ interface CareFormProps {
 export function CoatForm({ shop, surface }: CareFormProps) {
   const log = useCareEntryMutation(shop.id, surface);
   const tz = shop.timeZone;
-  const { form, control, submit, sending, formError, done } = useApiForm<CoatValues>({
+  const { form, control, ...state } = useApiForm<CoatValues>({
     schema: z.object({
       type: z.string().check(z.minLength(1, 'Choose the kind of coat')),
       product: z.string().check(z.trim(), z.maxLength(100, 'At most 100 characters')),
@@ -85,7 +85,7 @@ export function CoatForm({ shop, surface }: CareFormProps) {
   });
   return (
     <Panel title="Log a coat" hint={`Time on the shop's clock (${tz}).`}>
-      <Form onSubmit={submit} style={styles.form}>
+      <Form onSubmit={state.submit} style={styles.form}>
         <Controller
           control={control}
           name="type"
@@ -95,7 +95,7 @@ export function CoatForm({ shop, surface }: CareFormProps) {
               options={COAT_OPTIONS}
               value={(field.value || null) as CoatingType | null}
               onChange={field.onChange}
-              disabled={sending}
+              disabled={state.sending}
               error={fieldState.error?.message}
               testID="coat-type"
             />
@@ -106,33 +106,15 @@ export function CoatForm({ shop, surface }: CareFormProps) {
           name="product"
           label="Product (optional, as you call it)"
           placeholder="e.g. the shop's own wax blend"
-          editable={!sending}
+          editable={!state.sending}
           testID="coat-product"
         />
-        <FormField
-          control={control}
-          name="at"
-          label="When (YYYY-MM-DD HH:MM)"
-          editable={!sending}
-          testID="coat-at"
-        />
-        <FormField
-          control={control}
-          name="note"
-          label="Note (optional)"
-          multiline
-          numberOfLines={2}
-          editable={!sending}
-          testID="coat-note"
-        />
-        <FormError message={formError} />
-        <FormStatus message={done ? 'Coat logged.' : null} />
-        <SubmitButton
+        <WhenNoteSend
+          control={control as unknown as Control<WhenNote>}
+          prefix="coat"
           label="Log coat"
-          sendingLabel="Logging…"
-          sending={sending}
-          onPress={submit}
-          testID="coat-submit"
+          doneText="Coat logged."
+          {...state}
         />
       </Form>
     </Panel>
@@ -150,7 +132,7 @@ type InspectionValues = { rusting: string; at: string; note: string };
 export function InspectionForm({ shop, surface }: CareFormProps) {
   const log = useCareEntryMutation(shop.id, surface);
   const tz = shop.timeZone;
-  const { form, control, submit, sending, formError, done } = useApiForm<InspectionValues>({
+  const { form, control, ...state } = useApiForm<InspectionValues>({
     schema: z.object({
       rusting: z.string().check(z.minLength(1, 'Choose the degree of rusting, Ri 0 to 5')),
       at: localTime(tz),
@@ -174,7 +156,7 @@ export function InspectionForm({ shop, surface }: CareFormProps) {
       title="Log an inspection"
       hint={`Degree of rusting on the ${RUSTING_STANDARD} scale. Time on the shop's clock (${tz}).`}
     >
-      <Form onSubmit={submit} style={styles.form}>
+      <Form onSubmit={state.submit} style={styles.form}>
         <Controller
           control={control}
           name="rusting"
@@ -185,7 +167,7 @@ export function InspectionForm({ shop, surface }: CareFormProps) {
                 options={GRADE_OPTIONS}
                 value={field.value || null}
                 onChange={field.onChange}
-                disabled={sending}
+                disabled={state.sending}
                 error={fieldState.error?.message}
                 testID="inspection-grade"
               />
@@ -193,33 +175,65 @@ export function InspectionForm({ shop, surface }: CareFormProps) {
             </>
           )}
         />
-        <FormField
-          control={control}
-          name="at"
-          label="When (YYYY-MM-DD HH:MM)"
-          editable={!sending}
-          testID="inspection-at"
-        />
-        <FormField
-          control={control}
-          name="note"
-          label="Note (optional)"
-          multiline
-          numberOfLines={2}
-          editable={!sending}
-          testID="inspection-note"
-        />
-        <FormError message={formError} />
-        <FormStatus message={done ? 'Inspection logged.' : null} />
-        <SubmitButton
+        <WhenNoteSend
+          control={control as unknown as Control<WhenNote>}
+          prefix="inspection"
           label="Log inspection"
-          sendingLabel="Logging…"
-          sending={sending}
-          onPress={submit}
-          testID="inspection-submit"
+          doneText="Inspection logged."
+          {...state}
         />
       </Form>
     </Panel>
+  );
+}
+
+/**
+ * The two forms' shared fields: the time and the note. Both forms' values hold them, but
+ * react-hook-form's Control is invariant in its values, hence the casts where it is passed.
+ */
+type WhenNote = { at: string; note: string };
+
+interface WhenNoteSendProps {
+  control: Control<WhenNote>;
+  prefix: string;
+  label: string;
+  doneText: string;
+  submit: () => void;
+  sending: boolean;
+  formError: string | null;
+  done: boolean;
+}
+
+/** The tail both care forms share: when, a note, the form's message and the send button. */
+function WhenNoteSend({ control, prefix, label, doneText, ...state }: WhenNoteSendProps) {
+  return (
+    <>
+      <FormField
+        control={control}
+        name="at"
+        label="When (YYYY-MM-DD HH:MM)"
+        editable={!state.sending}
+        testID={`${prefix}-at`}
+      />
+      <FormField
+        control={control}
+        name="note"
+        label="Note (optional)"
+        multiline
+        numberOfLines={2}
+        editable={!state.sending}
+        testID={`${prefix}-note`}
+      />
+      <FormError message={state.formError} />
+      <FormStatus message={state.done ? doneText : null} />
+      <SubmitButton
+        label={label}
+        sendingLabel="Logging…"
+        sending={state.sending}
+        onPress={state.submit}
+        testID={`${prefix}-submit`}
+      />
+    </>
   );
 }
 

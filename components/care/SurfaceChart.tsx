@@ -13,8 +13,9 @@ import { Panel } from '@/components/ui';
 import { nearestIndex } from '@/components/zones/chartSeries';
 import { shopClock, summaryLine } from '@/components/zones/chartSummary';
 import { ChartKeys } from '@/components/zones/ChartKeys';
+import { ChartReadout } from '@/components/zones/ChartReadout';
 import { MarginChart, type ChartMark } from '@/components/zones/MarginChart';
-import { CARE_KIND_WORDS, HISTORY_WORDS, pointReadout } from '@/ingest/words';
+import { CARE_KIND_WORDS, HISTORY_WORDS } from '@/ingest/words';
 
 import { careMarks, chartHours, marksLine } from './careText';
 
@@ -57,17 +58,11 @@ export function SurfaceChart({ shopId, zone, care, timeZone, nowMs }: SurfaceCha
     <Panel title={`${zone.name}: dew margin and care`} testID="surface-chart">
       {data ? (
         <>
-          <Text style={[type.small, tabular, styles.readout]} aria-live="polite">
-            {active
-              ? pointReadout(
-                  { ...active, marginMax: active.marginMax ?? active.margin },
-                  unit,
-                  shopClock(Date.parse(active.at), toMs, timeZone, toMs - fromMs),
-                )
-              : points.length > 0
-                ? HISTORY_WORDS.readoutHint
-                : ''}
-          </Text>
+          <ChartReadout
+            active={active}
+            hasPoints={points.length > 0}
+            clock={(atMs) => shopClock(atMs, toMs, timeZone, toMs - fromMs)}
+          />
           <ChartKeys
             count={points.length}
             activeIndex={activeIndex}
@@ -107,5 +102,4 @@ export function SurfaceChart({ shopId, zone, care, timeZone, nowMs }: SurfaceCha
 
 const styles = StyleSheet.create({
   error: { color: colors.wet },
-  readout: { minHeight: 36 },
 });

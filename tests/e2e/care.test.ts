@@ -10,6 +10,7 @@ import { afterAll, beforeAll, describe, expect, it } from 'vitest';
 import { ownerWithSensor, verifiedPerson } from '../support/app';
 import {
   postReading,
+  signInAs,
   SHOTS,
   startBrowserSuite,
   watchPage,
@@ -49,13 +50,8 @@ const WET = { air: 20, rh: 90, surface: 15 };
 const FIRST_WET_H = 35 / 60;
 const ALL_WET_H = 65 / 60;
 
-async function signIn(page: Page, email: string, password: string) {
-  await page.goto(`${server.baseUrl}/sign-in`);
-  await page.getByTestId('sign-in-email').fill(email);
-  await page.getByTestId('sign-in-password').fill(password);
-  await page.getByTestId('sign-in-submit').click();
-  await page.waitForURL(/\/shops\/[0-9a-f-]+/);
-}
+const signIn = (page: Page, email: string, password: string) =>
+  signInAs(page, server.baseUrl, email, password);
 
 describe('care log', () => {
   let owner: Awaited<ReturnType<typeof ownerWithSensor>>;
