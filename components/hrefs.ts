@@ -54,3 +54,12 @@ export function trialsHref(shopId: string): string {
 export function trialHref(shopId: string, trialId: string): string {
   return `${trialsHref(shopId)}/${encodeURIComponent(trialId)}`;
 }
+
+/** A shop's care page: its surfaces, their exposure since the last coat, the coating budgets. */
+export function careHref(shopId: string): string {
+  return `${shopHref(shopId)}/care`;
+}
+
+export function surfaceHref(shopId: string, surfaceId: string): string {
+  return `${careHref(shopId)}/${encodeURIComponent(surfaceId)}`;
+}

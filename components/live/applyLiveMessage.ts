@@ -7,6 +7,7 @@ import type { QueryClient } from '@tanstack/react-query';
 import {
   alarmKeys,
   appendReadingPoint,
+  invalidateZoneExposures,
   meKeys,
   patchAlarm,
   patchSensorSeen,
@@ -24,6 +25,8 @@ export function applyLiveMessage(queryClient: QueryClient, message: LiveMessage)
       const { shopId, zoneId, sensorId, reading } = message;
       patchZoneLatest(queryClient, shopId, zoneId, { ...reading, sensorId });
       patchSensorSeen(queryClient, shopId, sensorId, reading.at);
+      // The server sums a surface's exposure from stored readings: read it again.
+      invalidateZoneExposures(queryClient, shopId, zoneId);
       if ((message.count ?? 1) > 1) {
         // A batch (a sensor catching up) carries only its newest reading: refetch the series.
         void queryClient.invalidateQueries({ queryKey: readingKeys.zone(shopId, zoneId) });

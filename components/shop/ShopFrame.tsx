@@ -65,6 +65,7 @@ const SHOP_PAGES: Record<string, ShopFramePage> = {
     banner: false,
   },
   members: { active: 'shop', title: 'Members', heading: 'Members', wide: false, banner: false },
+  care: { active: 'shop', title: 'Care', heading: 'Care', wide: true, banner: false },
   trials: { active: 'shop', title: 'Trials', heading: 'Trials', wide: true, banner: false },
   profile: { active: 'profile', title: 'Profile', heading: 'Profile', wide: false, banner: false },
 };

@@ -1,21 +1,22 @@
 import { Link } from 'expo-router';
 import { StyleSheet, Text, View } from 'react-native';
 
-import { membersHref, shopSectionHref, trialsHref } from '@/components/hrefs';
+import { careHref, membersHref, shopSectionHref, trialsHref } from '@/components/hrefs';
 import type { ShopSummary } from '@/components/queries';
 import { colors, fonts, space, TAP_TARGET_PX } from '@/components/theme';
 
-/** The pages under "Shop": its settings, its members and its protection trials. */
+/** The pages under "Shop": its settings, its members, the care of its surfaces and its trials. */
 export function ShopTabs({
   shop,
   current,
 }: {
   shop: ShopSummary;
-  current: 'settings' | 'members' | 'trials';
+  current: 'settings' | 'members' | 'care' | 'trials';
 }) {
   const tabs = [
     { key: 'settings', label: 'Settings', href: shopSectionHref(shop.id, 'shop') },
     { key: 'members', label: 'Members', href: membersHref(shop.id) },
+    { key: 'care', label: 'Care', href: careHref(shop.id) },
     { key: 'trials', label: 'Trials', href: trialsHref(shop.id) },
   ] as const;
   return (
@@ -48,6 +49,9 @@ const styles = StyleSheet.create({
   },
   tab: {
     minHeight: TAP_TARGET_PX,
+    // "Care" is narrower than a finger: the tab is widened to the tap target, centred.
+    minWidth: TAP_TARGET_PX,
+    alignItems: 'center',
     justifyContent: 'center',
     paddingVertical: space.sm,
     borderBottomWidth: 3,
@@ -55,6 +59,6 @@ const styles = StyleSheet.create({
     marginBottom: -1,
   },
   selected: { borderBottomColor: colors.ink },
-  label: { fontFamily: fonts.medium, fontSize: 16, color: colors.iron },
+  label: { fontFamily: fonts.medium, fontSize: 16, color: colors.iron, textAlign: 'center' },
   selectedLabel: { color: colors.ink },
 });

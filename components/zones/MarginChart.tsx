@@ -33,7 +33,19 @@ interface MarginChartProps {
   /** Called with the time the pointer is nearest to (pointer or touch). */
   onPointAt: (atMs: number) => void;
   height?: number;
+  /** Events drawn over the chart as a line and a symbol at their time (the care log's coats). */
+  marks?: readonly ChartMark[];
 }
+
+/** A shape per kind of event, so marks part without colour; the legend names each shape. */
+export type MarkSymbol = 'triangleUp' | 'diamond';
+export interface ChartMark {
+  atMs: number;
+  symbol: MarkSymbol;
+  /** The legend's word for this symbol ("coat"). */
+  key: string;
+}
+const MARK_GLYPHS: Record<MarkSymbol, string> = { triangleUp: '▲', diamond: '◆' };
 
 /**
  * Each line has its own colour AND its own stroke, so the lines part without colour: air solid,
@@ -50,6 +62,7 @@ const MAX_MARKED_POINTS = 90;
 
 export const PADDING = { top: 12, bottom: 32, left: 44, right: 12 };
 export const AXIS_TEXT = { fontFamily: fonts.regular, fontSize: 11, fill: colors.iron };
+const MARK_LINE_STYLE = { stroke: colors.ink, strokeWidth: 1, strokeOpacity: 0.6 };
 export const CROSSHAIR_STYLE = { stroke: colors.ink, strokeWidth: 1, strokeDasharray: '3,3' };
 /** The value axis of both history panels: labels and grid lines, no axis line of its own. */
 export const VALUE_AXIS_STYLE = {
@@ -86,6 +99,7 @@ export function MarginChart({
   activeIndex,
   onPointAt,
   height = 260,
+  marks = [],
 }: MarginChartProps) {
   const [width, setWidth] = useState(0);
   const unit = useUnitPref();
@@ -106,6 +120,8 @@ export function MarginChart({
   const active = activeIndex === null ? undefined : points[activeIndex];
   const activeX = active ? new Date(active.at) : null;
   const showBand = bucketSeconds > 0 && series.marginBand.length > 0;
+  const shownMarks = marks.filter((m) => m.atMs >= fromMs && m.atMs <= toMs);
+  const markKeys = [...new Map(shownMarks.map((m) => [m.symbol, m.key])).entries()];
 
   const onLayout = (event: LayoutChangeEvent) => {
     const next = Math.round(event.nativeEvent.layout.width);
@@ -114,7 +130,7 @@ export function MarginChart({
 
   return (
     <View testID="zone-chart" style={styles.box}>
-      <Legend dewWords={dewWords} band={showBand} />
+      <Legend dewWords={dewWords} band={showBand} markKeys={markKeys} />
       <View
         onLayout={onLayout}
         style={{ height }}
@@ -136,7 +152,15 @@ export function MarginChart({
                 title={`Air, surface and ${dewWords}`}
                 desc={summary}
                 voronoiDimension="x"
-                voronoiBlacklist={['closeBand', 'wetBand', 'marginBand', 'surfaceMarks', 'cross']}
+                voronoiBlacklist={[
+                  'closeBand',
+                  'wetBand',
+                  'marginBand',
+                  'surfaceMarks',
+                  'cross',
+                  ...shownMarks.map((_, i) => `mark${i}`),
+                  'markSymbols',
+                ]}
                 onActivated={(found: { x?: Date | number }[]) => {
                   const x = found[0]?.x;
                   if (x !== undefined) onPointAt(Number(x));
@@ -202,6 +226,29 @@ export function MarginChart({
                 style={{ data: { fill: colors.card, stroke: colors.iron, strokeWidth: 1.5 } }}
               />
             ) : null}
+            {shownMarks.map((mark, i) => (
+              <VictoryLine
+                key={`mark${i}`}
+                name={`mark${i}`}
+                data={[
+                  { x: new Date(mark.atMs), y: series.yDomain[0] },
+                  { x: new Date(mark.atMs), y: series.yDomain[1] },
+                ]}
+                style={{ data: MARK_LINE_STYLE }}
+              />
+            ))}
+            {shownMarks.length > 0 ? (
+              <VictoryScatter
+                name="markSymbols"
+                data={shownMarks.map((m) => ({
+                  x: new Date(m.atMs),
+                  y: series.yDomain[1],
+                  symbol: m.symbol,
+                }))}
+                size={6}
+                style={{ data: { fill: colors.ink, stroke: colors.card, strokeWidth: 1 } }}
+              />
+            ) : null}
             {activeX ? (
               <VictoryLine
                 name="cross"
@@ -228,7 +275,13 @@ export function MarginChart({
   );
 }
 
-function Legend({ dewWords, band }: { dewWords: string; band: boolean }) {
+interface LegendProps {
+  dewWords: string;
+  band: boolean;
+  markKeys: readonly (readonly [MarkSymbol, string])[];
+}
+
+function Legend({ dewWords, band, markKeys }: LegendProps) {
   return (
     <View style={styles.legend} testID="chart-legend">
       <Key line={LINE_STYLES.air} label="air" />
@@ -237,6 +290,14 @@ function Legend({ dewWords, band }: { dewWords: string; band: boolean }) {
       <Swatch color={colors.wet} label="wet band" />
       <Swatch color={colors.close} label="close band" />
       {band ? <Swatch color={colors.iron} label={HISTORY_WORDS.marginBand} /> : null}
+      {markKeys.map(([symbol, key]) => (
+        <View key={symbol} style={styles.key}>
+          <Text style={[type.small, styles.glyph]} aria-hidden>
+            {MARK_GLYPHS[symbol]}
+          </Text>
+          <Text style={type.small}>{key}</Text>
+        </View>
+      ))}
     </View>
   );
 }
@@ -297,6 +358,7 @@ const styles = StyleSheet.create({
     borderWidth: 1.5,
     backgroundColor: colors.card,
   },
+  glyph: { color: colors.ink },
   swatch: { width: 12, height: 12, borderRadius: 2 },
   empty: {
     position: 'absolute',

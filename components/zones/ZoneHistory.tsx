@@ -10,13 +10,14 @@ import {
 } from '@/components/queries';
 import { colors, space, tabular, type } from '@/components/theme';
 import { Panel } from '@/components/ui';
-import { HISTORY_WORDS, pointReadout } from '@/ingest/words';
+import { HISTORY_WORDS } from '@/ingest/words';
 
 import { DEFAULT_RANGE, RANGES, rangeHeading, rangeMs, type RangeKey } from './chartRange';
 import { chartSpan, spanHeading } from './chartSpan';
 import { nearestIndex } from './chartSeries';
 import { shopClock, summaryLine, valueRows, type ValueRow } from './chartSummary';
 import { ChartKeys } from './ChartKeys';
+import { ChartReadout } from './ChartReadout';
 import { CustomRange } from './CustomRange';
 import { HumidityChart } from './HumidityChart';
 import { MarginChart } from './MarginChart';
@@ -129,26 +130,12 @@ export function ZoneHistory({
       ) : null}
       {data && span ? (
         <>
-          {/* Above the charts, so a phone shows it beside the point being read. */}
-          <Text
-            style={[type.small, tabular, styles.readout]}
-            aria-live="polite"
+          <ChartReadout
+            active={active}
+            hasPoints={points.length > 0}
+            clock={clock}
             testID="zone-chart-readout"
-          >
-            {active
-              ? pointReadout(
-                  {
-                    ...active,
-                    marginMin: active.marginMin,
-                    marginMax: active.marginMax ?? active.margin,
-                  },
-                  unit,
-                  clock(Date.parse(active.at)),
-                )
-              : points.length > 0
-                ? HISTORY_WORDS.readoutHint
-                : ''}
-          </Text>
+          />
           <ChartKeys
             count={points.length}
             activeIndex={activeIndex}
@@ -250,7 +237,6 @@ const styles = StyleSheet.create({
   placeholder: { alignItems: 'center', justifyContent: 'center' },
   error: { color: colors.wet },
   toggle: { alignSelf: 'flex-start' },
-  readout: { minHeight: 36 },
   table: { borderTopWidth: 1, borderTopColor: colors.border },
   row: {
     flexDirection: 'row',

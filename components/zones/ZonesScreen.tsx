@@ -15,6 +15,7 @@ import { ZoneCard } from './ZoneCard';
 import type { RangeKey } from './chartRange';
 import { ZoneHistory } from './ZoneHistory';
 import { ZoneList } from './ZoneList';
+import { ZoneSurfaces } from './ZoneSurfaces';
 import { countByLevel, orderByRisk } from './zoneOrder';
 
 interface ZonesScreenProps {
@@ -107,6 +108,7 @@ export function ZonesScreen({ zoneId, range, onRangeChange }: ZonesScreenProps) 
             range={range}
             onRangeChange={onRangeChange}
           />
+          <ZoneSurfaces shopId={shopId} zoneId={shown.id} />
         </View>
       </View>
     );
@@ -124,6 +126,7 @@ export function ZonesScreen({ zoneId, range, onRangeChange }: ZonesScreenProps) 
           range={range}
           onRangeChange={onRangeChange}
         />
+        <ZoneSurfaces shopId={shopId} zoneId={selected.id} />
       </View>
     );
   } else {

@@ -69,3 +69,38 @@ export function recoatReason({ cause, coating, exposure, budget }: RecoatWordsIn
       return `The ${coat} is within its budget: wet ${hours(e.hoursWet)} of ${hours(budget.hoursWet)}, close ${hours(e.hoursClose)} of ${hours(budget.hoursClose)}, time of wetness ${hours(e.towHours)} of ${hours(budget.towHours)}.`;
   }
 }
+
+export const CARE_KIND_WORDS: Record<'coating' | 'inspection', string> = {
+  coating: 'Coat',
+  inspection: 'Inspection',
+};
+
+/** A surface's standing against its coat's budget, as a word beside (never instead of) colour. */
+export const RECOAT_STATE_WORDS = {
+  due: 'Re-coat due',
+  ok: 'Within budget',
+  none: 'No coat logged',
+} as const;
+
+export const EXPOSURE_WORDS = {
+  hoursClose: 'Close to the dew point',
+  hoursWet: 'Wet',
+  tow: 'Time of wetness (ISO 9223)',
+  since: 'Since the last coat',
+} as const;
+
+/** Said wherever the budgets are shown: the defaults are ours, not a standard's. */
+export const BUDGET_WORDS = {
+  intro:
+    'How much exposure a coat takes before Drybench suggests a re-coat. A surface is due when any one budget is passed.',
+  ruleOfThumb:
+    'Default: a rule of thumb of the trade with no published source. Change it once your own inspections say otherwise.',
+  own: 'Set by this shop.',
+  fields: { hoursWet: 'Wet (h)', hoursClose: 'Close (h)', towHours: 'Time of wetness (h)' },
+} as const;
+
+/** Where a surface's temperature comes from, for its page. */
+export const SURFACE_SOURCE_WORDS = {
+  probe: (sensorName: string) => `Probe on the surface: ${sensorName}`,
+  estimate: 'No probe: the zone’s sensors, with the surface estimated from the air where needed',
+} as const;

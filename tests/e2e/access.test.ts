@@ -24,6 +24,7 @@ let suite: BrowserSuite;
 const [owner, member] = DEMO_PEOPLE;
 /** Set up once: the demo shop's first zone and a pending invitation with a long address. */
 let trialId = '';
+let surfaceId = '';
 let zoneId: string;
 const LONG_INVITEE = 'ana.maria.oyelaran.vasquez@cedarloftjoinery.example';
 
@@ -66,6 +67,35 @@ async function demoTrial(agent: Awaited<ReturnType<typeof ownerAgent>>, base: st
   return trialId;
 }
 
+// A surface with a coat and an inspection, so the care pages show a state, the chart's marks and
+// the log (a rerun finds it there).
+async function demoSurface(
+  agent: Awaited<ReturnType<typeof ownerAgent>>,
+  base: string,
+  zoneId: string,
+) {
+  const surfaces = (await agent.get(`${base}/surfaces`).expect(200)).body.surfaces as {
+    id: string;
+  }[];
+  if (surfaces[0]) return surfaces[0].id;
+  const surface = (
+    await agent
+      .post(`${base}/surfaces`)
+      .send({ name: 'Jointer beds', zoneId, material: 'Cast iron' })
+      .expect(201)
+  ).body as { id: string };
+  const hourAgo = new Date(Date.now() - 3_600_000).toISOString();
+  await agent
+    .post(`${base}/surfaces/${surface.id}/care`)
+    .send({ kind: 'coating', at: hourAgo, coating: { type: 'dry_film' }, note: 'Both beds' })
+    .expect(201);
+  await agent
+    .post(`${base}/surfaces/${surface.id}/care`)
+    .send({ kind: 'inspection', at: new Date().toISOString(), rusting: 0 })
+    .expect(201);
+  return surface.id;
+}
+
 beforeAll(async () => {
   suite = await startBrowserSuite();
   const agent = await ownerAgent();
@@ -76,6 +106,7 @@ beforeAll(async () => {
   const res = await agent.post(`${base}/invitations`).send({ email: LONG_INVITEE, role: 'member' });
   expect([201, 409]).toContain(res.status);
   trialId = await demoTrial(agent, base);
+  surfaceId = await demoSurface(agent, base, zoneId);
 });
 afterAll(() => suite?.close());
 
@@ -110,6 +141,8 @@ const SIGNED_IN: Route[] = [
   { name: 'profile', path: () => `${shop()}/profile` },
   { name: 'trials', path: () => `${shop()}/trials` },
   { name: 'trial', path: () => `${shop()}/trials/${trialId}` },
+  { name: 'care', path: () => `${shop()}/care` },
+  { name: 'surface', path: () => `${shop()}/care/${surfaceId}` },
   { name: 'new-shop', path: () => '/new-shop' },
   { name: 'shop-not-found', path: () => '/shops/00000000-0000-4000-8000-000000000000' },
 ];

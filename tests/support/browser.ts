@@ -66,11 +66,16 @@ export async function postReading(
   return (await res.json()) as IngestAnswer;
 }
 
-/** Signs a demo person in through the sign-in page and waits for their shop. */
-export async function signInAs(page: Page, baseUrl: string, email: string) {
+/** Signs a person in (a demo person unless a password is given) and waits for their shop. */
+export async function signInAs(
+  page: Page,
+  baseUrl: string,
+  email: string,
+  password = DEMO_PASSWORD,
+) {
   await page.goto(`${baseUrl}/sign-in`);
   await page.getByTestId('sign-in-email').fill(email);
-  await page.getByTestId('sign-in-password').fill(DEMO_PASSWORD);
+  await page.getByTestId('sign-in-password').fill(password);
   await page.getByTestId('sign-in-submit').click();
   await page.waitForURL(/\/shops\/[0-9a-f-]+/);
 }

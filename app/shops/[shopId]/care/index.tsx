@@ -1,0 +1,5 @@
+import { CareScreen } from '@/components/care/CareScreen';
+
+export default function ShopCare() {
+  return <CareScreen />;
+}
