@@ -83,7 +83,9 @@ export async function runBench(
     if (stopping) return;
     stopping = true;
     for (const close of closers.reverse()) await close().catch(() => {});
-    await Promise.all(children.map((c) => c.stop()));
+    // A profiled server writes its profile on exit, which on a busy machine can take longer
+    // than the usual grace before SIGKILL (and a killed server writes none).
+    await Promise.all(children.map((c) => c.stop(options.cpuProfDir ? 120_000 : undefined)));
     database.stop();
   };
   const onSignal = () => void cleanUp().then(() => process.exit(130));
