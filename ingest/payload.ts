@@ -105,6 +105,50 @@ function isBatch(body: unknown): boolean {
   return typeof body === 'object' && body !== null && !Array.isArray(body) && 'readings' in body;
 }
 
+const SINGLE_FIELDS: readonly string[] = [...READING_FIELDS, 'unit'];
+
+// The single form's zod schema, built once: a schema made per request costs more than the
+// parse itself.
+const singleAsBatchSchema = singleSchema.transform(({ unit, ...reading }) => ({
+  unit,
+  readings: [reading],
+}));
+
+const isFiniteNumber = (v: unknown): v is number => typeof v === 'number' && Number.isFinite(v);
+const isOptionalNumber = (v: unknown) => v === undefined || v === null || isFiniteNumber(v);
+
+/**
+ * The hot path's check: true when zod would accept `item` as a reading exactly as sent (the
+ * shape nearly every sensor posts), so it can be read without running zod. Anything else, valid
+ * or not, goes through zod, which alone words the errors; tests/ingest/payload.test.ts holds
+ * the two to the same verdicts. z.number() refuses NaN and ±Infinity, so this does too.
+ */
+function isPlainReading(item: unknown): item is RawReading {
+  if (!isRecord(item)) return false;
+  const { at, air, rh, surface, battery } = item;
+  if (!isFiniteNumber(air) || !isFiniteNumber(rh)) return false;
+  if (!isOptionalNumber(surface) || !isOptionalNumber(battery)) return false;
+  if (at === undefined || isFiniteNumber(at)) return true;
+  return typeof at === 'string' && ISO_WITH_OFFSET.test(at);
+}
+
+const isUnit = (u: unknown): u is TemperatureUnit | undefined =>
+  u === undefined || u === 'C' || u === 'F';
+
+/** The envelope as zod would parse it, or null when only zod can tell (see isPlainReading). */
+function parsePlain(
+  body: Record<string, unknown>,
+  batch: boolean,
+): { unit: TemperatureUnit; readings: RawReading[] } | null {
+  const { unit } = body;
+  if (!isUnit(unit)) return null;
+  if (!batch) return isPlainReading(body) ? { unit: unit ?? 'C', readings: [body] } : null;
+  const { readings } = body;
+  if (!Array.isArray(readings) || readings.length === 0) return null;
+  for (const item of readings) if (!isPlainReading(item)) return null;
+  return { unit: unit ?? 'C', readings: readings as RawReading[] };
+}
+
 /**
  * Parse the envelope. `receivedAtMs` stands in for a missing `at`, so a sensor without a clock
  * still gets a correctly timed reading.
@@ -114,11 +158,9 @@ export function parseEnvelope(body: unknown, receivedAtMs: number): EnvelopeResu
   // means, so the envelope's own keys refuse the whole request. A single reading is its own
   // envelope: its unknown keys refuse it the same way.
   const batch = isBatch(body);
-  const outside = batch
-    ? unknownKeys(body, ENVELOPE_FIELDS)
-    : unknownKeys(body, [...READING_FIELDS, 'unit']);
+  const known = batch ? ENVELOPE_FIELDS : SINGLE_FIELDS;
+  const outside = unknownKeys(body, known);
   if (outside.length > 0) {
-    const known = batch ? ENVELOPE_FIELDS : [...READING_FIELDS, 'unit'];
     return {
       ok: false,
       code: 'unknown_field',
@@ -128,22 +170,22 @@ export function parseEnvelope(body: unknown, receivedAtMs: number): EnvelopeResu
       })),
     };
   }
-  const parsed = isBatch(body)
-    ? batchSchema.safeParse(body)
-    : singleSchema
-        .transform(({ unit, ...reading }) => ({ unit, readings: [reading] }))
-        .safeParse(body);
-  if (!parsed.success) {
-    return {
-      ok: false,
-      code: 'invalid_payload',
-      issues: parsed.error.issues.map((issue) => ({
-        path: issue.path.join('.'),
-        message: issue.message,
-      })),
-    };
+  let envelope = isRecord(body) ? parsePlain(body, batch) : null;
+  if (!envelope) {
+    const parsed = batch ? batchSchema.safeParse(body) : singleAsBatchSchema.safeParse(body);
+    if (!parsed.success) {
+      return {
+        ok: false,
+        code: 'invalid_payload',
+        issues: parsed.error.issues.map((issue) => ({
+          path: issue.path.join('.'),
+          message: issue.message,
+        })),
+      };
+    }
+    envelope = parsed.data;
   }
-  const { unit, readings } = parsed.data;
+  const { unit, readings } = envelope;
   // In a batch a reading with an unknown key fails alone, like any per-reading check: zod has
   // already dropped the key, so it is found again on the raw item.
   const rawItems = batch && isRecord(body) && Array.isArray(body.readings) ? body.readings : [];
@@ -151,6 +193,7 @@ export function parseEnvelope(body: unknown, receivedAtMs: number): EnvelopeResu
     ok: true,
     readings: readings.map((r, index) => {
       const reading = normalizeReading(r, unit, receivedAtMs);
+      if (!batch) return reading;
       const extra = unknownKeys(rawItems[index], READING_FIELDS);
       return extra.length > 0 ? { ...reading, unknownFields: extra } : reading;
     }),

@@ -31,6 +31,8 @@ export interface BenchOptions {
   phases: Phase[];
   /** Where the server writes a V8 CPU profile on exit (node --cpu-prof), if set. */
   cpuProfDir: string | null;
+  /** Where to write pg_stat_statements' top statements of the measured phases, if set. */
+  pgStatsFile: string | null;
 }
 
 export const DEFAULT_OPTIONS: BenchOptions = {
@@ -49,13 +51,15 @@ export const DEFAULT_OPTIONS: BenchOptions = {
   backgroundBatch: 1,
   phases: [...PHASES],
   cpuProfDir: null,
+  pgStatsFile: null,
 };
 
 export const USAGE = `npm run bench [-- options]
   --connections N    load generator connections (default ${DEFAULT_OPTIONS.connections})
   --duration S       seconds measured per phase (default ${DEFAULT_OPTIONS.durationS})
   --phases LIST      some of ${PHASES.join(',')} (default all)
-  --cpu-prof DIR     write the server's CPU profile to DIR when it exits`;
+  --cpu-prof DIR     write the server's CPU profile to DIR when it exits
+  --pg-stats FILE    write PostgreSQL's top statements (pg_stat_statements) to FILE`;
 
 export function readBenchOptions(argv: string[]): BenchOptions | 'help' {
   const { values } = parseArgs({
@@ -65,6 +69,7 @@ export function readBenchOptions(argv: string[]): BenchOptions | 'help' {
       duration: { type: 'string' },
       phases: { type: 'string' },
       'cpu-prof': { type: 'string' },
+      'pg-stats': { type: 'string' },
       help: { type: 'boolean' },
     },
   });
@@ -85,5 +90,6 @@ export function readBenchOptions(argv: string[]): BenchOptions | 'help' {
     durationS: Math.min(30, positive('duration', values.duration, DEFAULT_OPTIONS.durationS)),
     phases: phases as Phase[],
     cpuProfDir: values['cpu-prof'] ?? null,
+    pgStatsFile: values['pg-stats'] ?? null,
   };
 }

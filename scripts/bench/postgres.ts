@@ -22,12 +22,15 @@ export async function startBenchDatabase(opts: {
   port: number;
   database: string;
   onPortTaken?: (wanted: number, used: number) => void;
+  /** Extra `postgres` options (scripts/db.sh's PG_EXTRA_OPTS), e.g. a preloaded library. */
+  serverOpts?: string;
 }): Promise<BenchDatabase> {
   const dbScript = 'scripts/db.sh';
   const start = (port: number) =>
     execFileSync('bash', [dbScript, 'start', 'bench', String(port), opts.database], {
       encoding: 'utf8',
       stdio: ['ignore', 'pipe', 'inherit'],
+      env: { ...process.env, PG_EXTRA_OPTS: opts.serverOpts ?? '' },
     }).trim();
   let url: string;
   let port = opts.port;

@@ -41,6 +41,8 @@ export function figuresOf(r: BenchResult): Figures {
     busyCoresBefore: round(r.busyCoresBefore, 2),
     connections: r.options.connections,
     phaseS: r.options.durationS,
+    ingest1GroupMeanRows: r.ingest1Groups ? round(r.ingest1Groups.meanRows) : null,
+    ingest1GroupP90Rows: r.ingest1Groups?.p90Rows ?? null,
     bareExpressReqPerS: r.bare ? round(r.bare.perS, 0) : null,
     rawInsertRowsPerS: r.raw ? round(r.raw.perS, 0) : null,
     ingestBatch1ReqPerS: r.ingest1 ? round(r.ingest1.perS, 0) : null,
@@ -156,6 +158,18 @@ export function formatReport(r: BenchResult): string {
   out.push(
     'server µs / pg µs: CPU time of the server and of PostgreSQL per request, row or reading.',
   );
+
+  if (r.ingest1Groups) {
+    const g = r.ingest1Groups;
+    const buckets = Object.entries(g.buckets)
+      .map(([k, n]) => `${k} ${int(n)}`)
+      .join(', ');
+    out.push(
+      `ingest, 1 reading: the writer committed ${int(g.rows)} requests in ${int(g.groups)} groups ` +
+        `(${o.connections} connections): mean ${g.meanRows.toFixed(1)}, p50 ${g.p50Rows}, ` +
+        `p90 ${g.p90Rows}, max ${g.maxRows} per group; groups by size: ${buckets}`,
+    );
+  }
 
   const live: [string, LivePhase | undefined][] = [
     ['idle', r.liveIdle],

@@ -13,6 +13,13 @@ import { interleave, type Contender, type Measured } from './interleave';
 import { connectLiveClients, measureLiveLatency, type LiveLatencyResult } from './liveLatency';
 import type { BenchOptions, Phase } from './options';
 import { startPacedLoad, type PacedLoadResult } from './pacedLoad';
+import {
+  PG_STATS_SERVER_OPTS,
+  readGroupSizes,
+  resetPgStats,
+  writePgStats,
+  type GroupSizes,
+} from './pgStats';
 import { startBenchDatabase } from './postgres';
 import { freePort, machineCpuSeconds, memoryOf, startNodeChild, type Child } from './processes';
 import { openRawInserter } from './rawInsert';
@@ -33,6 +40,8 @@ export interface BenchResult {
   bare?: Measured;
   raw?: Measured;
   ingest1?: Measured;
+  /** How the writer grouped the single-reading requests (rows per committed statement). */
+  ingest1Groups?: GroupSizes;
   ingest50?: Measured;
   liveIdle?: LivePhase;
   liveLoaded?: LivePhase & { background: PacedLoadResult };
@@ -65,6 +74,7 @@ export async function runBench(
     port: options.pgPort,
     database: options.database,
     onPortTaken: (wanted, used) => progress(`port ${wanted} is taken; PostgreSQL uses ${used}`),
+    serverOpts: options.pgStatsFile ? PG_STATS_SERVER_OPTS : undefined,
   });
   const children: Child[] = [];
   const closers: (() => Promise<void>)[] = [];
@@ -73,7 +83,9 @@ export async function runBench(
     if (stopping) return;
     stopping = true;
     for (const close of closers.reverse()) await close().catch(() => {});
-    await Promise.all(children.map((c) => c.stop()));
+    // A profiled server writes its profile on exit, which on a busy machine can take longer
+    // than the usual grace before SIGKILL (and a killed server writes none).
+    await Promise.all(children.map((c) => c.stop(options.cpuProfDir ? 120_000 : undefined)));
     database.stop();
   };
   const onSignal = () => void cleanUp().then(() => process.exit(130));
@@ -105,6 +117,8 @@ export async function runBench(
       fleetSensors: options.fleetSensors,
     });
     const fleetTokens = fixtures.fleet.map((s) => s.token);
+    // The profile covers the measured phases, not the fixtures' set-up.
+    if (options.pgStatsFile) await resetPgStats(database.url);
     result.startRssMb = memoryOf(server.pid).rssMb;
     const timing = {
       rounds: options.rounds,
@@ -158,6 +172,8 @@ export async function runBench(
     if (httpPair.length > 0) {
       progress(`${httpPair.map((c) => c.key).join(' and ')}, interleaved…`);
       Object.assign(result, await interleave(httpPair, timing));
+      // Only ingest1 has stored readings yet (the bare route stores none).
+      if (has('ingest1')) result.ingest1Groups = await readGroupSizes(database.url);
     }
 
     // The database: raw INSERTs against batches through the ingest route.
@@ -221,6 +237,10 @@ export async function runBench(
     if (has('chart')) {
       progress("the zone history's week query over 10 M stored readings…");
       result.chart = await measureChartQuery(database.url, progress);
+    }
+    if (options.pgStatsFile) {
+      await writePgStats(database.url, options.pgStatsFile);
+      progress(`pg_stat_statements' top statements written to ${options.pgStatsFile}`);
     }
     progress('stopping…');
     return result;

@@ -5,6 +5,8 @@
  * their events and the live messages in one transaction. A scheduled sweep (server/jobs) opens
  * sensor-silent alarms, since silence is the absence of a request.
  */
+import { isDeepStrictEqual } from 'node:util';
+
 import type pg from 'pg';
 
 import type { Db } from '@/db';
@@ -117,7 +119,9 @@ export function createAlarmEngine(deps: {
             humidRhPct: settings.humidRhPct,
           },
         );
-        await saveZoneState(tx, where.zoneId, state);
+        // A step that changed nothing (the usual steady reading) writes nothing: no row
+        // version, no WAL. Compared as values, since the stored jsonb has its own key order.
+        if (!isDeepStrictEqual(state, locked.state)) await saveZoneState(tx, where.zoneId, state);
         await applySignals(tx, where, signals);
       });
     } catch (err) {

@@ -103,14 +103,38 @@ export function startLiveHub(deps: {
    * queue behind the unread megabyte and ws would hold the buffer for its 30 s close timeout.
    * The app's client reconnects and the server back-fills from its `since=`. This is the only
    * per-socket work on the delivery path besides the send itself.
+   *
+   * A Buffer is sent as a text frame as it is: ws frames it without copying, where a string
+   * would be encoded to UTF-8 again for every socket.
    */
-  function send(client: Client, payload: string) {
+  function send(client: Client, payload: string | Buffer) {
     if (client.socket.readyState !== WebSocket.OPEN) return;
     if (client.socket.bufferedAmount > limits.maxBufferedBytes) {
       client.socket.terminate();
       return;
     }
-    client.socket.send(payload);
+    cork(client);
+    client.socket.send(payload, { binary: false });
+  }
+
+  /**
+   * Several notifications often arrive in one read of the LISTEN connection (a group commit
+   * sends one per request): a socket's frames of this tick are held and leave in one write
+   * when the tick ends, instead of one system call each. ws corks only around a single
+   * frame, and cork() counts, so its own uncork inside ours does not flush early.
+   */
+  const corked = new Set<Duplex>();
+  function cork(client: Client) {
+    // ws keeps its TCP socket private; without it (a test double) frames simply go one by one.
+    const raw = (client.socket as unknown as { _socket?: Duplex })._socket;
+    if (!raw || corked.has(raw)) return;
+    if (corked.size === 0) process.nextTick(uncorkAll);
+    raw.cork();
+    corked.add(raw);
+  }
+  function uncorkAll() {
+    for (const raw of corked) raw.uncork();
+    corked.clear();
   }
 
   function deliver(payload: string | undefined) {
@@ -123,10 +147,12 @@ export function startLiveHub(deps: {
       return;
     }
     if (message.type === 'access') return void recheck(message.userIds);
-    // Each socket gets the same string, which ws encodes and frames once per socket; encoding
-    // it once for all is left to the fan-out work.
+    // Encoded once for the whole shop, on the first socket that wants it.
+    let frame: Buffer | undefined;
     for (const client of clients) {
-      if (client.shopIds.has(message.shopId)) send(client, payload);
+      if (!client.shopIds.has(message.shopId)) continue;
+      frame ??= Buffer.from(payload);
+      send(client, frame);
     }
   }
 

@@ -101,7 +101,9 @@ export function ingestRouter(deps: IngestDeps): Router {
         );
       }
 
-      res.status(202).json(await storeReadings(deps, sensor, envelope.readings, receivedAtMs));
+      const outcome = await storeReadings(deps, sensor, envelope.readings, receivedAtMs);
+      // Not res.json: it would hash every answer for an ETag, which no sensor's POST uses.
+      res.status(202).set('Content-Type', 'application/json').end(JSON.stringify(outcome));
     },
   );
 

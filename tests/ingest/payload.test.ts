@@ -1,6 +1,13 @@
 import { describe, expect, it } from 'vitest';
 
-import { checkReading, MAX_FUTURE_MS, parseEnvelope, type RejectCode } from '../../ingest/payload';
+import {
+  batchSchema,
+  checkReading,
+  MAX_FUTURE_MS,
+  parseEnvelope,
+  singleSchema,
+  type RejectCode,
+} from '../../ingest/payload';
 
 // A fixed "server clock", so the future edge is exact to the millisecond.
 const NOW_MS = Date.UTC(2026, 2, 2, 6, 10, 0);
@@ -92,5 +99,95 @@ describe('fields the contract does not name', () => {
     );
     expect(envelope.ok).toBe(true);
     if (envelope.ok) expect(checkReading(envelope.readings[0]!, NOW_MS)).toBeNull();
+  });
+});
+
+describe('the fast check of the common shapes agrees with the schema', () => {
+  // parseEnvelope reads the shapes nearly every sensor posts without zod; zod's schemas
+  // (batchSchema, singleSchema) stay the contract, so every body here must get zod's verdict.
+  const single = (body: Record<string, unknown>) => body;
+  const bodies: [string, unknown][] = [
+    ['plain single', single({ at: '2026-03-02T06:10:00Z', air: 12, rh: 60 })],
+    [
+      'single with probe and battery',
+      single({ at: 1772431800, air: 12, rh: 60, surface: 10, battery: 3.1 }),
+    ],
+    ['single in °F', single({ air: 68, rh: 50, unit: 'F', surface: null, battery: null })],
+    ['single without a time', single({ air: 12, rh: 60 })],
+    ['air as a string', single({ air: '12', rh: 60 })],
+    ['rh missing', single({ air: 12 })],
+    ['at without an offset', single({ at: '2026-03-02T06:10:00', air: 12, rh: 60 })],
+    ['at null', single({ at: null, air: 12, rh: 60 })],
+    ['unit K', single({ air: 12, rh: 60, unit: 'K' })],
+    ['surface as a string', single({ air: 12, rh: 60, surface: '10' })],
+    ['battery false', single({ air: 12, rh: 60, battery: false })],
+    ['air NaN (not JSON, but a caller could)', single({ air: Number.NaN, rh: 60 })],
+    ['air Infinity', single({ air: Number.POSITIVE_INFINITY, rh: 60 })],
+    ['an array', [{ air: 12, rh: 60 }]],
+    [
+      'plain batch',
+      {
+        unit: 'C',
+        readings: [
+          { air: 12, rh: 60 },
+          { at: 1772431800, air: 13, rh: 61 },
+        ],
+      },
+    ],
+    ['batch without unit', { readings: [{ air: 50, rh: 60, surface: 48 }] }],
+    ['batch, empty', { readings: [] }],
+    ['batch, readings not an array', { readings: { air: 12, rh: 60 } }],
+    [
+      'batch, one bad item',
+      {
+        readings: [
+          { air: 12, rh: 60 },
+          { air: 'x', rh: 60 },
+        ],
+      },
+    ],
+    ['batch, an item not an object', { readings: [{ air: 12, rh: 60 }, 7] }],
+    ['batch, unit lower case', { unit: 'f', readings: [{ air: 12, rh: 60 }] }],
+  ];
+
+  it.each(bodies)('%s', (_name, body) => {
+    const result = parseEnvelope(body, NOW_MS);
+    const isBatchBody =
+      typeof body === 'object' && body !== null && !Array.isArray(body) && 'readings' in body;
+    const zod = isBatchBody ? batchSchema.safeParse(body) : singleSchema.safeParse(body);
+    expect(result.ok).toBe(zod.success);
+    if (!result.ok || !zod.success) return;
+    const unit = zod.data.unit;
+    const raw = 'readings' in zod.data ? zod.data.readings : [zod.data];
+    const toC = (v: number) => (unit === 'F' ? ((v - 32) * 5) / 9 : v);
+    expect(result.readings).toEqual(
+      raw.map((r) => ({
+        atMs:
+          typeof r.at === 'number'
+            ? Math.round(r.at * 1000)
+            : typeof r.at === 'string'
+              ? Date.parse(r.at)
+              : NOW_MS,
+        airC: toC(r.air),
+        rhPct: r.rh,
+        surfaceC: r.surface == null ? null : toC(r.surface),
+        batteryV: r.battery ?? null,
+      })),
+    );
+  });
+
+  it('reads 68 °F as 20 °C (the Fahrenheit scale: °C = (°F − 32) × 5/9)', () => {
+    const result = parseEnvelope({ air: 68, rh: 50, unit: 'F' }, NOW_MS);
+    expect(result.ok && result.readings[0]!.airC).toBeCloseTo(20, 12);
+  });
+
+  it('words a refusal exactly as the schema does', () => {
+    const body = { at: '2026-03-02T06:10:00', air: 12, rh: 60 };
+    const result = parseEnvelope(body, NOW_MS);
+    const zod = singleSchema.safeParse(body);
+    expect(result.ok).toBe(false);
+    expect(!result.ok && result.issues).toEqual(
+      !zod.success && zod.error.issues.map((i) => ({ path: i.path.join('.'), message: i.message })),
+    );
   });
 });
