@@ -8,3 +8,4 @@ export { useNow } from './useNow';
 export { useReducedMotion } from './useReducedMotion';
 export { contrastRatio, relativeLuminance } from './contrast';
 export { FocusRingStyle } from './FocusRingStyle';
+export { lazyChunk } from './lazyChunk';

@@ -18,8 +18,7 @@ import { nearestIndex } from './chartSeries';
 import { shopClock, summaryLine, valueRows, type ValueRow } from './chartSummary';
 import { ChartKeys } from './ChartKeys';
 import { CustomRange } from './CustomRange';
-import { HumidityChart } from './HumidityChart';
-import { MarginChart } from './MarginChart';
+import { LazyHumidityChart, LazyMarginChart } from './LazyCharts';
 
 interface ZoneHistoryProps {
   shopId: string;
@@ -155,7 +154,7 @@ export function ZoneHistory({
             onMove={setActiveIndex}
             label={`${summary}. ${HISTORY_WORDS.readoutHint}`}
           >
-            <MarginChart
+            <LazyMarginChart
               points={points}
               fromMs={span.fromMs}
               toMs={span.toMs}
@@ -169,7 +168,7 @@ export function ZoneHistory({
               onPointAt={pointAt}
               height={chartHeight}
             />
-            <HumidityChart
+            <LazyHumidityChart
               points={points}
               fromMs={span.fromMs}
               toMs={span.toMs}

@@ -2,7 +2,17 @@
 import { parseArgs } from 'node:util';
 
 // `chart` runs last: it stores 10 M readings, which would slow every insert phase after it.
-export const PHASES = ['bare', 'raw', 'ingest1', 'ingest50', 'live', 'report', 'chart'] as const;
+// `web` exports the web app if its sources changed, then opens the overview in Chromium.
+export const PHASES = [
+  'bare',
+  'raw',
+  'ingest1',
+  'ingest50',
+  'live',
+  'report',
+  'web',
+  'chart',
+] as const;
 export type Phase = (typeof PHASES)[number];
 
 export interface BenchOptions {
@@ -31,6 +41,8 @@ export interface BenchOptions {
   phases: Phase[];
   /** Where the server writes a V8 CPU profile on exit (node --cpu-prof), if set. */
   cpuProfDir: string | null;
+  /** The exported web app the web phase serves; null: dist/, exported first if it changed. */
+  webDir: string | null;
 }
 
 export const DEFAULT_OPTIONS: BenchOptions = {
@@ -49,13 +61,15 @@ export const DEFAULT_OPTIONS: BenchOptions = {
   backgroundBatch: 1,
   phases: [...PHASES],
   cpuProfDir: null,
+  webDir: null,
 };
 
 export const USAGE = `npm run bench [-- options]
   --connections N    load generator connections (default ${DEFAULT_OPTIONS.connections})
   --duration S       seconds measured per phase (default ${DEFAULT_OPTIONS.durationS})
   --phases LIST      some of ${PHASES.join(',')} (default all)
-  --cpu-prof DIR     write the server's CPU profile to DIR when it exits`;
+  --cpu-prof DIR     write the server's CPU profile to DIR when it exits
+  --web-dir DIR      web phase: serve this export instead of building dist/ (to compare builds)`;
 
 export function readBenchOptions(argv: string[]): BenchOptions | 'help' {
   const { values } = parseArgs({
@@ -65,6 +79,7 @@ export function readBenchOptions(argv: string[]): BenchOptions | 'help' {
       duration: { type: 'string' },
       phases: { type: 'string' },
       'cpu-prof': { type: 'string' },
+      'web-dir': { type: 'string' },
       help: { type: 'boolean' },
     },
   });
@@ -85,5 +100,6 @@ export function readBenchOptions(argv: string[]): BenchOptions | 'help' {
     durationS: Math.min(30, positive('duration', values.duration, DEFAULT_OPTIONS.durationS)),
     phases: phases as Phase[],
     cpuProfDir: values['cpu-prof'] ?? null,
+    webDir: values['web-dir'] ?? null,
   };
 }

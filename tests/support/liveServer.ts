@@ -62,13 +62,4 @@ export async function startLiveServer() {
   return { ...instance, demo };
 }
 
-export const CHROMIUM_ARGS = [
-  '--headless',
-  '--no-sandbox',
-  '--disable-gpu',
-  '--disable-quic',
-  '--no-first-run',
-  '--disable-background-networking',
-  '--disable-component-update',
-  '--disable-sync',
-];
+export { CHROMIUM_ARGS } from './chromium';
