@@ -22,6 +22,8 @@ export interface WebRun {
   firstRenderMs: number;
   /** Paths of the scripts fetched before the zone list showed, as the page asked for them. */
   scripts: string[];
+  /** Each request before then: file or route, start → end in ms since navigation start. */
+  timeline: string[];
 }
 
 export interface WebResult {
@@ -114,7 +116,20 @@ async function oneRun(
           .map((e) => new URL(e.name).pathname),
       firstRenderMs,
     );
-    return { firstRenderMs, scripts: scripts.filter((s) => asked.includes(s)) };
+    // Where the time went: each request until then, on the page's clock.
+    const timeline = await page.evaluate(
+      (until) =>
+        performance
+          .getEntriesByType('resource')
+          .filter((e) => e.startTime <= until)
+          .map((e) => {
+            const u = new URL(e.name);
+            const r = e as PerformanceResourceTiming;
+            return `${u.pathname.split('/').pop()} ${Math.round(r.startTime)}→${Math.round(r.responseEnd)}`;
+          }),
+      firstRenderMs,
+    );
+    return { firstRenderMs, scripts: scripts.filter((s) => asked.includes(s)), timeline };
   } finally {
     await context.close();
   }
@@ -136,6 +151,7 @@ export async function measureWeb(opts: {
       await browser.close();
     }
   }
+  opts.progress(`the last run's requests (ms): ${runs.at(-1)!.timeline.join(', ')}`);
   opts.progress(
     `first render, ${RUNS} runs: ${runs.map((r) => Math.round(r.firstRenderMs)).join(', ')} ms`,
   );
