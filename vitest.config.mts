@@ -13,7 +13,11 @@ export default defineConfig({
     projects: [
       {
         extends: true,
-        test: { name: 'unit', include: ['tests/ingest/**/*.test.ts'], environment: 'node' },
+        test: {
+          name: 'unit',
+          include: ['tests/ingest/**/*.test.ts', 'tests/scripts/**/*.test.ts'],
+          environment: 'node',
+        },
       },
       {
         // Pure UI helpers; react-native resolves to react-native-web as in the web bundle.

@@ -138,9 +138,21 @@ export function createApp(deps: AppDeps): express.Express {
   const webDir = deps.webDir && path.resolve(deps.webDir);
   if (webDir && fs.existsSync(path.join(webDir, 'index.html'))) {
     const indexHtml = path.join(webDir, 'index.html');
+    // Scripts and assets under /_expo and /assets carry a content hash in their name: a new
+    // build gets new names, so a browser may keep them for good. index.html names the current
+    // ones, so it is never kept without asking.
+    const hashed = { index: false, maxAge: '365d', immutable: true, fallthrough: true } as const;
+    app.use('/_expo', express.static(path.join(webDir, '_expo'), hashed));
+    app.use('/assets', express.static(path.join(webDir, 'assets'), hashed));
+    // A missing script (an old chunk after a deploy) must fail as a script: answered with the
+    // page, the browser would run HTML as JavaScript.
+    app.use(['/_expo', '/assets'], notFound);
     app.use(express.static(webDir, { index: false, maxAge: '1h' }));
-    // Client-side routes (/shops/…) all load the single-page app.
-    app.get('/{*splat}', (_req, res) => res.sendFile(indexHtml));
+    // Client-side routes (/shops/…) all load the single-page app. The export may sit under a
+    // dot folder (a build kept aside to compare), which send refuses unless told.
+    app.get('/{*splat}', (_req, res) =>
+      res.sendFile(indexHtml, { dotfiles: 'allow', headers: { 'cache-control': 'no-cache' } }),
+    );
   }
 
   app.use(notFound);

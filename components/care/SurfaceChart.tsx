@@ -14,7 +14,8 @@ import { nearestIndex } from '@/components/zones/chartSeries';
 import { shopClock, summaryLine } from '@/components/zones/chartSummary';
 import { ChartKeys } from '@/components/zones/ChartKeys';
 import { ChartReadout } from '@/components/zones/ChartReadout';
-import { MarginChart, type ChartMark } from '@/components/zones/MarginChart';
+import { LazyMarginChart } from '@/components/zones/LazyCharts';
+import type { ChartMark } from '@/components/zones/MarginChart';
 import { CARE_KIND_WORDS, HISTORY_WORDS } from '@/ingest/words';
 
 import { careMarks, chartHours, marksLine } from './careText';
@@ -69,7 +70,7 @@ export function SurfaceChart({ shopId, zone, care, timeZone, nowMs }: SurfaceCha
             onMove={setActiveIndex}
             label={`${summary}. ${HISTORY_WORDS.readoutHint}`}
           >
-            <MarginChart
+            <LazyMarginChart
               points={points}
               fromMs={fromMs}
               toMs={toMs}

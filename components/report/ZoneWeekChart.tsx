@@ -2,7 +2,7 @@ import { StyleSheet, Text, View } from 'react-native';
 
 import { useWeekReadingsQuery, type ZoneWeekFigures } from '@/components/queries';
 import { colors, type } from '@/components/theme';
-import { MarginChart } from '@/components/zones/MarginChart';
+import { LazyMarginChart } from '@/components/zones/LazyCharts';
 import type { TemperatureUnit } from '@/ingest/units';
 import { formatMargin, formatReportMoment } from '@/ingest/words';
 
@@ -57,7 +57,7 @@ export function ZoneWeekChart({
     );
   }
   return (
-    <MarginChart
+    <LazyMarginChart
       points={readings.data.points}
       fromMs={Date.parse(week.from)}
       toMs={Date.parse(week.to)}

@@ -9,3 +9,4 @@ export { useReducedMotion } from './useReducedMotion';
 export { contrastRatio, relativeLuminance } from './contrast';
 export { FocusRingStyle } from './FocusRingStyle';
 export { DownloadButton } from './DownloadButton';
+export { lazyChunk } from './lazyChunk';

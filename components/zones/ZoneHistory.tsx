@@ -19,8 +19,7 @@ import { shopClock, summaryLine, valueRows, type ValueRow } from './chartSummary
 import { ChartKeys } from './ChartKeys';
 import { ChartReadout } from './ChartReadout';
 import { CustomRange } from './CustomRange';
-import { HumidityChart } from './HumidityChart';
-import { MarginChart } from './MarginChart';
+import { LazyHumidityChart, LazyMarginChart } from './LazyCharts';
 
 interface ZoneHistoryProps {
   shopId: string;
@@ -142,7 +141,7 @@ export function ZoneHistory({
             onMove={setActiveIndex}
             label={`${summary}. ${HISTORY_WORDS.readoutHint}`}
           >
-            <MarginChart
+            <LazyMarginChart
               points={points}
               fromMs={span.fromMs}
               toMs={span.toMs}
@@ -156,7 +155,7 @@ export function ZoneHistory({
               onPointAt={pointAt}
               height={chartHeight}
             />
-            <HumidityChart
+            <LazyHumidityChart
               points={points}
               fromMs={span.fromMs}
               toMs={span.toMs}

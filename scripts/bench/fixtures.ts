@@ -32,7 +32,7 @@ const SENSORS_PER_ZONE = 5;
 // Requests in flight while setting up: quick, without queueing hundreds at the server.
 const SETUP_CONCURRENCY = 8;
 
-async function call<T>(baseUrl: string, path: string, body: unknown, cookie?: string) {
+export async function call<T>(baseUrl: string, path: string, body: unknown, cookie?: string) {
   const res = await fetch(`${baseUrl}/api/v1${path}`, {
     method: 'POST',
     headers: {
@@ -50,7 +50,7 @@ async function call<T>(baseUrl: string, path: string, body: unknown, cookie?: st
  * Signs up a new owner, then signs in with the password (sign-up starts no session: its link
  * comes by e-mail, and an unverified account may sign in); returns the cookie (`name=value`).
  */
-async function signUp(baseUrl: string, name: string): Promise<string> {
+export async function signUp(baseUrl: string, name: string): Promise<string> {
   const credentials = {
     email: `bench-${randomUUID()}@bench.example`,
     password: 'bench-password-1',

@@ -2,7 +2,17 @@
 import { parseArgs } from 'node:util';
 
 // `chart` runs last: it stores 10 M readings, which would slow every insert phase after it.
-export const PHASES = ['bare', 'raw', 'ingest1', 'ingest50', 'live', 'report', 'chart'] as const;
+// `web` exports the web app if its sources changed, then opens the overview in Chromium.
+export const PHASES = [
+  'bare',
+  'raw',
+  'ingest1',
+  'ingest50',
+  'live',
+  'report',
+  'web',
+  'chart',
+] as const;
 export type Phase = (typeof PHASES)[number];
 
 export interface BenchOptions {
@@ -33,6 +43,8 @@ export interface BenchOptions {
   cpuProfDir: string | null;
   /** Where to write pg_stat_statements' top statements of the measured phases, if set. */
   pgStatsFile: string | null;
+  /** The exported web app the web phase serves; null: dist/, exported first if it changed. */
+  webDir: string | null;
 }
 
 export const DEFAULT_OPTIONS: BenchOptions = {
@@ -52,6 +64,7 @@ export const DEFAULT_OPTIONS: BenchOptions = {
   phases: [...PHASES],
   cpuProfDir: null,
   pgStatsFile: null,
+  webDir: null,
 };
 
 export const USAGE = `npm run bench [-- options]
@@ -59,7 +72,8 @@ export const USAGE = `npm run bench [-- options]
   --duration S       seconds measured per phase (default ${DEFAULT_OPTIONS.durationS})
   --phases LIST      some of ${PHASES.join(',')} (default all)
   --cpu-prof DIR     write the server's CPU profile to DIR when it exits
-  --pg-stats FILE    write PostgreSQL's top statements (pg_stat_statements) to FILE`;
+  --pg-stats FILE    write PostgreSQL's top statements (pg_stat_statements) to FILE
+  --web-dir DIR      web phase: serve this export instead of building dist/ (to compare builds)`;
 
 export function readBenchOptions(argv: string[]): BenchOptions | 'help' {
   const { values } = parseArgs({
@@ -70,6 +84,7 @@ export function readBenchOptions(argv: string[]): BenchOptions | 'help' {
       phases: { type: 'string' },
       'cpu-prof': { type: 'string' },
       'pg-stats': { type: 'string' },
+      'web-dir': { type: 'string' },
       help: { type: 'boolean' },
     },
   });
@@ -91,5 +106,6 @@ export function readBenchOptions(argv: string[]): BenchOptions | 'help' {
     phases: phases as Phase[],
     cpuProfDir: values['cpu-prof'] ?? null,
     pgStatsFile: values['pg-stats'] ?? null,
+    webDir: values['web-dir'] ?? null,
   };
 }

@@ -14,6 +14,8 @@ export const TARGETS = {
   chartQueryP95Ms: { atMost: 20 },
   weekReportMs: { atMost: 300 },
   weekReportPdfMs: { atMost: 1000 },
+  bundleKbGz: { atMost: 450 },
+  firstRenderMs: { atMost: 1000 },
 } as const;
 
 export type Figures = Record<keyof typeof TARGETS, number | null> & Record<string, unknown>;
@@ -35,6 +37,10 @@ export function figuresOf(r: BenchResult): Figures {
     weekReportMs: r.weekReport ? round(r.weekReport.jsonP95Ms) : null,
     weekReportPdfMs: r.weekReport?.pdfP95Ms != null ? round(r.weekReport.pdfP95Ms) : null,
     weekReportPdfNote: r.weekReport?.pdfNote ?? null,
+    bundleKbGz: r.web ? r.web.bundleKbGz : null,
+    firstRenderMs: r.web ? round(r.web.firstRenderMs, 0) : null,
+    bundleKbRaw: r.web ? r.web.bundleKbRaw : null,
+    bundleFiles: r.web ? r.web.scripts.length : null,
     rssAtStartMb: round(r.startRssMb, 0),
     date: r.startedAt.toISOString(),
     cpuCount: r.cpuCount,
@@ -213,6 +219,21 @@ export function formatReport(r: BenchResult): string {
       `week report: ${int(w.readings)} readings (10 zones, 1 a minute, a week) inserted in ` +
         `${w.insertS.toFixed(1)} s; JSON p50 ${ms(w.jsonP50Ms)} / p95 ${ms(w.jsonP95Ms)} ms; ` +
         (w.pdfP95Ms === null ? `PDF not measured: ${w.pdfNote}` : `PDF p95 ${ms(w.pdfP95Ms)} ms`),
+    );
+  }
+
+  if (r.web) {
+    const w = r.web;
+    out.push(
+      `web: the overview at ${w.viewport.width}×${w.viewport.height} in a fresh Chromium over ` +
+        `loopback, ${w.runs.length} runs, navigation start → first zone card ` +
+        `${w.runs.map((x) => Math.round(x.firstRenderMs)).join(', ')} ms (median ` +
+        `${Math.round(w.firstRenderMs)}); JavaScript loaded before it: ${w.scripts.length} files, ` +
+        `${w.bundleKbRaw} KB raw, ${w.bundleKbGz} KB gzip -9 (` +
+        w.scripts
+          .map((s) => `${s.file.split('/').pop()} ${(s.gzBytes / 1024).toFixed(1)}`)
+          .join(', ') +
+        ')',
     );
   }
 

@@ -26,6 +26,7 @@ import { openRawInserter } from './rawInsert';
 import { createReadingSource, type ReadingSource } from './readings';
 import { coresOf, startCpuMeter, type CpuCores } from './usage';
 import { benchWeekReport, type WeekReportBench } from './weekReport';
+import { measureWeb, type WebResult } from './webFirstRender';
 
 export interface LivePhase extends LiveLatencyResult {
   cpu: CpuCores;
@@ -48,6 +49,8 @@ export interface BenchResult {
   /** One zone's 7-day history with 10 M readings stored (scripts/bench/chartHistory.ts). */
   chart?: ChartQueryResult;
   weekReport?: WeekReportBench;
+  /** The overview in a fresh Chromium: its first render and the JavaScript it loaded. */
+  web?: WebResult;
   /** The Drybench server's resident memory once started and set up, before any load. */
   startRssMb: number;
   /** The Drybench server's peak resident memory over the whole run. */
@@ -112,9 +115,11 @@ export async function runBench(
     const url = `http://127.0.0.1:${serverPort}`;
 
     progress('creating the shops, sensors and owners through the API…');
+    // The web phase alone makes its own small shop: no fleet to set up for it.
+    const webOnly = options.phases.every((p) => p === 'web');
     const fixtures = await createFixtures(url, {
       probeSensors: options.probeSensors,
-      fleetSensors: options.fleetSensors,
+      fleetSensors: webOnly ? 0 : options.fleetSensors,
     });
     const fleetTokens = fixtures.fleet.map((s) => s.token);
     // The profile covers the measured phases, not the fixtures' set-up.
@@ -233,6 +238,25 @@ export async function runBench(
     }
 
     result.peakRssMb = memoryOf(server.pid).peakRssMb;
+
+    // After the peak is read: the second server serving the web app is not the one measured.
+    if (has('web')) {
+      progress('exporting the web app if it changed, then the overview in a fresh Chromium…');
+      const webDir = options.webDir ?? 'dist';
+      if (!options.webDir) execFileSync('bash', ['scripts/build-web.sh'], { stdio: 'inherit' });
+      const webPort = await freePort();
+      const webServer = await startNodeChild({
+        entry: '.build/server.mjs',
+        env: { ...serverEnv(database.url, webPort, options.wsClients), WEB_DIR: webDir },
+        ready: /listening on/,
+      });
+      children.push(webServer);
+      result.web = await measureWeb({
+        url: `http://127.0.0.1:${webPort}`,
+        distDir: webDir,
+        progress,
+      });
+    }
 
     if (has('chart')) {
       progress("the zone history's week query over 10 M stored readings…");

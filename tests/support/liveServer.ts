@@ -65,13 +65,4 @@ export async function startLiveServer(options: TestAppOptions = {}) {
   return { ...instance, demo };
 }
 
-export const CHROMIUM_ARGS = [
-  '--headless',
-  '--no-sandbox',
-  '--disable-gpu',
-  '--disable-quic',
-  '--no-first-run',
-  '--disable-background-networking',
-  '--disable-component-update',
-  '--disable-sync',
-];
+export { CHROMIUM_ARGS } from './chromium';

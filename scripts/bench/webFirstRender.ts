@@ -1,0 +1,174 @@
+/**
+ * The web phase: what the overview costs a browser. A shop of a few zones, each with a fresh
+ * reading, signed in; then, per run, a fresh Chromium (new profile, empty cache) opens the
+ * overview over loopback. Two figures:
+ * - firstRenderMs: navigation start (the page's time origin) to the first zone card in the
+ *   document, median over the runs, at the phone size (390×844) the app is designed for first;
+ * - bundleKbGz: the JavaScript the overview loaded before that moment, each file gzip -9 from
+ *   dist/ and summed (what a server sending pre-compressed files would send).
+ */
+import fs from 'node:fs';
+import path from 'node:path';
+
+import { chromium, type Browser } from 'playwright-core';
+
+import { CHROMIUM_ARGS, CHROMIUM_PATH } from '@/tests/support/chromium';
+
+import { gzipSize } from './bundleSizes';
+import { call, signUp } from './fixtures';
+import { percentile } from './stats';
+
+export interface WebRun {
+  firstRenderMs: number;
+  /** Paths of the scripts fetched before the zone list showed, as the page asked for them. */
+  scripts: string[];
+  /** Each request before then: file or route, start → end in ms since navigation start. */
+  timeline: string[];
+}
+
+export interface WebResult {
+  viewport: { width: number; height: number };
+  runs: WebRun[];
+  firstRenderMs: number;
+  /** Per script the overview loaded (first run; every run loads the same): raw and gzip -9. */
+  scripts: { file: string; bytes: number; gzBytes: number }[];
+  bundleKbGz: number;
+  bundleKbRaw: number;
+}
+
+export const PHONE = { width: 390, height: 844 };
+const RUNS = 7;
+const ZONES = 4;
+
+/** A signed-in owner of a shop of ZONES zones, each with a sensor that has just posted. */
+async function webShop(url: string): Promise<{ cookie: string; shopId: string }> {
+  const cookie = await signUp(url, 'Overview owner');
+  const post = <T>(p: string, body: unknown) => call<T>(url, p, body, cookie).then((r) => r.body);
+  const shop = await post<{ id: string }>('/shops', { name: 'Overview shop', timeZone: 'UTC' });
+  for (let z = 0; z < ZONES; z++) {
+    const zone = await post<{ id: string }>(`/shops/${shop.id}/zones`, { name: `Bay ${z + 1}` });
+    const sensor = await post<{ token: string }>(`/shops/${shop.id}/sensors`, {
+      name: `Probe ${z + 1}`,
+      zoneId: zone.id,
+    });
+    const air = 14 + 2 * z;
+    const res = await fetch(`${url}/api/v1/ingest`, {
+      method: 'POST',
+      headers: { authorization: `Bearer ${sensor.token}`, 'content-type': 'application/json' },
+      body: JSON.stringify({ air, rh: 55 + 8 * z, surface: air - 1.5, battery: 3.1 }),
+    });
+    if (res.status !== 202) throw new Error(`reading for zone ${z + 1}: ${res.status}`);
+  }
+  return { cookie, shopId: shop.id };
+}
+
+// In the page before any of its scripts: the moment the first zone card enters the document,
+// on the page's clock (milliseconds since navigation start).
+const MARK_FIRST_CARD = `(() => {
+  const seen = () => {
+    if (document.querySelector('[data-testid="zone-card"]')) {
+      window.__firstZoneCardMs = performance.now();
+      observer.disconnect();
+    }
+  };
+  const observer = new MutationObserver(seen);
+  observer.observe(document, { childList: true, subtree: true });
+})();`;
+
+async function oneRun(
+  browser: Browser,
+  url: string,
+  cookie: string,
+  shopId: string,
+): Promise<WebRun> {
+  const [name, value] = [
+    cookie.slice(0, cookie.indexOf('=')),
+    cookie.slice(cookie.indexOf('=') + 1),
+  ];
+  const context = await browser.newContext({ viewport: PHONE });
+  try {
+    await context.addCookies([{ name, value, url }]);
+    await context.addInitScript(MARK_FIRST_CARD);
+    const page = await context.newPage();
+    const scripts: string[] = [];
+    page.on('request', (req) => {
+      const u = new URL(req.url());
+      if (u.pathname.endsWith('.js')) scripts.push(u.pathname);
+    });
+    await page.goto(`${url}/shops/${shopId}`);
+    await page
+      .getByTestId('zone-card')
+      .first()
+      .waitFor({ timeout: 30_000 })
+      .catch(async (err: unknown) => {
+        const text = await page.evaluate(() => document.body.innerText.slice(0, 300));
+        throw new Error(`no zone card at ${page.url()}; the page says: ${text}`, { cause: err });
+      });
+    const firstRenderMs = await page.evaluate(
+      () => (window as unknown as { __firstZoneCardMs: number }).__firstZoneCardMs,
+    );
+    // Only what was asked for before the card showed counts as the overview's load.
+    const asked = await page.evaluate(
+      (until) =>
+        performance
+          .getEntriesByType('resource')
+          .filter((e) => e.name.endsWith('.js') && e.startTime <= until)
+          .map((e) => new URL(e.name).pathname),
+      firstRenderMs,
+    );
+    // Where the time went: each request until then, on the page's clock.
+    const timeline = await page.evaluate(
+      (until) =>
+        performance
+          .getEntriesByType('resource')
+          .filter((e) => e.startTime <= until)
+          .map((e) => {
+            const u = new URL(e.name);
+            const r = e as PerformanceResourceTiming;
+            return `${u.pathname.split('/').pop()} ${Math.round(r.startTime)}→${Math.round(r.responseEnd)}`;
+          }),
+      firstRenderMs,
+    );
+    return { firstRenderMs, scripts: scripts.filter((s) => asked.includes(s)), timeline };
+  } finally {
+    await context.close();
+  }
+}
+
+export async function measureWeb(opts: {
+  url: string;
+  distDir: string;
+  progress: (line: string) => void;
+}): Promise<WebResult> {
+  const { cookie, shopId } = await webShop(opts.url);
+  const runs: WebRun[] = [];
+  for (let i = 0; i < RUNS; i++) {
+    // A new browser process each run: a fresh profile, nothing cached or compiled.
+    const browser = await chromium.launch({ executablePath: CHROMIUM_PATH, args: CHROMIUM_ARGS });
+    try {
+      runs.push(await oneRun(browser, opts.url, cookie, shopId));
+    } finally {
+      await browser.close();
+    }
+  }
+  opts.progress(`the last run's requests (ms): ${runs.at(-1)!.timeline.join(', ')}`);
+  opts.progress(
+    `first render, ${RUNS} runs: ${runs.map((r) => Math.round(r.firstRenderMs)).join(', ')} ms`,
+  );
+  const scripts = runs[0]!.scripts.map((file) => {
+    const data = fs.readFileSync(path.join(opts.distDir, file));
+    return { file, bytes: data.length, gzBytes: gzipSize(data) };
+  });
+  const kb = (n: number) => Math.round((n / 1024) * 10) / 10;
+  return {
+    viewport: PHONE,
+    runs,
+    firstRenderMs: percentile(
+      runs.map((r) => r.firstRenderMs).sort((a, b) => a - b),
+      50,
+    ),
+    scripts,
+    bundleKbGz: kb(scripts.reduce((s, f) => s + f.gzBytes, 0)),
+    bundleKbRaw: kb(scripts.reduce((s, f) => s + f.bytes, 0)),
+  };
+}
