@@ -188,6 +188,7 @@ describe('exposure since the last coat', () => {
         coating: null,
         rusting: 2,
         note: 'Specks by the miter slot',
+        photos: [],
       },
       {
         id: expect.any(String),
@@ -197,6 +198,7 @@ describe('exposure since the last coat', () => {
         coating: { type: 'wax', product: 'Shop-mixed paste' },
         rusting: null,
         note: null,
+        photos: [],
       },
     ]);
   });
