@@ -177,6 +177,7 @@ export {
 export {
   coatingBudgetsQueryOptions,
   exposureQueryOptions,
+  EXPOSURE_COALESCE_MS,
   invalidateZoneExposures,
   surfaceKeys,
   surfaceQueryOptions,

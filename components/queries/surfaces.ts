@@ -104,13 +104,29 @@ export function useExposureQueries(shopId: string, surfaces: readonly Surface[])
   return useQueries({ queries: surfaces.map((s) => exposureQueryOptions(shopId, s)) });
 }
 
-/** A reading arrived in a zone: its surfaces' exposures have grown, so they are read again. */
+// Readings come in bursts (several sensors of a zone, a sensor catching up), and each exposure
+// is a sum over every stored reading since the coat: one refetch per burst, not per reading.
+export const EXPOSURE_COALESCE_MS = 1000;
+const pendingExposureRefetch = new WeakMap<QueryClient, Set<string>>();
+
+/**
+ * A reading arrived in a zone: its surfaces' exposures have grown, so they are read again once
+ * the burst it belongs to is over (EXPOSURE_COALESCE_MS after its first reading).
+ */
 export function invalidateZoneExposures(
   queryClient: QueryClient,
   shopId: string,
   zoneId: string,
 ): void {
-  void queryClient.invalidateQueries({ queryKey: surfaceKeys.zoneExposures(shopId, zoneId) });
+  const pending = pendingExposureRefetch.get(queryClient) ?? new Set<string>();
+  pendingExposureRefetch.set(queryClient, pending);
+  const key = `${shopId}/${zoneId}`;
+  if (pending.has(key)) return;
+  pending.add(key);
+  setTimeout(() => {
+    pending.delete(key);
+    void queryClient.invalidateQueries({ queryKey: surfaceKeys.zoneExposures(shopId, zoneId) });
+  }, EXPOSURE_COALESCE_MS);
 }
 
 export function coatingBudgetsQueryOptions(shopId: string) {

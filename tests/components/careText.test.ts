@@ -6,7 +6,7 @@
 import { QueryClient } from '@tanstack/react-query';
 import { createElement } from 'react';
 import { renderToStaticMarkup } from 'react-dom/server';
-import { describe, expect, it } from 'vitest';
+import { afterEach, describe, expect, it, vi } from 'vitest';
 
 import { budgetFieldOf, budgetsToSend, budgetValues } from '@/components/care/budgetForm';
 import {
@@ -21,6 +21,7 @@ import {
 } from '@/components/care/careText';
 import { RecoatMark } from '@/components/care/ExposureFigures';
 import {
+  EXPOSURE_COALESCE_MS,
   invalidateZoneExposures,
   surfaceKeys,
   type CareEntry,
@@ -215,14 +216,30 @@ describe('saving the coating budgets', () => {
 });
 
 describe('live readings', () => {
-  it('make the exposures of their own zone stale, and no other', () => {
+  afterEach(() => {
+    vi.useRealTimers();
+  });
+
+  it('make the exposures of their own zone stale, and no other, once per burst', async () => {
+    vi.useFakeTimers();
     const client = new QueryClient();
     const a = surfaceKeys.exposure('shop', { id: 's1', zoneId: 'zA' });
     const b = surfaceKeys.exposure('shop', { id: 's2', zoneId: 'zB' });
     client.setQueryData(a, exposure({}));
     client.setQueryData(b, exposure({}));
+    const invalidate = vi.spyOn(client, 'invalidateQueries');
+    // Three readings of one burst in zone A.
     invalidateZoneExposures(client, 'shop', 'zA');
+    invalidateZoneExposures(client, 'shop', 'zA');
+    invalidateZoneExposures(client, 'shop', 'zA');
+    expect(client.getQueryState(a)?.isInvalidated).toBe(false);
+    await vi.advanceTimersByTimeAsync(EXPOSURE_COALESCE_MS);
     expect(client.getQueryState(a)?.isInvalidated).toBe(true);
     expect(client.getQueryState(b)?.isInvalidated).toBe(false);
+    expect(invalidate).toHaveBeenCalledTimes(1);
+    // A reading after the burst is a new burst.
+    invalidateZoneExposures(client, 'shop', 'zA');
+    await vi.advanceTimersByTimeAsync(EXPOSURE_COALESCE_MS);
+    expect(invalidate).toHaveBeenCalledTimes(2);
   });
 });
