@@ -32,9 +32,14 @@ export async function inTransaction<T>(
   }
 }
 
+/** Drizzle over a transaction's client, for query files written with it. */
+export function drizzleOn(client: pg.PoolClient): Db {
+  return drizzle(client, { schema, casing: 'snake_case' });
+}
+
 /** The same, with Drizzle over the transaction's client. */
 export function withTransaction<T>(pool: pg.Pool, work: (tx: Db) => Promise<T>): Promise<T> {
-  return inTransaction(pool, (client) => work(drizzle(client, { schema, casing: 'snake_case' })));
+  return inTransaction(pool, (client) => work(drizzleOn(client)));
 }
 
 /**

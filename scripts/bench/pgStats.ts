@@ -103,8 +103,45 @@ export async function writePgStats(databaseUrl: string, file: string, top = 12):
           `| ${r.pct} | ${r.calls} | ${r.mean_ms} | ${r.rows} | \`${r.query.slice(0, 140).replace(/\|/g, '\\|')}\` |`,
       ),
     ];
+    lines.push('', ...(await workPerReading(client)));
     fs.writeFileSync(file, `${lines.join('\n')}\n`);
   } finally {
     await client.end();
   }
+}
+
+/**
+ * Statements per part of the server, counted (so independent of the machine's load), per
+ * 1,000 readings stored. Parts are told apart by the statement's text: the alarm engine's
+ * statements name its tables (the zone states, alarms, events), read the trend's margins or
+ * queue an alarm's mail; BEGIN/COMMIT/ROLLBACK are shown apart (the group writer sends none, so
+ * nearly all are the engine's transactions).
+ */
+async function workPerReading(client: pg.Client): Promise<string[]> {
+  const { rows } = await client.query<{ part: string; calls: string; rows: string; ms: string }>(
+    `select case
+              when query ~* '^\\s*insert into readings \\(.*\\) values \\(\\$1' then 'raw INSERT baseline'
+              when query ~* '^\\s*(begin|commit|rollback|savepoint|release)' then 'begin/commit'
+              when query ~* 'alarm_zone_states|alarm_events|\\malarms\\M|margin_k is not null|insert into pgboss\\.job|^\\s*select pg_notify'
+                then 'alarm engine'
+              else 'everything else'
+            end as part,
+            sum(calls) as calls, sum(rows) as rows, round(sum(total_exec_time)::numeric, 1) as ms
+       from pg_stat_statements
+      group by 1 order by 1`,
+  );
+  const stored = await client.query<{ n: string }>('select count(*) as n from readings');
+  // The raw baseline writes the same table without the server; its rows are not the server's.
+  const raw = rows.find((r) => r.part === 'raw INSERT baseline');
+  const n = Number(stored.rows[0]!.n) - Number(raw?.rows ?? 0);
+  const per = (v: string) => (n > 0 ? ((1000 * Number(v)) / n).toFixed(2) : '–');
+  return [
+    `Readings the server stored in the measured phases: ${n}.`,
+    '',
+    '| part | statements | statements / 1,000 readings | PG ms | PG ms / 1,000 readings |',
+    '| --- | ---: | ---: | ---: | ---: |',
+    ...rows
+      .filter((r) => r !== raw)
+      .map((r) => `| ${r.part} | ${r.calls} | ${per(r.calls)} | ${r.ms} | ${per(r.ms)} |`),
+  ];
 }

@@ -10,18 +10,21 @@ import { isDeepStrictEqual } from 'node:util';
 import type pg from 'pg';
 
 import type { Db } from '@/db';
-import { notify, type AlarmRow, type Tx } from '@/db/queries/alarms';
+import { LIVE_CHANNEL, notify } from '@/db/notify';
+import type { AlarmRow, NewAlarmEvent, Tx } from '@/db/queries/alarms';
 import {
-  lockZoneState,
-  openAlarmsOfZone,
+  lockZoneStates,
   saveAlarmChanges,
-  saveZoneState,
+  saveZoneStates,
+  zoneInputs,
+  type LockedZoneState,
 } from '@/db/queries/alarmState';
 import { sensorSeen, sweepCandidates } from '@/db/queries/alarmSweep';
-import { zoneMargins, type ReadingRow } from '@/db/queries/readings';
-import { withTransaction } from '@/db/transaction';
+import type { ReadingRow } from '@/db/queries/readings';
+import { drizzleOn, inTransaction } from '@/db/transaction';
 import { DEFAULT_TREND } from '@/ingest';
 
+import { isDatabaseUnavailable } from '../errors';
 import { alarmMessageJson } from '../live/messages';
 import type { Logger } from '../logger';
 
@@ -35,12 +38,23 @@ export interface SweepOutcome {
   cleared: number;
 }
 
+/** One zone's share of a judgement: the sensor that sent the rows, and the rows. */
+export interface ZoneJudgement {
+  where: ZoneOf;
+  rows: ReadingRow[];
+}
+
 export interface AlarmEngine {
   /**
    * Steps one zone through readings (from any of its sensors, oldest first) and writes what
    * changed. Never throws. Ingest reaches it through the alarm queue (server/readings/ingestReadings.ts).
    */
   judge(where: ZoneOf, rows: ReadingRow[]): Promise<void>;
+  /**
+   * The same for many zones (one entry per zone) in one transaction of set-based statements,
+   * so the cost per busy second grows with the statements, not with the zones. Never throws.
+   */
+  judgeZones(judgements: readonly ZoneJudgement[]): Promise<void>;
   /** Opens sensor-silent alarms as of `nowMs`, and closes those of revoked sensors. */
   sweepSilent(input: { nowMs: number; shopId?: string }): Promise<SweepOutcome>;
 }
@@ -56,6 +70,11 @@ type ZoneOf = { sensorId: string; zoneId: string; shopId: string };
 
 const NO_SAMPLE = { marginK: null, rhPct: null, batteryV: null, minutesToWet: null };
 
+const settingsOf = ({ settings }: LockedZoneState) => ({
+  limits: { cautionK: settings.cautionK, wetK: settings.wetK },
+  humidRhPct: settings.humidRhPct,
+});
+
 export function createAlarmEngine(deps: {
   db: Db;
   pool: pg.Pool;
@@ -66,45 +85,76 @@ export function createAlarmEngine(deps: {
   const { db, pool } = deps;
   const log = deps.logger.child({ component: 'alarms' });
 
+  /**
+   * Turns each zone's signals into alarm changes against its open alarms and writes them all:
+   * one statement for the changed alarms, one for the new ones and the events, then the live
+   * messages and the opened hook. Returns the number of events per zone.
+   */
   async function applySignals(
-    tx: Tx,
-    where: { shopId: string; zoneId: string },
-    signals: Signal[],
-  ): Promise<number> {
-    const book = createAlarmBook(where, await openAlarmsOfZone(tx, where.zoneId));
-    signals.forEach((signal) => book.apply(signal));
-    const changes = book.changes();
-    const changed = await saveAlarmChanges(tx, changes);
-    // Sent on commit, with the alarms as stored: a rolled-back change is never announced.
-    await notify(
-      tx,
-      changed.map((row) => alarmMessageJson(where.shopId, alarmOf(row))),
-    );
-    if (changes.inserted.length > 0) await deps.onOpened?.(tx, changes.inserted);
-    return changes.events.length;
+    client: pg.PoolClient,
+    zones: readonly {
+      where: { shopId: string; zoneId: string };
+      open: AlarmRow[];
+      signals: Signal[];
+    }[],
+  ): Promise<Map<string, number>> {
+    const all = {
+      inserted: [] as AlarmRow[],
+      updated: [] as AlarmRow[],
+      events: [] as NewAlarmEvent[],
+    };
+    const eventsOf = new Map<string, number>();
+    for (const { where, open, signals } of zones) {
+      const book = createAlarmBook(where, open);
+      signals.forEach((signal) => book.apply(signal));
+      const changes = book.changes();
+      all.inserted.push(...changes.inserted);
+      all.updated.push(...changes.updated);
+      all.events.push(...changes.events);
+      eventsOf.set(where.zoneId, changes.events.length);
+    }
+    const changed = await saveAlarmChanges(client, all);
+    if (changed.length > 0) {
+      // Sent on commit, with the alarms as stored: a rolled-back change is never announced.
+      await notify(
+        client,
+        LIVE_CHANNEL,
+        changed.map((row) => alarmMessageJson(row.shopId, alarmOf(row))),
+      );
+    }
+    if (all.inserted.length > 0) await deps.onOpened?.(drizzleOn(client), all.inserted);
+    return eventsOf;
   }
 
-  /** Steps the zone through the rows and writes what changed; failures are logged, not thrown. */
-  async function judge(sensor: ZoneOf, rows: ReadingRow[]): Promise<void> {
-    const where = { shopId: sensor.shopId, zoneId: sensor.zoneId };
-    try {
-      await withTransaction(pool, async (tx) => {
-        const locked = await lockZoneState(tx, where.zoneId, where.shopId);
-        if (!locked) return;
+  /**
+   * Judges the zones in one transaction: lock every state row (zone id order), read every
+   * zone's margins and open alarms, step each zone, write the changed states and alarms.
+   */
+  async function judgeSet(judgements: readonly ZoneJudgement[]): Promise<void> {
+    await inTransaction(pool, async (client) => {
+      const locked = await lockZoneStates(
+        client,
+        judgements.map((j) => j.where.zoneId),
+      );
+      const present = judgements.filter((j) => locked.has(j.where.zoneId));
+      if (present.length === 0) return;
+      const windows = present.map(({ where, rows }) => {
+        if (!rows.some((r) => r.marginK !== null))
+          return { zoneId: where.zoneId, from: null, to: null };
         const times = rows.map((r) => r.at.getTime());
-        const firstMs = Math.min(...times);
-        const lastMs = Math.max(...times);
-        const margins = rows.some((r) => r.marginK !== null)
-          ? await zoneMargins(
-              tx,
-              where.zoneId,
-              new Date(firstMs - DEFAULT_TREND.windowMs),
-              new Date(lastMs),
-            )
-          : [];
-        const { settings } = locked;
+        return {
+          zoneId: where.zoneId,
+          from: new Date(Math.min(...times) - DEFAULT_TREND.windowMs),
+          to: new Date(Math.max(...times)),
+        };
+      });
+      const inputs = await zoneInputs(client, windows);
+      const changedStates: { zoneId: string; state: object }[] = [];
+      const stepped = present.map(({ where, rows }) => {
+        const zone = locked.get(where.zoneId)!;
+        const { margins, open } = inputs.get(where.zoneId) ?? { margins: [], open: [] };
         const { state, signals } = evaluateZone(
-          readZoneState(locked.state),
+          readZoneState(zone.state),
           where.zoneId,
           rows.map((r) => ({
             sensorId: r.sensorId,
@@ -114,27 +164,45 @@ export function createAlarmEngine(deps: {
             batteryV: r.batteryV,
           })),
           margins,
-          {
-            limits: { cautionK: settings.cautionK, wetK: settings.wetK },
-            humidRhPct: settings.humidRhPct,
-          },
+          settingsOf(zone),
         );
         // A step that changed nothing (the usual steady reading) writes nothing: no row
         // version, no WAL. Compared as values, since the stored jsonb has its own key order.
-        if (!isDeepStrictEqual(state, locked.state)) await saveZoneState(tx, where.zoneId, state);
-        await applySignals(tx, where, signals);
+        if (!isDeepStrictEqual(state, zone.state))
+          changedStates.push({ zoneId: where.zoneId, state });
+        return { where: { shopId: zone.shopId, zoneId: where.zoneId }, open, signals };
       });
+      await saveZoneStates(client, changedStates);
+      await applySignals(client, stepped);
+    });
+  }
+
+  function logFailure(err: unknown, { where, rows }: ZoneJudgement) {
+    // Not thrown: the readings are stored, and the zone's next reading is judged afresh.
+    log.error(
+      { err, zoneId: where.zoneId, sensorId: where.sensorId, readings: rows.length },
+      'alarm engine: judging a zone failed',
+    );
+  }
+
+  async function judgeZones(judgements: readonly ZoneJudgement[]): Promise<void> {
+    if (judgements.length === 0) return;
+    try {
+      await judgeSet(judgements);
     } catch (err) {
-      // Not thrown: the readings are stored, and the zone's next reading is judged afresh.
-      log.error(
-        { err, zoneId: where.zoneId, sensorId: sensor.sensorId, readings: rows.length },
-        'alarm engine: judging a zone failed',
-      );
+      if (judgements.length === 1 || isDatabaseUnavailable(err)) {
+        judgements.forEach((j) => logFailure(err, j));
+        return;
+      }
+      // One zone's failure (a value the database refused, a deadlock on a zone's first row)
+      // must not cost the others their alarms: each again alone, as the reading writer does.
+      for (const j of judgements) await judgeZones([j]);
     }
   }
 
   return {
-    judge,
+    judge: (where, rows) => judgeZones([{ where, rows }]),
+    judgeZones,
     async sweepSilent({ nowMs, shopId }) {
       const outcome: SweepOutcome = { opened: 0, cleared: 0 };
       const candidates = await sweepCandidates(db, shopId);
@@ -143,24 +211,26 @@ export function createAlarmEngine(deps: {
         const silent = !c.revoked && nowMs - c.lastSeenAt.getTime() > allowedMs;
         if (c.openSilentAlarmId ? !c.revoked : !silent) continue;
         const where = { shopId: c.shopId, zoneId: c.zoneId };
-        const changed = await withTransaction(pool, async (tx) => {
-          if (!(await lockZoneState(tx, c.zoneId, c.shopId))) return 0;
+        const changed = await inTransaction(pool, async (client) => {
+          if (!(await lockZoneStates(client, [c.zoneId])).has(c.zoneId)) return 0;
           // Judge again under the lock: a reading may have committed since the list was read.
-          const seen = await sensorSeen(tx, c.sensorId);
+          const seen = await sensorSeen(drizzleOn(client), c.sensorId);
           if (!seen?.lastSeenAt) return 0;
           const lastMs = seen.lastSeenAt.getTime();
           const active = seen.revokedAt === null && nowMs - lastMs > allowedMs;
-          return applySignals(tx, where, [
-            {
-              kind: 'sensor_silent',
-              subjectId: c.sensorId,
-              sensorId: c.sensorId,
-              active,
-              atMs: nowMs,
-              sinceMs: lastMs,
-              sample: NO_SAMPLE,
-            },
-          ]);
+          const inputs = await zoneInputs(client, [{ zoneId: c.zoneId, from: null, to: null }]);
+          const open = inputs.get(c.zoneId)?.open ?? [];
+          const signal: Signal = {
+            kind: 'sensor_silent',
+            subjectId: c.sensorId,
+            sensorId: c.sensorId,
+            active,
+            atMs: nowMs,
+            sinceMs: lastMs,
+            sample: NO_SAMPLE,
+          };
+          const events = await applySignals(client, [{ where, open, signals: [signal] }]);
+          return events.get(c.zoneId) ?? 0;
         });
         if (changed > 0) outcome[silent ? 'opened' : 'cleared'] += 1;
       }

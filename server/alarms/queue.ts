@@ -2,8 +2,10 @@
  * Alarm judging off the ingest path. A request's readings are durable once committed, so the
  * sensor gets its 202 then; the alarm engine catches up here. Zones waiting their turn gather
  * every reading that arrives meanwhile and are judged once for all of them, a zone at most once
- * per `minIntervalMs`, and at most `concurrency` zones at a time — so under a burst, alarm work grows with the number
- * of busy zones, not the number of requests, and never crowds out ingest itself.
+ * per `minIntervalMs`. Every zone due is judged in one batch — one transaction whose statements
+ * each cover the whole set — and at most `concurrency` batches run at a time, so under a burst
+ * alarm work grows with the number of batches (about one a second), not with the requests or
+ * the busy zones, and never crowds out ingest itself.
  *
  * Readings still queued when the process stops are not judged here; the zone's next reading
  * is (its margins come from the database), and silence has its own sweep.
@@ -30,8 +32,10 @@ interface Pending {
 }
 
 export interface AlarmQueueOptions {
-  /** Zones judged at once; each holds a database connection while it runs. */
+  /** Batches of zones judged at once; each holds a database connection while it runs. */
   concurrency: number;
+  /** A batch is cut at this many zones (its statements' arrays, its transaction's locks). */
+  maxZonesPerBatch: number;
   /** A zone that falls this far behind keeps only its newest rows (a burst, not history). */
   maxRowsPerZone: number;
   /**
@@ -45,6 +49,7 @@ export interface AlarmQueueOptions {
 
 const DEFAULTS: AlarmQueueOptions = {
   concurrency: 2,
+  maxZonesPerBatch: 500,
   maxRowsPerZone: 5000,
   minIntervalMs: 1000,
   now: Date.now,
@@ -63,31 +68,55 @@ export function createAlarmQueue(
   let wakeUp: NodeJS.Timeout | null = null;
   let idleWaiters: (() => void)[] = [];
 
+  /** Batches being judged; each holds a database connection while it runs. */
+  let running = 0;
+
+  function settle(batch: [string, Pending][]) {
+    running -= 1;
+    for (const [zoneId, next] of batch) {
+      judging.delete(zoneId);
+      next.done.forEach((resolve) => resolve());
+    }
+    if (pending.size === 0 && judging.size === 0) {
+      idleWaiters.forEach((resolve) => resolve());
+      idleWaiters = [];
+    }
+    pump();
+  }
+
+  /**
+   * Starts judging every zone that is due, all in one batch (one transaction of set-based
+   * statements, server/alarms/engine.ts). Zones that arrive while a batch runs gather for the
+   * next, so under load a batch holds every zone a writer group touched.
+   */
   function pump() {
     const nowMs = opts.now();
     let nextDueMs = Infinity;
-    for (const [zoneId, next] of pending) {
-      if (judging.size >= opts.concurrency) return;
-      if (judging.has(zoneId)) continue;
-      const dueMs = (lastStartMs.get(zoneId) ?? -Infinity) + opts.minIntervalMs;
-      if (dueMs > nowMs) {
-        nextDueMs = Math.min(nextDueMs, dueMs);
-        continue;
-      }
-      lastStartMs.set(zoneId, nowMs);
-      pending.delete(zoneId);
-      judging.add(zoneId);
-      const rows = [...next.rows].sort((a, b) => a.at.getTime() - b.at.getTime());
-      void engine.judge(next.where, rows).finally(() => {
-        judging.delete(zoneId);
-        next.done.forEach((resolve) => resolve());
-        if (pending.size === 0 && judging.size === 0) {
-          idleWaiters.forEach((resolve) => resolve());
-          idleWaiters = [];
+    while (running < opts.concurrency) {
+      const batch: [string, Pending][] = [];
+      for (const [zoneId, next] of pending) {
+        if (judging.has(zoneId)) continue;
+        const dueMs = (lastStartMs.get(zoneId) ?? -Infinity) + opts.minIntervalMs;
+        if (dueMs > nowMs) {
+          nextDueMs = Math.min(nextDueMs, dueMs);
+          continue;
         }
-        pump();
+        batch.push([zoneId, next]);
+        if (batch.length >= opts.maxZonesPerBatch) break;
+      }
+      if (batch.length === 0) break;
+      running += 1;
+      const judgements = batch.map(([zoneId, next]) => {
+        lastStartMs.set(zoneId, nowMs);
+        pending.delete(zoneId);
+        judging.add(zoneId);
+        const rows = [...next.rows].sort((a, b) => a.at.getTime() - b.at.getTime());
+        return { where: next.where, rows };
       });
+      void engine.judgeZones(judgements).finally(() => settle(batch));
     }
+    // A batch in flight pumps again when it ends; only an idle queue needs the timer.
+    if (running >= opts.concurrency) return;
     if (nextDueMs < Infinity && !wakeUp) {
       wakeUp = setTimeout(() => {
         wakeUp = null;
