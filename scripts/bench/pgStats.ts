@@ -131,17 +131,29 @@ async function workPerReading(client: pg.Client): Promise<string[]> {
       group by 1 order by 1`,
   );
   const stored = await client.query<{ n: string }>('select count(*) as n from readings');
+  // A zone judged is a row the zone-state lock returned (the engine's batches lock many at once).
+  const judged = await client.query<{ n: string | null }>(
+    `select sum(rows) as n from pg_stat_statements
+      where query ~* 'alarm_zone_states.*for update'`,
+  );
+  const zones = Number(judged.rows[0]?.n ?? 0);
   // The raw baseline writes the same table without the server; its rows are not the server's.
   const raw = rows.find((r) => r.part === 'raw INSERT baseline');
   const n = Number(stored.rows[0]!.n) - Number(raw?.rows ?? 0);
   const per = (v: string) => (n > 0 ? ((1000 * Number(v)) / n).toFixed(2) : '–');
+  // How often a zone is judged depends on how many readings gather meanwhile (load): per zone
+  // judged is the figure of the engine's own cost.
+  const perZone = (v: string) => (zones > 0 ? (Number(v) / zones).toFixed(2) : '–');
   return [
-    `Readings the server stored in the measured phases: ${n}.`,
+    `Readings the server stored in the measured phases: ${n}; zones judged: ${zones}.`,
     '',
-    '| part | statements | statements / 1,000 readings | PG ms | PG ms / 1,000 readings |',
-    '| --- | ---: | ---: | ---: | ---: |',
+    '| part | statements | per 1,000 readings | per zone judged | PG ms | PG ms / 1,000 readings | PG ms / zone judged |',
+    '| --- | ---: | ---: | ---: | ---: | ---: | ---: |',
     ...rows
       .filter((r) => r !== raw)
-      .map((r) => `| ${r.part} | ${r.calls} | ${per(r.calls)} | ${r.ms} | ${per(r.ms)} |`),
+      .map(
+        (r) =>
+          `| ${r.part} | ${r.calls} | ${per(r.calls)} | ${perZone(r.calls)} | ${r.ms} | ${per(r.ms)} | ${perZone(r.ms)} |`,
+      ),
   ];
 }
