@@ -23,7 +23,14 @@ import {
 } from '@/db/queries/readingPartitions';
 import { insertReadingGroup, type ReadingRow } from '@/db/queries/readings';
 import { readConfig } from '@/server/config';
+import {
+  READING_PARTITIONS_QUEUE,
+  scheduleReadingPartitionMaintenance,
+  startJobRunner,
+} from '@/server/jobs';
 import { createReadingWriter } from '@/server/readings/writer';
+
+import { captureLogs } from '../support/logs';
 
 const baseUrl = process.env.DATABASE_URL!;
 const adminUrl = baseUrl.replace(/\/[^/]+$/, '/postgres');
@@ -367,6 +374,43 @@ describe('partitions for old readings, the writer, and retention', () => {
 
     const again = await runReadingPartitionMaintenance(db.db, { keepMonths });
     expect(again).toEqual({ created: [], dropped: [] });
+  });
+
+  it('runs as the daily pg-boss job, its before step first', async () => {
+    const logs = captureLogs();
+    // This database's own pg-boss schema, without cron: the job is sent by hand.
+    const boss = await startJobRunner({
+      databaseUrl: urlOf(FRESH_DB),
+      logger: logs.logger,
+      cron: false,
+    });
+    const order: string[] = [];
+    try {
+      await scheduleReadingPartitionMaintenance(boss, {
+        db: db.db,
+        logger: logs.logger,
+        keepMonths: 2,
+        before: async () => {
+          order.push(`before, oldest ${(await readingPartitions(db.db))[0]!.name}`);
+        },
+        schedule: false,
+        pollingIntervalSeconds: 0.5,
+      });
+      const id = await boss.send(READING_PARTITIONS_QUEUE, {});
+      await expect
+        .poll(async () => (await boss.getJobById(READING_PARTITIONS_QUEUE, id!))?.state, {
+          timeout: 30_000,
+          interval: 250,
+        })
+        .toBe('completed');
+    } finally {
+      await boss.stop({ graceful: false });
+    }
+    const oldestBefore = monthName(monthsFrom(Date.now(), -3));
+    // The before step saw the 3-month window's oldest month, which the 2-month job then dropped.
+    expect(order).toEqual([`before, oldest ${oldestBefore}`]);
+    const done = logs.lines().find((l) => l.msg === 'reading partitions: maintenance done');
+    expect(done).toMatchObject({ keepMonths: 2, dropped: [oldestBefore] });
   });
 
   it('refuses a keep window under a month', async () => {
