@@ -47,6 +47,22 @@ pg_bin() {
   printf '%s' "$bin"
 }
 
+# Readings are partitioned by pg_partman (migration 0014), which Debian packages per server
+# major version (postgresql-15-partman): install it beside the server, as root, when missing.
+ensure_partman() {
+  local bin=$1 major
+  major=$(basename "$(dirname "$bin")")
+  [ -f "/usr/share/postgresql/$major/extension/pg_partman.control" ] && return 0
+  if [ "$(id -u)" = 0 ] && command -v apt-get >/dev/null; then
+    echo "pg_partman not found; installing Debian's postgresql-$major-partman package…" >&2
+    DEBIAN_FRONTEND=noninteractive apt-get install -y -qq "postgresql-$major-partman" >&2 ||
+      { apt-get update -qq >&2 && DEBIAN_FRONTEND=noninteractive apt-get install -y -qq "postgresql-$major-partman" >&2; }
+  else
+    echo "pg_partman is not installed. Run: sudo apt-get install -y postgresql-$major-partman" >&2
+    exit 1
+  fi
+}
+
 case "$cmd" in
   url)
     echo "postgres://postgres@127.0.0.1:${port:?port}/$database"
@@ -54,6 +70,7 @@ case "$cmd" in
   start)
     : "${port:?port}"
     bin=$(pg_bin)
+    ensure_partman "$bin"
     root=$(data_root)
     data="$root/pg-$name"
     sock="$root/sock-$name"

@@ -5,6 +5,7 @@ import { z } from 'zod';
 
 import { DEFAULT_QUERY_TIMEOUT_MS, DEFAULT_STATEMENT_TIMEOUT_MS } from '@/db';
 
+import { DEFAULT_RAW_READINGS_KEEP_MONTHS } from './jobs/readingPartitionsJob';
 import { DEFAULT_MAX_PENDING_ROWS } from './readings/writer';
 import type { StorageConfig } from './storage';
 
@@ -59,6 +60,14 @@ const envSchema = z.object({
   DB_QUERY_TIMEOUT_MS: z.coerce.number().int().min(100).default(DEFAULT_QUERY_TIMEOUT_MS),
   // Readings accepted but not yet committed, at most; past it ingest answers 503 busy.
   INGEST_MAX_PENDING_ROWS: z.coerce.number().int().min(1000).default(DEFAULT_MAX_PENDING_ROWS),
+  // Whole months of raw readings kept; older month partitions are dropped by the daily job
+  // (server/jobs/readingPartitionsJob.ts). Hourly roll-ups are kept for ever.
+  RAW_READINGS_KEEP_MONTHS: z.coerce
+    .number()
+    .int()
+    .min(1)
+    .max(1200)
+    .default(DEFAULT_RAW_READINGS_KEEP_MONTHS),
   PORT: z.coerce.number().int().min(0).max(65535).default(8080),
   // Loopback by default: reaching the server from other machines is a decision (README).
   HOST: z.string().min(1).default('127.0.0.1'),
@@ -106,6 +115,8 @@ export interface Config {
   statementTimeoutMs: number;
   queryTimeoutMs: number;
   ingestMaxPendingRows: number;
+  /** Whole months of raw readings kept (RAW_READINGS_KEEP_MONTHS). */
+  rawReadingsKeepMonths: number;
   port: number;
   host: string;
   /** NODE_ENV=production. */
@@ -192,6 +203,7 @@ export function readConfig(
     statementTimeoutMs: e.DB_STATEMENT_TIMEOUT_MS,
     queryTimeoutMs: e.DB_QUERY_TIMEOUT_MS,
     ingestMaxPendingRows: e.INGEST_MAX_PENDING_ROWS,
+    rawReadingsKeepMonths: e.RAW_READINGS_KEEP_MONTHS,
     port: e.PORT,
     host: e.HOST,
     production,

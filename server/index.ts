@@ -18,6 +18,7 @@ import {
   createAlarmMailQueue,
   queueAlarmMails,
   scheduleAlarmSweep,
+  scheduleReadingPartitionMaintenance,
   scheduleWeekReportMails,
   startJobRunner,
   workAlarmMails,
@@ -92,6 +93,12 @@ async function main() {
     mailer: mail.mailer,
     publicUrl: config.publicUrl,
     logger,
+  });
+  // Daily: the coming months' partitions of readings, and raw readings past the keep window.
+  await scheduleReadingPartitionMaintenance(jobs, {
+    db,
+    logger,
+    keepMonths: config.rawReadingsKeepMonths,
   });
   // Monday 07:00 shop time: last week's report to owners and members who keep it on.
   await scheduleWeekReportMails(jobs, {

@@ -35,8 +35,10 @@ export const readingKey = (sensorId: string, atMs: number) => `${sensorId}|${atM
  *
  * `notifyIfAllNew` are the caller's LIVE_CHANNEL payloads for "every row was new", the usual
  * case; when some rows were duplicates the statement sends none of them, and the caller sends
- * its own for the rows that really were new (db/notify.ts). The (sensor, at) key makes retries
- * harmless. Returns the keys (readingKey) inserted.
+ * its own for the rows that really were new (db/notify.ts). The (shop, sensor, at) key makes
+ * retries harmless. The rows' months must have their partitions already (readingPartitions.ts:
+ * the writer's guard), or they land in the default partition. Returns the keys (readingKey)
+ * inserted; a row of a sensor that no longer exists is not stored and not among them.
  */
 export async function insertReadingGroup(
   pool: pg.Pool,
@@ -45,15 +47,7 @@ export async function insertReadingGroup(
 ): Promise<Set<string>> {
   const latest = summarizeSensors(rows);
   const inserted = await pool.query<{ sensor_id: string; at: Date }>(
-    `with ins as (
-       insert into readings (sensor_id, at, shop_id, zone_id, air_c, rh_pct, surface_c,
-         surface_source, battery_v, dew_point_c, margin_k, emc_pct, level)
-       select * from unnest($1::uuid[], $2::timestamptz[], $3::uuid[], $4::uuid[], $5::float8[],
-         $6::float8[], $7::float8[], $8::surface_source[], $9::float8[], $10::float8[],
-         $11::float8[], $12::float8[], $13::level[])
-       on conflict (sensor_id, at) do nothing
-       returning sensor_id, at
-     ), seen as (
+    `with seen as (
        update sensors s
        set last_seen_at = greatest(coalesce(s.last_seen_at, u.at), u.at),
            battery_v = coalesce(u.battery_v, s.battery_v),
@@ -68,7 +62,22 @@ export async function insertReadingGroup(
        from unnest($14::uuid[], $15::timestamptz[], $16::float8[], $17::float8[])
          as u(id, at, battery_v, batch_interval_s)
        where s.id = u.id
-       returning 1
+       returning s.id
+     ), ins as (
+       insert into readings (sensor_id, at, shop_id, zone_id, air_c, rh_pct, surface_c,
+         surface_source, battery_v, dew_point_c, margin_k, emc_pct, level)
+       select * from unnest($1::uuid[], $2::timestamptz[], $3::uuid[], $4::uuid[], $5::float8[],
+         $6::float8[], $7::float8[], $8::surface_source[], $9::float8[], $10::float8[],
+         $11::float8[], $12::float8[], $13::level[])
+         as r(sensor_id, at, shop_id, zone_id, air_c, rh_pct, surface_c, surface_source,
+           battery_v, dew_point_c, margin_k, emc_pct, level)
+       -- Only for sensors whose row this statement updated, and so locked: readings have no
+       -- foreign key (db/schema/sensing.ts), and a sensor deleted meanwhile (its shop deleted)
+       -- either went before (nothing stored) or waits for this commit and its trigger then
+       -- deletes these rows too.
+       where r.sensor_id in (select id from seen)
+       on conflict (shop_id, sensor_id, at) do nothing
+       returning sensor_id, at
      ), notified as (
        select pg_notify($18, p) from unnest($19::text[]) as p
        where (select count(*) from ins) = $20

@@ -1,7 +1,8 @@
 /**
  * The bench's own PostgreSQL (scripts/db.sh, name `bench`), with a fresh database each run so
  * every run starts from an empty readings table: how full the table and its index are changes
- * the insert rate, and runs should be comparable.
+ * the insert rate, and runs should be comparable. db.sh installs Debian's PostgreSQL and its
+ * pg_partman package (the readings' month partitions, migration 0014) when they are missing.
  */
 import { execFileSync } from 'node:child_process';
 

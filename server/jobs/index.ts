@@ -8,6 +8,13 @@ export {
   type AlarmMailWorkerOptions,
 } from './alarmMailJob';
 export { ALARM_SWEEP_CRON, ALARM_SWEEP_QUEUE, scheduleAlarmSweep } from './alarmSweep';
+export {
+  DEFAULT_RAW_READINGS_KEEP_MONTHS,
+  READING_PARTITIONS_CRON,
+  READING_PARTITIONS_QUEUE,
+  scheduleReadingPartitionMaintenance,
+  type ReadingPartitionsJobOptions,
+} from './readingPartitionsJob';
 export { startJobRunner, type JobRunnerOptions } from './runner';
 export {
   createWeekReportQueue,

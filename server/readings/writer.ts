@@ -15,6 +15,11 @@
  * each request of the group is written again alone, so only the one at fault fails. A
  * transient failure rejects the whole group: every request answers 503 and its sensor retries.
  *
+ * Partitions: readings are partitioned by month (db/queries/readingPartitions.ts). A group whose
+ * times all lie in the span the guard remembers goes straight to the statement; one holding an
+ * older reading (a sensor's buffer, a logger's backlog) or one beyond the premade months first
+ * has its months made, so no reading lands in the default partition.
+ *
  * Back-pressure: rows accepted but not yet committed are counted; past `maxPendingRows` a
  * request is refused at once (503 `busy` with Retry-After) instead of queueing in memory
  * behind a database that cannot keep up.
@@ -22,7 +27,12 @@
 import type pg from 'pg';
 
 import { LIVE_CHANNEL, notify } from '@/db/notify';
+import {
+  createReadingPartitionGuard,
+  type ReadingPartitionGuard,
+} from '@/db/queries/readingPartitions';
 import { insertReadingGroup, readingKey, type ReadingRow } from '@/db/queries/readings';
+import { MIN_TIME_MS } from '@/ingest/readingFields';
 
 import { ApiError, isDatabaseUnavailable, RetryLaterError } from '../errors';
 import { readingMessage } from '../live/messages';
@@ -91,9 +101,10 @@ const isDataException = (err: unknown) =>
 
 export function createReadingWriter(
   pool: pg.Pool,
-  options: Partial<WriterOptions> = {},
+  options: Partial<WriterOptions> & { partitions?: ReadingPartitionGuard } = {},
 ): ReadingWriter {
   const opts = { ...DEFAULTS, ...options };
+  const partitions = options.partitions ?? createReadingPartitionGuard(pool);
   let queue: Pending[] = [];
   // Rows of the requests in `queue` and in flight: kept as a counter so the hot path adds one
   // addition and one comparison, never a walk over the queue.
@@ -140,7 +151,7 @@ export function createReadingWriter(
   /** Writes a group; on a failure that is not transient, each request again alone. */
   async function settle(group: Pending[]) {
     try {
-      const outcomes = await writeGroup(pool, group);
+      const outcomes = await writeGroup(pool, partitions, group);
       group.forEach((p, i) => p.resolve(outcomes[i]!));
       return;
     } catch (err) {
@@ -191,18 +202,32 @@ export function createReadingWriter(
   };
 }
 
-async function writeGroup(pool: pg.Pool, group: Pending[]): Promise<WriteOutcome[]> {
+async function writeGroup(
+  pool: pg.Pool,
+  partitions: ReadingPartitionGuard,
+  group: Pending[],
+): Promise<WriteOutcome[]> {
   // The first request to name a (sensor, at) owns it; a later one in the same group is a duplicate.
   const owner = new Map<string, number>();
   const rows: ReadingRow[] = [];
+  let minMs = Infinity;
+  let maxMs = -Infinity;
   group.forEach((p, i) => {
     for (const row of p.rows) {
-      const k = readingKey(row.sensorId, row.at.getTime());
+      const atMs = row.at.getTime();
+      const k = readingKey(row.sensorId, atMs);
       if (owner.has(k)) continue;
       owner.set(k, i);
       rows.push(row);
+      // A time before the contract's earliest never passes ingest's checks: it makes no
+      // partition (a value PostgreSQL cannot store fails the statement, as it should).
+      if (atMs < minMs && atMs >= MIN_TIME_MS) minMs = atMs;
+      if (atMs > maxMs) maxMs = atMs;
     }
   });
+  // Null (no query) when every month already has its partition: the usual case.
+  const making = maxMs >= minMs ? partitions.cover(minMs, maxMs) : null;
+  if (making) await making;
 
   // The rows each request owns and that were new, given the keys the database inserted.
   const freshOf = (insertedKeys: { has(key: string): boolean }) =>
