@@ -18,6 +18,7 @@ import {
   createAlarmMailQueue,
   queueAlarmMails,
   scheduleAlarmSweep,
+  scheduleReadingRollups,
   scheduleWeekReportMails,
   startJobRunner,
   workAlarmMails,
@@ -86,6 +87,8 @@ async function main() {
   });
   await listener.ready;
   await scheduleAlarmSweep(jobs, alarms, { logger });
+  // Hourly roll-ups of the readings, which the history, exposure and reports read past 7 days.
+  await scheduleReadingRollups(jobs, { db, logger });
   await workAlarmMails(jobs, {
     db,
     pool,

@@ -8,6 +8,14 @@ export {
   type AlarmMailWorkerOptions,
 } from './alarmMailJob';
 export { ALARM_SWEEP_CRON, ALARM_SWEEP_QUEUE, scheduleAlarmSweep } from './alarmSweep';
+export {
+  READING_ROLLUP_CRON,
+  READING_ROLLUP_QUEUE,
+  runReadingRollup,
+  scheduleReadingRollups,
+  type ReadingRollupJobOptions,
+  type RollupRunOutcome,
+} from './readingRollupJob';
 export { startJobRunner, type JobRunnerOptions } from './runner';
 export {
   createWeekReportQueue,
