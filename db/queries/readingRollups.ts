@@ -183,29 +183,37 @@ export async function readingSpan(db: Db): Promise<{ from: Date; to: Date } | nu
 /**
  * The UTC hours (ms) that readings received at or after `since` change, before `beforeHour`:
  * each reading's own hour, the hour a cap earlier (a reading just before it now stands only
- * until it), and the hours of the zone's and the sensor's previous readings (a gap before it now
- * ends there). Received-at is read through its BRIN index (see db/schema/sensing.ts); the
- * previous readings through the (zone_id, at) index and the primary key, one probe each.
+ * until it), and the hours of the zone's and the sensor's previous readings before the earliest
+ * new one of each hour (a gap before it now ends there; later new readings of the hour follow a
+ * reading of an hour re-rolled anyway). Received-at is read through its BRIN index (see
+ * db/schema/sensing.ts); the previous readings through the (zone_id, at) index and the primary
+ * key, one probe per zone-hour and sensor-hour, so a CSV import of months costs thousands of
+ * probes, not millions.
  */
 export async function hoursTouchedSince(db: Db, since: Date, beforeHour: Date): Promise<number[]> {
+  const hourOf = (col: SQL) => sql`date_bin('1 hour', ${col}, timestamptz '2000-01-01T00:00:00Z')`;
   const result = await db.execute<{ hour_ms: number | string }>(sql`
     with fresh as (
       select zone_id, sensor_id, at from readings where received_at >= ${since}::timestamptz
+    ), zone_hours as (
+      select distinct on (zone_id, ${hourOf(sql`at`)}) zone_id, sensor_id, at
+      from fresh order by zone_id, ${hourOf(sql`at`)}, at, sensor_id
+    ), sensor_hours as (
+      select sensor_id, min(at) as at from fresh group by sensor_id, ${hourOf(sql`at`)}
     ), touched as (
-      select at from fresh
+      select at from sensor_hours
       union all
-      select at - make_interval(secs => ${TOW_MAX_GAP_MS / 1000}) from fresh
+      select at - make_interval(secs => ${TOW_MAX_GAP_MS / 1000}) from sensor_hours
       union all
       select (select x.at from readings x
               where x.zone_id = f.zone_id and x.at <= f.at
                 and (x.at, x.sensor_id) < (f.at, f.sensor_id)
-              order by x.at desc, x.sensor_id desc limit 1) from fresh f
+              order by x.at desc, x.sensor_id desc limit 1) from zone_hours f
       union all
       select (select x.at from readings x where x.sensor_id = f.sensor_id and x.at < f.at
-              order by x.at desc limit 1) from fresh f
+              order by x.at desc limit 1) from sensor_hours f
     )
-    select distinct round(date_part('epoch',
-             date_bin('1 hour', at, timestamptz '2000-01-01T00:00:00Z')) * 1000) as hour_ms
+    select distinct round(date_part('epoch', ${hourOf(sql`at`)}) * 1000) as hour_ms
     from touched
     where at is not null and at < ${beforeHour}::timestamptz
     order by 1`);
@@ -219,13 +227,21 @@ export const uuidList = (ids: readonly string[]) =>
     sql`, `,
   );
 
-/** Runs of consecutive hours as [from, to) ranges: one roll-up statement per run. */
-export function hourRuns(hoursMs: readonly number[]): { fromMs: number; toMs: number }[] {
+/**
+ * Runs of consecutive hours as [from, to) ranges, none longer than `maxHours`: one roll-up
+ * statement per run, each well inside the statement timeout.
+ */
+export function hourRuns(
+  hoursMs: readonly number[],
+  maxHours = 24,
+): { fromMs: number; toMs: number }[] {
   const runs: { fromMs: number; toMs: number }[] = [];
   for (const h of [...hoursMs].sort((a, b) => a - b)) {
     const last = runs[runs.length - 1];
-    if (last && h <= last.toMs) last.toMs = Math.max(last.toMs, h + HOUR_MS);
-    else runs.push({ fromMs: h, toMs: h + HOUR_MS });
+    if (last && h < last.toMs) continue;
+    if (last && h === last.toMs && last.toMs - last.fromMs < maxHours * HOUR_MS) {
+      last.toMs = h + HOUR_MS;
+    } else runs.push({ fromMs: h, toMs: h + HOUR_MS });
   }
   return runs;
 }

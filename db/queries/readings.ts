@@ -186,6 +186,8 @@ export async function querySeries(
     points: number;
     /** Without one: equal buckets from `from`, at most `points` of them. */
     plan?: { bucketSeconds: number; originMs: number };
+    /** False: raw readings only, even over 7 days (the bench's before-and-after). */
+    rollups?: boolean;
   },
 ): Promise<{ bucketSeconds: number; rows: SeriesRow[] }> {
   const spanS = (q.to.getTime() - q.from.getTime()) / 1000;
@@ -200,7 +202,8 @@ export async function querySeries(
   const origin = new Date(plan.originMs);
   // Over 7 days, with buckets of whole hours from a whole hour (the route's plan), the whole
   // hours the roll-up job has done come from readings_hourly and only the edges from readings.
-  const hourly = bucketSeconds % 3600 === 0 && plan.originMs % 3_600_000 === 0;
+  const hourly =
+    (q.rollups ?? true) && bucketSeconds % 3600 === 0 && plan.originMs % 3_600_000 === 0;
   const hours = hourly ? rolledHours(q.from, q.to, await rolledUntil(db)) : null;
   if (hours) {
     const rows = (await seriesFromRollups(db, { ...q, plan, hours })).map(toSeriesRow);

@@ -29,8 +29,7 @@ export const READING_ROLLUP_CRON = '*/5 * * * *';
 // A reading's received_at is its transaction's start; one committing a little after the job
 // read the clock would otherwise fall between two runs. Ingest statements take milliseconds.
 const RECEIVED_OVERLAP_MS = 2 * 60_000;
-// Backfill a day per statement: a busy shop's day is well inside the statement timeout.
-const BACKFILL_CHUNK_MS = 24 * HOUR_MS;
+const CHUNK_MS = 24 * HOUR_MS;
 
 export interface RollupRunOutcome {
   /** Hours rolled (a range's hours counted once per statement). */
@@ -48,19 +47,21 @@ export async function runReadingRollup(db: Db, nowMs: number): Promise<RollupRun
   const receivedThrough = new Date(nowMs - RECEIVED_OVERLAP_MS);
   const mark = await readRollupMark(db);
   const runs: { fromMs: number; toMs: number }[] = [];
+  // [fromMs, targetMs) a day per statement: a busy install's day is well inside the timeout.
+  const forward = (fromMs: number) => {
+    for (let h = fromMs; h < targetMs; h += CHUNK_MS) {
+      runs.push({ fromMs: h, toMs: Math.min(h + CHUNK_MS, targetMs) });
+    }
+  };
   if (!mark) {
     const span = await readingSpan(db);
-    for (let h = span ? floorHourMs(span.from.getTime()) : targetMs; h < targetMs;) {
-      const next = Math.min(h + BACKFILL_CHUNK_MS, targetMs);
-      runs.push({ fromMs: h, toMs: next });
-      h = next;
-    }
+    forward(span ? floorHourMs(span.from.getTime()) : targetMs);
   } else {
     // The hour before the mark again: cheap, and it absorbs readings a minute or two late.
     const startMs = Math.min(mark.rolledUntil.getTime() - HOUR_MS, targetMs);
     const touched = await hoursTouchedSince(db, mark.receivedThrough, new Date(startMs));
-    runs.push(...hourRuns(touched));
-    if (startMs < targetMs) runs.push({ fromMs: startMs, toMs: targetMs });
+    runs.push(...hourRuns(touched, CHUNK_MS / HOUR_MS));
+    forward(startMs);
   }
   let rows = 0;
   let hours = 0;

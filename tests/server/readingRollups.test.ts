@@ -295,7 +295,13 @@ describe('hourly roll-ups', () => {
     expect(await snapshot()).toEqual(once);
   }, 60_000);
 
-  it('groups touched hours into runs of consecutive hours', () => {
+  it('groups touched hours into runs of consecutive hours, none longer than asked', () => {
+    // 30 consecutive hours in runs of at most 24: a statement stays inside the timeout.
+    const hours = Array.from({ length: 30 }, (_, i) => i * HOUR);
+    expect(hourRuns(hours, 24)).toEqual([
+      { fromMs: 0, toMs: 24 * HOUR },
+      { fromMs: 24 * HOUR, toMs: 30 * HOUR },
+    ]);
     expect(hourRuns([5 * HOUR, 0, HOUR, 9 * HOUR, 5 * HOUR])).toEqual([
       { fromMs: 0, toMs: 2 * HOUR },
       { fromMs: 5 * HOUR, toMs: 6 * HOUR },
