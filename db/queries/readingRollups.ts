@@ -142,6 +142,21 @@ export async function rollUpHours(db: Db, fromHour: Date, toHour: Date): Promise
   return result.rowCount ?? 0;
 }
 
+/**
+ * rollUpHours over a range of any length, a day per statement (each well inside the server's
+ * statement timeout): for a CSV import of months, or the job's backfill. Returns rows written.
+ */
+export async function rollUpRange(db: Db, from: Date, to: Date): Promise<number> {
+  let rows = 0;
+  const endMs = ceilHourMs(to.getTime());
+  for (let h = floorHourMs(from.getTime()); h < endMs; h += DAY_HOURS * HOUR_MS) {
+    rows += await rollUpHours(db, new Date(h), new Date(Math.min(h + DAY_HOURS * HOUR_MS, endMs)));
+  }
+  return rows;
+}
+
+const DAY_HOURS = 24;
+
 export interface RollupMark {
   rolledUntil: Date;
   receivedThrough: Date;

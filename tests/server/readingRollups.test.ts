@@ -15,7 +15,7 @@ import { afterAll, beforeAll, describe, expect, it } from 'vitest';
 
 import { createDatabase, type Database } from '@/db';
 import { runMigrations } from '@/db/migrate';
-import { hourRuns, rollUpHours } from '@/db/queries/readingRollups';
+import { hourRuns, rollUpHours, rollUpRange } from '@/db/queries/readingRollups';
 import { insertReadingGroup, querySeries, type ReadingRow } from '@/db/queries/readings';
 import { zoneWeekFigures } from '@/db/queries/reports';
 import { insertSensor } from '@/db/queries/sensors';
@@ -292,6 +292,9 @@ describe('hourly roll-ups', () => {
       ).rows;
     const once = await snapshot();
     await rollUpHours(d.db, new Date(base), new Date(base + 6 * HOUR));
+    expect(await snapshot()).toEqual(once);
+    // And over days, as an import calls it: the three rolled hours again, nothing else changed.
+    expect(await rollUpRange(d.db, new Date(base - 2 * DAY), new Date(base + 2 * DAY))).toBe(3);
     expect(await snapshot()).toEqual(once);
   }, 60_000);
 
