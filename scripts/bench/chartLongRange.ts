@@ -6,13 +6,13 @@
  * The install: 2 shops × 5 zones × 2 sensors posting once a minute for 91 days, 2.6 M readings
  * (a zone's 90 days are 259,200 of them), generated in SQL a day per statement in time order
  * across the sensors as ingest writes them, with received_at set to the reading's time (as if
- * received when taken), then rolled up the way a CSV import does (rollUpHours over its range).
+ * received when taken), then rolled up the way a CSV import does (rollUpRange over its range).
  * Besides the times, the rows each answer reads: independent of load.
  */
 import type pg from 'pg';
 
 import { createDatabase } from '@/db';
-import { rollUpHours } from '@/db/queries/readingRollups';
+import { rollUpRange } from '@/db/queries/readingRollups';
 import { querySeries } from '@/db/queries/readings';
 import { runReadingRollup } from '@/server/jobs';
 import { bucketPlan } from '@/server/readings/bucketPlan';
@@ -27,7 +27,7 @@ const POINTS = 500;
 export interface LongChartResult {
   rows: number;
   seedS: number;
-  /** Seconds rollUpHours took over the 91 days, and the hourly rows it wrote. */
+  /** Seconds rollUpRange took over the 91 days, and the hourly rows it wrote. */
   rollupS: number;
   rollupRows: number;
   rounds: number;
@@ -110,7 +110,7 @@ export async function measureLongChart(
     progress(`generating ${LONG_INSTALL.days} days of readings for the long-range chart…`);
     const seeded = await seed(pool, endMs, progress);
     let started = performance.now();
-    const rollupRows = await rollUpHours(db, new Date(seeded.startMs), new Date(endMs));
+    const rollupRows = await rollUpRange(db, new Date(seeded.startMs), new Date(endMs));
     const rollupS = (performance.now() - started) / 1000;
     // The mark, as the job leaves it: hours up to now − cap are rolled.
     await runReadingRollup(db, Date.now());
