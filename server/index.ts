@@ -19,6 +19,8 @@ import {
   queueAlarmMails,
   scheduleAlarmSweep,
   scheduleReadingPartitionMaintenance,
+  runReadingRollup,
+  scheduleReadingRollups,
   scheduleWeekReportMails,
   startJobRunner,
   workAlarmMails,
@@ -87,6 +89,8 @@ async function main() {
   });
   await listener.ready;
   await scheduleAlarmSweep(jobs, alarms, { logger });
+  // Hourly roll-ups of the readings, which the history, exposure and reports read past 7 days.
+  await scheduleReadingRollups(jobs, { db, logger });
   await workAlarmMails(jobs, {
     db,
     pool,
@@ -99,6 +103,8 @@ async function main() {
     db,
     logger,
     keepMonths: config.rawReadingsKeepMonths,
+    // Roll every finished hour up first, so no raw month goes before its hours are kept.
+    before: () => runReadingRollup(db, Date.now()),
   });
   // Monday 07:00 shop time: last week's report to owners and members who keep it on.
   await scheduleWeekReportMails(jobs, {

@@ -6,6 +6,13 @@ import type { SurfaceSource } from '@/ingest/wire/levels';
 
 import type { Db } from '../index';
 import { LIVE_CHANNEL } from '../notify';
+import {
+  firstRolledAt,
+  rolledHours,
+  rolledUntil,
+  seriesFromRollups,
+  type SeriesSqlRow,
+} from './readingRollups';
 
 export interface ReadingRow {
   sensorId: string;
@@ -159,10 +166,15 @@ export interface SeriesRow {
  * a zone has a day of history. One probe of the (zone_id, at) index.
  */
 export async function firstReadingAt(db: Db, zoneId: string): Promise<Date | null> {
-  const result = await db.execute<{ at: Date | string }>(sql`
-    select at from readings where zone_id = ${zoneId} order by at limit 1`);
+  const [result, rolled] = await Promise.all([
+    db.execute<{ at: Date | string }>(sql`
+      select at from readings where zone_id = ${zoneId} order by at limit 1`),
+    // Raw readings older than the retention are gone; their hours' roll-ups stay.
+    firstRolledAt(db, zoneId),
+  ]);
   const at = result.rows[0]?.at;
-  return at === undefined ? null : new Date(at);
+  const raw = at === undefined ? null : new Date(at);
+  return raw && rolled ? (raw < rolled ? raw : rolled) : (raw ?? rolled);
 }
 
 /**
@@ -183,6 +195,8 @@ export async function querySeries(
     points: number;
     /** Without one: equal buckets from `from`, at most `points` of them. */
     plan?: { bucketSeconds: number; originMs: number };
+    /** False: raw readings only, even over 7 days (the bench's before-and-after). */
+    rollups?: boolean;
   },
 ): Promise<{ bucketSeconds: number; rows: SeriesRow[] }> {
   const spanS = (q.to.getTime() - q.from.getTime()) / 1000;
@@ -195,6 +209,19 @@ export async function querySeries(
   // only a span of no more readings than points is read again, raw.
   const { bucketSeconds } = plan;
   const origin = new Date(plan.originMs);
+  // Over 7 days, with buckets of whole hours from a whole hour (the route's plan), the whole
+  // hours the roll-up job has done come from readings_hourly and only the edges from readings.
+  const hourly =
+    (q.rollups ?? true) && bucketSeconds % 3600 === 0 && plan.originMs % 3_600_000 === 0;
+  const hours = hourly ? rolledHours(q.from, q.to, await rolledUntil(db)) : null;
+  if (hours) {
+    const rows = (await seriesFromRollups(db, { ...q, plan, hours })).map(toSeriesRow);
+    const total = rows.reduce((n, r) => n + r.count, 0);
+    if (total > q.points) return { bucketSeconds, rows };
+    // Few enough to send one by one, if the raw readings are all still there (retention).
+    const raw = await rawSeries(db, q);
+    return raw.length === total ? { bucketSeconds: 0, rows: raw } : { bucketSeconds, rows };
+  }
   const bucketed = await db.execute<RawRow>(sql`
     select date_bin(make_interval(secs => ${bucketSeconds}), at, ${origin}::timestamptz) as at,
            avg(air_c) as air_c, avg(rh_pct) as rh_pct, avg(surface_c) as surface_c,
@@ -213,28 +240,20 @@ export async function querySeries(
   const total = bucketed.rows.reduce((n, r) => n + Number(r.n), 0);
   if (total > q.points) return { bucketSeconds, rows: bucketed.rows.map(toSeriesRow) };
 
+  return { bucketSeconds: 0, rows: await rawSeries(db, q) };
+}
+
+async function rawSeries(db: Db, q: { zoneId: string; from: Date; to: Date }) {
   const raw = await db.execute<RawRow>(sql`
     select at, air_c, rh_pct, surface_c, dew_point_c, margin_k, margin_k as margin_min,
            margin_k as margin_max, emc_pct, level, 1 as n
     from readings
     where zone_id = ${q.zoneId} and at >= ${q.from} and at <= ${q.to}
     order by at`);
-  return { bucketSeconds: 0, rows: raw.rows.map(toSeriesRow) };
+  return raw.rows.map(toSeriesRow);
 }
 
-interface RawRow extends Record<string, unknown> {
-  at: Date | string;
-  air_c: number | string;
-  rh_pct: number | string;
-  surface_c: number | string | null;
-  dew_point_c: number | string | null;
-  margin_k: number | string | null;
-  margin_min: number | string | null;
-  margin_max: number | string | null;
-  emc_pct: number | string | null;
-  level: Level;
-  n: number;
-}
+type RawRow = SeriesSqlRow;
 
 // avg() of double precision comes back as double, but be strict: pg may hand back strings.
 const num = (v: number | string) => (typeof v === 'number' ? v : Number(v));

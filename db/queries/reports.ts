@@ -9,11 +9,12 @@ import { sql } from 'drizzle-orm';
 
 import type { AlarmKind } from '@/ingest/alarmKinds';
 import type { WeekFigures } from '@/ingest/reportWeek';
-import { TOW_AIR_ABOVE_C, TOW_RH_ABOVE_PCT } from '@/ingest/wetness';
+import { TOW_AIR_ABOVE_C, TOW_MAX_GAP_MS, TOW_RH_ABOVE_PCT } from '@/ingest/wetness';
 import type { PaperSize } from '@/ingest/wire/reports';
 import type { ZonePurpose } from '@/ingest/wire/zones';
 
 import type { Db } from '../index';
+import { figuresFromRollups, rolledHours, rolledUntil, uuidList } from './readingRollups';
 
 export interface ReportPeriod {
   fromMs: number;
@@ -63,7 +64,7 @@ type Num = number | string | null;
 const num = (v: Num) => (v === null ? null : Number(v));
 const num0 = (v: Num) => (v === null ? 0 : Number(v));
 
-interface FigureSqlRow extends Record<string, unknown> {
+export interface FigureSqlRow extends Record<string, unknown> {
   zone_id: string;
   n: number;
   covered_ms: Num;
@@ -96,13 +97,27 @@ export async function zoneWeekFigures(
   period: ReportPeriod,
 ): Promise<Map<string, Omit<WeekFigures, 'periodMs' | 'annualWetHours'>>> {
   if (zoneIds.length === 0) return new Map();
+  // Over 7 days, the whole hours the roll-up job has done come from readings_hourly; the last
+  // cap before `end` stays raw, so the rolled readings' shares are the raw rule's. Roll-ups
+  // carry shares capped at TOW_MAX_GAP_MS: another cap reads raw.
+  const hours =
+    period.maxGapMs === TOW_MAX_GAP_MS
+      ? rolledHours(new Date(period.fromMs), new Date(period.endMs), await rolledUntil(db), {
+          edgeMs: period.maxGapMs,
+        })
+      : null;
+  const rows = hours
+    ? await figuresFromRollups(db, zoneIds, period, hours)
+    : await rawFigures(db, zoneIds, period);
+  return toFigures(rows, period);
+}
+
+/** The figures from raw readings only: the rule itself, for any range. */
+async function rawFigures(db: Db, zoneIds: readonly string[], period: ReportPeriod) {
   const from = new Date(period.fromMs);
   const end = new Date(period.endMs);
   const cap = period.maxGapMs;
-  const ids = sql.join(
-    zoneIds.map((id) => sql`${id}::uuid`),
-    sql`, `,
-  );
+  const ids = uuidList(zoneIds);
   // Zone by zone through the (zone_id, at) index (a lateral per zone): each zone's ~10,000 rows
   // of a week sort in memory for the window, instead of the shop's 100,000 spilling to disk. If
   // the index INCLUDEs sensor_id and the value columns, the scan is index-only and already in
@@ -150,10 +165,14 @@ export async function zoneWeekFigures(
       ) w
     ) f
     where f.n > 0`);
+  return result.rows;
+}
 
+function toFigures(rows: FigureSqlRow[], period: ReportPeriod) {
+  const cap = period.maxGapMs;
   const periodMs = period.endMs - period.fromMs;
   const figures = new Map<string, Omit<WeekFigures, 'periodMs' | 'annualWetHours'>>();
-  for (const r of result.rows) {
+  for (const r of rows) {
     const coveredMs = num0(r.covered_ms);
     const dry = num0(r.dry_ms);
     const close = num0(r.close_ms);

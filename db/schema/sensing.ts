@@ -113,5 +113,9 @@ export const readings = pgTable(
     // Covers the chart's columns (INCLUDE air_c … level) since migration 0010, so a zone's
     // history is an index-only scan; drizzle's builder cannot say INCLUDE, the migration does.
     index().on(t.zoneId, t.at),
+    // The roll-up job finds the hours that received readings since its last run through this
+    // (db/queries/readingRollups.ts). BRIN: rows arrive in received_at order, so a summary per
+    // 128 pages is enough, and an insert into unsummarised new pages costs next to nothing.
+    index().using('brin', t.receivedAt),
   ],
 );

@@ -12,6 +12,7 @@ export const PHASES = [
   'report',
   'web',
   'chart',
+  'chartLong',
 ] as const;
 export type Phase = (typeof PHASES)[number];
 

@@ -7,6 +7,7 @@ import { randomBytes } from 'node:crypto';
 import os from 'node:os';
 
 import { measureChartQuery, type ChartQueryResult } from './chartHistory';
+import { measureLongChart, type LongChartResult } from './chartLongRange';
 import { createFixtures, type BenchFixtures } from './fixtures';
 import { runHttpSlice } from './httpLoad';
 import { interleave, type Contender, type Measured } from './interleave';
@@ -48,6 +49,8 @@ export interface BenchResult {
   liveLoaded?: LivePhase & { background: PacedLoadResult };
   /** One zone's 7-day history with 10 M readings stored (scripts/bench/chartHistory.ts). */
   chart?: ChartQueryResult;
+  /** One zone's 30- and 90-day history, raw and from roll-ups (scripts/bench/chartLongRange.ts). */
+  chartLong?: LongChartResult;
   weekReport?: WeekReportBench;
   /** The overview in a fresh Chromium: its first render and the JavaScript it loaded. */
   web?: WebResult;
@@ -261,6 +264,10 @@ export async function runBench(
     if (has('chart')) {
       progress("the zone history's week query over 10 M stored readings…");
       result.chart = await measureChartQuery(database.url, progress);
+    }
+    if (has('chartLong')) {
+      progress("the zone history's 30- and 90-day queries, raw readings and hourly roll-ups…");
+      result.chartLong = await measureLongChart(database.url, progress);
     }
     if (options.pgStatsFile) {
       await writePgStats(database.url, options.pgStatsFile);

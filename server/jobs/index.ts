@@ -15,6 +15,13 @@ export {
   scheduleReadingPartitionMaintenance,
   type ReadingPartitionsJobOptions,
 } from './readingPartitionsJob';
+  READING_ROLLUP_CRON,
+  READING_ROLLUP_QUEUE,
+  runReadingRollup,
+  scheduleReadingRollups,
+  type ReadingRollupJobOptions,
+  type RollupRunOutcome,
+} from './readingRollupJob';
 export { startJobRunner, type JobRunnerOptions } from './runner';
 export {
   createWeekReportQueue,

@@ -40,6 +40,22 @@ describe('bucket plan', () => {
     expect(plan.originMs).toBe(Date.parse('2026-03-01T23:00:00Z'));
   });
 
+  // Over 7 days the history reads hourly roll-ups: whole-hour buckets from a whole UTC hour.
+  // Kolkata is UTC+05:30 (hand-converted): its midnight of 2 March is 1 March 18:30 UTC, so the
+  // buckets start at 18:00 UTC; Berlin (UTC+1 in March) keeps its midnight, 23:00 UTC.
+  it.each([
+    ['Asia/Kolkata', '2026-03-01T18:00:00Z'],
+    ['Europe/Berlin', '2026-03-01T23:00:00Z'],
+  ])('over 7 days in %s: whole hours from a whole hour', (zone, origin) => {
+    const from = Date.parse('2026-03-02T06:10:00Z');
+    // 30 days in 500 points: 720 h are too many one-hour buckets, so two hours (361 buckets).
+    const plan = bucketPlan(from, from + 30 * DAY_MS, 500, zone);
+    expect(plan.bucketSeconds).toBe(7200);
+    expect(plan.originMs).toBe(Date.parse(origin));
+    // Exactly 7 days stays on the finer plan (raw readings).
+    expect(bucketPlan(from, from + 7 * DAY_MS, 500, zone).bucketSeconds % 3600).not.toBe(0);
+  });
+
   it.each([
     // Shop-local midnights, hand-converted from the zones' offsets on those days.
     ['2026-03-29T12:00:00Z', 'Europe/Berlin', '2026-03-28T23:00:00Z'], // CEST starts at 02:00
