@@ -15,6 +15,7 @@ export {
   scheduleReadingPartitionMaintenance,
   type ReadingPartitionsJobOptions,
 } from './readingPartitionsJob';
+export {
   READING_ROLLUP_CRON,
   READING_ROLLUP_QUEUE,
   runReadingRollup,
