@@ -7,6 +7,8 @@ import type { TextStyle, ViewStyle } from 'react-native';
 import type { Level } from '@/ingest';
 import { LEVEL_WORDS } from '@/ingest/words/levels';
 
+import { fontFamily } from './fontFamily';
+
 export const colors = {
   paper: '#F5F2EA',
   card: '#FFFDF8',
@@ -43,11 +45,14 @@ export const levelColors: Record<Level, string> = {
 /** The word shown beside a level's colour, in sentence case (the words live in ingest/words). */
 export const levelWords: Record<Level, string> = LEVEL_WORDS;
 
-/** Names registered by useFonts in app/_layout.tsx; they double as CSS font-family names. */
+/**
+ * The faces registered by useFonts in AppProviders (their names double as CSS font-family names),
+ * with a fallback on the web while they load (fontFamily.web.ts).
+ */
 export const fonts = {
-  regular: 'JetBrainsMono_400Regular',
-  medium: 'JetBrainsMono_500Medium',
-  bold: 'JetBrainsMono_700Bold',
+  regular: fontFamily('JetBrainsMono_400Regular'),
+  medium: fontFamily('JetBrainsMono_500Medium'),
+  bold: fontFamily('JetBrainsMono_700Bold'),
 } as const;
 
 /**

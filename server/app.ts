@@ -2,7 +2,6 @@
  * Builds the Express app from its dependencies; it never listens, so tests drive it with
  * supertest and server/index.ts decides ports and shutdown.
  */
-import fs from 'node:fs';
 import path from 'node:path';
 
 import express from 'express';
@@ -41,6 +40,7 @@ import { sensorsRouter } from './routes/sensors';
 import { shopsRouter } from './routes/shops';
 import { surfacesRouter } from './routes/surfaces';
 import { zonesRouter } from './routes/zones';
+import { webApp } from './webApp';
 import { requestLogger } from './requestLog';
 
 export interface AppDeps {
@@ -94,12 +94,14 @@ export function createApp(deps: AppDeps): express.Express {
   // after the token check and with its own limit.
   const alarmQueue = deps.alarms && createAlarmQueue(deps.alarms, deps.logger, deps.alarmQueue);
   app.use('/api/v1/ingest', ingestRouter({ ...deps, alarms: alarmQueue, now }));
+  const web = deps.webDir ? webApp(path.resolve(deps.webDir)) : null;
   app.use(
     helmet({
-      // The exported Expo app uses inline styles; scripts stay same-origin.
+      // The exported Expo app uses inline styles; scripts stay same-origin, but for the page's
+      // own inline boot script, allowed by its hash.
       contentSecurityPolicy: {
         directives: {
-          'script-src': ["'self'"],
+          'script-src': ["'self'", ...(web?.inlineScriptSources ?? [])],
           'style-src': ["'self'", "'unsafe-inline'"],
           'img-src': ["'self'", 'data:', 'blob:'],
           'font-src': ["'self'", 'data:'],
@@ -135,25 +137,7 @@ export function createApp(deps: AppDeps): express.Express {
   app.use('/api', notFound);
   if (deps.devOutbox) app.use(outboxRouter(deps.devOutbox));
 
-  const webDir = deps.webDir && path.resolve(deps.webDir);
-  if (webDir && fs.existsSync(path.join(webDir, 'index.html'))) {
-    const indexHtml = path.join(webDir, 'index.html');
-    // Scripts and assets under /_expo and /assets carry a content hash in their name: a new
-    // build gets new names, so a browser may keep them for good. index.html names the current
-    // ones, so it is never kept without asking.
-    const hashed = { index: false, maxAge: '365d', immutable: true, fallthrough: true } as const;
-    app.use('/_expo', express.static(path.join(webDir, '_expo'), hashed));
-    app.use('/assets', express.static(path.join(webDir, 'assets'), hashed));
-    // A missing script (an old chunk after a deploy) must fail as a script: answered with the
-    // page, the browser would run HTML as JavaScript.
-    app.use(['/_expo', '/assets'], notFound);
-    app.use(express.static(webDir, { index: false, maxAge: '1h' }));
-    // Client-side routes (/shops/…) all load the single-page app. The export may sit under a
-    // dot folder (a build kept aside to compare), which send refuses unless told.
-    app.get('/{*splat}', (_req, res) =>
-      res.sendFile(indexHtml, { dotfiles: 'allow', headers: { 'cache-control': 'no-cache' } }),
-    );
-  }
+  if (web) app.use(web.router);
 
   app.use(notFound);
   app.use(errorHandler());

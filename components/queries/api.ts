@@ -3,6 +3,7 @@
  * becomes an ApiError carrying the server's `{ error: { code, message, details } }` shape, so
  * screens can show the server's own sentence.
  */
+import { earlyOk, takeEarlyAnswer } from './early';
 
 export interface ApiErrorDetail {
   path: string;
@@ -62,16 +63,20 @@ export async function apiRequest<T>(path: string, options: RequestOptions = {}):
   const { method = 'GET', body, signal } = options;
   let response: Response;
   try {
-    response = await fetch(path, {
-      method,
-      signal,
-      credentials: 'same-origin',
-      headers: {
-        Accept: 'application/json',
-        ...(body === undefined ? {} : { 'Content-Type': 'application/json' }),
-      },
-      body: body === undefined ? undefined : JSON.stringify(body),
-    });
+    // The page may have asked already (early.ts); a GET's first call takes that answer.
+    const early = method === 'GET' ? await earlyOk(takeEarlyAnswer(path)) : null;
+    response =
+      early ??
+      (await fetch(path, {
+        method,
+        signal,
+        credentials: 'same-origin',
+        headers: {
+          Accept: 'application/json',
+          ...(body === undefined ? {} : { 'Content-Type': 'application/json' }),
+        },
+        body: body === undefined ? undefined : JSON.stringify(body),
+      }));
   } catch (error) {
     // An abort is TanStack Query cancelling a stale request; let it through untouched.
     if (signal?.aborted) throw error;

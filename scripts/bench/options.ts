@@ -46,6 +46,8 @@ export interface BenchOptions {
   pgStatsFile: string | null;
   /** The exported web app the web phase serves; null: dist/, exported first if it changed. */
   webDir: string | null;
+  /** Where the web phase writes a Chromium trace (main thread, V8) of its last run, if set. */
+  webTraceDir: string | null;
 }
 
 export const DEFAULT_OPTIONS: BenchOptions = {
@@ -66,6 +68,7 @@ export const DEFAULT_OPTIONS: BenchOptions = {
   cpuProfDir: null,
   pgStatsFile: null,
   webDir: null,
+  webTraceDir: null,
 };
 
 export const USAGE = `npm run bench [-- options]
@@ -74,7 +77,9 @@ export const USAGE = `npm run bench [-- options]
   --phases LIST      some of ${PHASES.join(',')} (default all)
   --cpu-prof DIR     write the server's CPU profile to DIR when it exits
   --pg-stats FILE    write PostgreSQL's top statements (pg_stat_statements) to FILE
-  --web-dir DIR      web phase: serve this export instead of building dist/ (to compare builds)`;
+  --web-dir DIR      web phase: serve this export instead of building dist/ (to compare builds)
+  --web-trace DIR    web phase: write a Chromium trace of the last run to DIR (chrome://tracing,
+                     or the DevTools performance panel)`;
 
 export function readBenchOptions(argv: string[]): BenchOptions | 'help' {
   const { values } = parseArgs({
@@ -86,6 +91,7 @@ export function readBenchOptions(argv: string[]): BenchOptions | 'help' {
       'cpu-prof': { type: 'string' },
       'pg-stats': { type: 'string' },
       'web-dir': { type: 'string' },
+      'web-trace': { type: 'string' },
       help: { type: 'boolean' },
     },
   });
@@ -108,5 +114,6 @@ export function readBenchOptions(argv: string[]): BenchOptions | 'help' {
     cpuProfDir: values['cpu-prof'] ?? null,
     pgStatsFile: values['pg-stats'] ?? null,
     webDir: values['web-dir'] ?? null,
+    webTraceDir: values['web-trace'] ?? null,
   };
 }

@@ -257,6 +257,7 @@ export async function runBench(
       result.web = await measureWeb({
         url: `http://127.0.0.1:${webPort}`,
         distDir: webDir,
+        traceDir: options.webTraceDir,
         progress,
       });
     }

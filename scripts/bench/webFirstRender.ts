@@ -75,11 +75,25 @@ const MARK_FIRST_CARD = `(() => {
   observer.observe(document, { childList: true, subtree: true });
 })();`;
 
+// What a trace records: the main thread's tasks, script parse/compile/run and V8's samples.
+const TRACE_CATEGORIES = [
+  'devtools.timeline',
+  'disabled-by-default-devtools.timeline',
+  'toplevel',
+  'loading',
+  'v8',
+  'v8.execute',
+  'disabled-by-default-v8.compile',
+  'disabled-by-default-v8.cpu_profiler',
+  'blink.user_timing',
+];
+
 async function oneRun(
   browser: Browser,
   url: string,
   cookie: string,
   shopId: string,
+  tracePath: string | null,
 ): Promise<WebRun> {
   const [name, value] = [
     cookie.slice(0, cookie.indexOf('=')),
@@ -95,6 +109,8 @@ async function oneRun(
       const u = new URL(req.url());
       if (u.pathname.endsWith('.js')) scripts.push(u.pathname);
     });
+    if (tracePath)
+      await browser.startTracing(page, { path: tracePath, categories: TRACE_CATEGORIES });
     await page.goto(`${url}/shops/${shopId}`);
     await page
       .getByTestId('zone-card')
@@ -107,6 +123,7 @@ async function oneRun(
     const firstRenderMs = await page.evaluate(
       () => (window as unknown as { __firstZoneCardMs: number }).__firstZoneCardMs,
     );
+    if (tracePath) await browser.stopTracing();
     // Only what was asked for before the card showed counts as the overview's load.
     const asked = await page.evaluate(
       (until) =>
@@ -138,6 +155,8 @@ async function oneRun(
 export async function measureWeb(opts: {
   url: string;
   distDir: string;
+  /** Writes a Chromium trace of the last run here, if set. */
+  traceDir?: string | null;
   progress: (line: string) => void;
 }): Promise<WebResult> {
   const { cookie, shopId } = await webShop(opts.url);
@@ -146,7 +165,13 @@ export async function measureWeb(opts: {
     // A new browser process each run: a fresh profile, nothing cached or compiled.
     const browser = await chromium.launch({ executablePath: CHROMIUM_PATH, args: CHROMIUM_ARGS });
     try {
-      runs.push(await oneRun(browser, opts.url, cookie, shopId));
+      const trace =
+        opts.traceDir && i === RUNS - 1
+          ? path.join(opts.traceDir, `overview-${Date.now()}.json`)
+          : null;
+      if (trace) fs.mkdirSync(opts.traceDir!, { recursive: true });
+      runs.push(await oneRun(browser, opts.url, cookie, shopId, trace));
+      if (trace) opts.progress(`the last run's trace: ${trace}`);
     } finally {
       await browser.close();
     }

@@ -1,0 +1,116 @@
+/**
+ * Serves the exported web app (dist/): hashed scripts and assets cached for good, the page
+ * revalidated every visit, and what scripts/webpage/finishExport.ts pre-compressed sent as it
+ * is (brotli, else gzip) to a browser that accepts it. Also says which inline scripts the page
+ * may run (the boot script), for the Content-Security-Policy.
+ */
+import crypto from 'node:crypto';
+import fs from 'node:fs';
+import path from 'node:path';
+
+import express, { type RequestHandler, type Router } from 'express';
+
+import { notFound } from './errors';
+
+export interface WebApp {
+  /** CSP script-src entries ('sha256-…') for the page's inline scripts. */
+  inlineScriptSources: string[];
+  router: Router;
+}
+
+/** The CSP hash of each inline <script> of a page (CSP Level 3, "hash-source"). */
+export function inlineScriptSources(html: string): string[] {
+  const sources: string[] = [];
+  for (const m of html.matchAll(/<script(\s[^>]*)?>([\s\S]*?)<\/script>/gi)) {
+    if (/\ssrc\s*=/i.test(m[1] ?? '')) continue;
+    const hash = crypto.createHash('sha256').update(m[2]!, 'utf8').digest('base64');
+    sources.push(`'sha256-${hash}'`);
+  }
+  return sources;
+}
+
+/** Only what finishExport compresses; their types, since the name sent ends in .br or .gz. */
+const COMPRESSED_TYPES: Record<string, string> = {
+  '.js': 'application/javascript; charset=utf-8',
+  '.ttf': 'font/ttf',
+  '.html': 'text/html; charset=utf-8',
+};
+
+/** URL path ("/_expo/…/entry-1f.js") → the encodings stored beside it ("br", "gzip"). */
+function compressedFilesOf(webDir: string): Map<string, string[]> {
+  const files = new Map<string, string[]>();
+  for (const entry of fs.readdirSync(webDir, { recursive: true, withFileTypes: true })) {
+    if (!entry.isFile() || !(path.extname(entry.name) in COMPRESSED_TYPES)) continue;
+    const full = path.join(entry.parentPath, entry.name);
+    const url = `/${path.relative(webDir, full).split(path.sep).join('/')}`;
+    const encodings = (['br', 'gzip'] as const).filter((e) =>
+      fs.existsSync(`${full}.${e === 'br' ? 'br' : 'gz'}`),
+    );
+    if (encodings.length > 0) files.set(url, encodings);
+  }
+  return files;
+}
+
+/**
+ * Sends `url`'s stored compressed copy when the browser takes one; otherwise leaves the request
+ * to the plain file. The set of files is read once: an export is never changed in place.
+ */
+function sendCompressed(
+  webDir: string,
+  compressed: Map<string, string[]>,
+  headers: Record<string, string>,
+  cache: { maxAge?: string; immutable?: boolean },
+  url: (req: express.Request) => string,
+): RequestHandler {
+  return (req, res, next) => {
+    const file = url(req);
+    const stored = compressed.get(file);
+    // Either answer depends on Accept-Encoding: a shared cache must keep them apart.
+    if (compressed.size > 0) res.vary('Accept-Encoding');
+    if (!stored || (req.method !== 'GET' && req.method !== 'HEAD')) return next();
+    // Ours, not the browser's order among those it accepts: brotli is the smaller (browsers list
+    // "gzip, deflate, br, zstd" with equal weights).
+    const encoding = stored.find((e) => req.acceptsEncodings(e) === e);
+    if (!encoding) return next();
+    res.setHeader('Content-Type', COMPRESSED_TYPES[path.extname(file)]!);
+    res.setHeader('Content-Encoding', encoding);
+    const relative = `.${file}.${encoding === 'br' ? 'br' : 'gz'}`;
+    res.sendFile(relative, { root: webDir, dotfiles: 'allow', headers, ...cache }, (err) => {
+      if (err && !res.headersSent) next(err);
+    });
+  };
+}
+
+export function webApp(webDir: string): WebApp | null {
+  const indexHtml = path.join(webDir, 'index.html');
+  if (!fs.existsSync(indexHtml)) return null;
+  const compressed = compressedFilesOf(webDir);
+  const router = express.Router();
+  // Scripts and assets under /_expo and /assets carry a content hash in their name: a new
+  // build gets new names, so a browser may keep them for good. index.html names the current
+  // ones, so it is never kept without asking.
+  const hashed = { maxAge: '365d', immutable: true } as const;
+  for (const prefix of ['/_expo', '/assets']) {
+    router.use(
+      prefix,
+      sendCompressed(webDir, compressed, {}, hashed, (req) => `${prefix}${req.path}`),
+      express.static(path.join(webDir, prefix), { index: false, fallthrough: true, ...hashed }),
+    );
+  }
+  // A missing script (an old chunk after a deploy) must fail as a script: answered with the
+  // page, the browser would run HTML as JavaScript.
+  router.use(['/_expo', '/assets'], notFound);
+  router.use(express.static(webDir, { index: false, maxAge: '1h' }));
+  // Client-side routes (/shops/…) all load the single-page app. The export may sit under a
+  // dot folder (a build kept aside to compare), which send refuses unless told.
+  const page = { 'cache-control': 'no-cache' };
+  router.get(
+    '/{*splat}',
+    sendCompressed(webDir, compressed, page, {}, () => '/index.html'),
+    (_req, res) => res.sendFile(indexHtml, { dotfiles: 'allow', headers: page }),
+  );
+  return {
+    inlineScriptSources: inlineScriptSources(fs.readFileSync(indexHtml, 'utf8')),
+    router,
+  };
+}
