@@ -10,3 +10,4 @@ export * from './reports';
 export * from './trials';
 export * from './care';
 export * from './photos';
+export * from './imports';
