@@ -7,7 +7,7 @@ import type { AddressInfo } from 'node:net';
 import type PgBoss from 'pg-boss';
 import type request from 'supertest';
 
-import { importJobs, startJobRunner, workImports } from '@/server/jobs';
+import { createImportQueue, importJobs, startJobRunner, workImports } from '@/server/jobs';
 import { startLiveHub } from '@/server/live/hub';
 import { silentLogger } from '@/server/logger';
 import { createS3Storage } from '@/server/storage';
@@ -37,6 +37,7 @@ export async function startImportWorld(
     cron: false,
     schema,
   });
+  await createImportQueue(boss);
   const t = makeTestApp({ storage: s3.config, imports: importJobs(boss), listen: true });
   const hub = startLiveHub({
     listener: t.listener!,
