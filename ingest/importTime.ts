@@ -10,14 +10,16 @@
  *   allowed); the zone is ignored.
  *
  * Wall times become instants in the logger's IANA zone through date-fns-tz's `fromZonedTime`.
- * Its rules at the clock changes (checked in tests/ingest/importTime.test.ts):
- * - a wall time that happens twice (the autumn hour, e.g. 01:00–02:00 on 2025-11-02 in
- *   America/Chicago) maps to the FIRST of the two instants (daylight time, CDT, UTC−5);
- * - a wall time that never happens (the spring hour, 02:00–03:00 on 2025-03-09 there) is read
- *   with the offset before the change, i.e. one hour later on the new clock (02:30 → 03:30 CDT).
- * A logger that keeps local time writes the autumn hour twice, so in a file read in order
- * (`resolveFold`) the second pass through that hour takes the SECOND instant (standard time):
- * when the row before already stood at or after the first instant, the clock has gone back.
+ * At the clock changes (checked in tests/ingest/importTime.test.ts against the tz database):
+ * - a wall time that never happens (the spring hour, 02:00–03:00 on 2025-03-09 in
+ *   America/Chicago) is read, as date-fns-tz reads it, with the daylight-time offset: 02:30 →
+ *   07:30Z (UTC−5), which the clock showed as 01:30 CST;
+ * - a wall time that happens twice (the autumn hour, 01:00–02:00 on 2025-11-02 there) is
+ *   ambiguous. date-fns-tz picks the offset in force at the wall time read as UTC — daylight
+ *   time west of Greenwich (Chicago: CDT), standard time east of it (Berlin: CET) — so we ask
+ *   for both instants and name them, the earlier (daylight) first. A logger that keeps local
+ *   time writes that hour twice, so in a file read in order (`resolveFold`) the first pass
+ *   takes the earlier instant and the second pass, once the clock has gone back, the later.
  */
 import { formatInTimeZone, fromZonedTime } from 'date-fns-tz';
 
@@ -73,11 +75,15 @@ function wallToInstant(w: Wall, timeZone: string): ReadTime | null {
   const text = wallText(w);
   const atMs = fromZonedTime(text, timeZone).getTime();
   if (!Number.isFinite(atMs)) return null;
-  // Ambiguous when, an hour later (every fold of the tz database is 1 h but Lord Howe's 30 min),
-  // the zone's wall clock shows this same time again.
+  // Ambiguous when, a fold's length away (every fold of the tz database is 1 h but Lord Howe's
+  // 30 min), the zone's wall clock shows this same time again: date-fns-tz may have picked either
+  // instant, so both are named, the earlier first.
   for (const stepMs of [3_600_000, 1_800_000]) {
     if (formatInTimeZone(atMs + stepMs, timeZone, WALL_FORMAT) === text) {
       return { atMs, laterMs: atMs + stepMs };
+    }
+    if (formatInTimeZone(atMs - stepMs, timeZone, WALL_FORMAT) === text) {
+      return { atMs: atMs - stepMs, laterMs: atMs };
     }
   }
   return { atMs };
