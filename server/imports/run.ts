@@ -1,8 +1,8 @@
 /**
  * The import job: one uploaded file becomes one sensor's readings, whole or not at all.
  *
- * 1. Stream the object from storage through papaparse (measured faster than csv-parse here,
- *    README "CSV import"), reading each line through the chosen columns (ingest/importRows.ts)
+ * 1. Stream the object from storage through papaparse (already a dependency; SETUP-NOTES
+ *    measured it faster than csv-parse on this machine — not re-measured here), reading each line through the chosen columns (ingest/importRows.ts)
  *    and the live checks (ingest/derive.ts `deriveAir`): rejected lines are kept with their
  *    line numbers and reasons.
  * 2. Derive every accepted reading exactly as a live batch is derived
