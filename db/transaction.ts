@@ -38,10 +38,10 @@ export async function inTransaction<T>(
  * of the server's CPU when it ran for every transaction. The instance holds nothing of a
  * transaction, only the client, and goes with it (a broken client is dropped, and its entry with it).
  */
-const drizzleOfClient = new WeakMap<pg.PoolClient, Db>();
+const drizzleOfClient = new WeakMap<pg.PoolClient | pg.Client, Db>();
 
 /** Drizzle over a transaction's client, for query files written with it. */
-export function drizzleOn(client: pg.PoolClient): Db {
+export function drizzleOn(client: pg.PoolClient | pg.Client): Db {
   let db = drizzleOfClient.get(client);
   if (!db) {
     db = drizzle(client, { schema, casing: 'snake_case' });

@@ -14,3 +14,5 @@ export * from './wetness';
 export * from './alarmKinds';
 export * from './alarmRules';
 export * from './words';
+export * from './importTime';
+export * from './importRows';

@@ -20,6 +20,7 @@ import type { SensorTokenCache } from './auth/sensorTokens';
 import type { SessionSigner } from './auth/session';
 import type { TrustProxy } from './config';
 import type { Logger } from './logger';
+import type { ImportJobs } from './jobs/importJob';
 import type { SurfaceEstimator } from './readings/surfaceEstimates';
 import type { Storage } from './storage';
 import type { ReadingWriter } from './readings/writer';
@@ -28,6 +29,7 @@ import { outboxRouter, type Mailer, type Outbox } from './mail';
 import { alarmsRouter } from './routes/alarms';
 import { authRouter } from './routes/auth';
 import { healthRouter } from './routes/health';
+import { importsRouter } from './routes/imports';
 import { ingestRouter } from './routes/ingest';
 import { invitationsRouter } from './routes/invitations';
 import { meRouter } from './routes/me';
@@ -58,8 +60,10 @@ export interface AppDeps {
   /** Per-sensor request limit of the ingest route; the default suits real sensors. */
   sensorRate?: RateLimitOptions;
   mailer: Mailer;
-  /** Photo storage (server/storage/); omitted, photo uploads and reads answer 503. */
+  /** Photo and import file storage (server/storage/); omitted, uploads and reads answer 503. */
   storage?: Storage;
+  /** Queues CSV imports (server/jobs/importJob.ts); omitted, starting an import answers 503. */
+  imports?: ImportJobs;
   /** Where people reach the app (links in e-mail; a trusted origin). */
   publicUrl: string;
   /** Host header values answered (server/auth/hosts.ts); every other gets 421. */
@@ -124,6 +128,10 @@ export function createApp(deps: AppDeps): express.Express {
   api.use('/shops', shopsRouter(db, tokens, deps.storage));
   api.use('/shops/:shopId/zones/:zoneId/readings', readingsRouter(db, now));
   api.use('/shops/:shopId/zones', zonesRouter(db, tokens));
+  api.use(
+    '/shops/:shopId/sensors/:sensorId/imports',
+    importsRouter(db, deps.storage, deps.imports, now),
+  );
   api.use('/shops/:shopId/sensors', sensorsRouter(db, tokens));
   api.use('/shops/:shopId/alarms', alarmsRouter(db, deps.pool, now));
   api.use('/shops/:shopId/reports', reportsRouter(db, now));

@@ -16,6 +16,8 @@ import { createSessionSigner } from './auth/session';
 import { readConfig } from './config';
 import {
   createAlarmMailQueue,
+  createImportQueue,
+  importJobs,
   queueAlarmMails,
   scheduleAlarmSweep,
   scheduleReadingPartitionMaintenance,
@@ -24,6 +26,7 @@ import {
   scheduleWeekReportMails,
   startJobRunner,
   workAlarmMails,
+  workImports,
 } from './jobs';
 import { startLiveHub } from './live/hub';
 import { createLogger, type Logger } from './logger';
@@ -53,6 +56,9 @@ async function main() {
   // pg-boss first: the engine queues each opened alarm's e-mail as a job in its transaction.
   const jobs = await startJobRunner({ databaseUrl: config.databaseUrl, logger });
   await createAlarmMailQueue(jobs);
+  // Before the app answers: a started import's job needs its queue.
+  await createImportQueue(jobs);
+  const storage = config.storage && createS3Storage(config.storage);
   const alarms = createAlarmEngine({
     db,
     pool,
@@ -71,7 +77,8 @@ async function main() {
     alarms,
     webDir: config.webDir,
     mailer: mail.mailer,
-    storage: config.storage && createS3Storage(config.storage),
+    storage,
+    imports: importJobs(jobs),
     publicUrl: config.publicUrl,
     allowedHosts,
     trustProxy: config.trustProxy,
@@ -106,6 +113,8 @@ async function main() {
     // Roll every finished hour up first, so no raw month goes before its hours are kept.
     before: () => runReadingRollup(db, Date.now()),
   });
+  // CSV imports: one at a time on each instance; without storage there are no files to import.
+  if (storage) await workImports(jobs, { db, pool, storage, logger });
   // Monday 07:00 shop time: last week's report to owners and members who keep it on.
   await scheduleWeekReportMails(jobs, {
     db,

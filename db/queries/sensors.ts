@@ -25,18 +25,21 @@ export interface SensorIdentity {
   wetK: number;
 }
 
+/** The columns of a SensorIdentity, selected from sensors joined with their zone. */
+export const identityColumns = {
+  sensorId: sensors.id,
+  shopId: sensors.shopId,
+  zoneId: sensors.zoneId,
+  cautionK: zones.cautionK,
+  wetK: zones.wetK,
+};
+
 export async function findActiveSensorByTokenHash(
   db: Db,
   tokenHash: string,
 ): Promise<SensorIdentity | null> {
   const [row] = await db
-    .select({
-      sensorId: sensors.id,
-      shopId: sensors.shopId,
-      zoneId: sensors.zoneId,
-      cautionK: zones.cautionK,
-      wetK: zones.wetK,
-    })
+    .select(identityColumns)
     .from(sensors)
     .innerJoin(zones, eq(zones.id, sensors.zoneId))
     // A removed sensor is revoked too (removeSensor), so this one test covers both.

@@ -11,3 +11,4 @@ export * from './trials';
 export * from './care';
 export * from './photos';
 export * from './rollups';
+export * from './imports';

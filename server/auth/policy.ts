@@ -114,4 +114,24 @@ export const POLICY: readonly PolicyRow[] = [
   { method: 'GET', path: '/shops/:shopId/photos/:photoId/thumb', access: 'viewer' },
   // A member removes the photos they added (the route checks whose it is); owners any.
   { method: 'DELETE', path: '/shops/:shopId/photos/:photoId', access: 'member' },
+  // CSV imports (API.md): bringing in a logger's history is work done in the shop, so members
+  // import as owners do; viewers see the imports and their rejected lines.
+  { method: 'GET', path: '/shops/:shopId/sensors/:sensorId/imports', access: 'viewer' },
+  { method: 'POST', path: '/shops/:shopId/sensors/:sensorId/imports', access: 'member' },
+  { method: 'GET', path: '/shops/:shopId/sensors/:sensorId/imports/:importId', access: 'viewer' },
+  {
+    method: 'POST',
+    path: '/shops/:shopId/sensors/:sensorId/imports/:importId/start',
+    access: 'member',
+  },
+  {
+    method: 'POST',
+    path: '/shops/:shopId/sensors/:sensorId/imports/:importId/cancel',
+    access: 'member',
+  },
+  {
+    method: 'GET',
+    path: '/shops/:shopId/sensors/:sensorId/imports/:importId/rejected.csv',
+    access: 'viewer',
+  },
 ];

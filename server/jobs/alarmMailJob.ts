@@ -43,7 +43,7 @@ export interface AlarmMailQueueOptions {
 }
 
 /** The connection a transaction from db/transaction.ts runs on. */
-function transactionClient(tx: Tx): pg.PoolClient {
+export function transactionClient(tx: Tx): pg.PoolClient {
   const client = (tx as unknown as { $client?: unknown }).$client;
   if (!(client instanceof pg.Client)) throw new Error('alarm mail: not inside a transaction');
   return client as pg.PoolClient;

@@ -31,3 +31,11 @@ export {
   WEEK_REPORT_QUEUE,
   type WeekReportJobOptions,
 } from './weekReportJob';
+export {
+  createImportQueue,
+  importJobs,
+  IMPORT_QUEUE,
+  workImports,
+  type ImportJobs,
+  type ImportWorkerOptions,
+} from './importJob';

@@ -33,7 +33,8 @@ export interface StoredObject {
 }
 
 export interface Storage {
-  put(key: string, body: Buffer, contentType: string): Promise<void>;
+  /** A stream needs its length in `bytes` (S3 wants Content-Length up front). */
+  put(key: string, body: Buffer | Readable, contentType: string, bytes?: number): Promise<void>;
   /** Null when no object has that key. */
   get(key: string): Promise<StoredObject | null>;
   /** Deleting a missing key is not an error (S3 answers 204 for it too). */
@@ -71,7 +72,7 @@ export function createS3Storage(config: StorageConfig): Storage {
   const Bucket = config.bucket;
 
   return {
-    async put(key, body, contentType) {
+    async put(key, body, contentType, bytes) {
       try {
         await client.send(
           new PutObjectCommand({
@@ -79,7 +80,7 @@ export function createS3Storage(config: StorageConfig): Storage {
             Key: key,
             Body: body,
             ContentType: contentType,
-            ContentLength: body.length,
+            ContentLength: Buffer.isBuffer(body) ? body.length : bytes,
           }),
         );
       } catch (err) {

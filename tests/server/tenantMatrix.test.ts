@@ -8,7 +8,11 @@ import request from 'supertest';
 import sharp from 'sharp';
 import { afterAll, beforeAll, describe, expect, it } from 'vitest';
 
+import type PgBoss from 'pg-boss';
+
 import { insertCareEntry, insertSurface } from '@/db/queries/surfaces';
+import { createImportQueue, importJobs, startJobRunner } from '@/server/jobs';
+import { silentLogger } from '@/server/logger';
 import { POLICY, ROLE_RANK, isShopRole, type PolicyRow } from '@/server/auth/policy';
 
 import { makeTestApp, type TestApp } from '../support/app';
@@ -17,11 +21,21 @@ import { ACTORS, makeWorld, secretsOf, type Actor, type World } from '../support
 
 let t: TestApp;
 let s3: S3Fake;
+// Started imports queue a real pg-boss job (nobody works it here: the matrix is about who may).
+let boss: PgBoss;
 beforeAll(async () => {
   s3 = await startS3Fake();
-  t = makeTestApp({ storage: s3.config });
+  boss = await startJobRunner({
+    databaseUrl: process.env.DATABASE_URL!,
+    logger: silentLogger(),
+    cron: false,
+    schema: 'pgboss_matrix',
+  });
+  await createImportQueue(boss);
+  t = makeTestApp({ storage: s3.config, imports: importJobs(boss) });
 });
 afterAll(async () => {
+  await boss.stop({ graceful: false });
   await t.pool.end();
   await s3.dispose();
 });
@@ -38,6 +52,8 @@ interface Sample {
   body?: (w: World) => object;
   /** Sent as the multipart file field `photo` instead of a JSON body. */
   photo?: () => Promise<Buffer>;
+  /** Sent as the multipart file field `file` (a CSV import) instead of a JSON body. */
+  file?: () => Buffer;
   /** Status for an actor the policy lets through (`default` for all of them). */
   status?: Partial<Record<Actor | 'default', number>>;
 }
@@ -172,7 +188,46 @@ const SAMPLES: Record<string, Sample> = {
   // The owner added it: the member may not delete it, the owner may.
   'DELETE /shops/:shopId/photos/:photoId': { status: { member: 403, owner: 204 } },
   'GET /shops/:shopId/photos/:photoId/thumb': { status: { default: 200 } },
+  'GET /shops/:shopId/sensors/:sensorId/imports': { status: { default: 200 } },
+  'POST /shops/:shopId/sensors/:sensorId/imports': {
+    file: () => Buffer.from(MATRIX_CSV),
+    status: { default: 201 },
+  },
+  // Shop A's import, uploaded by its owner before the actors ask.
+  'GET /shops/:shopId/sensors/:sensorId/imports/:importId': { status: { default: 200 } },
+  // The member starts it; then it is no longer waiting to be started.
+  'POST /shops/:shopId/sensors/:sensorId/imports/:importId/start': {
+    body: () => ({ mapping: MATRIX_MAPPING, remember: false }),
+    status: { member: 202, owner: 409 },
+  },
+  // Cancelling a cancelled import answers it as it is.
+  'POST /shops/:shopId/sensors/:sensorId/imports/:importId/cancel': { status: { default: 200 } },
+  'GET /shops/:shopId/sensors/:sensorId/imports/:importId/rejected.csv': {
+    status: { default: 200 },
+  },
 };
+
+const MATRIX_CSV = 'time,air,rh\n2025-06-01T00:00:00Z,14.2,71\n';
+const MATRIX_MAPPING = {
+  timeColumn: 'time',
+  airColumn: 'air',
+  rhColumn: 'rh',
+  surfaceColumn: null,
+  temperatureUnit: 'C',
+  timeFormat: 'iso',
+  timeZone: 'UTC',
+};
+
+/** An import of shop A's sensor (the file in the S3 fake) when the route names one. */
+async function importFor(row: PolicyRow, w: World): Promise<string | undefined> {
+  if (!row.path.includes(':importId')) return undefined;
+  const res = await request(t.app)
+    .post(`/api/v1/shops/${w.a.id}/sensors/${w.a.sensor.id}/imports`)
+    .set('Cookie', w.owner.cookie)
+    .attach('file', Buffer.from(MATRIX_CSV), 'matrix.csv')
+    .expect(201);
+  return res.body.import.id as string;
+}
 
 /**
  * A surface of shop A, with an inspection logged on it, for the routes that name one (the world
@@ -225,7 +280,7 @@ function pathFor(
   row: PolicyRow,
   w: World,
   shop: World['a'] | World['b'] = w.a,
-  ids: { surfaceId?: string; entryId?: string; photoId?: string } = {},
+  ids: { surfaceId?: string; entryId?: string; photoId?: string; importId?: string } = {},
 ): string {
   const values: Record<string, string | undefined> = {
     ...ids,
@@ -256,11 +311,13 @@ async function call(
   cookie: string | null,
   body?: object,
   photo?: Buffer,
+  file?: Buffer,
 ) {
   const method = row.method.toLowerCase() as 'get' | 'post' | 'patch' | 'put' | 'delete';
   let req = request(t.app)[method](`/api/v1${path}`);
   if (cookie) req = req.set('Cookie', cookie);
   if (photo) return req.attach('photo', photo, 'matrix.jpg');
+  if (file) return req.attach('file', file, 'matrix.csv');
   return body ? req.send(body) : req;
 }
 
@@ -290,6 +347,7 @@ describe('tenant matrix (generated from server/auth/policy.ts)', () => {
       [
         'alarmId',
         'entryId',
+        'importId',
         'invitationId',
         'photoId',
         'sensorId',
@@ -330,6 +388,10 @@ describe('tenant matrix (generated from server/auth/policy.ts)', () => {
         'POST /shops/:shopId/surfaces/:surfaceId/care/:entryId/photos',
         'POST /shops/:shopId/trials/:trialId/tests/:testId/photos',
         'DELETE /shops/:shopId/photos/:photoId',
+        // Bringing in a logger's history is shop work too (the imports contract).
+        'POST /shops/:shopId/sensors/:sensorId/imports',
+        'POST /shops/:shopId/sensors/:sensorId/imports/:importId/start',
+        'POST /shops/:shopId/sensors/:sensorId/imports/:importId/cancel',
       ].sort(),
     );
   });
@@ -338,7 +400,11 @@ describe('tenant matrix (generated from server/auth/policy.ts)', () => {
     const w = await makeWorld(t);
     const secrets = secretsOf(w);
     const sample = SAMPLES[key(row)] ?? {};
-    const ids = { ...(await surfaceFor(row, w)), photoId: await photoFor(row, w) };
+    const ids = {
+      ...(await surfaceFor(row, w)),
+      photoId: await photoFor(row, w),
+      importId: await importFor(row, w),
+    };
     const photo = await sample.photo?.();
     for (const actor of ACTORS) {
       const res = await call(
@@ -347,6 +413,7 @@ describe('tenant matrix (generated from server/auth/policy.ts)', () => {
         cookieOf(w, actor),
         sample.body?.(w),
         photo,
+        sample.file?.(),
       );
       const where = `${key(row)} as ${actor}: ${res.status} ${(res.text ?? '').slice(0, 200)}`;
       expect(res.status, where).not.toBe(500);
@@ -386,13 +453,18 @@ describe('tenant matrix (generated from server/auth/policy.ts)', () => {
     async (_name, row) => {
       const w = await makeWorld(t);
       const sample = SAMPLES[key(row)] ?? {};
-      const ids = { ...(await surfaceFor(row, w)), photoId: await photoFor(row, w) };
+      const ids = {
+        ...(await surfaceFor(row, w)),
+        photoId: await photoFor(row, w),
+        importId: await importFor(row, w),
+      };
       const res = await call(
         row,
         pathFor(row, w, w.b, ids),
         w.stranger.cookie,
         sample.body?.(w),
         await sample.photo?.(),
+        sample.file?.(),
       );
       expect(res.status, res.text).toBe(404);
       for (const secret of secretsOf(w).a) expect(res.text).not.toContain(secret);

@@ -18,6 +18,7 @@ import { silentLogger, type Logger } from '@/server/logger';
 import { createSurfaceEstimator } from '@/server/readings/surfaceEstimates';
 import { createReadingWriter, type WriterOptions } from '@/server/readings/writer';
 import { VERIFICATION_SUBJECT } from '@/server/mail';
+import type { ImportJobs } from '@/server/jobs';
 import { createS3Storage, type Storage, type StorageConfig } from '@/server/storage';
 
 import { linkToken, waitForMail } from './mail';
@@ -59,6 +60,8 @@ export interface TestAppOptions {
   storage?: StorageConfig;
   /** Fault tests wrap the real store to make one call fail at a chosen moment. */
   wrapStorage?: (storage: Storage) => Storage;
+  /** Queues CSV imports (pg-boss, tests/support/imports.ts); omitted, start answers 503. */
+  imports?: ImportJobs;
 }
 
 /** Where links in test e-mail point; also a trusted origin of the test app. */
@@ -126,6 +129,7 @@ export function makeTestApp(options: TestAppOptions = {}) {
     mailer,
     storage:
       options.storage && (options.wrapStorage ?? ((s) => s))(createS3Storage(options.storage)),
+    imports: options.imports,
     publicUrl: TEST_PUBLIC_URL,
     allowedHosts: options.allowedHosts ?? TEST_ALLOWED_HOSTS,
     trustProxy: options.trustProxy,
