@@ -13,3 +13,4 @@ export * from './reports';
 export * from './trials';
 export * from './surfaces';
 export * from './photos';
+export * from './imports';

@@ -4,6 +4,7 @@
  * Types only, besides the path, so the app's bundle gets nothing from here but a string.
  */
 import type { Alarm } from './alarms';
+import type { ImportMessage } from './imports';
 import type { LatestReading } from './zones';
 
 /** Where the live socket upgrades; the server answers 404 on any other path. */
@@ -64,4 +65,4 @@ export interface ShopChangeMessage {
 export type ShopChangeKind = ShopChangeMessage['type'];
 
 export type LiveMessage =
-  ReadingMessage | AlarmMessage | AccessMessage | HelloMessage | ShopChangeMessage;
+  ReadingMessage | AlarmMessage | AccessMessage | HelloMessage | ShopChangeMessage | ImportMessage;
