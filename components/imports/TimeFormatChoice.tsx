@@ -64,10 +64,12 @@ export function TimeFormatChoice({
               ]}
             >
               <View style={[styles.dot, selected && styles.dotOn]} />
-              <Text style={[styles.name, selected && styles.selectedText]}>{words.label}</Text>
-              <Text style={[styles.example, tabular, selected && styles.selectedText]}>
-                {words.example}
-              </Text>
+              <View style={styles.words}>
+                <Text style={[styles.name, selected && styles.selectedText]}>{words.label}</Text>
+                <Text style={[styles.example, tabular, selected && styles.selectedText]}>
+                  {words.example}
+                </Text>
+              </View>
             </Pressable>
           );
         })}
@@ -91,9 +93,8 @@ const styles = StyleSheet.create({
   option: {
     minHeight: TAP_TARGET_PX,
     flexDirection: 'row',
-    flexWrap: 'wrap',
     alignItems: 'center',
-    columnGap: space.md,
+    gap: space.md,
     paddingHorizontal: space.md,
     paddingVertical: space.xs,
     borderRadius: radius.control,
@@ -112,7 +113,8 @@ const styles = StyleSheet.create({
     borderColor: colors.iron,
   },
   dotOn: { borderColor: colors.card, backgroundColor: colors.card },
-  name: { fontFamily: fonts.medium, fontSize: 13, color: colors.ink, minWidth: 150 },
+  words: { flex: 1, minWidth: 0 },
+  name: { fontFamily: fonts.medium, fontSize: 13, color: colors.ink },
   example: { fontFamily: fonts.regular, fontSize: 13, color: colors.iron },
   selectedText: { color: colors.card },
   sample: { fontFamily: fonts.medium, color: colors.ink },

@@ -11,6 +11,7 @@ import {
   useQueryClient,
   type QueryClient,
 } from '@tanstack/react-query';
+import { useEffect } from 'react';
 
 import type {
   Import,
@@ -97,13 +98,20 @@ export function useImportQuery(
   importId: string,
   liveOpen: boolean,
 ) {
-  return useQuery({
+  const queryClient = useQueryClient();
+  const query = useQuery({
     ...importQueryOptions(shopId, sensorId, importId),
     refetchInterval: (query) => {
       const status = query.state.data?.import.status;
       return status ? importPollMs(status, liveOpen) : false;
     },
   });
+  // A poll's answer is news for the list of past imports too (the socket patches both itself).
+  const fetched = query.data?.import;
+  useEffect(() => {
+    if (fetched) patchImportList(queryClient, shopId, fetched);
+  }, [queryClient, shopId, fetched]);
+  return query;
 }
 
 /**
@@ -214,6 +222,11 @@ export function patchImport(queryClient: QueryClient, shopId: string, next: Impo
     importKeys.one(shopId, next.sensorId, next.id),
     (previous) => (previous && !isImportNewer(previous.import, next) ? previous : { import: next }),
   );
+  patchImportList(queryClient, shopId, next);
+}
+
+/** An import as it now stands into its sensor's list, when the list is loaded. */
+export function patchImportList(queryClient: QueryClient, shopId: string, next: Import): void {
   queryClient.setQueryData<ImportsResponse>(importKeys.list(shopId, next.sensorId), (previous) => {
     if (!previous) return previous;
     const at = previous.imports.findIndex((held) => held.id === next.id);
