@@ -63,3 +63,12 @@ export function careHref(shopId: string): string {
 export function surfaceHref(shopId: string, surfaceId: string): string {
   return `${careHref(shopId)}/${encodeURIComponent(surfaceId)}`;
 }
+
+export function sensorsHref(shopId: string): string {
+  return shopSectionHref(shopId, 'sensors');
+}
+
+/** One sensor's page: what the list knows of it, and its imports of logger files. */
+export function sensorHref(shopId: string, sensorId: string): string {
+  return `${sensorsHref(shopId)}/${encodeURIComponent(sensorId)}`;
+}

@@ -1,9 +1,8 @@
 import { formatInTimeZone } from 'date-fns-tz';
-import { Link } from 'expo-router';
 import { StyleSheet, Text, View } from 'react-native';
 
 import { careHref } from '@/components/hrefs';
-import { useBreakpoints } from '@/components/layout';
+import { BackLink, useBreakpoints } from '@/components/layout';
 import { SubjectPhotos } from '@/components/photos/SubjectPhotos';
 import {
   photoPaths,
@@ -16,7 +15,7 @@ import {
   type SurfaceDetail,
 } from '@/components/queries';
 import { useFrameShop } from '@/components/shop/ShopFrame';
-import { colors, space, TAP_TARGET_PX, type } from '@/components/theme';
+import { space, type } from '@/components/theme';
 import { Notice, useDocumentTitle, useNow } from '@/components/ui';
 import { CARE_KIND_WORDS, SURFACE_SOURCE_WORDS } from '@/ingest/words';
 
@@ -38,7 +37,7 @@ export function SurfaceScreen({ surfaceId }: { surfaceId: string }) {
   if (surface.isError) {
     return (
       <>
-        <BackLink shopId={shop.id} />
+        <BackLink href={careHref(shop.id)} label="All surfaces" />
         <Notice title="The surface could not be loaded" testID="surface-error">
           {surface.error.message}
         </Notice>
@@ -104,7 +103,7 @@ function SurfaceBody({ shop, surface }: { shop: ShopSummary; surface: SurfaceDet
   ) : null;
   return (
     <>
-      <BackLink shopId={shop.id} />
+      <BackLink href={careHref(shop.id)} label="All surfaces" />
       <View style={styles.head}>
         <Text style={type.title} role="heading" aria-level={2} testID="surface-name-heading">
           {surface.name}
@@ -136,24 +135,9 @@ function SurfaceBody({ shop, surface }: { shop: ShopSummary; surface: SurfaceDet
   );
 }
 
-function BackLink({ shopId }: { shopId: string }) {
-  return (
-    <Link href={careHref(shopId)} style={styles.link}>
-      ← All surfaces
-    </Link>
-  );
-}
-
 const styles = StyleSheet.create({
   head: { gap: space.xs },
   columns: { flexDirection: 'row', alignItems: 'flex-start', gap: space.xl },
   wideColumn: { flex: 3, minWidth: 0, gap: space.lg },
   column: { flex: 2, minWidth: 0, gap: space.lg },
-  link: {
-    ...type.body,
-    color: colors.air,
-    alignSelf: 'flex-start',
-    minHeight: TAP_TARGET_PX,
-    paddingVertical: (TAP_TARGET_PX - type.body.lineHeight) / 2,
-  },
 });

@@ -13,3 +13,4 @@ export { NotFoundScreen } from './NotFoundScreen';
 export { Screen } from './Screen';
 export { ScreenTitle } from './ScreenTitle';
 export { ShopNav } from './ShopNav';
+export { BackLink } from './BackLink';

@@ -7,14 +7,17 @@ import type { QueryClient } from '@tanstack/react-query';
 import {
   alarmKeys,
   appendReadingPoint,
+  importKeys,
   invalidateZoneExposures,
   meKeys,
   patchAlarm,
+  patchImport,
   patchSensorSeen,
   patchZoneLatest,
   readingKeys,
   sensorKeys,
   zoneKeys,
+  type ImportAnswer,
 } from '@/components/queries';
 
 import type { LiveMessage } from './messages';
@@ -62,6 +65,18 @@ export function applyLiveMessage(queryClient: QueryClient, message: LiveMessage)
     }
     case 'sensors': {
       void queryClient.invalidateQueries({ queryKey: sensorKeys.list(message.shopId) });
+      return;
+    }
+    case 'import': {
+      const held = queryClient.getQueryData<ImportAnswer>(
+        importKeys.one(message.shopId, message.import.sensorId, message.import.id),
+      );
+      patchImport(queryClient, message.shopId, message.import);
+      // A finished import's readings are stored now: charts and cards read them again, once.
+      if (message.import.status === 'done' && held?.import.status !== 'done') {
+        void queryClient.invalidateQueries({ queryKey: readingKeys.all });
+        void queryClient.invalidateQueries({ queryKey: zoneKeys.shop(message.shopId) });
+      }
       return;
     }
     case 'access': {

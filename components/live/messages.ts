@@ -14,6 +14,7 @@ import type {
   ShopChangeMessage,
 } from '@/ingest/wire/live';
 import { ALARM_VALUE_KEYS } from '@/ingest/wire/alarms';
+import { IMPORT_STATUSES, type Import, type ImportMessage } from '@/ingest/wire/imports';
 import { LEVELS as LEVEL_LIST, SURFACE_SOURCES } from '@/ingest/wire/levels';
 
 export type { LiveAlarm, LiveReading };
@@ -32,9 +33,15 @@ export type LiveAccessMessage = AccessMessage;
 
 export type LiveShopChangeMessage = ShopChangeMessage;
 
+export type LiveImportMessage = ImportMessage;
+
 /** The messages the app acts on; `hello` and anything newer are dropped. */
 export type LiveMessage =
-  LiveReadingMessage | LiveAlarmMessage | LiveAccessMessage | LiveShopChangeMessage;
+  | LiveReadingMessage
+  | LiveAlarmMessage
+  | LiveAccessMessage
+  | LiveShopChangeMessage
+  | LiveImportMessage;
 
 const LEVELS: readonly string[] = LEVEL_LIST;
 const SOURCES: readonly string[] = SURFACE_SOURCES;
@@ -99,6 +106,33 @@ function isAlarm(value: unknown): value is LiveAlarm {
   );
 }
 
+const STATUSES: readonly string[] = IMPORT_STATUSES;
+const isCount = (value: unknown) => isNumber(value) && value >= 0;
+const isTimeOrNull = (value: unknown) => value === null || isTime(value);
+
+function isImport(value: unknown): value is Import {
+  if (!isObject(value)) return false;
+  const error = value.error;
+  return (
+    typeof value.id === 'string' &&
+    typeof value.sensorId === 'string' &&
+    typeof value.fileName === 'string' &&
+    isCount(value.bytes) &&
+    typeof value.status === 'string' &&
+    STATUSES.includes(value.status) &&
+    isCount(value.rowsRead) &&
+    isCount(value.rowsStored) &&
+    isCount(value.rowsDuplicate) &&
+    isCount(value.rowsRejected) &&
+    isTimeOrNull(value.firstAt) &&
+    isTimeOrNull(value.lastAt) &&
+    (error === null ||
+      (isObject(error) && typeof error.code === 'string' && typeof error.message === 'string')) &&
+    isTime(value.createdAt) &&
+    isTimeOrNull(value.finishedAt)
+  );
+}
+
 /** The message in a WebSocket frame, or null for anything we do not (yet) understand. */
 export function parseLiveMessage(data: unknown): LiveMessage | null {
   if (typeof data !== 'string') return null;
@@ -116,6 +150,10 @@ export function parseLiveMessage(data: unknown): LiveMessage | null {
   if (isObject(value) && (value.type === 'zones' || value.type === 'sensors')) {
     if (typeof value.shopId !== 'string') return null;
     return { type: value.type, shopId: value.shopId };
+  }
+  if (isObject(value) && value.type === 'import') {
+    if (typeof value.shopId !== 'string' || !isImport(value.import)) return null;
+    return { type: 'import', shopId: value.shopId, import: value.import };
   }
   if (isObject(value) && value.type === 'alarm') {
     if (typeof value.shopId !== 'string' || !isAlarm(value.alarm)) return null;

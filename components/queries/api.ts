@@ -102,3 +102,36 @@ export async function apiRequest<T>(path: string, options: RequestOptions = {}):
   }
   return parsed as T;
 }
+
+/**
+ * POSTs one file as a multipart field, with the session cookie. The browser sets the multipart
+ * Content-Type with its boundary itself, so none is given here. A refusal comes back as the
+ * server's own ApiError (413 too large, 415 not the right kind, 400 a file it cannot read).
+ */
+export async function apiUpload<T>(
+  path: string,
+  field: string,
+  file: Blob,
+  filename: string,
+): Promise<T> {
+  const body = new FormData();
+  body.append(field, file, filename);
+  let response: Response;
+  try {
+    response = await fetch(path, {
+      method: 'POST',
+      credentials: 'same-origin',
+      headers: { Accept: 'application/json' },
+      body,
+    });
+  } catch {
+    throw new ApiError(
+      NETWORK_ERROR_STATUS,
+      'network',
+      'Drybench cannot be reached. Check the connection and try again.',
+    );
+  }
+  const parsed: unknown = await response.json().catch(() => undefined);
+  if (!response.ok) throw parseErrorBody(response.status, parsed);
+  return parsed as T;
+}

@@ -7,7 +7,7 @@ import { useMutation, useQueryClient, type QueryKey } from '@tanstack/react-quer
 
 import type { CreatedPhoto } from '@/ingest/wire';
 
-import { ApiError, apiRequest, NETWORK_ERROR_STATUS, parseErrorBody } from './api';
+import { apiRequest, apiUpload } from './api';
 import { shopPath } from './shops';
 
 // The shapes are the server's own (ingest/wire/photos.ts); screens import them from here.
@@ -23,36 +23,9 @@ export const photoPaths = {
   one: (shopId: string, photoId: string) => `${shopPath(shopId)}/photos/${id(photoId)}`,
 };
 
-/**
- * POSTs one file as the multipart field `photo`, with the session cookie. The browser sets the
- * multipart Content-Type with its boundary itself, so none is given here. Errors come back as
- * the server's own (413 too large, 415 not an image, 503 storage away).
- */
-export async function uploadPhoto(
-  path: string,
-  file: Blob,
-  filename: string,
-): Promise<CreatedPhoto> {
-  const body = new FormData();
-  body.append('photo', file, filename);
-  let response: Response;
-  try {
-    response = await fetch(path, {
-      method: 'POST',
-      credentials: 'same-origin',
-      headers: { Accept: 'application/json' },
-      body,
-    });
-  } catch {
-    throw new ApiError(
-      NETWORK_ERROR_STATUS,
-      'network',
-      'Drybench cannot be reached. Check the connection and try again.',
-    );
-  }
-  const parsed: unknown = await response.json().catch(() => undefined);
-  if (!response.ok) throw parseErrorBody(response.status, parsed);
-  return parsed as CreatedPhoto;
+/** POSTs one photo as the multipart field `photo` (413 too large, 415 not an image, 503 storage away). */
+export function uploadPhoto(path: string, file: Blob, filename: string): Promise<CreatedPhoto> {
+  return apiUpload<CreatedPhoto>(path, 'photo', file, filename);
 }
 
 export function usePhotoUploadMutation(path: string, refresh: QueryKey) {

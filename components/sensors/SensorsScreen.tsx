@@ -1,8 +1,8 @@
+import { Link } from 'expo-router';
 import { useEffect, useState } from 'react';
 import { Controller } from 'react-hook-form';
 import { StyleSheet, Text, View } from 'react-native';
 
-import { formatLastSeen } from '@/components/format';
 import {
   Button,
   Choice,
@@ -28,10 +28,11 @@ import {
   type Zone,
 } from '@/components/queries';
 import { useFrameShop } from '@/components/shop/ShopFrame';
-import { colors, space, tabular, type } from '@/components/theme';
-import { Notice, Panel, useDocumentTitle, useNow } from '@/components/ui';
-import { intervalWords } from '@/ingest/words';
+import { sensorHref } from '@/components/hrefs';
+import { colors, space, TAP_TARGET_PX, type } from '@/components/theme';
+import { Notice, Panel, useDocumentTitle } from '@/components/ui';
 
+import { SensorFacts } from './SensorFacts';
 import { TokenReveal } from './TokenReveal';
 
 /** A shop's sensors: where each sits, when it was last heard, its battery; owners manage them. */
@@ -106,7 +107,6 @@ interface SensorCardProps {
 }
 
 function SensorCard({ sensor, shop, zones, onToken }: SensorCardProps) {
-  const now = useNow();
   const rotate = useSensorRotateMutation(shop.id);
   const revoke = useSensorRevokeMutation(shop.id);
   const move = useSensorMoveMutation(shop.id);
@@ -126,13 +126,10 @@ function SensorCard({ sensor, shop, zones, onToken }: SensorCardProps) {
   return (
     <Panel testID="sensor-card">
       <View style={styles.cardTop}>
-        <Text
-          style={[type.heading, styles.grow]}
-          role="heading"
-          aria-level={2}
-          testID="sensor-name"
-        >
-          {sensor.name}
+        <Text style={[type.heading, styles.grow]} role="heading" aria-level={2}>
+          <Link href={sensorHref(shop.id, sensor.id)} style={styles.nameLink} testID="sensor-name">
+            {sensor.name}
+          </Link>
         </Text>
         {revoked ? (
           <Text style={[type.label, styles.revoked]} testID="sensor-revoked">
@@ -140,31 +137,7 @@ function SensorCard({ sensor, shop, zones, onToken }: SensorCardProps) {
           </Text>
         ) : null}
       </View>
-      <View style={styles.facts}>
-        <Fact label="Zone" value={sensor.zoneName} />
-        <Fact
-          label="Last seen"
-          value={
-            sensor.lastSeenAt ? formatLastSeen(sensor.lastSeenAt, now, shop.timeZone) : 'never'
-          }
-          testID="sensor-last-seen"
-        />
-        <Fact
-          label="Battery"
-          value={sensor.batteryV === null ? '—' : `${sensor.batteryV.toFixed(2)} V`}
-          testID="sensor-battery"
-        />
-        <Fact
-          label={INTERVAL_SOURCE_WORDS[sensor.interval.source]}
-          value={intervalWords(sensor.interval.effectiveS)}
-          testID="sensor-interval"
-        />
-        <Fact
-          label="Silent after"
-          value={`${Math.round(sensor.interval.silentAfterS / 60)} min quiet`}
-          testID="sensor-silent-after"
-        />
-      </View>
+      <SensorFacts sensor={sensor} timeZone={shop.timeZone} />
       {shop.role === 'owner' ? (
         <View style={styles.actions}>
           <ConfirmButton
@@ -248,12 +221,6 @@ function SensorCard({ sensor, shop, zones, onToken }: SensorCardProps) {
   );
 }
 
-const INTERVAL_SOURCE_WORDS = {
-  set: 'Posts (set)',
-  learned: 'Posts (learnt)',
-  default: 'Posts (assumed)',
-} as const;
-
 /** Set intervals offered on the card; the API takes any from 10 s to a day. */
 const INTERVAL_CHOICES = [
   { value: 'learn', label: 'Learn it' },
@@ -262,17 +229,6 @@ const INTERVAL_CHOICES = [
   { value: '900', label: '15 min' },
   { value: '3600', label: '1 h' },
 ] as const;
-
-function Fact({ label, value, testID }: { label: string; value: string; testID?: string }) {
-  return (
-    <View style={styles.fact}>
-      <Text style={type.small}>{label}</Text>
-      <Text style={[type.body, tabular]} testID={testID}>
-        {value}
-      </Text>
-    </View>
-  );
-}
 
 interface NewSensorFormProps {
   shopId: string;
@@ -351,9 +307,16 @@ const styles = StyleSheet.create({
   list: { gap: space.md },
   cardTop: { flexDirection: 'row', alignItems: 'flex-start', gap: space.md },
   grow: { flex: 1 },
+  // A block link at least a tap target high, underlined so it reads as one without colour.
+  nameLink: {
+    ...type.heading,
+    color: colors.air,
+    textDecorationLine: 'underline',
+    display: 'flex',
+    minHeight: TAP_TARGET_PX,
+    paddingVertical: (TAP_TARGET_PX - type.heading.lineHeight) / 2,
+  },
   revoked: { color: colors.wet },
-  facts: { flexDirection: 'row', flexWrap: 'wrap', rowGap: space.sm },
-  fact: { width: '33%', minWidth: 110, gap: 2 },
   actions: { flexDirection: 'row', flexWrap: 'wrap', gap: space.sm },
   form: { gap: space.lg },
 });

@@ -70,8 +70,21 @@ const SHOP_PAGES: Record<string, ShopFramePage> = {
   profile: { active: 'profile', title: 'Profile', heading: 'Profile', wide: false, banner: false },
 };
 
-/** The frame's settings for the page whose path segment follows the shop id (none: the overview). */
-export function shopFramePageOf(segment: string | undefined): ShopFramePage {
+/** One sensor's page (sensors/[sensorId]): its import takes the content width on a wide screen. */
+const SENSOR_PAGE: ShopFramePage = {
+  active: 'sensors',
+  title: 'Sensor',
+  heading: 'Sensors',
+  wide: true,
+  banner: false,
+};
+
+/**
+ * The frame's settings for the page whose path segment follows the shop id (none: the overview);
+ * `detail`, the segment after it, tells one sensor's page from the list.
+ */
+export function shopFramePageOf(segment: string | undefined, detail?: string): ShopFramePage {
+  if (segment === 'sensors' && detail !== undefined && detail !== 'index') return SENSOR_PAGE;
   return SHOP_PAGES[segment ?? 'index'] ?? ZONES_PAGE;
 }
 

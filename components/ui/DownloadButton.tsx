@@ -11,6 +11,8 @@ const FORMAT_WORDS: Record<FileFormat, string> = { csv: 'CSV', pdf: 'PDF' };
 
 interface DownloadButtonProps {
   format: FileFormat;
+  /** The button's words when "Download CSV" alone does not say what ("Download rejected rows (CSV)"). */
+  label?: string;
   /** Fetches the file with the session (components/queries: fetchWeekReportFile, fetchTrialFile). */
   fetchFile: () => Promise<DownloadedFile>;
   /** The name the file is saved under when the server names none. */
@@ -26,7 +28,13 @@ type State = { step: 'idle' } | { step: 'busy' } | { step: 'failed'; message: st
  * under the server's file name. While the file is made the button says so and is busy; a
  * failure keeps the server's sentence beside a retry.
  */
-export function DownloadButton({ format, fetchFile, fallbackName, testID }: DownloadButtonProps) {
+export function DownloadButton({
+  format,
+  label,
+  fetchFile,
+  fallbackName,
+  testID,
+}: DownloadButtonProps) {
   const [state, setState] = useState<State>({ step: 'idle' });
   const words = FORMAT_WORDS[format];
   const busy = state.step === 'busy';
@@ -49,7 +57,7 @@ export function DownloadButton({ format, fetchFile, fallbackName, testID }: Down
   return (
     <View style={styles.box} testID={id}>
       <Button
-        label={busy ? `Preparing ${words}…` : `Download ${words}`}
+        label={busy ? `Preparing ${words}…` : (label ?? `Download ${words}`)}
         variant="quiet"
         disabled={busy}
         busy={busy}

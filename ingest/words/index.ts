@@ -14,3 +14,4 @@ export * from './weekMail';
 export * from './trials';
 export * from './care';
 export * from './importReasons';
+export * from './imports';

@@ -25,6 +25,7 @@ const [owner, member] = DEMO_PEOPLE;
 /** Set up once: the demo shop's first zone and a pending invitation with a long address. */
 let trialId = '';
 let surfaceId = '';
+let sensorId = '';
 let zoneId: string;
 const LONG_INVITEE = 'ana.maria.oyelaran.vasquez@cedarloftjoinery.example';
 
@@ -107,6 +108,8 @@ beforeAll(async () => {
   expect([201, 409]).toContain(res.status);
   trialId = await demoTrial(agent, base);
   surfaceId = await demoSurface(agent, base, zoneId);
+  sensorId = ((await agent.get(`${base}/sensors`).expect(200)).body.sensors as { id: string }[])[0]!
+    .id;
 });
 afterAll(() => suite?.close());
 
@@ -136,6 +139,8 @@ const SIGNED_IN: Route[] = [
   { name: 'alarms', path: () => `${shop()}/alarms` },
   { name: 'report', path: () => `${shop()}/report` },
   { name: 'sensors', path: () => `${shop()}/sensors` },
+  // One sensor: its facts, the logger-file import and its past imports.
+  { name: 'sensor', path: () => `${shop()}/sensors/${sensorId}` },
   { name: 'members', path: () => `${shop()}/members` },
   { name: 'settings', path: () => `${shop()}/settings` },
   { name: 'profile', path: () => `${shop()}/profile` },

@@ -10,7 +10,12 @@ export default function ShopLayout() {
   const path = usePathname();
   return (
     // A new shop gets a new frame, as it got a new page before: the switcher starts closed.
-    <ShopFrame key={shopId} shopId={shopId} page={shopFramePageOf(segments[2])} path={path}>
+    <ShopFrame
+      key={shopId}
+      shopId={shopId}
+      page={shopFramePageOf(segments[2], segments[3])}
+      path={path}
+    >
       <Slot />
     </ShopFrame>
   );
