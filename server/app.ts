@@ -62,6 +62,8 @@ export interface AppDeps {
   storage?: Storage;
   /** Where people reach the app (links in e-mail; a trusted origin). */
   publicUrl: string;
+  /** The MQTT broker the Sensors page shows (config.mqtt.publicUrl); absent when MQTT is off. */
+  mqttPublicUrl?: string;
   /** Host header values answered (server/auth/hosts.ts); every other gets 421. */
   allowedHosts: AllowedHosts;
   /** Express's `trust proxy`: whose X-Forwarded-For names the client (rate limits). Default off. */
@@ -122,7 +124,7 @@ export function createApp(deps: AppDeps): express.Express {
   api.use('/shops', shopsRouter(db, tokens, deps.storage));
   api.use('/shops/:shopId/zones/:zoneId/readings', readingsRouter(db, now));
   api.use('/shops/:shopId/zones', zonesRouter(db, tokens));
-  api.use('/shops/:shopId/sensors', sensorsRouter(db, tokens));
+  api.use('/shops/:shopId/sensors', sensorsRouter(db, tokens, deps.mqttPublicUrl ?? null));
   api.use('/shops/:shopId/alarms', alarmsRouter(db, deps.pool, now));
   api.use('/shops/:shopId/reports', reportsRouter(db, now));
   api.use('/shops/:shopId/trials', trialsRouter(db, now));

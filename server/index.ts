@@ -72,6 +72,7 @@ async function main() {
     mailer: mail.mailer,
     storage: config.storage && createS3Storage(config.storage),
     publicUrl: config.publicUrl,
+    mqttPublicUrl: config.mqtt?.publicUrl,
     allowedHosts,
     trustProxy: config.trustProxy,
     devOutbox: config.devOutbox ? mail.outbox : undefined,

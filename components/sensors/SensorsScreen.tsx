@@ -22,6 +22,7 @@ import {
   useSensorRevokeMutation,
   useSensorRotateMutation,
   useSensorsQuery,
+  useUnitPref,
   useZonesQuery,
   type Sensor,
   type ShopSummary,
@@ -30,8 +31,9 @@ import {
 import { useFrameShop } from '@/components/shop/ShopFrame';
 import { colors, space, tabular, type } from '@/components/theme';
 import { Notice, Panel, useDocumentTitle, useNow } from '@/components/ui';
-import { intervalWords } from '@/ingest/words';
+import { mqttReadingsTopic, MQTT_TOPIC_LABEL, intervalWords } from '@/ingest/words';
 
+import { SensorWaysIn } from './SensorWaysIn';
 import { TokenReveal } from './TokenReveal';
 
 /** A shop's sensors: where each sits, when it was last heard, its battery; owners manage them. */
@@ -51,6 +53,9 @@ function SensorsBody({ shop }: { shop: ShopSummary }) {
   } | null>(null);
   const owner = shop.role === 'owner';
   const zoneList = zones.data?.zones ?? [];
+  const unit = useUnitPref();
+  const mqttUrl = sensors.data?.mqtt?.url ?? null;
+  const firstSensor = sensors.data?.sensors.find((s) => s.revokedAt === null) ?? null;
 
   return (
     <>
@@ -59,6 +64,7 @@ function SensorsBody({ shop }: { shop: ShopSummary }) {
           {...issued}
           shopId={shop.id}
           timeZone={shop.timeZone}
+          mqttUrl={mqttUrl}
           onDone={() => setIssued(null)}
         />
       ) : null}
@@ -80,6 +86,7 @@ function SensorsBody({ shop }: { shop: ShopSummary }) {
               sensor={sensor}
               shop={shop}
               zones={zoneList}
+              mqttOn={mqttUrl !== null}
               onToken={(token) =>
                 setIssued({ sensorId: sensor.id, sensorName: sensor.name, token })
               }
@@ -94,6 +101,7 @@ function SensorsBody({ shop }: { shop: ShopSummary }) {
           onCreated={(sensorId, sensorName, token) => setIssued({ sensorId, sensorName, token })}
         />
       ) : null}
+      {sensors.data ? <SensorWaysIn mqttUrl={mqttUrl} example={firstSensor} unit={unit} /> : null}
     </>
   );
 }
@@ -102,10 +110,12 @@ interface SensorCardProps {
   sensor: Sensor;
   shop: ShopSummary;
   zones: Zone[];
+  /** Show the sensor's MQTT topic (the server takes MQTT). */
+  mqttOn: boolean;
   onToken: (token: string) => void;
 }
 
-function SensorCard({ sensor, shop, zones, onToken }: SensorCardProps) {
+function SensorCard({ sensor, shop, zones, mqttOn, onToken }: SensorCardProps) {
   const now = useNow();
   const rotate = useSensorRotateMutation(shop.id);
   const revoke = useSensorRevokeMutation(shop.id);
@@ -154,6 +164,13 @@ function SensorCard({ sensor, shop, zones, onToken }: SensorCardProps) {
           value={sensor.batteryV === null ? '—' : `${sensor.batteryV.toFixed(2)} V`}
           testID="sensor-battery"
         />
+        {mqttOn ? (
+          <Fact
+            label={MQTT_TOPIC_LABEL}
+            value={mqttReadingsTopic(sensor.id)}
+            testID="sensor-mqtt-topic"
+          />
+        ) : null}
         <Fact
           label={INTERVAL_SOURCE_WORDS[sensor.interval.source]}
           value={intervalWords(sensor.interval.effectiveS)}

@@ -13,3 +13,4 @@ export * from './report';
 export * from './weekMail';
 export * from './trials';
 export * from './care';
+export * from './mqtt';
