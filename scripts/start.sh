@@ -19,7 +19,7 @@ cleanup() {
   for pid in "${pids[@]}"; do kill -TERM "$pid" 2>/dev/null || true; done
   wait 2>/dev/null || true
   bash scripts/db.sh stop "$PG_NAME"
-  echo "Stopped the server, the demo sensors, the S3 fake and PostgreSQL."
+  echo "Stopped the server, the demo sensors, the MQTT broker, the S3 fake and PostgreSQL."
 }
 trap cleanup EXIT INT TERM
 
@@ -27,6 +27,11 @@ trap cleanup EXIT INT TERM
 secret_file=.data/session-secret
 [ -s "$secret_file" ] || (umask 077 && head -c 48 /dev/urandom | base64 | tr -d '\n' > "$secret_file")
 export SESSION_SECRET=$(cat "$secret_file")
+# The MQTT broker's service password, shared by the broker and the server, made the same way.
+mqtt_secret_file=.data/mqtt-password
+[ -s "$mqtt_secret_file" ] || (umask 077 && head -c 33 /dev/urandom | base64 | tr -d '\n/+' > "$mqtt_secret_file")
+export MQTT_PASSWORD=$(cat "$mqtt_secret_file")
+MQTT_PORT=${MQTT_PORT:-1883}
 export WEB_DIR=dist
 # Mail goes to the server's own SMTP server on loopback; /dev/outbox shows what it received.
 export DEV_OUTBOX=${DEV_OUTBOX:-true}
@@ -49,17 +54,26 @@ fi
 bash scripts/build-web.sh
 bash scripts/build-server.sh
 
+# Our MQTT broker (server/mqtt/broker.ts) on loopback: sensors' tokens are checked against the
+# database, and the server subscribes to it with MQTT_PASSWORD.
+MQTT_PORT=$MQTT_PORT "${run_ts[@]}" scripts/broker.ts &
+pids+=($!)
+export MQTT_URL=mqtt://127.0.0.1:$MQTT_PORT
+
 node --enable-source-maps .build/server.mjs &
 pids+=($!)
 for _ in $(seq 1 100); do
   node -e "fetch('http://127.0.0.1:$PORT/api/v1/health').then((r) => process.exit(r.ok ? 0 : 1), () => process.exit(1))" && break
   sleep 0.2
 done
-"${run_ts[@]}" scripts/simulate.ts --url "http://127.0.0.1:$PORT" --tokens "$tokens" &
+# One demo sensor publishes over MQTT, the others post over HTTP.
+"${run_ts[@]}" scripts/simulate.ts --url "http://127.0.0.1:$PORT" --tokens "$tokens" \
+  --mqtt "$MQTT_URL" --mqtt-sensors 1 &
 pids+=($!)
 
 echo
 echo "Drybench is running: http://127.0.0.1:$PORT   (Ctrl-C stops everything)"
+echo "MQTT broker for sensors: mqtt://127.0.0.1:$MQTT_PORT"
 [ "$DEV_OUTBOX" = true ] && echo "Mail it sent (invitations, password resets): http://127.0.0.1:$PORT/dev/outbox"
 echo
 wait -n "${pids[@]}" || true

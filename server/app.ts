@@ -66,6 +66,8 @@ export interface AppDeps {
   imports?: ImportJobs;
   /** Where people reach the app (links in e-mail; a trusted origin). */
   publicUrl: string;
+  /** The MQTT broker the Sensors page shows (config.mqtt.publicUrl); absent when MQTT is off. */
+  mqttPublicUrl?: string;
   /** Host header values answered (server/auth/hosts.ts); every other gets 421. */
   allowedHosts: AllowedHosts;
   /** Express's `trust proxy`: whose X-Forwarded-For names the client (rate limits). Default off. */
@@ -132,7 +134,7 @@ export function createApp(deps: AppDeps): express.Express {
     '/shops/:shopId/sensors/:sensorId/imports',
     importsRouter(db, deps.storage, deps.imports, now),
   );
-  api.use('/shops/:shopId/sensors', sensorsRouter(db, tokens));
+  api.use('/shops/:shopId/sensors', sensorsRouter(db, tokens, deps.mqttPublicUrl ?? null));
   api.use('/shops/:shopId/alarms', alarmsRouter(db, deps.pool, now));
   api.use('/shops/:shopId/reports', reportsRouter(db, now));
   api.use('/shops/:shopId/trials', trialsRouter(db, now));

@@ -108,6 +108,18 @@ const envSchema = z.object({
   S3_ACCESS_KEY_ID: z.string().min(1).optional(),
   S3_SECRET_ACCESS_KEY: z.string().min(1).optional(),
   S3_REGION: z.string().min(1).default('us-east-1'),
+  // MQTT ingest (server/mqtt/): the broker the server subscribes to; unset, MQTT is off.
+  MQTT_URL: z
+    .url({ protocol: /^mqtts?$/, error: 'MQTT_URL must be an mqtt:// or mqtts:// URL' })
+    .optional(),
+  // The service account's password (shared with the broker); else the one in MQTT_URL.
+  MQTT_PASSWORD: z.string().min(16).optional(),
+  // The broker address sensors are shown on the Sensors page; else derived (mqttPublicUrlOf).
+  MQTT_PUBLIC_URL: z
+    .url({ protocol: /^mqtts?$/, error: 'MQTT_PUBLIC_URL must be an mqtt:// or mqtts:// URL' })
+    .optional(),
+  // Connections to the broker: mqtt handles one message per connection at a time.
+  MQTT_CONNECTIONS: z.coerce.number().int().min(1).max(32).default(4),
 });
 
 export interface Config {
@@ -144,6 +156,16 @@ export interface Config {
   logLevel: LogLevel;
   /** Where photos are stored; absent when S3_BUCKET is not set. */
   storage?: StorageConfig;
+  /** MQTT ingest; absent when MQTT_URL is not set. */
+  mqtt?: MqttConfig;
+}
+
+export interface MqttConfig {
+  url: string;
+  password?: string;
+  /** What sensors are told to connect to (no credentials in it). */
+  publicUrl: string;
+  connections: number;
 }
 
 /** 127.0.0.0/8, ::1 and the name localhost: addresses only this machine can reach. */
@@ -183,6 +205,15 @@ const checkedEnvSchema = envSchema
     {
       path: ['S3_BUCKET'],
       message: 'S3_BUCKET needs S3_ACCESS_KEY_ID and S3_SECRET_ACCESS_KEY',
+    },
+  )
+  .refine(
+    // The broker refuses the service account without one: say so at start-up.
+    (e) =>
+      e.MQTT_URL === undefined || e.MQTT_PASSWORD !== undefined || new URL(e.MQTT_URL).password,
+    {
+      path: ['MQTT_PASSWORD'],
+      message: 'MQTT_URL needs MQTT_PASSWORD (or a password in the URL) for the service account',
     },
   );
 
@@ -233,7 +264,27 @@ export function readConfig(
             region: e.S3_REGION,
           }
         : undefined,
+    mqtt:
+      e.MQTT_URL !== undefined
+        ? {
+            url: e.MQTT_URL,
+            password: e.MQTT_PASSWORD,
+            publicUrl: e.MQTT_PUBLIC_URL ?? mqttPublicUrlOf(e.MQTT_URL, publicUrl),
+            connections: e.MQTT_CONNECTIONS,
+          }
+        : undefined,
   };
+}
+
+/**
+ * The broker as sensors reach it when MQTT_PUBLIC_URL is not set: MQTT_URL's scheme and port
+ * without its credentials, on PUBLIC_URL's host when MQTT_URL names a loopback one (the
+ * server then shares a machine with the broker, and sensors reach that machine by its name).
+ */
+export function mqttPublicUrlOf(mqttUrl: string, publicUrl: string): string {
+  const broker = new URL(mqttUrl);
+  const host = isLoopbackHost(broker.hostname) ? new URL(publicUrl).hostname : broker.hostname;
+  return `${broker.protocol}//${host}${broker.port ? `:${broker.port}` : ''}`;
 }
 
 /** An IPv6 literal needs brackets inside a URL. */

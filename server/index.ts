@@ -8,6 +8,7 @@ import { createDatabase } from '@/db';
 import { startNotificationListener } from '@/db/listener';
 
 import { createAlarmEngine } from './alarms';
+import { createAlarmQueue } from './alarms/queue';
 import { createApp } from './app';
 import { createS3Storage } from './storage';
 import { allowedHostsOf } from './auth/hosts';
@@ -31,6 +32,7 @@ import {
 import { startLiveHub } from './live/hub';
 import { createLogger, type Logger } from './logger';
 import { startMail } from './mail';
+import { createMessageAnswerer, defaultClientIdPrefix, startMqttIngest } from './mqtt';
 import { createSurfaceEstimator } from './readings/surfaceEstimates';
 import { createReadingWriter } from './readings/writer';
 
@@ -80,6 +82,7 @@ async function main() {
     storage,
     imports: importJobs(jobs),
     publicUrl: config.publicUrl,
+    mqttPublicUrl: config.mqtt?.publicUrl,
     allowedHosts,
     trustProxy: config.trustProxy,
     devOutbox: config.devOutbox ? mail.outbox : undefined,
@@ -124,6 +127,26 @@ async function main() {
     logger,
   });
 
+  // MQTT readings take the HTTP route's pipeline; their alarms go through a queue of their own
+  // (the engine locks each zone it judges, so two queues never judge one zone at once).
+  const mqtt =
+    config.mqtt &&
+    startMqttIngest({
+      url: config.mqtt.url,
+      password: config.mqtt.password,
+      connections: config.mqtt.connections,
+      clientIdPrefix: defaultClientIdPrefix(config.port),
+      answer: createMessageAnswerer({
+        db,
+        writer,
+        estimator,
+        alarms: createAlarmQueue(alarms, logger),
+        now: Date.now,
+        logger,
+      }),
+      logger,
+    });
+
   const server = http.createServer(app);
   hub.attach(server);
   await new Promise<void>((resolve) => server.listen(config.port, config.host, resolve));
@@ -137,6 +160,11 @@ async function main() {
     config.storage
       ? `Drybench photos go to bucket ${config.storage.bucket} at ${config.storage.endpoint ?? `the S3 default for ${config.storage.region}`}`
       : 'Drybench has no photo storage (S3_BUCKET unset): photo uploads answer 503.',
+  );
+  log.info(
+    config.mqtt
+      ? `Drybench shows sensors the MQTT broker ${config.mqtt.publicUrl}`
+      : 'Drybench takes no MQTT readings (MQTT_URL unset).',
   );
   if (config.devOutboxRefusal) log.warn(config.devOutboxRefusal);
   if (!config.publicUrlSet && (config.host === '0.0.0.0' || config.host === '::')) {
@@ -153,6 +181,8 @@ async function main() {
     stopping = true;
     log.info({ signal }, `Drybench server stopping (${signal})…`);
     server.close();
+    // No new messages, and none acknowledged that is not stored: the writer drains after it.
+    await mqtt?.close();
     await writer.close();
     await jobs.stop({ graceful: true, timeout: 10_000 });
     await hub.close();

@@ -4,7 +4,7 @@ import { formatLastSeen } from '@/components/format';
 import type { Sensor } from '@/components/queries';
 import { space, tabular, type } from '@/components/theme';
 import { useNow } from '@/components/ui';
-import { intervalWords } from '@/ingest/words';
+import { intervalWords, mqttReadingsTopic, MQTT_TOPIC_LABEL } from '@/ingest/words';
 
 const INTERVAL_SOURCE_WORDS = {
   set: 'Posts (set)',
@@ -12,8 +12,15 @@ const INTERVAL_SOURCE_WORDS = {
   default: 'Posts (assumed)',
 } as const;
 
-/** What the sensors list knows of a sensor: zone, last seen, battery, interval, silence. */
-export function SensorFacts({ sensor, timeZone }: { sensor: Sensor; timeZone: string }) {
+interface SensorFactsProps {
+  sensor: Sensor;
+  timeZone: string;
+  /** The server takes readings over MQTT too: show the sensor's topic. */
+  mqttOn?: boolean;
+}
+
+/** What the sensors list knows of a sensor: zone, last seen, battery, topic, interval, silence. */
+export function SensorFacts({ sensor, timeZone, mqttOn = false }: SensorFactsProps) {
   const now = useNow();
   return (
     <View style={styles.facts}>
@@ -28,6 +35,13 @@ export function SensorFacts({ sensor, timeZone }: { sensor: Sensor; timeZone: st
         value={sensor.batteryV === null ? '—' : `${sensor.batteryV.toFixed(2)} V`}
         testID="sensor-battery"
       />
+      {mqttOn ? (
+        <Fact
+          label={MQTT_TOPIC_LABEL}
+          value={mqttReadingsTopic(sensor.id)}
+          testID="sensor-mqtt-topic"
+        />
+      ) : null}
       <Fact
         label={INTERVAL_SOURCE_WORDS[sensor.interval.source]}
         value={intervalWords(sensor.interval.effectiveS)}

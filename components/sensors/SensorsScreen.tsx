@@ -22,6 +22,7 @@ import {
   useSensorRevokeMutation,
   useSensorRotateMutation,
   useSensorsQuery,
+  useUnitPref,
   useZonesQuery,
   type Sensor,
   type ShopSummary,
@@ -33,6 +34,7 @@ import { colors, space, TAP_TARGET_PX, type } from '@/components/theme';
 import { Notice, Panel, useDocumentTitle } from '@/components/ui';
 
 import { SensorFacts } from './SensorFacts';
+import { SensorWaysIn } from './SensorWaysIn';
 import { TokenReveal } from './TokenReveal';
 
 /** A shop's sensors: where each sits, when it was last heard, its battery; owners manage them. */
@@ -52,6 +54,9 @@ function SensorsBody({ shop }: { shop: ShopSummary }) {
   } | null>(null);
   const owner = shop.role === 'owner';
   const zoneList = zones.data?.zones ?? [];
+  const unit = useUnitPref();
+  const mqttUrl = sensors.data?.mqtt?.url ?? null;
+  const firstSensor = sensors.data?.sensors.find((s) => s.revokedAt === null) ?? null;
 
   return (
     <>
@@ -60,6 +65,7 @@ function SensorsBody({ shop }: { shop: ShopSummary }) {
           {...issued}
           shopId={shop.id}
           timeZone={shop.timeZone}
+          mqttUrl={mqttUrl}
           onDone={() => setIssued(null)}
         />
       ) : null}
@@ -81,6 +87,7 @@ function SensorsBody({ shop }: { shop: ShopSummary }) {
               sensor={sensor}
               shop={shop}
               zones={zoneList}
+              mqttOn={mqttUrl !== null}
               onToken={(token) =>
                 setIssued({ sensorId: sensor.id, sensorName: sensor.name, token })
               }
@@ -95,6 +102,7 @@ function SensorsBody({ shop }: { shop: ShopSummary }) {
           onCreated={(sensorId, sensorName, token) => setIssued({ sensorId, sensorName, token })}
         />
       ) : null}
+      {sensors.data ? <SensorWaysIn mqttUrl={mqttUrl} example={firstSensor} unit={unit} /> : null}
     </>
   );
 }
@@ -103,10 +111,12 @@ interface SensorCardProps {
   sensor: Sensor;
   shop: ShopSummary;
   zones: Zone[];
+  /** Show the sensor's MQTT topic (the server takes MQTT). */
+  mqttOn: boolean;
   onToken: (token: string) => void;
 }
 
-function SensorCard({ sensor, shop, zones, onToken }: SensorCardProps) {
+function SensorCard({ sensor, shop, zones, mqttOn, onToken }: SensorCardProps) {
   const rotate = useSensorRotateMutation(shop.id);
   const revoke = useSensorRevokeMutation(shop.id);
   const move = useSensorMoveMutation(shop.id);
@@ -137,7 +147,7 @@ function SensorCard({ sensor, shop, zones, onToken }: SensorCardProps) {
           </Text>
         ) : null}
       </View>
-      <SensorFacts sensor={sensor} timeZone={shop.timeZone} />
+      <SensorFacts sensor={sensor} timeZone={shop.timeZone} mqttOn={mqttOn} />
       {shop.role === 'owner' ? (
         <View style={styles.actions}>
           <ConfirmButton

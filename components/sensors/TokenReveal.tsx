@@ -1,5 +1,5 @@
 import { useState } from 'react';
-import { Platform, StyleSheet, Text, View } from 'react-native';
+import { StyleSheet, Text, View } from 'react-native';
 
 import { formatLastSeen, formatMargin } from '@/components/format';
 import { Button } from '@/components/forms';
@@ -14,39 +14,23 @@ import {
 import { READING_FIELD_GUIDE } from '@/ingest/readingFields';
 import { cToF, type TemperatureUnit } from '@/ingest/units';
 import {
-  exampleReadingJson,
   firstReadingText,
   READING_FIELD_WORDS,
   levelWordInline,
+  mqttPublishExample,
 } from '@/ingest/words';
+
+import { apiOrigin, codeStyle, curlExample } from './SensorWaysIn';
 
 interface TokenRevealProps {
   shopId: string;
+  /** The broker, for an MQTT example beside the curl one; null when MQTT is off. */
+  mqttUrl: string | null;
   sensorId: string;
   sensorName: string;
   token: string;
   timeZone: string;
   onDone: () => void;
-}
-
-/** The origin the sensor should post to: this page's own, as seen by the browser. */
-function apiOrigin(): string {
-  return Platform.OS === 'web' && typeof window !== 'undefined'
-    ? window.location.origin
-    : 'https://drybench.example';
-}
-
-/**
- * A ready command for the sensor's first reading, as in the HTTP contract (API.md), in the
- * reader's unit. Its values leave a new zone dry (ingest/words/sensors.ts says why).
- */
-export function curlExample(origin: string, token: string, unit: TemperatureUnit = 'C'): string {
-  return [
-    `curl -X POST ${origin}/api/v1/ingest \\`,
-    `  -H 'Authorization: Bearer ${token}' \\`,
-    `  -H 'Content-Type: application/json' \\`,
-    `  -d '${exampleReadingJson(unit)}'`,
-  ].join('\n');
 }
 
 async function copy(text: string): Promise<boolean> {
@@ -81,6 +65,7 @@ export function TokenReveal({
   sensorName,
   token,
   timeZone,
+  mqttUrl,
   onDone,
 }: TokenRevealProps) {
   const unit = useUnitPref();
@@ -157,6 +142,14 @@ export function TokenReveal({
       <Text selectable style={styles.code} testID="sensor-curl">
         {command}
       </Text>
+      {mqttUrl ? (
+        <>
+          <Text style={type.small}>Or over MQTT:</Text>
+          <Text selectable style={styles.code} testID="sensor-mqtt-command">
+            {mqttPublishExample(mqttUrl, sensorId, token, unit)}
+          </Text>
+        </>
+      ) : null}
       <FirstReading shopId={shopId} sensorId={sensorId} timeZone={timeZone} unit={unit} />
       <Button
         label="Done, the sensor has it"
@@ -215,17 +208,7 @@ function FirstReading({ shopId, sensorId, timeZone, unit }: FirstReadingProps) {
 }
 
 const styles = StyleSheet.create({
-  code: {
-    fontFamily: fonts.regular,
-    fontSize: 13,
-    lineHeight: 19,
-    color: colors.ink,
-    backgroundColor: colors.paper,
-    borderColor: colors.border,
-    borderWidth: 1,
-    borderRadius: radius.control,
-    padding: space.md,
-  },
+  code: codeStyle,
   row: { flexDirection: 'row', flexWrap: 'wrap', gap: space.sm },
   fields: { gap: space.sm },
   field: { flexDirection: 'row', gap: space.md, alignItems: 'flex-start' },

@@ -1,4 +1,4 @@
-import { and, eq, isNull, sql } from 'drizzle-orm';
+import { and, eq, isNull, sql, type SQL } from 'drizzle-orm';
 
 import type { Db } from '../index';
 import { sensors, zones } from '../schema';
@@ -34,17 +34,26 @@ export const identityColumns = {
   wetK: zones.wetK,
 };
 
-export async function findActiveSensorByTokenHash(
-  db: Db,
-  tokenHash: string,
-): Promise<SensorIdentity | null> {
+async function findActiveSensor(db: Db, match: SQL | undefined): Promise<SensorIdentity | null> {
   const [row] = await db
     .select(identityColumns)
     .from(sensors)
     .innerJoin(zones, eq(zones.id, sensors.zoneId))
     // A removed sensor is revoked too (removeSensor), so this one test covers both.
-    .where(and(eq(sensors.tokenHash, tokenHash), isNull(sensors.revokedAt)));
+    .where(and(match, isNull(sensors.revokedAt)));
   return row ?? null;
+}
+
+export function findActiveSensorByTokenHash(
+  db: Db,
+  tokenHash: string,
+): Promise<SensorIdentity | null> {
+  return findActiveSensor(db, eq(sensors.tokenHash, tokenHash));
+}
+
+/** The sensor behind an MQTT readings topic, while its token stands (id already a UUID). */
+export function findActiveSensorById(db: Db, sensorId: string): Promise<SensorIdentity | null> {
+  return findActiveSensor(db, eq(sensors.id, sensorId));
 }
 
 /** A sensor of this shop that has not been removed: removed ones exist only as history. */

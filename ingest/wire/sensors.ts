@@ -33,6 +33,8 @@ export interface Sensor {
 
 export interface SensorsResponse {
   sensors: Sensor[];
+  /** The MQTT broker sensors may publish to instead of POSTing; null when MQTT is off. */
+  mqtt: { url: string } | null;
 }
 
 /** A sensor's name and zone, as a rename or move answers. */

@@ -15,3 +15,4 @@ export * from './trials';
 export * from './care';
 export * from './importReasons';
 export * from './imports';
+export * from './mqtt';

@@ -9,6 +9,7 @@ export const PHASES = [
   'ingest1',
   'ingest50',
   'live',
+  'mqtt',
   'report',
   'web',
   'chart',

@@ -10,6 +10,7 @@ export const TARGETS = {
   singleVsBareExpress: { atLeast: 0.6 },
   wsP99IdleMs: { atMost: 25 },
   wsP99LoadedMs: { atMost: 50 },
+  mqttP99Ms: { atMost: 50 },
   rssMb: { atMost: 250 },
   chartQueryP95Ms: { atMost: 20 },
   // The week's chart target holds for 90 days too: a long range must not feel slower.
@@ -33,6 +34,11 @@ export function figuresOf(r: BenchResult): Figures {
     singleVsBareExpress: ratio(r.ingest1?.perS, r.bare?.perS),
     wsP99IdleMs: r.liveIdle ? round(r.liveIdle.delivery.p99Ms) : null,
     wsP99LoadedMs: r.liveLoaded ? round(r.liveLoaded.delivery.p99Ms) : null,
+    // MQTT publish → WebSocket delivery at 200 readings/s (scripts/bench/mqttLatency.ts).
+    mqttP99Ms: r.mqtt ? round(r.mqtt.delivery.p99Ms) : null,
+    mqttP50Ms: r.mqtt ? round(r.mqtt.delivery.p50Ms) : null,
+    mqttPubackP99Ms: r.mqtt ? round(r.mqtt.puback.p99Ms) : null,
+    mqttMissing: r.mqtt ? r.mqtt.missing + r.mqtt.failedPublishes : null,
     rssMb: round(r.peakRssMb, 0),
     chartQueryP95Ms: r.chart ? round(r.chart.p95Ms) : null,
     chart90dP95Ms: r.chartLong ? round(r.chartLong.spans['90d'].p95Ms) : null,
@@ -126,6 +132,20 @@ export function formatReport(r: BenchResult): string {
   ] as const) {
     if (l) row(name, `${int(l.delivery.count)} msgs`, l.delivery.p50Ms, l.delivery.p99Ms, l.cpu);
   }
+  if (r.mqtt) {
+    row(
+      'MQTT publish → WS',
+      `${int(r.mqtt.ratePerS)} readings/s`,
+      r.mqtt.delivery.p50Ms,
+      r.mqtt.delivery.p99Ms,
+    );
+    row(
+      '  MQTT publish → PUBACK',
+      `${int(r.mqtt.published)} msgs`,
+      r.mqtt.puback.p50Ms,
+      r.mqtt.puback.p99Ms,
+    );
+  }
   if (r.liveLoaded) {
     const b = r.liveLoaded.background;
     row(
@@ -196,6 +216,20 @@ export function formatReport(r: BenchResult): string {
       `POST → WS ${name}: ${o.wsClients} clients, ${l.probes} probes every ${o.probeIntervalMs} ms, ` +
         `${l.missing} deliveries missing; the probe's POST → 202 p50 ${ms(l.post.p50Ms)} / ` +
         `p99 ${ms(l.post.p99Ms)} ms; the clients' event-loop delay p99 ${ms(l.clientLoopDelayP99Ms)} ms`,
+    );
+  }
+  if (r.mqtt) {
+    row(
+      'MQTT publish → WS',
+      `${int(r.mqtt.ratePerS)} readings/s`,
+      r.mqtt.delivery.p50Ms,
+      r.mqtt.delivery.p99Ms,
+    );
+    row(
+      '  MQTT publish → PUBACK',
+      `${int(r.mqtt.published)} msgs`,
+      r.mqtt.puback.p50Ms,
+      r.mqtt.puback.p99Ms,
     );
   }
   if (r.liveLoaded) {

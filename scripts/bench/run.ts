@@ -12,6 +12,7 @@ import { createFixtures, type BenchFixtures } from './fixtures';
 import { runHttpSlice } from './httpLoad';
 import { interleave, type Contender, type Measured } from './interleave';
 import { connectLiveClients, measureLiveLatency, type LiveLatencyResult } from './liveLatency';
+import { createMqttShop, measureMqttLatency, type MqttLatencyResult } from './mqttLatency';
 import type { BenchOptions, Phase } from './options';
 import { startPacedLoad, type PacedLoadResult } from './pacedLoad';
 import {
@@ -46,6 +47,7 @@ export interface BenchResult {
   ingest1Groups?: GroupSizes;
   ingest50?: Measured;
   liveIdle?: LivePhase;
+  mqtt?: MqttLatencyResult;
   liveLoaded?: LivePhase & { background: PacedLoadResult };
   /** One zone's 7-day history with 10 M readings stored (scripts/bench/chartHistory.ts). */
   chart?: ChartQueryResult;
@@ -106,12 +108,34 @@ export async function runBench(
 
   try {
     const serverPort = await freePort();
+    // The mqtt phase: our broker as npm start runs it, and the server subscribed to it.
+    const mqttEnv: Record<string, string> = {};
+    if (has('mqtt')) {
+      const mqttPort = await freePort();
+      Object.assign(mqttEnv, {
+        MQTT_URL: `mqtt://127.0.0.1:${mqttPort}`,
+        MQTT_PASSWORD: randomBytes(24).toString('hex'),
+      });
+      children.push(
+        await startNodeChild({
+          entry: 'scripts/broker.ts',
+          env: {
+            ...process.env,
+            DATABASE_URL: database.url,
+            MQTT_PORT: String(mqttPort),
+            MQTT_PASSWORD: mqttEnv.MQTT_PASSWORD,
+            LOG_LEVEL: 'info',
+          },
+          ready: /listening on/,
+        }),
+      );
+    }
     // The server as npm start runs it: bundled, on plain node.
     execFileSync('bash', ['scripts/build-server.sh'], { stdio: 'inherit' });
     const server = await startNodeChild({
       entry: '.build/server.mjs',
       nodeArgs: options.cpuProfDir ? ['--cpu-prof', `--cpu-prof-dir=${options.cpuProfDir}`] : [],
-      env: serverEnv(database.url, serverPort, options.wsClients),
+      env: { ...serverEnv(database.url, serverPort, options.wsClients), ...mqttEnv },
       ready: /listening on/,
     });
     children.push(server);
@@ -215,6 +239,19 @@ export async function runBench(
         databaseUrl: database.url,
         cookie: fixtures.cookie,
         progress,
+      });
+    }
+
+    if (has('mqtt')) {
+      progress('mqtt: 25 sensors publishing 200 readings/s to our broker, one socket watching…');
+      const shop = await createMqttShop(url, 25);
+      result.mqtt = await measureMqttLatency({
+        brokerUrl: mqttEnv.MQTT_URL!,
+        url,
+        cookie: shop.cookie,
+        sensors: shop.sensors,
+        ratePerS: 200,
+        durationS: options.durationS,
       });
     }
 

@@ -1,15 +1,24 @@
 /**
  * Demo sensors that post through the real ingest route, as hardware would: a backfill of the
  * last hours in batches, then one reading per sensor every interval. Readings that fail to
- * send stay queued and go out with the next post (a sensor's offline backlog).
+ * send stay queued and go out with the next post (a sensor's offline backlog). Sensors given
+ * an MQTT sender (mqttSender.ts) publish the same bodies to the broker instead.
  */
 import { demoAir, rhFromDewPoint, stepIron, type DemoProfile } from './dayModel';
+
+/** What became of one batch: stored (or refused for good), or to be sent again later. */
+export type SendResult = { done: true; dropped?: string } | { done: false };
+
+/** One way in for a sensor's batches: HTTP (the default) or MQTT. */
+export type BatchSender = (body: string) => Promise<SendResult>;
 
 export interface SimulatedSensor {
   name: string;
   token: string;
   hasProbe: boolean;
   profile: DemoProfile;
+  /** Sends this sensor's batches instead of POST /api/v1/ingest (e.g. over MQTT). */
+  sender?: BatchSender;
 }
 
 export interface SimulatorOptions {
@@ -77,27 +86,36 @@ export function startSimulator(options: SimulatorOptions): { stop(): Promise<voi
     (nowMs - startedAtMs) % options.outage.everyMs > options.outage.everyMs - options.outage.forMs;
   let wasOffline = false;
 
-  async function flush(state: (typeof states)[number]): Promise<void> {
-    while (state.queue.length > 0 && !stopped) {
-      const batch = state.queue.slice(0, 1000);
+  const httpSender =
+    (token: string): BatchSender =>
+    async (body) => {
       try {
         const res = await fetch(`${options.baseUrl}/api/v1/ingest`, {
           method: 'POST',
-          headers: {
-            authorization: `Bearer ${state.sensor.token}`,
-            'content-type': 'application/json',
-          },
-          body: JSON.stringify({ unit: 'C', readings: batch }),
+          headers: { authorization: `Bearer ${token}`, 'content-type': 'application/json' },
+          body,
         });
+        if (res.status === 202) return { done: true };
         // 4xx other than 429 will not get better by retrying: drop the batch and say so.
-        if (res.status === 202 || (res.status >= 400 && res.status < 500 && res.status !== 429)) {
-          if (res.status !== 202)
-            options.log(`${state.sensor.name}: dropped ${batch.length} (HTTP ${res.status})`);
-          state.queue.splice(0, batch.length);
-        } else return;
+        if (res.status >= 400 && res.status < 500 && res.status !== 429) {
+          return { done: true, dropped: `HTTP ${res.status}` };
+        }
+        return { done: false };
       } catch {
-        return; // server away: keep the backlog for the next tick
+        return { done: false }; // server away: keep the backlog for the next tick
       }
+    };
+
+  async function flush(state: (typeof states)[number]): Promise<void> {
+    const send = state.sensor.sender ?? httpSender(state.sensor.token);
+    while (state.queue.length > 0 && !stopped) {
+      const batch = state.queue.slice(0, 1000);
+      const result = await send(JSON.stringify({ unit: 'C', readings: batch }));
+      if (!result.done) return;
+      if (result.dropped) {
+        options.log(`${state.sensor.name}: dropped ${batch.length} (${result.dropped})`);
+      }
+      state.queue.splice(0, batch.length);
     }
   }
 

@@ -8,7 +8,6 @@
 import express, { Router } from 'express';
 
 import type { SensorIdentity } from '@/db/queries/sensors';
-import { MAX_READINGS_PER_REQUEST, parseEnvelope } from '@/ingest';
 
 import {
   createSensorRateLimiter,
@@ -17,6 +16,7 @@ import {
 } from '../auth/sensorRateLimit';
 import type { SensorTokenCache } from '../auth/sensorTokens';
 import { ApiError } from '../errors';
+import { readingsOfBody } from '../readings/ingestBody';
 import { storeReadings, type StoreReadingsDeps } from '../readings/ingestReadings';
 
 const BEARER = /^Bearer\s+(\S+)$/i;
@@ -75,33 +75,8 @@ export function ingestRouter(deps: IngestDeps): Router {
     async (req, res) => {
       const sensor = res.locals.sensor as SensorIdentity;
       const receivedAtMs = now();
-      const body: unknown = req.body;
-      if (
-        typeof body === 'object' &&
-        body !== null &&
-        'readings' in body &&
-        Array.isArray(body.readings) &&
-        body.readings.length > MAX_READINGS_PER_REQUEST
-      ) {
-        throw new ApiError(
-          413,
-          'too_many_readings',
-          `Send at most ${MAX_READINGS_PER_REQUEST} readings per request.`,
-        );
-      }
-      const envelope = parseEnvelope(body, receivedAtMs);
-      if (!envelope.ok) {
-        throw new ApiError(
-          400,
-          envelope.code,
-          envelope.code === 'unknown_field'
-            ? envelope.issues.map((i) => i.message).join(' ')
-            : 'The readings are not in the expected shape.',
-          envelope.issues,
-        );
-      }
-
-      const outcome = await storeReadings(deps, sensor, envelope.readings, receivedAtMs);
+      const readings = readingsOfBody(req.body, receivedAtMs);
+      const outcome = await storeReadings(deps, sensor, readings, receivedAtMs);
       // Not res.json: it would hash every answer for an ETag, which no sensor's POST uses.
       res.status(202).set('Content-Type', 'application/json').end(JSON.stringify(outcome));
     },

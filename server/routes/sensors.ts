@@ -63,12 +63,19 @@ const unknownZone = () =>
   ]);
 
 /** Mounted at /shops/:shopId/sensors. */
-export function sensorsRouter(db: Db, tokens: SensorTokenCache): Router {
+export function sensorsRouter(
+  db: Db,
+  tokens: SensorTokenCache,
+  mqttPublicUrl: string | null = null,
+): Router {
   const router = Router({ mergeParams: true });
 
   router.get('/', async (_req, res) => {
     const rows = await listSensors(db, shopIdOf(res));
-    res.json({ sensors: rows.map(toSensor) } satisfies SensorsResponse);
+    res.json({
+      sensors: rows.map(toSensor),
+      mqtt: mqttPublicUrl ? { url: mqttPublicUrl } : null,
+    } satisfies SensorsResponse);
   });
 
   router.post('/', async (req, res) => {

@@ -52,6 +52,7 @@ describe('a live reading and the sensor list', () => {
     const client = new QueryClient();
     const list: SensorsResponse = {
       sensors: [sensor('new', null), sensor('old', '2026-03-02T06:00:00.000Z')],
+      mqtt: null,
     };
     client.setQueryData(sensorKeys.list('s1'), list);
 

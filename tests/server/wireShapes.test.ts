@@ -88,7 +88,7 @@ const READING_POINT: Keys<ReadingPoint> = {
   level: true,
   count: true,
 };
-const SENSORS_RESPONSE: Keys<SensorsResponse> = { sensors: true };
+const SENSORS_RESPONSE: Keys<SensorsResponse> = { sensors: true, mqtt: true };
 const SENSOR: Keys<Sensor> = {
   id: true,
   name: true,
