@@ -107,30 +107,55 @@ export async function ensureReadingPartitions(
   return makePartitions(db, fromMs, toMs);
 }
 
+/** Under the caller's transaction: the months made in it commit with the caller's rows. */
+async function fillMonths(tx: Db, fromMs: number, toMs: number, settleDefault: boolean) {
+  // pg_partman truncates and names months in the session's zone: UTC months, as migration 0014.
+  await tx.execute(sql`set local time zone 'UTC'`);
+  await tx.execute(sql`select pg_advisory_xact_lock(${LOCK_KEY})`);
+  if (settleDefault || (await readingsInDefaultPartition(tx)) > 0) {
+    await tx.execute(
+      sql`select partman.partition_data_time(${READINGS_PARENT}, p_batch_count => 100000)`,
+    );
+  }
+  // Read again under the lock: another instance may have made them meanwhile.
+  const { missing, span } = missingMonths(await readingPartitions(tx), fromMs, toMs);
+  if (missing.length > 0) {
+    // An array literal as one parameter (drizzle would spread a JS array into a list).
+    const times = `{${missing.map((ms) => new Date(ms).toISOString()).join(',')}}`;
+    await tx.execute(
+      sql`select partman.create_partition_time(${READINGS_PARENT}, ${times}::timestamptz[], false)`,
+    );
+  }
+  return span;
+}
+
+/**
+ * ensureReadingPartitions inside a transaction the caller already holds open on a plain client
+ * (a CSV import's, whose staging table dies with it): Drizzle's own transaction() there would
+ * send a second BEGIN and its COMMIT would end the caller's transaction early. The months made
+ * here commit or roll back with the caller's rows; the session's time zone is put back after.
+ */
+export async function ensureReadingPartitionsWithin(
+  tx: Db,
+  fromAt: Date,
+  toAt: Date,
+): Promise<ReadingPartitionSpan> {
+  const fromMs = Math.min(fromAt.getTime(), toAt.getTime());
+  const toMs = Math.max(fromAt.getTime(), toAt.getTime());
+  const first = missingMonths(await readingPartitions(tx), fromMs, toMs);
+  if (first.missing.length === 0) return first.span;
+  const zone = await tx.execute<{ zone: string }>(sql`select current_setting('TimeZone') as zone`);
+  try {
+    return await fillMonths(tx, fromMs, toMs, false);
+  } finally {
+    await tx.execute(sql`select set_config('TimeZone', ${zone.rows[0]!.zone}, true)`);
+  }
+}
+
 async function makePartitions(db: Db, fromMs: number, toMs: number, settleDefault = false) {
-  const run = async (tx: Db) => {
-    // pg_partman truncates and names months in the session's zone: UTC months, as migration 0014.
-    await tx.execute(sql`set local time zone 'UTC'`);
-    await tx.execute(sql`select pg_advisory_xact_lock(${LOCK_KEY})`);
-    if (settleDefault || (await readingsInDefaultPartition(tx)) > 0) {
-      await tx.execute(
-        sql`select partman.partition_data_time(${READINGS_PARENT}, p_batch_count => 100000)`,
-      );
-    }
-    // Read again under the lock: another instance may have made them meanwhile.
-    const { missing, span } = missingMonths(await readingPartitions(tx), fromMs, toMs);
-    if (missing.length > 0) {
-      // An array literal as one parameter (drizzle would spread a JS array into a list).
-      const times = `{${missing.map((ms) => new Date(ms).toISOString()).join(',')}}`;
-      await tx.execute(
-        sql`select partman.create_partition_time(${READINGS_PARENT}, ${times}::timestamptz[], false)`,
-      );
-    }
-    return span;
-  };
   // On a pool, a transaction of its own; inside the caller's transaction, a savepoint, so the
   // new partitions commit with the caller's rows (a CSV import's insert … select).
-  return transaction(db, run);
+  return transaction(db, (tx) => fillMonths(tx, fromMs, toMs, settleDefault));
 }
 
 const FURTHEST_AHEAD_MS = 400 * 86_400_000;

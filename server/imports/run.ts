@@ -27,7 +27,7 @@ import pg from 'pg';
 import { from as copyFrom } from 'pg-copy-streams';
 
 import type { Db } from '@/db';
-import { ensureReadingPartitions } from '@/db/queries/readingPartitions';
+import { ensureReadingPartitionsWithin } from '@/db/queries/readingPartitions';
 import { rollUpRange } from '@/db/queries/readingRollups';
 import { drizzleOn } from '@/db/transaction';
 import {
@@ -114,17 +114,12 @@ export async function runImport(deps: ImportRunDeps, importId: string): Promise<
     return;
   }
   await publish(deps.pool, row);
+  let landed: ImportCounts | null = null;
   try {
     const counts = await importFile(deps, row, now());
     if (counts === null) log.info('import: cancelled, nothing stored');
     else log.info(counts, 'import: done');
-    // Roll the imported hours up now, so long ranges show them at once; should this fail, the
-    // roll-up job finds them within 5 minutes by their arrival time.
-    if (counts?.firstAt && counts.lastAt) {
-      await rollUpRange(deps.db, counts.firstAt, counts.lastAt).catch((err: unknown) =>
-        log.warn({ err }, 'import: roll-up deferred to the roll-up job'),
-      );
-    }
+    landed = counts;
   } catch (err) {
     if (err instanceof Cancelled) {
       log.info('import: cancelled, nothing stored');
@@ -150,6 +145,13 @@ export async function runImport(deps: ImportRunDeps, importId: string): Promise<
   } finally {
     // The file is kept until the import ends, whichever way it ended.
     await deps.storage.delete(row.objectKey).catch(() => {});
+  }
+  // Roll the imported hours up now, so long ranges show them at once; should this fail, the
+  // roll-up job finds them within 5 minutes by their arrival time.
+  if (landed?.firstAt && landed.lastAt) {
+    await rollUpRange(deps.db, landed.firstAt, landed.lastAt).catch((err: unknown) =>
+      log.warn({ err }, 'import: roll-up deferred to the roll-up job'),
+    );
   }
 }
 
@@ -373,7 +375,7 @@ async function importFile(
     ticker.check();
     // Months back (a logger's history) land in their own month's partition, never the default.
     if (counts.firstAt && counts.lastAt) {
-      await ensureReadingPartitions(drizzleOn(client), counts.firstAt, counts.lastAt);
+      await ensureReadingPartitionsWithin(drizzleOn(client), counts.firstAt, counts.lastAt);
     }
     // No conflict target: it fits the (sensor_id, at) key and the (shop_id, sensor_id, at) one.
     const inserted = await client.query(

@@ -221,6 +221,8 @@ describe('migration 0014 on a populated readings table', () => {
       select pg_get_indexdef(indexrelid) as def from pg_index
       where indrelid = 'readings'::regclass order by 1`);
     expect(defs.rows.map((r) => r.def)).toEqual([
+      // Migration 0015's: how the roll-up job finds hours that received late readings.
+      'CREATE INDEX readings_received_at_index ON ONLY public.readings USING brin (received_at)',
       'CREATE INDEX readings_zone_id_at_index ON ONLY public.readings USING btree (zone_id, at) INCLUDE (sensor_id, air_c, rh_pct, surface_c, dew_point_c, margin_k, emc_pct, level)',
       'CREATE UNIQUE INDEX readings_shop_id_sensor_id_at_pk ON ONLY public.readings USING btree (shop_id, sensor_id, at)',
     ]);
