@@ -90,7 +90,7 @@ describe('the shop frame (390×844)', () => {
     await expect.poll(scrolled).toBeGreaterThan(0);
     await page.getByTestId('nav-sensors').click();
     await page.waitForURL(`${shopUrl}/sensors`);
-    await page.getByRole('heading', { name: 'Sensors' }).waitFor();
+    await page.getByRole('heading', { name: 'Sensors', exact: true }).waitFor();
     await expect.poll(scrolled).toBe(0);
     expect(errors).toEqual([]);
   });
