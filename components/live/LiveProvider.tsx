@@ -2,7 +2,14 @@ import { useQuery, useQueryClient } from '@tanstack/react-query';
 import { createContext, useContext, useEffect, useState, type ReactNode } from 'react';
 import { Platform } from 'react-native';
 
-import { alarmKeys, meKeys, meQueryOptions, readingKeys, zoneKeys } from '@/components/queries';
+import {
+  alarmKeys,
+  dropEarlyAnswers,
+  meKeys,
+  meQueryOptions,
+  readingKeys,
+  zoneKeys,
+} from '@/components/queries';
 
 import { applyLiveMessage } from './applyLiveMessage';
 import { liveUrl } from './backoff';
@@ -31,7 +38,10 @@ export function LiveProvider({ children }: { children: ReactNode }) {
       onStatus: setStatus,
       onMessage: (data) => {
         const message = parseLiveMessage(data);
-        if (message) applyLiveMessage(queryClient, message);
+        if (!message) return;
+        // The page's early answers were read before this change: later queries ask again.
+        dropEarlyAnswers();
+        applyLiveMessage(queryClient, message);
       },
       onReconnect: () => {
         void queryClient.invalidateQueries({ queryKey: zoneKeys.all });

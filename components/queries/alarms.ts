@@ -13,6 +13,7 @@ import {
 import type { Alarm, AlarmAckResponse, AlarmsResponse } from '@/ingest/wire/alarms';
 
 import { apiRequest, isApiError } from './api';
+import { patchCached } from './livePatch';
 import { shopPath } from './shops';
 
 // The shapes are the server's own (ingest/wire/alarms.ts); screens import them from here.
@@ -82,8 +83,8 @@ export function withAlarm(
 /** Puts an alarm into every cached list of its shop. */
 export function patchAlarm(queryClient: QueryClient, shopId: string, alarm: Alarm): void {
   for (const state of ['open', 'all'] as const) {
-    queryClient.setQueryData<AlarmsResponse>(alarmKeys.list(shopId, state), (previous) =>
-      previous ? withAlarm(previous, alarm, state) : previous,
+    patchCached<AlarmsResponse>(queryClient, alarmKeys.list(shopId, state), (previous) =>
+      withAlarm(previous, alarm, state),
     );
   }
 }

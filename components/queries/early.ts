@@ -50,3 +50,13 @@ export async function earlyOk(answer: Promise<Response> | undefined): Promise<Re
   const response = await answer.catch(() => null);
   return response?.ok ? response : null;
 }
+
+/**
+ * Forgets every answer not yet taken. A live message means the shop changed after the page's
+ * requests were read; a query that starts later must ask again, or it would show the state
+ * from before the change with nothing left to patch it.
+ */
+export function dropEarlyAnswers(host: EarlyHost = globalThis as EarlyHost): void {
+  const early = host[EARLY_GLOBAL];
+  if (early) early.answers = {};
+}

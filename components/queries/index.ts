@@ -21,6 +21,7 @@ export {
   type VerificationSent,
 } from './auth';
 export { createQueryClient, shouldRetry } from './client';
+export { dropEarlyAnswers } from './early';
 export {
   invitationLinkKeys,
   useAcceptInvitationMutation,

@@ -16,6 +16,7 @@ import type {
 } from '@/ingest/wire';
 
 import { apiRequest } from './api';
+import { patchCached } from './livePatch';
 import { shopPath } from './shops';
 import { zoneKeys } from './zones';
 
@@ -121,8 +122,7 @@ export function patchSensorSeen(
   sensorId: string,
   atIso: string,
 ): void {
-  queryClient.setQueryData<SensorsResponse>(sensorKeys.list(shopId), (previous) => {
-    if (!previous) return previous;
+  patchCached<SensorsResponse>(queryClient, sensorKeys.list(shopId), (previous) => {
     let changed = false;
     const sensors = previous.sensors.map((sensor) => {
       if (sensor.id !== sensorId) return sensor;

@@ -18,6 +18,7 @@ import type {
 } from '@/ingest/wire';
 
 import { apiRequest } from './api';
+import { patchCached } from './livePatch';
 import { shopPath } from './shops';
 
 // The shapes the server answers have one home; screens keep importing them from here.
@@ -60,8 +61,8 @@ export function patchZoneLatest(
   zoneId: string,
   latest: LatestReading,
 ): void {
-  queryClient.setQueryData<ZonesResponse>(zoneKeys.list(shopId), (previous) =>
-    previous ? withLatest(previous, zoneId, latest) : previous,
+  patchCached<ZonesResponse>(queryClient, zoneKeys.list(shopId), (previous) =>
+    withLatest(previous, zoneId, latest),
   );
 }
 

@@ -109,6 +109,56 @@ describe('applyLiveMessage', () => {
       1.8,
     );
   });
+
+  // The server sends a live message after its commit, so a fetch already on its way answers
+  // without that reading: its answer must not wipe the patch out.
+  const heldFetch = (client: QueryClient, key: readonly unknown[]) => {
+    let answer!: (value: ZonesResponse) => void;
+    const landed = client.fetchQuery({
+      queryKey: key,
+      queryFn: () => new Promise<ZonesResponse>((resolve) => (answer = resolve)),
+    });
+    return { answer: (value: ZonesResponse) => (answer(value), landed) };
+  };
+
+  it("keeps a reading that arrives while the zone list's first fetch is on its way", async () => {
+    const client = new QueryClient();
+    const fetch = heldFetch(client, zoneKeys.list('s1'));
+    applyLiveMessage(client, parseLiveMessage(message('2026-03-02T06:15:00Z', -2.7))!);
+    expect(client.getQueryData(zoneKeys.list('s1'))).toBeUndefined();
+
+    await fetch.answer(zones);
+    const list = client.getQueryData<ZonesResponse>(zoneKeys.list('s1'))!;
+    expect(list.zones[0]!.latest).toMatchObject({ margin: -2.7, at: '2026-03-02T06:15:00Z' });
+    expect(list.zones[1]!.latest).toBeNull();
+  });
+
+  it('keeps a reading that arrives during a refetch, and takes a newer one the answer brings', async () => {
+    const client = new QueryClient();
+    client.setQueryData(zoneKeys.list('s1'), zones);
+    const refetch = heldFetch(client, zoneKeys.list('s1'));
+    applyLiveMessage(client, parseLiveMessage(message('2026-03-02T06:15:00Z', -2.7))!);
+    await refetch.answer(zones);
+    expect(client.getQueryData<ZonesResponse>(zoneKeys.list('s1'))!.zones[0]!.latest?.margin).toBe(
+      -2.7,
+    );
+
+    // An answer that already holds a newer reading keeps it: the patch only ever moves forward.
+    const again = heldFetch(client, zoneKeys.list('s1'));
+    applyLiveMessage(client, parseLiveMessage(message('2026-03-02T06:20:00Z', 0.5))!);
+    const newer = parseLiveMessage(message('2026-03-02T06:25:00Z', 4.2))!;
+    if (newer.type !== 'reading') throw new Error('a reading message');
+    const answered: ZonesResponse = {
+      zones: [
+        { ...zones.zones[0]!, latest: { ...newer.reading, sensorId: 'sensor-1' } },
+        zones.zones[1]!,
+      ],
+    };
+    await again.answer(answered);
+    expect(client.getQueryData<ZonesResponse>(zoneKeys.list('s1'))!.zones[0]!.latest?.margin).toBe(
+      4.2,
+    );
+  });
 });
 
 describe('withPoint', () => {

@@ -8,6 +8,7 @@ import { apiRequest } from '@/components/queries/api';
 import {
   EARLY_FRESH_MS,
   EARLY_GLOBAL,
+  dropEarlyAnswers,
   takeEarlyAnswer,
   type EarlyAnswers,
 } from '@/components/queries/early';
@@ -52,6 +53,14 @@ describe('takeEarlyAnswer', () => {
 
   it('finds nothing on a page without the boot script (native, tests)', () => {
     expect(takeEarlyAnswer('/api/v1/me', {}, 0)).toBeUndefined();
+  });
+
+  it('has nothing left to hand out once a live message says the shop changed', () => {
+    const zonesPath = '/api/v1/shops/s1/zones';
+    const host = { [EARLY_GLOBAL]: install({ [zonesPath]: json(200, { zones: [] }) }, 0) };
+    dropEarlyAnswers(host);
+    expect(takeEarlyAnswer(zonesPath, host, 5)).toBeUndefined();
+    dropEarlyAnswers({});
   });
 });
 
