@@ -18,15 +18,40 @@ export function patchCached<T>(
       previous === undefined ? previous : update(previous),
     );
   apply();
+  whenFetchEnds(queryClient, queryKey, apply);
+}
+
+/**
+ * Asks again once the fetch on its way has ended, for a change that cannot be laid on top of
+ * its answer twice (a point folded into a chart's bucket would count twice).
+ */
+export function refetchAfterFetch(queryClient: QueryClient, queryKey: QueryKey): void {
+  const query = queryClient.getQueryCache().find({ queryKey, exact: true });
+  // One refetch answers every point that arrived during the fetch.
+  if (!query || refetchPending.has(query)) return;
+  refetchPending.add(query);
+  const registered = whenFetchEnds(queryClient, queryKey, () => {
+    refetchPending.delete(query);
+    void queryClient.invalidateQueries({ queryKey, exact: true });
+  });
+  if (!registered) refetchPending.delete(query);
+}
+
+const refetchPending = new WeakSet<object>();
+
+/**
+ * Runs `then` once when the query's current fetch ends (answered, failed or cancelled); false
+ * when no fetch is on its way.
+ */
+function whenFetchEnds(queryClient: QueryClient, queryKey: QueryKey, then: () => void): boolean {
   const cache = queryClient.getQueryCache();
   const query = cache.find({ queryKey, exact: true });
-  if (query?.state.fetchStatus !== 'fetching') return;
+  if (query?.state.fetchStatus !== 'fetching') return false;
   const unsubscribe = cache.subscribe((event) => {
     if (event.query !== query || event.type !== 'updated') return;
-    // Answered, failed or cancelled: once the fetch is over, make the patch again (a no-op
-    // when the answer already held the change or nothing is cached).
     if (query.state.fetchStatus !== 'idle') return;
     unsubscribe();
-    apply();
+    then();
   });
+  return true;
 }

@@ -8,6 +8,7 @@ import { queryOptions, useQuery, type QueryClient } from '@tanstack/react-query'
 import type { ReadingPoint, ReadingsResponse } from '@/ingest/wire';
 
 import { apiRequest } from './api';
+import { refetchAfterFetch } from './livePatch';
 import { zonePath } from './zones';
 
 // The shapes the server answers have one home; screens keep importing them from here.
@@ -71,10 +72,12 @@ export function appendReadingPoint(
     queryKey: readingKeys.zone(shopId, zoneId),
   });
   for (const [key, previous] of queries) {
-    if (!previous) continue;
     const window = (key[3] as ReadingsWindow | undefined) ?? DAY_WINDOW;
     // A fixed span stays as asked: a live reading lies after it.
     if (!('hours' in window)) continue;
+    // A window still loading (or reloading) was read before this point: ask once more after.
+    refetchAfterFetch(queryClient, key);
+    if (!previous) continue;
     const next = withPoint(previous, point, window.hours);
     queryClient.setQueryData<ReadingsResponse>(key, next);
     if (next.points.length > window.points * 1.2) {

@@ -1,5 +1,5 @@
-import { QueryClient } from '@tanstack/react-query';
-import { describe, expect, it } from 'vitest';
+import { QueryClient, QueryObserver } from '@tanstack/react-query';
+import { describe, expect, it, vi } from 'vitest';
 
 import { applyLiveMessage, parseLiveMessage } from '@/components/live';
 import {
@@ -158,6 +158,42 @@ describe('applyLiveMessage', () => {
     expect(client.getQueryData<ZonesResponse>(zoneKeys.list('s1'))!.zones[0]!.latest?.margin).toBe(
       4.2,
     );
+  });
+});
+
+describe('a chart window loading while points arrive', () => {
+  it('asks once more after the fetch, however many points came during it', async () => {
+    const client = new QueryClient();
+    const key = readingKeys.window('s1', 'z1', DAY_WINDOW);
+    const empty: ReadingsResponse = {
+      from: '2026-03-01T06:10:00.000Z',
+      to: '2026-03-02T06:10:00.000Z',
+      firstAt: null,
+      bucketSeconds: 0,
+      points: [],
+    };
+    let fetches = 0;
+    let answer!: (value: ReadingsResponse) => void;
+    const queryFn = () => {
+      fetches += 1;
+      return new Promise<ReadingsResponse>((resolve) => (answer = resolve));
+    };
+    // An observer, as a mounted chart has: invalidation refetches only watched queries.
+    const stop = new QueryObserver(client, { queryKey: key, queryFn }).subscribe(() => {});
+    expect(fetches).toBe(1);
+
+    applyLiveMessage(client, parseLiveMessage(message('2026-03-02T06:15:00Z', 1.8))!);
+    applyLiveMessage(client, parseLiveMessage(message('2026-03-02T06:16:00Z', 1.7))!);
+    answer(empty);
+    await vi.waitFor(() => expect(fetches).toBe(2));
+    answer({ ...empty, points: [point('2026-03-02T06:16:00Z', 1.7)] });
+    await vi.waitFor(() =>
+      expect(client.getQueryData<ReadingsResponse>(key)!.points).toHaveLength(1),
+    );
+    // Settled: no further fetch once nothing arrived during the last one.
+    await new Promise((resolve) => setTimeout(resolve, 20));
+    expect(fetches).toBe(2);
+    stop();
   });
 });
 
