@@ -14,7 +14,13 @@ import type { PaperSize } from '@/ingest/wire/reports';
 import type { ZonePurpose } from '@/ingest/wire/zones';
 
 import type { Db } from '../index';
-import { figuresFromRollups, rolledHours, rolledUntil, uuidList } from './readingRollups';
+import {
+  figuresFromRollups,
+  ROLLUP_RANGE_MS,
+  rolledHours,
+  rolledUntil,
+  uuidList,
+} from './readingRollups';
 
 export interface ReportPeriod {
   fromMs: number;
@@ -100,8 +106,10 @@ export async function zoneWeekFigures(
   // Over 7 days, the whole hours the roll-up job has done come from readings_hourly; the last
   // cap before `end` stays raw, so the rolled readings' shares are the raw rule's. Roll-ups
   // carry shares capped at TOW_MAX_GAP_MS: another cap reads raw.
+  // The mark is asked for only when the range could use it (over 7 days): a week report's
+  // statements then start without a round trip first.
   const hours =
-    period.maxGapMs === TOW_MAX_GAP_MS
+    period.maxGapMs === TOW_MAX_GAP_MS && period.endMs - period.fromMs > ROLLUP_RANGE_MS
       ? rolledHours(new Date(period.fromMs), new Date(period.endMs), await rolledUntil(db), {
           edgeMs: period.maxGapMs,
         })
