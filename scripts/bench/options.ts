@@ -73,6 +73,7 @@ export const DEFAULT_OPTIONS: BenchOptions = {
 };
 
 export const USAGE = `npm run bench [-- options]
+  --pg-port N        the bench's PostgreSQL port (default ${DEFAULT_OPTIONS.pgPort})
   --connections N    load generator connections (default ${DEFAULT_OPTIONS.connections})
   --duration S       seconds measured per phase (default ${DEFAULT_OPTIONS.durationS})
   --phases LIST      some of ${PHASES.join(',')} (default all)
@@ -86,6 +87,7 @@ export function readBenchOptions(argv: string[]): BenchOptions | 'help' {
   const { values } = parseArgs({
     args: argv,
     options: {
+      'pg-port': { type: 'string' },
       connections: { type: 'string' },
       duration: { type: 'string' },
       phases: { type: 'string' },
@@ -108,6 +110,7 @@ export function readBenchOptions(argv: string[]): BenchOptions | 'help' {
   if (unknown.length > 0) throw new Error(`unknown phase ${unknown.join(', ')}`);
   return {
     ...DEFAULT_OPTIONS,
+    pgPort: positive('pg-port', values['pg-port'], DEFAULT_OPTIONS.pgPort),
     connections: positive('connections', values.connections, DEFAULT_OPTIONS.connections),
     // Bounded so a run stays within a few minutes whatever is asked.
     durationS: Math.min(30, positive('duration', values.duration, DEFAULT_OPTIONS.durationS)),

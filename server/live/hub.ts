@@ -27,6 +27,7 @@ import { isAllowedHost, misdirected, type AllowedHosts } from '../auth/hosts';
 import { isTrustedUpgradeOrigin } from '../auth/origin';
 import type { SessionSigner } from '../auth/session';
 import { resolveSession } from '../auth/sessionState';
+import { markHeard, stageMs, stageTraceOn } from '../stageTrace';
 
 import { missedMessages } from './replay';
 
@@ -139,6 +140,8 @@ export function startLiveHub(deps: {
 
   function deliver(payload: string | undefined) {
     if (!payload) return;
+    const t0 = performance.now();
+    markHeard(payload);
     type Notice = ReadingMessage | AlarmMessage | ShopChangeMessage | AccessNotice;
     let message: Notice;
     try {
@@ -154,6 +157,7 @@ export function startLiveHub(deps: {
       frame ??= Buffer.from(payload);
       send(client, frame);
     }
+    if (stageTraceOn) stageMs('hub.fanout', performance.now() - t0);
   }
 
   /**

@@ -36,6 +36,7 @@ import { MIN_TIME_MS } from '@/ingest/readingFields';
 
 import { ApiError, isDatabaseUnavailable, RetryLaterError } from '../errors';
 import { readingMessage } from '../live/messages';
+import { markCommitted, stageMs, stageTraceOn } from '../stageTrace';
 
 export interface WriteOutcome {
   /** `at` (epoch ms) of the rows this request inserted; the others were duplicates. */
@@ -50,6 +51,8 @@ export interface ReadingWriter {
 
 interface Pending {
   rows: ReadingRow[];
+  /** STAGE_TRACE only (server/stageTrace.ts): when it joined the queue. */
+  queuedAtMs?: number;
   resolve: (outcome: WriteOutcome) => void;
   reject: (err: unknown) => void;
 }
@@ -133,6 +136,8 @@ export function createReadingWriter(
       (group.length === 0 || rowCount + queue[0]!.rows.length <= opts.maxGroupRows)
     ) {
       const next = queue.shift()!;
+      if (next.queuedAtMs !== undefined)
+        stageMs('writer.queue', performance.now() - next.queuedAtMs);
       group.push(next);
       rowCount += next.rows.length;
     }
@@ -185,7 +190,12 @@ export function createReadingWriter(
       pendingRows += rows.length;
       queuedRows += rows.length;
       return new Promise<WriteOutcome>((resolve, reject) => {
-        queue.push({ rows, resolve, reject });
+        queue.push({
+          rows,
+          resolve,
+          reject,
+          ...(stageTraceOn ? { queuedAtMs: performance.now() } : {}),
+        });
         if (queuedRows >= opts.maxGroupRows) void flush();
         else schedule();
       });
@@ -240,7 +250,15 @@ async function writeGroup(
   const liveMessages = (fresh: ReadingRow[][]) =>
     fresh.filter((f) => f.length > 0).map((f) => JSON.stringify(readingMessage(f)));
 
-  const insertedKeys = await insertReadingGroup(pool, rows, liveMessages(freshOf(owner)));
+  const t0 = performance.now();
+  const messages = liveMessages(freshOf(owner));
+  const insertedKeys = await insertReadingGroup(pool, rows, messages);
+  if (stageTraceOn) {
+    const t1 = performance.now();
+    stageMs('writer.statement', t1 - t0);
+    stageMs('writer.groupRows', rows.length);
+    markCommitted(messages);
+  }
   const fresh = freshOf(insertedKeys);
   // Some rows were duplicates, so the statement sent nothing: tell about the new ones only.
   // The rows are committed already, so this goes out after the commit, never for a lost row.
