@@ -77,7 +77,7 @@ export const USAGE = `npm run bench [-- options]
   --connections N    load generator connections (default ${DEFAULT_OPTIONS.connections})
   --duration S       seconds measured per phase (default ${DEFAULT_OPTIONS.durationS})
   --phases LIST      some of ${PHASES.join(',')} (default all)
-  --cpu-prof DIR     write the server's CPU profile to DIR when it exits
+  --cpu-prof DIR     write the server's (and the MQTT broker's) CPU profile to DIR when it exits
   --pg-stats FILE    write PostgreSQL's top statements (pg_stat_statements) to FILE
   --web-dir DIR      web phase: serve this export instead of building dist/ (to compare builds)
   --web-trace DIR    web phase: write a Chromium trace of the last run to DIR (chrome://tracing,
