@@ -35,6 +35,7 @@ import { insertReadingGroup, readingKey, type ReadingRow } from '@/db/queries/re
 import { MIN_TIME_MS } from '@/ingest/readingFields';
 
 import { ApiError, isDatabaseUnavailable, RetryLaterError } from '../errors';
+import type { LiveEcho } from '../live/localEcho';
 import { readingMessage } from '../live/messages';
 import { markCommitted, stageMs, stageTraceOn } from '../stageTrace';
 
@@ -104,7 +105,11 @@ const isDataException = (err: unknown) =>
 
 export function createReadingWriter(
   pool: pg.Pool,
-  options: Partial<WriterOptions> & { partitions?: ReadingPartitionGuard } = {},
+  options: Partial<WriterOptions> & {
+    partitions?: ReadingPartitionGuard;
+    /** This instance's live hub hears its own messages at commit (server/live/localEcho.ts). */
+    echo?: LiveEcho;
+  } = {},
 ): ReadingWriter {
   const opts = { ...DEFAULTS, ...options };
   const partitions = options.partitions ?? createReadingPartitionGuard(pool);
@@ -156,7 +161,7 @@ export function createReadingWriter(
   /** Writes a group; on a failure that is not transient, each request again alone. */
   async function settle(group: Pending[]) {
     try {
-      const outcomes = await writeGroup(pool, partitions, group);
+      const outcomes = await writeGroup(pool, partitions, group, options.echo);
       group.forEach((p, i) => p.resolve(outcomes[i]!));
       return;
     } catch (err) {
@@ -216,6 +221,7 @@ async function writeGroup(
   pool: pg.Pool,
   partitions: ReadingPartitionGuard,
   group: Pending[],
+  echo?: LiveEcho,
 ): Promise<WriteOutcome[]> {
   // The first request to name a (sensor, at) owns it; a later one in the same group is a duplicate.
   const owner = new Map<string, number>();
@@ -252,7 +258,17 @@ async function writeGroup(
 
   const t0 = performance.now();
   const messages = liveMessages(freshOf(owner));
-  const insertedKeys = await insertReadingGroup(pool, rows, messages);
+  echo?.expect(messages);
+  let insertedKeys: Set<string>;
+  try {
+    insertedKeys = await insertReadingGroup(pool, rows, messages);
+  } catch (err) {
+    echo?.forget(messages);
+    throw err;
+  }
+  // The statement notifies only when every row was new.
+  if (insertedKeys.size === rows.length) echo?.committed(messages);
+  else echo?.forget(messages);
   if (stageTraceOn) {
     const t1 = performance.now();
     stageMs('writer.statement', t1 - t0);
@@ -263,7 +279,15 @@ async function writeGroup(
   // Some rows were duplicates, so the statement sent nothing: tell about the new ones only.
   // The rows are committed already, so this goes out after the commit, never for a lost row.
   if (insertedKeys.size > 0 && insertedKeys.size < rows.length) {
-    await notify(pool, LIVE_CHANNEL, liveMessages(fresh));
+    const later = liveMessages(fresh);
+    echo?.expect(later);
+    try {
+      await notify(pool, LIVE_CHANNEL, later);
+    } catch (err) {
+      echo?.forget(later);
+      throw err;
+    }
+    echo?.committed(later);
   }
   return fresh.map((f) => ({ insertedMs: new Set(f.map((r) => r.at.getTime())) }));
 }
