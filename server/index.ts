@@ -30,6 +30,7 @@ import {
   workImports,
 } from './jobs';
 import { startLiveHub } from './live/hub';
+import { createLiveEcho } from './live/localEcho';
 import { createLogger, type Logger } from './logger';
 import { startMail } from './mail';
 import { createMessageAnswerer, defaultClientIdPrefix, startMqttIngest } from './mqtt';
@@ -52,7 +53,12 @@ async function main() {
   const sessions = createSessionSigner(config.sessionSecret, config.cookieSecure);
   const listener = startNotificationListener(config.databaseUrl, logger);
   const tokens = createSensorTokenCache(db, { listener });
-  const writer = createReadingWriter(pool, { maxPendingRows: config.ingestMaxPendingRows });
+  // The writer hands this instance's hub its reading messages at commit (server/live/localEcho.ts).
+  const echo = createLiveEcho();
+  const writer = createReadingWriter(pool, {
+    maxPendingRows: config.ingestMaxPendingRows,
+    echo,
+  });
   const estimator = createSurfaceEstimator(db);
   const mail = await startMail(config.mail, logger);
   // pg-boss first: the engine queues each opened alarm's e-mail as a job in its transaction.
@@ -96,6 +102,7 @@ async function main() {
     allowedHosts,
     trustedOrigins,
     limits: config.liveSocketsPerUser ? { maxSocketsPerUser: config.liveSocketsPerUser } : {},
+    echo,
   });
   await listener.ready;
   await scheduleAlarmSweep(jobs, alarms, { logger });

@@ -73,12 +73,13 @@ export const DEFAULT_OPTIONS: BenchOptions = {
 };
 
 export const USAGE = `npm run bench [-- options]
+  --pg-port N        the bench's PostgreSQL port (default ${DEFAULT_OPTIONS.pgPort})
   --connections N    load generator connections (default ${DEFAULT_OPTIONS.connections})
   --pg-port N        the bench PostgreSQL's port (default ${DEFAULT_OPTIONS.pgPort}; the next
                      free one if it is taken)
   --duration S       seconds measured per phase (default ${DEFAULT_OPTIONS.durationS})
   --phases LIST      some of ${PHASES.join(',')} (default all)
-  --cpu-prof DIR     write the server's CPU profile to DIR when it exits
+  --cpu-prof DIR     write the server's (and the MQTT broker's) CPU profile to DIR when it exits
   --pg-stats FILE    write PostgreSQL's top statements (pg_stat_statements) to FILE
   --web-dir DIR      web phase: serve this export instead of building dist/ (to compare builds)
   --web-trace DIR    web phase: write a Chromium trace of the last run to DIR (chrome://tracing,
@@ -88,6 +89,7 @@ export function readBenchOptions(argv: string[]): BenchOptions | 'help' {
   const { values } = parseArgs({
     args: argv,
     options: {
+      'pg-port': { type: 'string' },
       connections: { type: 'string' },
       'pg-port': { type: 'string' },
       duration: { type: 'string' },
@@ -111,6 +113,7 @@ export function readBenchOptions(argv: string[]): BenchOptions | 'help' {
   if (unknown.length > 0) throw new Error(`unknown phase ${unknown.join(', ')}`);
   return {
     ...DEFAULT_OPTIONS,
+    pgPort: positive('pg-port', values['pg-port'], DEFAULT_OPTIONS.pgPort),
     connections: positive('connections', values.connections, DEFAULT_OPTIONS.connections),
     pgPort: positive('pg-port', values['pg-port'], DEFAULT_OPTIONS.pgPort),
     // Bounded so a run stays within a few minutes whatever is asked.

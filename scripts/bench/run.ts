@@ -119,6 +119,9 @@ export async function runBench(
       children.push(
         await startNodeChild({
           entry: 'scripts/broker.ts',
+          nodeArgs: options.cpuProfDir
+            ? ['--cpu-prof', `--cpu-prof-dir=${options.cpuProfDir}`]
+            : [],
           env: {
             ...process.env,
             DATABASE_URL: database.url,

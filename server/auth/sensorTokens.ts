@@ -103,7 +103,19 @@ export function createSensorTokenCache(db: Db, options: TokenCacheOptions = {}):
     async resolve(token) {
       const tokenHash = hashToken(token);
       const hit = entries.get(tokenHash);
-      if (hit && hit.expiresAtMs > now()) return hit.identity;
+      const nowMs = now();
+      if (hit && hit.expiresAtMs > nowMs) {
+        // Past half its life the entry is checked again in the background, so a busy sensor
+        // never waits for that query (the MQTT broker's 1 s TTL made it one message per sensor
+        // and second), and an answer is still never older than the TTL. A failed refresh
+        // changes nothing: the entry expires and the next call asks in the foreground.
+        if (hit.expiresAtMs - nowMs < ttlMs / 2 && !lookups.has(tokenHash)) {
+          const refresh = lookUp(tokenHash);
+          lookups.set(tokenHash, refresh);
+          refresh.catch(() => {});
+        }
+        return hit.identity;
+      }
       const unknownUntilMs = unknown.get(tokenHash);
       if (unknownUntilMs !== undefined) {
         if (unknownUntilMs > now()) return null;

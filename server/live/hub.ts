@@ -27,7 +27,9 @@ import { isAllowedHost, misdirected, type AllowedHosts } from '../auth/hosts';
 import { isTrustedUpgradeOrigin } from '../auth/origin';
 import type { SessionSigner } from '../auth/session';
 import { resolveSession } from '../auth/sessionState';
+import { markHeard, stageMs, stageTraceOn } from '../stageTrace';
 
+import type { LiveEcho } from './localEcho';
 import { missedMessages } from './replay';
 
 const HEARTBEAT_MS = 30_000;
@@ -90,6 +92,8 @@ export function startLiveHub(deps: {
   /** Origins besides the request's own host that may open a socket (PUBLIC_URL). */
   trustedOrigins?: ReadonlySet<string>;
   limits?: Partial<LiveLimits>;
+  /** Shared with this instance's reading writer: its messages are delivered at commit. */
+  echo?: LiveEcho;
 }): LiveHub {
   const clients = new Set<Client>();
   const socketsPerUser = new Map<string, number>();
@@ -139,6 +143,7 @@ export function startLiveHub(deps: {
 
   function deliver(payload: string | undefined) {
     if (!payload) return;
+    const t0 = performance.now();
     type Notice = ReadingMessage | AlarmMessage | ShopChangeMessage | AccessNotice;
     let message: Notice;
     try {
@@ -154,6 +159,7 @@ export function startLiveHub(deps: {
       frame ??= Buffer.from(payload);
       send(client, frame);
     }
+    if (stageTraceOn) stageMs('hub.fanout', performance.now() - t0);
   }
 
   /**
@@ -189,9 +195,16 @@ export function startLiveHub(deps: {
     client.socket.close(SESSION_ENDED, 'session ended');
   }
 
-  deps.listener.on(LIVE_CHANNEL, deliver);
+  deps.echo?.bind(deliver);
+  deps.listener.on(LIVE_CHANNEL, (payload) => {
+    markHeard(payload);
+    if (!deps.echo || deps.echo.heard(payload)) deliver(payload);
+  });
   // Access notices sent while the LISTEN connection was down are lost: check everyone again.
-  deps.listener.onReconnect(() => void recheck(new Set([...clients].map((c) => c.userId))));
+  deps.listener.onReconnect(() => {
+    deps.echo?.reset();
+    void recheck(new Set([...clients].map((c) => c.userId)));
+  });
 
   const heartbeat = setInterval(() => {
     for (const client of clients) {

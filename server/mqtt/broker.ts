@@ -44,6 +44,7 @@ import {
 } from '../auth/sensorRateLimit';
 import { createSensorTokenCache, hashToken } from '../auth/sensorTokens';
 import type { Logger } from '../logger';
+import { stageMs } from '../stageTrace';
 
 /** Where a forwarded original goes after its readings were stored: no one may subscribe to it. */
 const FORWARDED_TOPIC = '$drybench/forwarded';
@@ -183,9 +184,13 @@ export async function startBroker(options: BrokerOptions): Promise<RunningBroker
       if (!limiter.take(who.sensorId).ok) {
         return done(new Error('posting faster than its limit'));
       }
+      const t0 = performance.now();
+      let t1 = t0;
       tokens
         .resolve(who.token)
         .then((sensor) => {
+          t1 = performance.now();
+          stageMs('broker.token', t1 - t0);
           if (!sensor || sensor.sensorId !== who.sensorId) {
             log.info({ sensorId: who.sensorId }, 'sensor refused: token revoked');
             client.close();
@@ -195,6 +200,7 @@ export async function startBroker(options: BrokerOptions): Promise<RunningBroker
         })
         .then(
           () => {
+            stageMs('broker.forward', performance.now() - t1);
             packet.topic = FORWARDED_TOPIC;
             packet.retain = false;
             done(null);

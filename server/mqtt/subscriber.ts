@@ -16,6 +16,8 @@ import { acksTopic, MQTT_SERVICE_USERNAME, READINGS_FILTER } from '@/ingest/mqtt
 
 import type { Logger } from '../logger';
 
+import { stageMs } from '../stageTrace';
+
 import type { MessageAnswerer } from './answer';
 
 export interface MqttIngestOptions {
@@ -58,8 +60,10 @@ export function startMqttIngest(options: MqttIngestOptions): MqttIngest {
       connectTimeout: 10_000,
     });
     client.handleMessage = (packet, callback) => {
+      const t0 = performance.now();
       options.answer(packet.topic, packet.payload as Buffer).then(
         (outcome) => {
+          stageMs('mqtt.answer', performance.now() - t0);
           if (outcome.sensorId && outcome.body !== null) {
             client.publish(acksTopic(outcome.sensorId), JSON.stringify(outcome.body), { qos: 1 });
           }

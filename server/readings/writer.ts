@@ -35,7 +35,9 @@ import { insertReadingGroup, readingKey, type ReadingRow } from '@/db/queries/re
 import { MIN_TIME_MS } from '@/ingest/readingFields';
 
 import { ApiError, isDatabaseUnavailable, RetryLaterError } from '../errors';
+import type { LiveEcho } from '../live/localEcho';
 import { readingMessage } from '../live/messages';
+import { markCommitted, stageMs, stageTraceOn } from '../stageTrace';
 
 export interface WriteOutcome {
   /** `at` (epoch ms) of the rows this request inserted; the others were duplicates. */
@@ -50,6 +52,8 @@ export interface ReadingWriter {
 
 interface Pending {
   rows: ReadingRow[];
+  /** STAGE_TRACE only (server/stageTrace.ts): when it joined the queue. */
+  queuedAtMs?: number;
   resolve: (outcome: WriteOutcome) => void;
   reject: (err: unknown) => void;
 }
@@ -101,7 +105,11 @@ const isDataException = (err: unknown) =>
 
 export function createReadingWriter(
   pool: pg.Pool,
-  options: Partial<WriterOptions> & { partitions?: ReadingPartitionGuard } = {},
+  options: Partial<WriterOptions> & {
+    partitions?: ReadingPartitionGuard;
+    /** This instance's live hub hears its own messages at commit (server/live/localEcho.ts). */
+    echo?: LiveEcho;
+  } = {},
 ): ReadingWriter {
   const opts = { ...DEFAULTS, ...options };
   const partitions = options.partitions ?? createReadingPartitionGuard(pool);
@@ -133,6 +141,8 @@ export function createReadingWriter(
       (group.length === 0 || rowCount + queue[0]!.rows.length <= opts.maxGroupRows)
     ) {
       const next = queue.shift()!;
+      if (next.queuedAtMs !== undefined)
+        stageMs('writer.queue', performance.now() - next.queuedAtMs);
       group.push(next);
       rowCount += next.rows.length;
     }
@@ -151,7 +161,7 @@ export function createReadingWriter(
   /** Writes a group; on a failure that is not transient, each request again alone. */
   async function settle(group: Pending[]) {
     try {
-      const outcomes = await writeGroup(pool, partitions, group);
+      const outcomes = await writeGroup(pool, partitions, group, options.echo);
       group.forEach((p, i) => p.resolve(outcomes[i]!));
       return;
     } catch (err) {
@@ -185,7 +195,12 @@ export function createReadingWriter(
       pendingRows += rows.length;
       queuedRows += rows.length;
       return new Promise<WriteOutcome>((resolve, reject) => {
-        queue.push({ rows, resolve, reject });
+        queue.push({
+          rows,
+          resolve,
+          reject,
+          ...(stageTraceOn ? { queuedAtMs: performance.now() } : {}),
+        });
         if (queuedRows >= opts.maxGroupRows) void flush();
         else schedule();
       });
@@ -206,6 +221,7 @@ async function writeGroup(
   pool: pg.Pool,
   partitions: ReadingPartitionGuard,
   group: Pending[],
+  echo?: LiveEcho,
 ): Promise<WriteOutcome[]> {
   // The first request to name a (sensor, at) owns it; a later one in the same group is a duplicate.
   const owner = new Map<string, number>();
@@ -240,12 +256,38 @@ async function writeGroup(
   const liveMessages = (fresh: ReadingRow[][]) =>
     fresh.filter((f) => f.length > 0).map((f) => JSON.stringify(readingMessage(f)));
 
-  const insertedKeys = await insertReadingGroup(pool, rows, liveMessages(freshOf(owner)));
+  const t0 = performance.now();
+  const messages = liveMessages(freshOf(owner));
+  echo?.expect(messages);
+  let insertedKeys: Set<string>;
+  try {
+    insertedKeys = await insertReadingGroup(pool, rows, messages);
+  } catch (err) {
+    echo?.forget(messages);
+    throw err;
+  }
+  // The statement notifies only when every row was new.
+  if (insertedKeys.size === rows.length) echo?.committed(messages);
+  else echo?.forget(messages);
+  if (stageTraceOn) {
+    const t1 = performance.now();
+    stageMs('writer.statement', t1 - t0);
+    stageMs('writer.groupRows', rows.length);
+    markCommitted(messages);
+  }
   const fresh = freshOf(insertedKeys);
   // Some rows were duplicates, so the statement sent nothing: tell about the new ones only.
   // The rows are committed already, so this goes out after the commit, never for a lost row.
   if (insertedKeys.size > 0 && insertedKeys.size < rows.length) {
-    await notify(pool, LIVE_CHANNEL, liveMessages(fresh));
+    const later = liveMessages(fresh);
+    echo?.expect(later);
+    try {
+      await notify(pool, LIVE_CHANNEL, later);
+    } catch (err) {
+      echo?.forget(later);
+      throw err;
+    }
+    echo?.committed(later);
   }
   return fresh.map((f) => ({ insertedMs: new Set(f.map((r) => r.at.getTime())) }));
 }

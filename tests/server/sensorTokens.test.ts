@@ -5,7 +5,7 @@ import { randomUUID } from 'node:crypto';
 import { afterAll, beforeAll, describe, expect, it } from 'vitest';
 
 import { startNotificationListener } from '@/db/listener';
-import { insertSensor } from '@/db/queries/sensors';
+import { insertSensor, revokeSensorToken } from '@/db/queries/sensors';
 import { createSensorTokenCache, hashToken, newSensorToken } from '@/server/auth/sensorTokens';
 import { silentLogger } from '@/server/logger';
 
@@ -103,6 +103,42 @@ describe('unknown sensor tokens', () => {
       expect(counter.n).toBe(4);
       await tokens.resolve(x);
       expect(counter.n).toBe(5);
+    } finally {
+      stop();
+    }
+  });
+});
+
+describe('a known token past half its TTL', () => {
+  // Our own rule (server/auth/sensorTokens.ts): a busy sensor never waits for the re-check, and
+  // no answer is older than the TTL. The clock is frozen, so each step is exact.
+  it('is answered from the cache while one re-check runs behind it, and a revocation it finds bites', async () => {
+    const o = await ownerWithSensor(t);
+    let nowMs = 5_000_000;
+    const tokens = createSensorTokenCache(t.db, { ttlMs: 1000, now: () => nowMs });
+    const { counter, stop } = countTokenLookups();
+    const settle = () => new Promise((resolve) => setTimeout(resolve, 200));
+    try {
+      expect(await tokens.resolve(o.token)).toMatchObject({ sensorId: o.sensorId });
+      expect(counter.n).toBe(1);
+      nowMs += 400; // under half its life: no query
+      await tokens.resolve(o.token);
+      expect(counter.n).toBe(1);
+
+      nowMs += 200; // 600 ms old: answered now, one re-check started however many ask
+      const answers = await Promise.all([1, 2, 3].map(() => tokens.resolve(o.token)));
+      for (const a of answers) expect(a).toMatchObject({ sensorId: o.sensorId });
+      expect(counter.n).toBe(2);
+      await settle();
+
+      // Revoked without telling this cache: the entry refreshed at 600 ms is believed until
+      // its next re-check, which finds the revocation.
+      await revokeSensorToken(t.db, o.shopId, o.sensorId);
+      nowMs += 600; // 600 ms into the refreshed entry: answered, and re-checked behind it
+      expect(await tokens.resolve(o.token)).toMatchObject({ sensorId: o.sensorId });
+      expect(counter.n).toBe(3);
+      await settle();
+      expect(await tokens.resolve(o.token)).toBeNull();
     } finally {
       stop();
     }

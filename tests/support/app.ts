@@ -16,6 +16,7 @@ import { createMailer, createOutbox, startLocalSmtpServer } from '@/server/mail'
 import { DEFAULT_RATE_LIMITS, type RateLimitConfig } from '@/server/auth/rateLimits';
 import { silentLogger, type Logger } from '@/server/logger';
 import { createSurfaceEstimator } from '@/server/readings/surfaceEstimates';
+import { createLiveEcho } from '@/server/live/localEcho';
 import { createReadingWriter, type WriterOptions } from '@/server/readings/writer';
 import { VERIFICATION_SUBJECT } from '@/server/mail';
 import type { ImportJobs } from '@/server/jobs';
@@ -106,7 +107,9 @@ export function makeTestApp(options: TestAppOptions = {}) {
   });
   const listener = options.listen ? startNotificationListener(url, logger) : undefined;
   const tokens = createSensorTokenCache(database.db, { listener });
-  const writer = createReadingWriter(database.pool, options.writer);
+  // As server/index.ts: with a LISTEN connection, the hub hears this writer's messages at commit.
+  const echo = listener ? createLiveEcho() : undefined;
+  const writer = createReadingWriter(database.pool, { ...options.writer, echo });
   const estimator = createSurfaceEstimator(database.db);
   const alarms = createAlarmEngine({
     ...database,
@@ -148,6 +151,7 @@ export function makeTestApp(options: TestAppOptions = {}) {
     estimator,
     alarms,
     listener,
+    echo,
     mailer,
     outbox,
     smtp,

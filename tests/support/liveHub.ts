@@ -21,6 +21,7 @@ export async function startHubServer(): Promise<HubServer> {
     db: t.db,
     sessions: t.sessions,
     allowedHosts: t.allowedHosts,
+    echo: t.echo,
   });
   await t.listener!.ready;
   const server = http.createServer(t.app);
