@@ -74,6 +74,8 @@ export const DEFAULT_OPTIONS: BenchOptions = {
 
 export const USAGE = `npm run bench [-- options]
   --connections N    load generator connections (default ${DEFAULT_OPTIONS.connections})
+  --pg-port N        the bench PostgreSQL's port (default ${DEFAULT_OPTIONS.pgPort}; the next
+                     free one if it is taken)
   --duration S       seconds measured per phase (default ${DEFAULT_OPTIONS.durationS})
   --phases LIST      some of ${PHASES.join(',')} (default all)
   --cpu-prof DIR     write the server's CPU profile to DIR when it exits
@@ -87,6 +89,7 @@ export function readBenchOptions(argv: string[]): BenchOptions | 'help' {
     args: argv,
     options: {
       connections: { type: 'string' },
+      'pg-port': { type: 'string' },
       duration: { type: 'string' },
       phases: { type: 'string' },
       'cpu-prof': { type: 'string' },
@@ -109,6 +112,7 @@ export function readBenchOptions(argv: string[]): BenchOptions | 'help' {
   return {
     ...DEFAULT_OPTIONS,
     connections: positive('connections', values.connections, DEFAULT_OPTIONS.connections),
+    pgPort: positive('pg-port', values['pg-port'], DEFAULT_OPTIONS.pgPort),
     // Bounded so a run stays within a few minutes whatever is asked.
     durationS: Math.min(30, positive('duration', values.duration, DEFAULT_OPTIONS.durationS)),
     phases: phases as Phase[],
