@@ -1,5 +1,6 @@
 // The bare Express baseline as its own process, started by `npm run bench`; PORT picks the port.
-import { startBareExpress } from '@/scripts/bench';
+// From its own file, not the bench's index: the baseline must not load the bench's packages.
+import { startBareExpress } from './bareExpress';
 
 const port = Number(process.env.PORT ?? 0);
 startBareExpress(port).then((server) => {

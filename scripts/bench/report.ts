@@ -51,6 +51,9 @@ export function figuresOf(r: BenchResult): Figures {
     bundleKbRaw: r.web ? r.web.bundleKbRaw : null,
     bundleFiles: r.web ? r.web.scripts.length : null,
     rssAtStartMb: round(r.startRssMb, 0),
+    // The same-run baseline for rssMb: the bare Express process's peak (scripts/bench/run.ts).
+    bareRssMb: r.bareRssMb !== undefined ? round(r.bareRssMb, 0) : null,
+    rssVsBareExpress: r.bareRssMb !== undefined ? round(r.peakRssMb / r.bareRssMb, 2) : null,
     date: r.startedAt.toISOString(),
     cpuCount: r.cpuCount,
     busyCoresBefore: round(r.busyCoresBefore, 2),
@@ -320,7 +323,10 @@ export function formatReport(r: BenchResult): string {
   out.push(table(['figure', 'measured', 'target', ''], targetRows));
   out.push(
     `server memory: ${int(r.startRssMb)} MB resident once started, ${int(r.peakRssMb)} MB at ` +
-      'its peak (MB = 2^20 bytes; the server runs bundled on plain node, as npm start runs it)',
+      'its peak (MB = 2^20 bytes; the server runs bundled on plain node, as npm start runs it)' +
+      (r.bareRssMb !== undefined
+        ? `; the bare Express process peaked at ${int(r.bareRssMb)} MB under the bare phase's load`
+        : ''),
   );
   out.push(
     `failures: ${String(f.failures)} (non-2xx, socket errors, missing deliveries; should be 0)`,

@@ -60,6 +60,12 @@ export interface BenchResult {
   startRssMb: number;
   /** The Drybench server's peak resident memory over the whole run. */
   peakRssMb: number;
+  /**
+   * The bare Express process's peak resident memory once it has carried its share of the bare
+   * phase's load: what node, Express and that load cost without Drybench, so `peakRssMb` reads
+   * as a ratio to it. Absent when the bare phase does not run.
+   */
+  bareRssMb?: number;
 }
 
 export async function runBench(
@@ -179,14 +185,32 @@ export async function runBench(
 
     // HTTP overhead: the bare route against one reading per request.
     const httpPair: Contender<Phase>[] = [];
+    let bareServer: Child | undefined;
     if (has('bare')) {
       const barePort = await freePort();
+      // Bundled and on plain node like the server, so its memory is a like-for-like baseline.
+      execFileSync(
+        'npx',
+        [
+          'esbuild',
+          'scripts/bench/bareExpressMain.ts',
+          '--bundle',
+          '--platform=node',
+          '--target=node20',
+          '--format=esm',
+          '--packages=external',
+          '--outfile=.build/bareExpress.mjs',
+          '--log-level=warning',
+        ],
+        { stdio: 'inherit' },
+      );
       const bare = await startNodeChild({
-        entry: 'scripts/bench/bareExpressMain.ts',
+        entry: '.build/bareExpress.mjs',
         env: { ...process.env, PORT: String(barePort) },
         ready: /listening on/,
       });
       children.push(bare);
+      bareServer = bare;
       httpPair.push({
         key: 'bare',
         serverPid: bare.pid,
@@ -207,6 +231,7 @@ export async function runBench(
     if (httpPair.length > 0) {
       progress(`${httpPair.map((c) => c.key).join(' and ')}, interleaved…`);
       Object.assign(result, await interleave(httpPair, timing));
+      if (bareServer) result.bareRssMb = memoryOf(bareServer.pid).peakRssMb;
       // Only ingest1 has stored readings yet (the bare route stores none).
       if (has('ingest1')) result.ingest1Groups = await readGroupSizes(database.url);
     }

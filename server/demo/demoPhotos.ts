@@ -4,7 +4,7 @@
  * each face the scenario gives; an inspection shows the surface with the rusted share of its
  * ISO 4628-3 grade. A seeded generator makes the same picture from the same inputs every run.
  */
-import sharp from 'sharp';
+import { loadPhotoCodec } from '../photos';
 
 export const DEMO_PHOTO_WIDTH_PX = 1200;
 export const DEMO_PHOTO_HEIGHT_PX = 900;
@@ -95,6 +95,8 @@ function rustSpecks(box: Box, pct: number, random: () => number): string {
 }
 
 async function toJpeg(svg: string): Promise<Buffer> {
+  // The photo pipeline's sharp, loaded on first use like it (not at start).
+  const { sharp } = await loadPhotoCodec();
   return sharp(Buffer.from(svg)).jpeg({ quality: 88 }).toBuffer();
 }
 

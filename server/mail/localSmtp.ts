@@ -5,8 +5,7 @@
  */
 import type { AddressInfo } from 'node:net';
 
-import { simpleParser, type AddressObject } from 'mailparser';
-import { SMTPServer } from 'smtp-server';
+import type { AddressObject } from 'mailparser';
 
 import type { Logger } from '../logger';
 
@@ -32,6 +31,12 @@ export async function startLocalSmtpServer(options: {
 }): Promise<LocalSmtpServer> {
   const host = options.host ?? '127.0.0.1';
   const log = options.logger.child({ component: 'mail' });
+  // Loaded here, not at start: a server that relays to SMTP_HOST never needs either, and the two
+  // hold ~8 MB of heap for good once loaded (README, issue 13's memory row).
+  const [{ SMTPServer }, { simpleParser }] = await Promise.all([
+    import('smtp-server'),
+    import('mailparser'),
+  ]);
   const server = new SMTPServer({
     // Loopback only, no certificate: plain SMTP without authentication, like a local relay.
     authOptional: true,

@@ -9,7 +9,7 @@ import { randomUUID } from 'node:crypto';
 import type { Request, Response } from 'express';
 import { fileTypeFromBuffer } from 'file-type';
 import multer from 'multer';
-import sharp from 'sharp';
+import type Sharp from 'sharp';
 
 import type { Db } from '@/db';
 import { insertPhoto, subjectPhotos, type PhotoRow } from '@/db/queries/photos';
@@ -28,20 +28,32 @@ export const THUMB_LONG_SIDE_PX = 320;
 const MAX_INPUT_PIXELS = 50_000_000;
 
 /**
- * HEIC only where this sharp build decodes it: the prebuilt libvips reads HEIF with AV1 inside
- * (.avif) but not HEVC, which is what phones write. (Phone browsers mostly hand a JPEG to an
- * upload field anyway.)
+ * sharp (libvips, ~27 MB resident once loaded) is loaded on the first photo, not at start: most
+ * minutes of a server's life have no upload (README, issue 13's memory row). HEIC only where
+ * this sharp build decodes it: the prebuilt libvips reads HEIF with AV1 inside (.avif) but not
+ * HEVC, which is what phones write. (Phone browsers mostly hand a JPEG to an upload field anyway.)
  */
-export const HEIC_READABLE = sharp.format.heif.input.fileSuffix?.includes('.heic') ?? false;
-
-/** Types accepted, as file-type names them. */
-const ACCEPTED_MIME = new Set([
-  'image/jpeg',
-  'image/png',
-  'image/webp',
-  ...(HEIC_READABLE ? ['image/heic'] : []),
-]);
-const ACCEPTED_NAMES = HEIC_READABLE ? 'JPEG, PNG, WebP or HEIC' : 'JPEG, PNG or WebP';
+let codec: Promise<PhotoCodec> | undefined;
+interface PhotoCodec {
+  sharp: typeof Sharp;
+  /** Types accepted, as file-type names them. */
+  acceptedMime: Set<string>;
+  acceptedNames: string;
+}
+export const loadPhotoCodec = (): Promise<PhotoCodec> =>
+  (codec ??= import('sharp').then(({ default: sharp }) => {
+    const heic = sharp.format.heif.input.fileSuffix?.includes('.heic') ?? false;
+    return {
+      sharp,
+      acceptedMime: new Set([
+        'image/jpeg',
+        'image/png',
+        'image/webp',
+        ...(heic ? ['image/heic'] : []),
+      ]),
+      acceptedNames: heic ? 'JPEG, PNG, WebP or HEIC' : 'JPEG, PNG or WebP',
+    };
+  }));
 
 export const PHOTO_FIELD = 'photo';
 
@@ -96,11 +108,11 @@ export interface PreparedPhoto {
   thumb: { bytes: Buffer; widthPx: number; heightPx: number };
 }
 
-const unsupported = () =>
+const unsupported = (acceptedNames: string) =>
   new ApiError(
     415,
     'unsupported_media_type',
-    `Send a ${ACCEPTED_NAMES} photo; the file is not one (its name does not count).`,
+    `Send a ${acceptedNames} photo; the file is not one (its name does not count).`,
   );
 
 // At most this many photos decode at once on one server: each decode holds its full-size
@@ -132,8 +144,9 @@ export function preparePhoto(input: Buffer): Promise<PreparedPhoto> {
 }
 
 async function decodeAndEncode(input: Buffer): Promise<PreparedPhoto> {
+  const { sharp, acceptedMime, acceptedNames } = await loadPhotoCodec();
   const type = await fileTypeFromBuffer(input);
-  if (!type || !ACCEPTED_MIME.has(type.mime)) throw unsupported();
+  if (!type || !acceptedMime.has(type.mime)) throw unsupported(acceptedNames);
   const encode = async (longSidePx: number, quality: number) => {
     const { data, info } = await sharp(input, { limitInputPixels: MAX_INPUT_PIXELS })
       // Orientation lives in EXIF, which is dropped below: apply it to the pixels first.
@@ -158,7 +171,7 @@ async function decodeAndEncode(input: Buffer): Promise<PreparedPhoto> {
     throw new ApiError(
       415,
       'unsupported_media_type',
-      `The photo could not be read as an image; send a ${ACCEPTED_NAMES}.`,
+      `The photo could not be read as an image; send a ${acceptedNames}.`,
     );
   }
 }

@@ -106,7 +106,7 @@ function drawShopWide(doc: PDFKit.PDFDocument, report: WeekReport, width: number
 
 export async function renderWeekReportPdf(input: WeekReportPdfInput): Promise<Buffer> {
   const { report, series } = input;
-  const { doc, width, done } = startPdf(report.shop.paperSize, {
+  const { doc, width, done } = await startPdf(report.shop.paperSize, {
     Title: `Week report ${report.shop.name} ${report.week.start}`,
     Subject: `Week of ${report.week.start}, ${report.shop.timeZone}`,
     CreationDate: new Date(report.generatedAt),

@@ -3,7 +3,7 @@
  * carries ("made …" and "page i of n"): shared by the week report and the trial export, so both
  * print alike.
  */
-import PDFDocument from 'pdfkit';
+import type PDFKitDocument from 'pdfkit';
 
 import type { PaperSize } from '@/ingest/wire/reports';
 
@@ -26,7 +26,19 @@ export interface StartedPdf {
   done: Promise<Buffer>;
 }
 
-export function startPdf(paperSize: PaperSize, info: PDFKit.DocumentInfo): StartedPdf {
+/**
+ * pdfkit (with its font engine) is loaded on the first PDF, not at start: it is ~6 MB of heap
+ * a server holds for good once loaded, and most instances make a PDF once a week (README,
+ * issue 13's memory row).
+ */
+let pdfkit: Promise<typeof PDFKitDocument> | undefined;
+const loadPdfkit = () => (pdfkit ??= import('pdfkit').then((m) => m.default));
+
+export async function startPdf(
+  paperSize: PaperSize,
+  info: PDFKit.DocumentInfo,
+): Promise<StartedPdf> {
+  const PDFDocument = await loadPdfkit();
   const paper = PAPER_POINTS[paperSize];
   const doc = new PDFDocument({
     size: [paper.width, paper.height],

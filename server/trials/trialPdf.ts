@@ -246,7 +246,7 @@ function drawFriedman(doc: Doc, e: TrialExport, width: number): void {
 }
 
 export async function renderTrialPdf(e: TrialExport): Promise<Buffer> {
-  const { doc, width, done } = startPdf(e.shop.paperSize, {
+  const { doc, width, done } = await startPdf(e.shop.paperSize, {
     Title: `Trial ${e.trial.name}`,
     Subject: `Protection trial of ${e.shop.name}`,
     CreationDate: new Date(e.generatedAt),
