@@ -53,16 +53,26 @@ export interface ImportSpeedResult {
   fileBytes: number;
   imports: ImportRun[];
   copyMs: number[];
+  floorMs: number[];
   /** Medians over the rounds. */
   importRowsPerS: number;
   copyRowsPerS: number;
+  /** The same rows COPYed into a readings-shaped table with its indexes (the storage floor). */
+  floorRowsPerS: number;
 }
 
 /**
  * A year of one-minute lines as a stand-alone logger writes them: a line number, the logger's
  * local wall time (the autumn hour twice, the spring hour never), air and RH with one decimal.
  */
-export function loggerCsv(rows: number, endMs: number): { text: string; rows: number } {
+export interface LoggerFile {
+  text: string;
+  rows: number;
+  /** The same lines as readings rows (COPY text, readings' 13 columns): the floor's input. */
+  stored: string;
+}
+
+export function loggerCsv(rows: number, endMs: number): LoggerFile {
   const minuteMs = 60_000;
   const startMs = Math.floor((endMs - rows * minuteMs) / 3_600_000) * 3_600_000;
   const parts = new Intl.DateTimeFormat('en-CA', {
@@ -76,6 +86,10 @@ export function loggerCsv(rows: number, endMs: number): { text: string; rows: nu
   let hourPrefix = '';
   let hourOf = -1;
   const lines = [HEADER];
+  const stored: string[] = [];
+  // Made-up ids: the floor's table has no foreign keys, as readings has none.
+  const ids = '00000000-0000-4000-8000-00000000000a';
+  const idCells = `${ids}\t`;
   for (let i = 0; i < rows; i++) {
     const atMs = startMs + i * minuteMs;
     const hour = Math.floor(atMs / 3_600_000);
@@ -90,8 +104,15 @@ export function loggerCsv(rows: number, endMs: number): { text: string; rows: nu
     const airC = 14 + 6 * Math.sin(day) + ((i * 7919) % 10) / 10;
     const rhPct = 62 - 15 * Math.sin(day) + ((i * 104_729) % 10) / 10;
     lines.push(`${i + 1},${hourPrefix}${minute}:00,${airC.toFixed(1)},${rhPct.toFixed(1)}`);
+    // Derived columns with values of the usual width (dew point, estimated surface, margin, EMC).
+    const at = new Date(atMs).toISOString();
+    const dew = airC - 6.123456789012;
+    stored.push(
+      `${idCells}${at}\t${idCells}${idCells}${airC.toFixed(1)}\t${rhPct.toFixed(1)}\t${airC - 0.4}` +
+        `\testimate\t\\N\t${dew}\t${airC - 0.4 - dew}\t${11 + (i % 7) / 3}\tdry`,
+    );
   }
-  return { text: `${lines.join('\n')}\n`, rows };
+  return { text: `${lines.join('\n')}\n`, rows, stored: `${stored.join('\n')}\n` };
 }
 
 async function importSensor(url: string, cookie: string, shopId: string, zoneId: string) {
@@ -183,6 +204,36 @@ async function copyOnce(databaseUrl: string, csv: string): Promise<number> {
   }
 }
 
+/**
+ * The floor: the same lines as readings rows, one COPY into a table shaped like readings with
+ * its key and covering index (not partitioned, no staging, nothing derived): what storing the
+ * rows costs before any of the import's own work.
+ */
+async function storeFloorOnce(databaseUrl: string, stored: string): Promise<number> {
+  const client = new pg.Client({ connectionString: databaseUrl });
+  await client.connect();
+  try {
+    await client.query(
+      `create table if not exists bench_import_floor
+         (like readings including defaults including indexes including constraints)`,
+    );
+    await client.query('truncate bench_import_floor');
+    const t0 = performance.now();
+    await pipeline(
+      Readable.from([stored]),
+      client.query(
+        copyFrom(
+          'copy bench_import_floor (sensor_id, at, shop_id, zone_id, air_c, rh_pct, surface_c, ' +
+            'surface_source, battery_v, dew_point_c, margin_k, emc_pct, level) from stdin',
+        ),
+      ),
+    );
+    return performance.now() - t0;
+  } finally {
+    await client.end();
+  }
+}
+
 const median = (xs: number[]) => {
   const s = [...xs].sort((a, b) => a - b);
   const mid = Math.floor(s.length / 2);
@@ -196,7 +247,7 @@ export async function measureImportSpeed(opts: {
    * The file, made before any connection is open: making it holds the event loop for seconds,
    * past the server's keep-alive, and fetch would then reuse a socket the server had closed.
    */
-  file: { text: string; rows: number };
+  file: LoggerFile;
   rounds: number;
   progress: (line: string) => void;
 }): Promise<ImportSpeedResult> {
@@ -213,13 +264,15 @@ export async function measureImportSpeed(opts: {
 
   const imports: ImportRun[] = [];
   const copyMs: number[] = [];
+  const floorMs: number[] = [];
   for (let round = 0; round < opts.rounds; round++) {
     copyMs.push(await copyOnce(opts.databaseUrl, text));
+    floorMs.push(await storeFloorOnce(opts.databaseUrl, opts.file.stored));
     const sensorId = await importSensor(opts.url, cookie, shop.id, zone.id);
     const run = await importOnce(opts.url, cookie, shop.id, sensorId, csv, rows);
     imports.push(run);
     opts.progress(
-      `  round ${round + 1}: COPY ${copyMs.at(-1)!.toFixed(0)} ms, import ${run.totalMs.toFixed(0)} ms ` +
+      `  round ${round + 1}: COPY ${copyMs.at(-1)!.toFixed(0)} ms, readings-shaped COPY ${floorMs.at(-1)!.toFixed(0)} ms, import ${run.totalMs.toFixed(0)} ms ` +
         `(upload ${run.uploadMs.toFixed(0)}, start ${run.startMs.toFixed(0)}, queued ` +
         `${run.queuedMs.toFixed(0)}, read ${run.readMs.toFixed(0)}, store ${run.storeMs.toFixed(0)}), ` +
         `${run.rowsStored} stored, ${run.rowsRejected} rejected`,
@@ -227,14 +280,16 @@ export async function measureImportSpeed(opts: {
   }
   const client = new pg.Client({ connectionString: opts.databaseUrl });
   await client.connect();
-  await client.query('drop table if exists bench_import_copy');
+  await client.query('drop table if exists bench_import_copy, bench_import_floor');
   await client.end();
   return {
     rows: rows,
     fileBytes: csv.size,
     imports,
     copyMs,
+    floorMs,
     importRowsPerS: rows / (median(imports.map((r) => r.totalMs)) / 1000),
     copyRowsPerS: rows / (median(copyMs) / 1000),
+    floorRowsPerS: rows / (median(floorMs) / 1000),
   };
 }

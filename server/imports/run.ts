@@ -185,10 +185,13 @@ function progressTicker(deps: ImportRunDeps, importId: string, counts: ImportCou
       });
   };
   return {
-    /** Called often; writes when 250 ms have passed and no write is under way. */
-    tick() {
+    /**
+     * Called often; writes when 250 ms have passed and no write is under way, or (`now`) once
+     * the file is read whole, so the last read count shows while the rows are stored.
+     */
+    tick(now = false) {
       const t = Date.now();
-      if (inFlight || t - lastMs < PROGRESS_INTERVAL_MS) return;
+      if (inFlight || (!now && t - lastMs < PROGRESS_INTERVAL_MS)) return;
       lastMs = t;
       write();
     },
@@ -312,6 +315,8 @@ async function importFile(
     });
   });
   ticker.check();
+  await ticker.settle();
+  ticker.tick(true);
 
   // 2. Derive in time order, as a live batch is.
   const n = acc.atMs.length;
