@@ -9,12 +9,10 @@
  *    (server/readings/prepare.ts): one reading per instant (the first wins), the surface
  *    estimate over the readings in time order (rebuilt from the stored readings before them),
  *    then the margin and level with the zone's limits.
- * 3. In ONE transaction: when the sensor has nothing stored within the file's span, COPY the
- *    rows straight into readings (in a savepoint: a key clash falls back to the next way);
- *    otherwise COPY them into a temporary staging table and one
+ * 3. In ONE transaction: COPY the rows into a temporary staging table, one
  *    `insert into readings select … on conflict do nothing` (a row already stored is a
- *    duplicate and changes nothing, so importing a file twice stores nothing new); then the
- *    rejected lines, and the import's final row with its live message — committed together.
+ *    duplicate and changes nothing, so importing a file twice stores nothing new), the rejected
+ *    lines, and the import's final row with its live message — committed together.
  *
  * Imported readings never pass the alarm queue: the past raises no alarm and sends no mail.
  * They are readings, so reports count them. Progress goes to the import row and the shop's
@@ -111,9 +109,6 @@ const STAGE_TABLE = `create temporary table import_stage (
 ) on commit drop`;
 const STAGE_COLUMNS =
   'air_c, rh_pct, surface_c, surface_source, dew_point_c, margin_k, emc_pct, level';
-
-/** PostgreSQL's SQLSTATE for a duplicate key. */
-const UNIQUE_VIOLATION = '23505';
 
 /** COPY's text format: the values here are numbers and enum words (no escapes needed). */
 const copyNumber = (v: number | null) => (v === null ? '\\N' : String(v));
@@ -336,9 +331,7 @@ async function importFile(
     );
   }
   const limits = { cautionK: sensor.cautionK, wetK: sensor.wetK };
-  const ids = { sensor: sensor.sensorId, shop: sensor.shopId, zone: sensor.zoneId };
-  /** `direct`: readings' own columns (the ids, an ISO time); else the staging table's. */
-  function* copyLines(direct: boolean): Generator<string> {
+  function* copyLines(): Generator<string> {
     let chunk = '';
     for (let k = 0; k < n; k++) {
       const i = order[k]!;
@@ -350,16 +343,9 @@ async function importFile(
         limits,
       );
       const source = probe ? 'probe' : surfaceC === null ? '\\N' : 'estimate';
-      if (direct) {
-        chunk +=
-          `${ids.sensor}\t${new Date(acc.atMs[i]!).toISOString()}\t${ids.shop}\t${ids.zone}\t` +
-          `${acc.airC[i]!}\t${acc.rhPct[i]!}\t${copyNumber(surfaceC)}\t${source}\t\\N\t` +
-          `${copyNumber(d.dewPointC)}\t${copyNumber(d.marginK)}\t${copyNumber(d.emcPct)}\t${d.level}\n`;
-      } else {
-        chunk +=
-          `${acc.atMs[i]!}\t${acc.airC[i]!}\t${acc.rhPct[i]!}\t${copyNumber(surfaceC)}\t${source}\t` +
-          `${copyNumber(d.dewPointC)}\t${copyNumber(d.marginK)}\t${copyNumber(d.emcPct)}\t${d.level}\n`;
-      }
+      chunk +=
+        `${acc.atMs[i]!}\t${acc.airC[i]!}\t${acc.rhPct[i]!}\t${copyNumber(surfaceC)}\t${source}\t` +
+        `${copyNumber(d.dewPointC)}\t${copyNumber(d.marginK)}\t${copyNumber(d.emcPct)}\t${d.level}\n`;
       if ((k + 1) % COPY_CHUNK_ROWS === 0) {
         ticker.check();
         yield chunk;
@@ -371,58 +357,6 @@ async function importFile(
 
   // 3. One transaction, on a connection of its own without the pool's request timeouts: a
   // large file may take longer than any one web request should.
-  /**
-   * The usual case, a sensor's first import of that span: COPY straight into readings, saving
-   * the staging table's write and read (~15 % of a year's file). Only when the sensor has no
-   * stored reading within the file's span, and in a savepoint: a reading that arrives for one of
-   * the file's instants meanwhile makes the COPY fail on the key, and the staged insert below
-   * (which skips what is stored) takes over. Null: not taken, or given up.
-   */
-  async function copyDirect(): Promise<number | null> {
-    if (n === 0) return null;
-    const { rows } = await client.query<{ stored: boolean }>(
-      `select exists (select 1 from readings where shop_id = $1 and sensor_id = $2
-         and at between $3 and $4) as stored`,
-      [ids.shop, ids.sensor, counts.firstAt, counts.lastAt],
-    );
-    if (rows[0]?.stored) return null;
-    await client.query('savepoint import_direct');
-    try {
-      const copy = client.query(
-        copyFrom(
-          'copy readings (sensor_id, at, shop_id, zone_id, air_c, rh_pct, surface_c, ' +
-            'surface_source, battery_v, dew_point_c, margin_k, emc_pct, level) from stdin',
-        ),
-      );
-      await pipeline(Readable.from(copyLines(true)), copy);
-      await client.query('release savepoint import_direct');
-      return copy.rowCount;
-    } catch (err) {
-      if ((err as { code?: unknown }).code !== UNIQUE_VIOLATION) throw err;
-      await client.query('rollback to savepoint import_direct');
-      return null;
-    }
-  }
-
-  /** Any case: COPY into a staging table, then one insert that skips what is stored. */
-  async function copyStaged(): Promise<number> {
-    await client.query(STAGE_TABLE);
-    await pipeline(
-      Readable.from(copyLines(false)),
-      client.query(copyFrom('copy import_stage from stdin')),
-    );
-    ticker.check();
-    // No conflict target: it fits the (sensor_id, at) key and the (shop_id, sensor_id, at) one.
-    const inserted = await client.query(
-      `insert into readings (sensor_id, at, shop_id, zone_id, ${STAGE_COLUMNS})
-       select $1, timestamptz 'epoch' + at_ms * interval '1 millisecond', $2, $3, ${STAGE_COLUMNS}
-       from import_stage
-       on conflict do nothing`,
-      [ids.sensor, ids.shop, ids.zone],
-    );
-    return inserted.rowCount ?? 0;
-  }
-
   const client = new pg.Client({
     ...deps.pool.options,
     statement_timeout: undefined,
@@ -432,12 +366,25 @@ async function importFile(
   client.on('error', () => {});
   try {
     await client.query('begin');
+    await client.query(STAGE_TABLE);
+    await pipeline(
+      Readable.from(copyLines()),
+      client.query(copyFrom('copy import_stage from stdin')),
+    );
+    ticker.check();
     // Months back (a logger's history) land in their own month's partition, never the default.
     if (counts.firstAt && counts.lastAt) {
       await ensureReadingPartitionsWithin(drizzleOn(client), counts.firstAt, counts.lastAt);
     }
-    const stored = (await copyDirect()) ?? (await copyStaged());
-    counts.rowsStored = stored;
+    // No conflict target: it fits the (sensor_id, at) key and the (shop_id, sensor_id, at) one.
+    const inserted = await client.query(
+      `insert into readings (sensor_id, at, shop_id, zone_id, ${STAGE_COLUMNS})
+       select $1, timestamptz 'epoch' + at_ms * interval '1 millisecond', $2, $3, ${STAGE_COLUMNS}
+       from import_stage
+       on conflict do nothing`,
+      [sensor.sensorId, sensor.shopId, sensor.zoneId],
+    );
+    counts.rowsStored = inserted.rowCount ?? 0;
     counts.rowsDuplicate += n - counts.rowsStored;
     await insertRejects(client, row.id, rejects);
     await ticker.settle();
