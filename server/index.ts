@@ -27,6 +27,7 @@ import {
   scheduleWeekReportMails,
   startJobRunner,
   workAlarmMails,
+  scheduleUploadExpiry,
   workImports,
 } from './jobs';
 import { startLiveHub } from './live/hub';
@@ -123,8 +124,12 @@ async function main() {
     // Roll every finished hour up first, so no raw month goes before its hours are kept.
     before: () => runReadingRollup(db, Date.now()),
   });
-  // CSV imports: one at a time on each instance; without storage there are no files to import.
-  if (storage) await workImports(jobs, { db, pool, storage, logger });
+  // CSV imports: two at a time on each instance (server/jobs/importJob.ts says why), and
+  // hourly, uploads never started are let go; without storage there are no files to import.
+  if (storage) {
+    await workImports(jobs, { db, pool, storage, logger });
+    await scheduleUploadExpiry(jobs, { pool, storage, logger });
+  }
   // Monday 07:00 shop time: last week's report to owners and members who keep it on.
   await scheduleWeekReportMails(jobs, {
     db,

@@ -240,6 +240,26 @@ export async function failImport(
   if (updated.rowCount) await notifyRow(pool, importId, liveMessage, channel);
 }
 
+/**
+ * Uploads never started and older than `before`: cancelled with the reason, in one
+ * compare-and-set (a start that commits first wins and the row is left alone). The object keys
+ * of the files to let go of.
+ */
+export async function expireUploads(
+  pool: pg.Pool,
+  before: Date,
+  error: { code: string; message: string },
+): Promise<{ id: string; objectKey: string }[]> {
+  const { rows } = await pool.query<{ id: string; object_key: string }>(
+    `update imports set status = 'cancelled', error_code = $2, error_message = $3,
+       finished_at = now()
+     where status = 'uploaded' and created_at < $1
+     returning id, object_key`,
+    [before, error.code, error.message],
+  );
+  return rows.map((r) => ({ id: r.id, objectKey: r.object_key }));
+}
+
 /** The lines of the file that were not stored, in line order, inserted in the job's transaction. */
 export async function insertRejects(
   client: pg.ClientBase,

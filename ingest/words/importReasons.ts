@@ -73,4 +73,6 @@ export const IMPORT_ERRORS = {
     'The file could not be read from storage; start the import again with a new upload.',
   import_database: 'The database could not take the import; upload the file again later.',
   import_failed: 'The import stopped on an unexpected problem; nothing of it was stored.',
+  upload_expired: (hours: number) =>
+    `The file was uploaded but not started within ${hours} hours, so it was let go; upload it again to import it.`,
 } as const;

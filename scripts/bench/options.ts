@@ -12,6 +12,8 @@ export const PHASES = [
   'mqtt',
   'report',
   'web',
+  // Stores a million readings: after the phases whose rates it would slow, before the chart's.
+  'import',
   'chart',
   'chartLong',
 ] as const;
@@ -41,6 +43,10 @@ export interface BenchOptions {
   /** Readings per background request: 1, as real sensors post one reading at a time. */
   backgroundBatch: number;
   phases: Phase[];
+  /** Lines of the logger file the import phase imports (and COPYs as its baseline). */
+  importRows: number;
+  /** COPY-then-import rounds of the import phase; the figures are their medians. */
+  importRounds: number;
   /** Where the server writes a V8 CPU profile on exit (node --cpu-prof), if set. */
   cpuProfDir: string | null;
   /** Where to write pg_stat_statements' top statements of the measured phases, if set. */
@@ -66,6 +72,8 @@ export const DEFAULT_OPTIONS: BenchOptions = {
   backgroundReadingsPerS: 1000,
   backgroundBatch: 1,
   phases: [...PHASES],
+  importRows: 500_000,
+  importRounds: 3,
   cpuProfDir: null,
   pgStatsFile: null,
   webDir: null,
@@ -73,12 +81,12 @@ export const DEFAULT_OPTIONS: BenchOptions = {
 };
 
 export const USAGE = `npm run bench [-- options]
-  --pg-port N        the bench's PostgreSQL port (default ${DEFAULT_OPTIONS.pgPort})
   --connections N    load generator connections (default ${DEFAULT_OPTIONS.connections})
-  --pg-port N        the bench PostgreSQL's port (default ${DEFAULT_OPTIONS.pgPort}; the next
-                     free one if it is taken)
   --duration S       seconds measured per phase (default ${DEFAULT_OPTIONS.durationS})
   --phases LIST      some of ${PHASES.join(',')} (default all)
+  --pg-port N        the bench's own PostgreSQL port (default ${DEFAULT_OPTIONS.pgPort}; a free one if taken)
+  --import-rows N    lines of the import phase's logger file (default ${DEFAULT_OPTIONS.importRows})
+  --import-rounds N  COPY-then-import rounds of the import phase (default ${DEFAULT_OPTIONS.importRounds})
   --cpu-prof DIR     write the server's (and the MQTT broker's) CPU profile to DIR when it exits
   --pg-stats FILE    write PostgreSQL's top statements (pg_stat_statements) to FILE
   --web-dir DIR      web phase: serve this export instead of building dist/ (to compare builds)
@@ -91,9 +99,10 @@ export function readBenchOptions(argv: string[]): BenchOptions | 'help' {
     options: {
       'pg-port': { type: 'string' },
       connections: { type: 'string' },
-      'pg-port': { type: 'string' },
       duration: { type: 'string' },
       phases: { type: 'string' },
+      'import-rows': { type: 'string' },
+      'import-rounds': { type: 'string' },
       'cpu-prof': { type: 'string' },
       'pg-stats': { type: 'string' },
       'web-dir': { type: 'string' },
@@ -115,10 +124,11 @@ export function readBenchOptions(argv: string[]): BenchOptions | 'help' {
     ...DEFAULT_OPTIONS,
     pgPort: positive('pg-port', values['pg-port'], DEFAULT_OPTIONS.pgPort),
     connections: positive('connections', values.connections, DEFAULT_OPTIONS.connections),
-    pgPort: positive('pg-port', values['pg-port'], DEFAULT_OPTIONS.pgPort),
     // Bounded so a run stays within a few minutes whatever is asked.
     durationS: Math.min(30, positive('duration', values.duration, DEFAULT_OPTIONS.durationS)),
     phases: phases as Phase[],
+    importRows: positive('import-rows', values['import-rows'], DEFAULT_OPTIONS.importRows),
+    importRounds: positive('import-rounds', values['import-rounds'], DEFAULT_OPTIONS.importRounds),
     cpuProfDir: values['cpu-prof'] ?? null,
     pgStatsFile: values['pg-stats'] ?? null,
     webDir: values['web-dir'] ?? null,

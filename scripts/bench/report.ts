@@ -19,6 +19,8 @@ export const TARGETS = {
   weekReportPdfMs: { atMost: 1000 },
   bundleKbGz: { atMost: 450 },
   firstRenderMs: { atMost: 1000 },
+  // A logger file's rows/s end to end (upload → stored) over a bare COPY of it (issue 14).
+  importVsCopy: { atLeast: 0.6 },
 } as const;
 
 export type Figures = Record<keyof typeof TARGETS, number | null> & Record<string, unknown>;
@@ -50,6 +52,15 @@ export function figuresOf(r: BenchResult): Figures {
     firstRenderMs: r.web ? round(r.web.firstRenderMs, 0) : null,
     bundleKbRaw: r.web ? r.web.bundleKbRaw : null,
     bundleFiles: r.web ? r.web.scripts.length : null,
+    importVsCopy: r.import ? round(r.import.importRowsPerS / r.import.copyRowsPerS, 3) : null,
+    importRowsPerS: r.import ? round(r.import.importRowsPerS, 0) : null,
+    importCopyRowsPerS: r.import ? round(r.import.copyRowsPerS, 0) : null,
+    // The import over the same rows COPYed into a readings-shaped table with its indexes.
+    importVsStoreFloor: r.import
+      ? round(r.import.importRowsPerS / r.import.floorRowsPerS, 3)
+      : null,
+    importStoreFloorRowsPerS: r.import ? round(r.import.floorRowsPerS, 0) : null,
+    importPeakRssMb: r.import ? round(r.import.peakRssMb, 0) : null,
     rssAtStartMb: round(r.startRssMb, 0),
     // The same-run baseline for rssMb: the bare Express process's peak (scripts/bench/run.ts).
     bareRssMb: r.bareRssMb !== undefined ? round(r.bareRssMb, 0) : null,
@@ -299,6 +310,22 @@ export function formatReport(r: BenchResult): string {
           .map((s) => `${s.file.split('/').pop()} ${(s.gzBytes / 1024).toFixed(1)}`)
           .join(', ') +
         ')',
+    );
+  }
+
+  if (r.import) {
+    const im = r.import;
+    const stage = (k: keyof (typeof im.imports)[number]) =>
+      im.imports.map((x) => Math.round(Number(x[k]))).join('/');
+    out.push(
+      `import: ${int(im.rows)} lines (${(im.fileBytes / 2 ** 20).toFixed(1)} MB), ` +
+        `${im.imports.length} rounds; import ${int(im.importRowsPerS)} rows/s end to end, bare COPY ` +
+        `${int(im.copyRowsPerS)} rows/s, readings-shaped COPY (key and covering index) ` +
+        `${int(im.floorRowsPerS)} rows/s (medians); per round, ms: total ${stage('totalMs')}, ` +
+        `COPY ${im.copyMs.map(Math.round).join('/')}, readings-shaped ` +
+        `${im.floorMs.map(Math.round).join('/')}; stages upload ${stage('uploadMs')}, start ` +
+        `${stage('startMs')}, queued ${stage('queuedMs')}, read ${stage('readMs')}, store ` +
+        `${stage('storeMs')}; server peak RSS after it ${int(im.peakRssMb)} MB`,
     );
   }
 

@@ -4,11 +4,13 @@
  */
 import { execFileSync } from 'node:child_process';
 import { randomBytes } from 'node:crypto';
+import fs from 'node:fs';
 import os from 'node:os';
 
 import { measureChartQuery, type ChartQueryResult } from './chartHistory';
 import { measureLongChart, type LongChartResult } from './chartLongRange';
 import { createFixtures, type BenchFixtures } from './fixtures';
+import { loggerCsv, measureImportSpeed, type ImportSpeedResult } from './importSpeed';
 import { runHttpSlice } from './httpLoad';
 import { interleave, type Contender, type Measured } from './interleave';
 import { connectLiveClients, measureLiveLatency, type LiveLatencyResult } from './liveLatency';
@@ -56,6 +58,8 @@ export interface BenchResult {
   weekReport?: WeekReportBench;
   /** The overview in a fresh Chromium: its first render and the JavaScript it loaded. */
   web?: WebResult;
+  /** A logger file imported end to end against a bare COPY of it (scripts/bench/importSpeed.ts). */
+  import?: ImportSpeedResult & { peakRssMb: number };
   /** The Drybench server's resident memory once started and set up, before any load. */
   startRssMb: number;
   /** The Drybench server's peak resident memory over the whole run. */
@@ -82,6 +86,8 @@ export async function runBench(
   };
   const has = (phase: Phase) => options.phases.includes(phase);
   const readings = createReadingSource();
+  // The import phase's logger file, ending a day ago, made before any connection is open.
+  const importFile = has('import') ? loggerCsv(options.importRows, Date.now() - 86_400_000) : null;
 
   progress(`starting PostgreSQL on 127.0.0.1:${options.pgPort}…`);
   const database = await startBenchDatabase({
@@ -139,20 +145,45 @@ export async function runBench(
         }),
       );
     }
+    // The import phase: the uploaded files go to the S3 fake, as under npm start.
+    const storageEnv: Record<string, string> = {};
+    if (has('import')) {
+      const s3Port = await freePort();
+      const s3Dir = `.data/s3-bench-${randomBytes(4).toString('hex')}`;
+      Object.assign(storageEnv, {
+        S3_ENDPOINT: `http://127.0.0.1:${s3Port}`,
+        S3_BUCKET: 'drybench-bench',
+        S3_ACCESS_KEY_ID: 'S3RVER',
+        S3_SECRET_ACCESS_KEY: 'S3RVER',
+      });
+      children.push(
+        await startNodeChild({
+          entry: 'scripts/s3-fake.ts',
+          args: ['--port', String(s3Port), '--dir', s3Dir, '--bucket', 'drybench-bench'],
+          env: process.env,
+          ready: /S3 fake on/,
+        }),
+      );
+      closers.push(async () => fs.rmSync(s3Dir, { recursive: true, force: true }));
+    }
     // The server as npm start runs it: bundled, on plain node.
     execFileSync('bash', ['scripts/build-server.sh'], { stdio: 'inherit' });
     const server = await startNodeChild({
       entry: '.build/server.mjs',
       nodeArgs: options.cpuProfDir ? ['--cpu-prof', `--cpu-prof-dir=${options.cpuProfDir}`] : [],
-      env: { ...serverEnv(database.url, serverPort, options.wsClients), ...mqttEnv },
+      env: {
+        ...serverEnv(database.url, serverPort, options.wsClients),
+        ...mqttEnv,
+        ...storageEnv,
+      },
       ready: /listening on/,
     });
     children.push(server);
     const url = `http://127.0.0.1:${serverPort}`;
 
     progress('creating the shops, sensors and owners through the API…');
-    // The web phase alone makes its own small shop: no fleet to set up for it.
-    const webOnly = options.phases.every((p) => p === 'web');
+    // The web and import phases make their own small shops: no fleet to set up for them.
+    const webOnly = options.phases.every((p) => p === 'web' || p === 'import');
     const fixtures = await createFixtures(url, {
       probeSensors: options.probeSensors,
       fleetSensors: webOnly ? 0 : options.fleetSensors,
@@ -325,6 +356,22 @@ export async function runBench(
         traceDir: options.webTraceDir,
         progress,
       });
+    }
+
+    // After the peak is read: holding a file's rows is the import's own memory, shown apart.
+    if (has('import')) {
+      progress(
+        `import: ${options.importRows.toLocaleString('en-US')}-line logger file, upload → stored, ` +
+          `against a bare COPY of it, ${options.importRounds} rounds…`,
+      );
+      const speed = await measureImportSpeed({
+        url,
+        databaseUrl: database.url,
+        file: importFile!,
+        rounds: options.importRounds,
+        progress,
+      });
+      result.import = { ...speed, peakRssMb: memoryOf(server.pid).peakRssMb };
     }
 
     if (has('chart')) {

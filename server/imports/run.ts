@@ -96,12 +96,22 @@ interface Accepted {
   emcPct: (number | null)[];
 }
 
-const COPY_COLUMNS =
-  'sensor_id, at, shop_id, zone_id, air_c, rh_pct, surface_c, surface_source, battery_v, ' +
-  'dew_point_c, margin_k, emc_pct, level';
+/**
+ * The staging table holds what differs from row to row; the sensor, shop and zone are the same
+ * for every row of a file and go into the insert as parameters, and the time travels as epoch
+ * ms. That is half the bytes the client formats and COPY parses (three UUIDs and an ISO time a
+ * row were ~110 of ~250 bytes), and a number is cheaper to write than `toISOString()`.
+ */
+const STAGE_TABLE = `create temporary table import_stage (
+  at_ms bigint not null, air_c double precision not null, rh_pct double precision not null,
+  surface_c double precision, surface_source surface_source, dew_point_c double precision,
+  margin_k double precision, emc_pct double precision, level level not null
+) on commit drop`;
+const STAGE_COLUMNS =
+  'air_c, rh_pct, surface_c, surface_source, dew_point_c, margin_k, emc_pct, level';
 
-/** COPY's text format: the values here are numbers, ids, ISO times and enum words (no escapes). */
-const copyValue = (v: number | string | null) => (v === null ? '\\N' : String(v));
+/** COPY's text format: the values here are numbers and enum words (no escapes needed). */
+const copyNumber = (v: number | null) => (v === null ? '\\N' : String(v));
 
 export async function runImport(deps: ImportRunDeps, importId: string): Promise<void> {
   const now = deps.now ?? Date.now;
@@ -175,10 +185,13 @@ function progressTicker(deps: ImportRunDeps, importId: string, counts: ImportCou
       });
   };
   return {
-    /** Called often; writes when 250 ms have passed and no write is under way. */
-    tick() {
+    /**
+     * Called often; writes when 250 ms have passed and no write is under way, or (`now`) once
+     * the file is read whole, so the last read count shows while the rows are stored.
+     */
+    tick(now = false) {
       const t = Date.now();
-      if (inFlight || t - lastMs < PROGRESS_INTERVAL_MS) return;
+      if (inFlight || (!now && t - lastMs < PROGRESS_INTERVAL_MS)) return;
       lastMs = t;
       write();
     },
@@ -302,6 +315,8 @@ async function importFile(
     });
   });
   ticker.check();
+  await ticker.settle();
+  ticker.tick(true);
 
   // 2. Derive in time order, as a live batch is.
   const n = acc.atMs.length;
@@ -327,24 +342,10 @@ async function importFile(
         surfaceC,
         limits,
       );
+      const source = probe ? 'probe' : surfaceC === null ? '\\N' : 'estimate';
       chunk +=
-        [
-          sensor.sensorId,
-          new Date(acc.atMs[i]!).toISOString(),
-          sensor.shopId,
-          sensor.zoneId,
-          acc.airC[i]!,
-          acc.rhPct[i]!,
-          surfaceC,
-          probe ? 'probe' : surfaceC === null ? null : 'estimate',
-          null,
-          d.dewPointC,
-          d.marginK,
-          d.emcPct,
-          d.level,
-        ]
-          .map(copyValue)
-          .join('\t') + '\n';
+        `${acc.atMs[i]!}\t${acc.airC[i]!}\t${acc.rhPct[i]!}\t${copyNumber(surfaceC)}\t${source}\t` +
+        `${copyNumber(d.dewPointC)}\t${copyNumber(d.marginK)}\t${copyNumber(d.emcPct)}\t${d.level}\n`;
       if ((k + 1) % COPY_CHUNK_ROWS === 0) {
         ticker.check();
         yield chunk;
@@ -365,12 +366,10 @@ async function importFile(
   client.on('error', () => {});
   try {
     await client.query('begin');
-    await client.query(
-      'create temporary table import_stage (like readings including defaults) on commit drop',
-    );
+    await client.query(STAGE_TABLE);
     await pipeline(
       Readable.from(copyLines()),
-      client.query(copyFrom(`copy import_stage (${COPY_COLUMNS}) from stdin`)),
+      client.query(copyFrom('copy import_stage from stdin')),
     );
     ticker.check();
     // Months back (a logger's history) land in their own month's partition, never the default.
@@ -379,8 +378,11 @@ async function importFile(
     }
     // No conflict target: it fits the (sensor_id, at) key and the (shop_id, sensor_id, at) one.
     const inserted = await client.query(
-      `insert into readings (${COPY_COLUMNS}) select ${COPY_COLUMNS} from import_stage
+      `insert into readings (sensor_id, at, shop_id, zone_id, ${STAGE_COLUMNS})
+       select $1, timestamptz 'epoch' + at_ms * interval '1 millisecond', $2, $3, ${STAGE_COLUMNS}
+       from import_stage
        on conflict do nothing`,
+      [sensor.sensorId, sensor.shopId, sensor.zoneId],
     );
     counts.rowsStored = inserted.rowCount ?? 0;
     counts.rowsDuplicate += n - counts.rowsStored;

@@ -9,6 +9,7 @@ import type PgBoss from 'pg-boss';
 
 import type { Db } from '@/db';
 
+import { expireStaleUploads, type ExpireUploadsDeps } from '../imports/expire';
 import { runImport, type ImportRunDeps } from '../imports/run';
 
 import { transactionClient } from './alarmMailJob';
@@ -39,27 +40,84 @@ export function importJobs(boss: PgBoss): ImportJobs {
     async queue(tx, importId) {
       const client = transactionClient(tx);
       const db = { executeSql: (text: string, values: unknown[]) => client.query(text, values) };
-      const id = await boss.send(IMPORT_QUEUE, { importId }, { id: importId, db });
+      // Fair between shops: a job's priority is minus its shop's imports already queued or
+      // running, and workers take the highest priority first, so one shop's pile of files
+      // never stands in front of another shop's first one.
+      const { rows } = await client.query<{ ahead: number }>(
+        `select count(*)::int as ahead from imports
+         where shop_id = (select shop_id from imports where id = $1)
+           and status in ('queued', 'running') and id <> $1`,
+        [importId],
+      );
+      const priority = -(rows[0]?.ahead ?? 0);
+      const id = await boss.send(IMPORT_QUEUE, { importId }, { id: importId, db, priority });
       if (id === null) throw new Error('import: no job queued (is the queue missing?)');
     },
   };
 }
 
 export interface ImportWorkerOptions extends ImportRunDeps {
-  /** How often an idle worker asks for a job; pg-boss's default is 2 s. */
+  /**
+   * How often an idle worker asks for a job: 0.5 s (pg-boss's least; its default is 2 s), as a
+   * started import is someone waiting at a progress bar, and the poll is one indexed query.
+   */
   pollingIntervalSeconds?: number;
 }
 
-/** Works the queue on this instance, one import at a time (each holds its rows in memory). */
-export async function workImports(boss: PgBoss, options: ImportWorkerOptions): Promise<string> {
+/**
+ * Imports this instance works at once. Two, so a shop's big file leaves a worker for another
+ * shop's import (the priorities above put that one first); not more, as each import holds its
+ * file's rows in memory (a 500,000-line file ~100 MB at its peak).
+ */
+export const IMPORT_WORKERS = 2;
+
+/** Works the queue on this instance: `IMPORT_WORKERS` workers, one import each at a time. */
+export async function workImports(boss: PgBoss, options: ImportWorkerOptions): Promise<string[]> {
   await createImportQueue(boss);
-  return boss.work<{ importId?: unknown }>(
-    IMPORT_QUEUE,
-    { pollingIntervalSeconds: options.pollingIntervalSeconds ?? 2, batchSize: 1 },
+  const workers: string[] = [];
+  for (let i = 0; i < IMPORT_WORKERS; i++) {
+    workers.push(
+      await boss.work<{ importId?: unknown }>(
+        IMPORT_QUEUE,
+        { pollingIntervalSeconds: options.pollingIntervalSeconds ?? 0.5, batchSize: 1 },
+        async (jobs) => {
+          for (const job of jobs) {
+            const importId = job.data?.importId;
+            if (typeof importId === 'string') await runImport(options, importId);
+          }
+        },
+      ),
+    );
+  }
+  return workers;
+}
+
+export const IMPORT_EXPIRY_QUEUE = 'import-upload-expiry';
+/** Hourly, off the hour's top: an upload is let go within an hour after its keep time. */
+export const IMPORT_EXPIRY_CRON = '23 * * * *';
+
+/** Schedules the hourly expiry of uploads never started and works it on this instance. */
+export async function scheduleUploadExpiry(
+  boss: PgBoss,
+  options: ExpireUploadsDeps & { now?: () => number; pollingIntervalSeconds?: number },
+): Promise<void> {
+  const now = options.now ?? Date.now;
+  const log = options.logger.child({ component: 'jobs' });
+  await boss.createQueue(IMPORT_EXPIRY_QUEUE, {
+    name: IMPORT_EXPIRY_QUEUE,
+    policy: 'singleton',
+    // Not retried: the next hour's run finds the same rows.
+    retryLimit: 0,
+    expireInSeconds: 10 * 60,
+  });
+  await boss.schedule(IMPORT_EXPIRY_QUEUE, IMPORT_EXPIRY_CRON, {});
+  await boss.work(
+    IMPORT_EXPIRY_QUEUE,
+    { pollingIntervalSeconds: options.pollingIntervalSeconds ?? 2 },
     async (jobs) => {
-      for (const job of jobs) {
-        const importId = job.data?.importId;
-        if (typeof importId === 'string') await runImport(options, importId);
+      for (const _job of jobs) {
+        const count = await expireStaleUploads(options, now());
+        if (count > 0) log.info({ count }, 'import: uploads never started were let go');
       }
     },
   );

@@ -34,7 +34,11 @@ export {
 export {
   createImportQueue,
   importJobs,
+  IMPORT_EXPIRY_CRON,
+  IMPORT_EXPIRY_QUEUE,
   IMPORT_QUEUE,
+  IMPORT_WORKERS,
+  scheduleUploadExpiry,
   workImports,
   type ImportJobs,
   type ImportWorkerOptions,

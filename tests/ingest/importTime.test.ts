@@ -107,6 +107,32 @@ describe('readImportTime', () => {
   });
 });
 
+describe('the cached zone offsets of a file', () => {
+  // The reference is the whole computation per cell (readImportTime: date-fns-tz over the tz
+  // database). The zones: Chicago (changes at 02:00), Santiago (changes at 24:00, so a day
+  // starts at a wall time that never happens or ends in the repeated hour) and Lord Howe (a
+  // 30-minute change). Every 37 minutes of 2025's wall clock (an odd step, so the cells fall on
+  // every minute of the hour in turn and in every changed or repeated hour), read in file order.
+  it.each(['America/Chicago', 'America/Santiago', 'Australia/Lord_Howe'])(
+    'reads a year of %s wall times as the uncached reader does',
+    (zone) => {
+      const read = createTimeReader('iso', zone);
+      const mismatches: string[] = [];
+      for (let ms = Date.UTC(2025, 0, 1); ms < Date.UTC(2026, 0, 1); ms += 37 * 60_000) {
+        const cell = new Date(ms).toISOString().slice(0, 19);
+        const cached = read(cell);
+        const whole = readImportTime(cell, 'iso', zone);
+        if (cached?.atMs !== whole?.atMs || cached?.laterMs !== whole?.laterMs) {
+          mismatches.push(cell);
+        }
+      }
+      expect(mismatches).toEqual([]);
+    },
+    // The uncached reference takes tens of microseconds a cell; more on a busy machine.
+    60_000,
+  );
+});
+
 describe('splitting and reading lines', () => {
   it('splits on the delimiter outside quotes (RFC 4180 quoting)', () => {
     expect(splitCsvLine('a,"b,c","say ""hi""",', ',')).toEqual(['a', 'b,c', 'say "hi"', '']);

@@ -180,7 +180,7 @@ describe('CSV import', () => {
       ...UTC_MAPPING,
       surfaceColumn: 'surface',
     });
-    expect(done.rowsStored).toBe(120);
+    expect(done).toMatchObject({ status: 'done', rowsStored: 120 });
     const imported = await storedRows(o.sensorId);
     const posted = await storedRows(live.body.id);
     expect(imported).toHaveLength(120);
