@@ -1,6 +1,6 @@
 import { StyleSheet, Text, View } from 'react-native';
 
-import { useBreakpoints } from '@/components/layout';
+import { Columns } from '@/components/layout';
 import {
   useCoatingBudgetsQuery,
   useExposureQueries,
@@ -25,7 +25,6 @@ import { SurfaceCard } from './SurfaceCard';
 export function CareScreen() {
   const shop = useFrameShop();
   useDocumentTitle('Care', shop.name);
-  const { isWide } = useBreakpoints();
   const nowMs = useNow();
   const zones = useZonesQuery(shop.id);
   const surfaces = useSurfacesQuery(shop.id);
@@ -84,24 +83,12 @@ export function CareScreen() {
   return (
     <>
       <ShopTabs shop={shop} current="care" />
-      {isWide ? (
-        <View style={styles.columns}>
-          <View style={styles.column}>{list}</View>
-          <View style={styles.column}>{side}</View>
-        </View>
-      ) : (
-        <>
-          {list}
-          {side}
-        </>
-      )}
+      <Columns first={list} second={side} />
     </>
   );
 }
 
 const styles = StyleSheet.create({
-  columns: { flexDirection: 'row', alignItems: 'flex-start', gap: space.xl },
-  column: { flex: 1, minWidth: 0, gap: space.lg },
   groups: { gap: space.xl },
   group: { gap: space.md },
 });

@@ -7,6 +7,7 @@ export { SubmitButton } from './SubmitButton';
 export { applyServerErrors } from './serverErrors';
 export { TextField } from './TextField';
 export { Choice } from './Choice';
+export { FilePicker, type FilePickerProps } from './FilePicker';
 export { ConfirmButton } from './ConfirmButton';
 export { useApiForm } from './useApiForm';
 export { TimeZoneField, TimeZonePicker, browserTimeZone } from './TimeZonePicker';

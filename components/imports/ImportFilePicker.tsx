@@ -1,8 +1,6 @@
-import { Text } from 'react-native';
-
-import type { ImportUploaded } from '@/components/queries';
-import { type } from '@/components/theme';
-import { IMPORT_WORDS } from '@/ingest/words';
+import { FilePicker } from '@/components/forms';
+import { useImportUploadMutation, type ImportUploaded } from '@/components/queries';
+import { formatFileSize, IMPORT_WORDS } from '@/ingest/words';
 
 export interface ImportFilePickerProps {
   shopId: string;
@@ -14,13 +12,32 @@ export interface ImportFilePickerProps {
 }
 
 /**
- * Native builds have no file picker without a package the app does not ship; the web twin
- * (ImportFilePicker.web.tsx) picks and uploads. Saying so beats a button that does nothing.
+ * A logger's file, picked and sent at once (the shared FilePicker; native builds say to use a
+ * browser). While it goes, "Uploading <file>…" with its size is announced; a refusal (too
+ * large, empty, not text, no header, one column) shows the server's own sentence.
  */
-export function ImportFilePicker({ testID }: ImportFilePickerProps) {
+export function ImportFilePicker({
+  shopId,
+  sensorId,
+  label,
+  onUploaded,
+  testID = 'import-file',
+}: ImportFilePickerProps) {
+  const upload = useImportUploadMutation(shopId, sensorId);
   return (
-    <Text style={type.small} testID={testID}>
-      {IMPORT_WORDS.browserOnly}
-    </Text>
+    <FilePicker
+      accept=".csv,.txt,.tsv,text/csv,text/plain,text/tab-separated-values"
+      label={label}
+      variant="primary"
+      send={(file) =>
+        upload.mutate({ file, fileName: file.name || 'logger.csv' }, { onSuccess: onUploaded })
+      }
+      pending={upload.isPending}
+      error={upload.isError ? upload.error.message : null}
+      uploading={(file) => `${IMPORT_WORDS.uploading(file.name)} (${formatFileSize(file.size)})`}
+      retryAccessibilityLabel={(file) => `Try again to upload ${file.name}`}
+      browserOnly={IMPORT_WORDS.browserOnly}
+      testID={testID}
+    />
   );
 }

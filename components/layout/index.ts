@@ -8,6 +8,7 @@ export {
   useBreakpoints,
   type Breakpoints,
 } from './breakpoints';
+export { Columns } from './Columns';
 export { Content } from './Content';
 export { NotFoundScreen } from './NotFoundScreen';
 export { Screen } from './Screen';

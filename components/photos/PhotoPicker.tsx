@@ -1,7 +1,7 @@
 import type { QueryKey } from '@tanstack/react-query';
-import { Text } from 'react-native';
 
-import { type } from '@/components/theme';
+import { FilePicker } from '@/components/forms';
+import { usePhotoUploadMutation } from '@/components/queries';
 
 export interface PhotoPickerProps {
   /** Where the photo goes: photoPaths.careEntry(…) or photoPaths.trialTest(…). */
@@ -14,13 +14,24 @@ export interface PhotoPickerProps {
 }
 
 /**
- * Native builds have no file picker without a package the app does not ship; the web twin
- * (PhotoPicker.web.tsx) picks and uploads. Saying so beats a button that does nothing.
+ * "Add a photo": an image picked and sent with the session at once (the shared FilePicker;
+ * native builds say to use a browser). A refusal shows the server's own sentence (too large,
+ * not an image, storage away).
  */
-export function PhotoPicker({ testID }: PhotoPickerProps) {
+export function PhotoPicker({ path, refresh, accessibilityLabel, testID }: PhotoPickerProps) {
+  const upload = usePhotoUploadMutation(path, refresh);
   return (
-    <Text style={type.small} testID={testID}>
-      Photos can be added from Drybench in a browser.
-    </Text>
+    <FilePicker
+      accept="image/*"
+      label="Add a photo"
+      accessibilityLabel={accessibilityLabel}
+      variant="quiet"
+      send={(file) => upload.mutate({ file, filename: file.name || 'photo.jpg' })}
+      pending={upload.isPending}
+      error={upload.isError ? upload.error.message : null}
+      uploading={() => 'Uploading…'}
+      browserOnly="Photos can be added from Drybench in a browser."
+      testID={testID}
+    />
   );
 }

@@ -14,6 +14,7 @@ import {
   useApiForm,
 } from '@/components/forms';
 import { sensorSchema } from '@/components/forms/schemas';
+import { Columns } from '@/components/layout';
 import {
   useSensorCreateMutation,
   useSensorIntervalMutation,
@@ -58,17 +59,17 @@ function SensorsBody({ shop }: { shop: ShopSummary }) {
   const mqttUrl = sensors.data?.mqtt?.url ?? null;
   const firstSensor = sensors.data?.sensors.find((s) => s.revokedAt === null) ?? null;
 
-  return (
+  const reveal = issued ? (
+    <TokenReveal
+      {...issued}
+      shopId={shop.id}
+      timeZone={shop.timeZone}
+      mqttUrl={mqttUrl}
+      onDone={() => setIssued(null)}
+    />
+  ) : null;
+  const list = (
     <>
-      {issued ? (
-        <TokenReveal
-          {...issued}
-          shopId={shop.id}
-          timeZone={shop.timeZone}
-          mqttUrl={mqttUrl}
-          onDone={() => setIssued(null)}
-        />
-      ) : null}
       {sensors.isError ? (
         <Notice title="Sensors could not be loaded">{sensors.error.message}</Notice>
       ) : !sensors.data ? (
@@ -102,7 +103,18 @@ function SensorsBody({ shop }: { shop: ShopSummary }) {
           onCreated={(sensorId, sensorName, token) => setIssued({ sensorId, sensorName, token })}
         />
       ) : null}
-      {sensors.data ? <SensorWaysIn mqttUrl={mqttUrl} example={firstSensor} unit={unit} /> : null}
+    </>
+  );
+  const waysIn = sensors.data ? (
+    <SensorWaysIn mqttUrl={mqttUrl} example={firstSensor} unit={unit} />
+  ) : null;
+
+  // Wide: the ways in beside the list, so the page uses the width instead of a narrow column
+  // with empty sides.
+  return (
+    <>
+      {reveal}
+      <Columns first={list} second={waysIn} />
     </>
   );
 }

@@ -56,7 +56,7 @@ const SHOP_PAGES: Record<string, ShopFramePage> = {
     wide: true,
     banner: false,
   },
-  sensors: { active: 'sensors', title: 'Sensors', heading: 'Sensors', wide: false, banner: false },
+  sensors: { active: 'sensors', title: 'Sensors', heading: 'Sensors', wide: true, banner: false },
   settings: {
     active: 'shop',
     title: 'Shop settings',

@@ -3,7 +3,7 @@ import * as z from 'zod/mini';
 import { StyleSheet, Text, View } from 'react-native';
 
 import { trialHref } from '@/components/hrefs';
-import { useBreakpoints } from '@/components/layout';
+import { Columns } from '@/components/layout';
 import { Form, FormError, FormField, SubmitButton, useApiForm } from '@/components/forms';
 import { nameSchema } from '@/components/forms/schemas';
 import { useTrialCreateMutation, useTrialsQuery, type ShopSummary } from '@/components/queries';
@@ -18,7 +18,6 @@ export function TrialsScreen() {
   const shop = useFrameShop();
   useDocumentTitle('Trials', shop.name);
   const trials = useTrialsQuery(shop.id);
-  const { isWide } = useBreakpoints();
   const list = trials.isError ? (
     <Notice title="Trials could not be loaded">{trials.error.message}</Notice>
   ) : !trials.data ? (
@@ -47,18 +46,8 @@ export function TrialsScreen() {
   return (
     <>
       <ShopTabs shop={shop} current="trials" />
-      {isWide ? (
-        // Wide: the trials beside the form that starts one.
-        <View style={styles.columns}>
-          <View style={styles.column}>{list}</View>
-          <View style={styles.column}>{form}</View>
-        </View>
-      ) : (
-        <>
-          {list}
-          {form}
-        </>
-      )}
+      {/* Wide: the trials beside the form that starts one. */}
+      <Columns first={list} second={form} />
     </>
   );
 }
@@ -130,8 +119,6 @@ function NewTrialForm({ shop }: { shop: ShopSummary }) {
 
 const styles = StyleSheet.create({
   list: { gap: space.md },
-  columns: { flexDirection: 'row', alignItems: 'flex-start', gap: space.xl },
-  column: { flex: 1, minWidth: 0, gap: space.lg },
   form: { gap: space.lg },
   link: {
     ...type.heading,

@@ -25,6 +25,7 @@ import { querySeries } from '@/db/queries/readings';
 import { TOW_MAX_GAP_MS } from '@/ingest/wetness';
 import { bucketPlan } from '@/server/readings/bucketPlan';
 
+import { dayOfReadingsSql, insertInstall, type InstallNames } from './generatedInstall';
 import { rollupRunsBetween } from './rollupRuns';
 import { percentile } from './stats';
 
@@ -68,7 +69,18 @@ const ZONE_INDEX = 'readings_zone_id_at_index';
 const PLAIN_ZONE_INDEX = `create index "${ZONE_INDEX}" on readings using btree (zone_id, at)`;
 const COVERING_MIGRATION = 'db/migrations/0010_history_covering_index.sql';
 
-const ids = (kind: string, n: string) => `md5('bench-${kind}-' || ${n})::uuid`;
+const NAMES: InstallNames = {
+  idKey: 'bench',
+  shop: 'History shop',
+  zone: 'Zone',
+  sensor: 'History sensor',
+  token: 'token',
+};
+// Both halves of the sensors at once, one connection each.
+// Received when taken, as a week of live ingest was: loaded with now() the server's roll-up job
+// took the whole week as late readings and re-rolled 10 M rows on the machine's two cores while
+// the queries were being timed.
+const DAY_OF_READINGS = dayOfReadingsSql(NAMES, { half: true, receivedAtTaken: true });
 
 /**
  * Runs `load` on a connection of its own with triggers off (session_replication_role = replica):
@@ -93,24 +105,8 @@ async function seed(
   endMs: number,
   progress: (line: string) => void,
 ) {
-  const { shops, zonesPerShop, sensorsPerZone, days } = CHART_INSTALL;
-  const zones = shops * zonesPerShop;
-  const sensors = zones * sensorsPerZone;
-  await pool.query(`
-    insert into shops (id, name, time_zone)
-    select ${ids('shop', 's')}, 'History shop ' || s, '${SHOP_TIME_ZONE}'
-    from generate_series(1, ${shops}) s`);
-  await pool.query(`
-    insert into zones (id, shop_id, name)
-    select ${ids('zone', 'z')}, ${ids('shop', `((z - 1) / ${zonesPerShop} + 1)`)}, 'Zone ' || z
-    from generate_series(1, ${zones}) z`);
-  await pool.query(`
-    insert into sensors (id, shop_id, zone_id, name, token_hash)
-    select ${ids('sensor', 'n')},
-           ${ids('shop', `((n - 1) / ${sensorsPerZone * zonesPerShop} + 1)`)},
-           ${ids('zone', `((n - 1) / ${sensorsPerZone} + 1)`)},
-           'History sensor ' || n, md5('token-' || n)
-    from generate_series(1, ${sensors}) n`);
+  const { days } = CHART_INSTALL;
+  const { zones, sensors } = await insertInstall(pool, CHART_INSTALL, NAMES, SHOP_TIME_ZONE);
 
   // The indexes are rebuilt after the load; their definitions come from the migrations.
   const indexes = await pool.query<{ name: string; def: string; constraint: boolean }>(`
@@ -133,38 +129,7 @@ async function seed(
     const from = new Date(startMs + day * 86_400_000).toISOString();
     await Promise.all(
       [0, 1].map((half) =>
-        generated(pool, (client) =>
-          client.query(
-            `insert into readings (sensor_id, at, shop_id, zone_id, air_c, rh_pct, surface_c,
-             surface_source, dew_point_c, margin_k, emc_pct, level, received_at)
-           select s.id, t.at, s.shop_id, s.zone_id, w.air_c, w.rh_pct, w.air_c - 1.5, 'probe',
-                  w.dew_c, w.air_c - 1.5 - w.dew_c, 11.5,
-                  case when w.air_c - 1.5 - w.dew_c <= 1 then 'wet'::level
-                       when w.air_c - 1.5 - w.dew_c < 3 then 'close'::level
-                       else 'dry'::level end,
-                  -- Received when taken, as a week of live ingest was: loaded with now() the
-                  -- server's roll-up job took the whole week as late readings and re-rolled
-                  -- 10 M rows on the machine's two cores while the queries were being timed.
-                  t.at
-           from generate_series($1::timestamptz, $1::timestamptz + interval '1 day' - interval '1 minute',
-                                interval '1 minute') t(at)
-           -- Every sensor's reading of a minute before the next minute's, as ingest writes
-           -- them, without sorting 10 M rows: the reference to t.at makes the sensors the inner
-           -- side of the join (without it the planner may put them outside and store each
-           -- sensor's day in one run of pages, which flatters the plain index 40-fold).
-           cross join lateral (select id, shop_id, zone_id, hashtext(id::text) % 97 as k
-                               from sensors
-                               where name like 'History sensor %' and hashtext(id::text) & 1 = $2
-                                 and t.at is not null
-                               offset 0) s
-           cross join lateral (
-             select 18 + 4 * sin(extract(epoch from t.at) / 13751.0 + s.k) as air_c,
-                    60 + 15 * sin(extract(epoch from t.at) / 21600.0 + s.k) as rh_pct,
-                    9 + 5 * sin(extract(epoch from t.at) / 13751.0 + s.k + 0.7) as dew_c
-           ) w`,
-            [from, half],
-          ),
-        ),
+        generated(pool, (client) => client.query(DAY_OF_READINGS, [from, half])),
       ),
     );
     progress(`  day ${day + 1} of ${days}`);

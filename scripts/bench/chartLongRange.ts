@@ -17,6 +17,7 @@ import { querySeries } from '@/db/queries/readings';
 import { runReadingRollup } from '@/server/jobs';
 import { bucketPlan } from '@/server/readings/bucketPlan';
 
+import { dayOfReadingsSql, insertInstall, type InstallNames } from './generatedInstall';
 import { percentile } from './stats';
 
 export const LONG_INSTALL = { shops: 2, zonesPerShop: 5, sensorsPerZone: 2, days: 91 };
@@ -48,50 +49,22 @@ export interface LongChartResult {
   >;
 }
 
-const id = (kind: string, n: string) => `md5('long-${kind}-' || ${n})::uuid`;
+const NAMES: InstallNames = {
+  idKey: 'long',
+  shop: 'Long shop',
+  zone: 'Long zone',
+  sensor: 'Long sensor',
+  token: 'long-token',
+};
+const DAY_OF_READINGS = dayOfReadingsSql(NAMES, { receivedAtTaken: true });
 
 async function seed(pool: pg.Pool, endMs: number, progress: (line: string) => void) {
-  const { shops, zonesPerShop, sensorsPerZone, days } = LONG_INSTALL;
-  const zones = shops * zonesPerShop;
-  const sensors = zones * sensorsPerZone;
-  await pool.query(`
-    insert into shops (id, name, time_zone)
-    select ${id('shop', 's')}, 'Long shop ' || s, '${SHOP_TIME_ZONE}'
-    from generate_series(1, ${shops}) s`);
-  await pool.query(`
-    insert into zones (id, shop_id, name)
-    select ${id('zone', 'z')}, ${id('shop', `((z - 1) / ${zonesPerShop} + 1)`)}, 'Long zone ' || z
-    from generate_series(1, ${zones}) z`);
-  await pool.query(`
-    insert into sensors (id, shop_id, zone_id, name, token_hash)
-    select ${id('sensor', 'n')},
-           ${id('shop', `((n - 1) / ${sensorsPerZone * zonesPerShop} + 1)`)},
-           ${id('zone', `((n - 1) / ${sensorsPerZone} + 1)`)},
-           'Long sensor ' || n, md5('long-token-' || n)
-    from generate_series(1, ${sensors}) n`);
+  const { days } = LONG_INSTALL;
+  const { sensors } = await insertInstall(pool, LONG_INSTALL, NAMES, SHOP_TIME_ZONE);
   const started = performance.now();
   const startMs = endMs - days * DAY_MS;
   for (let day = 0; day < days; day++) {
-    await pool.query(
-      `insert into readings (sensor_id, at, shop_id, zone_id, air_c, rh_pct, surface_c,
-         surface_source, dew_point_c, margin_k, emc_pct, level, received_at)
-       select s.id, t.at, s.shop_id, s.zone_id, w.air_c, w.rh_pct, w.air_c - 1.5, 'probe',
-              w.dew_c, w.air_c - 1.5 - w.dew_c, 11.5,
-              case when w.air_c - 1.5 - w.dew_c <= 1 then 'wet'::level
-                   when w.air_c - 1.5 - w.dew_c < 3 then 'close'::level
-                   else 'dry'::level end, t.at
-       from generate_series($1::timestamptz, $1::timestamptz + interval '1 day' - interval '1 minute',
-                            interval '1 minute') t(at)
-       cross join lateral (select id, shop_id, zone_id, hashtext(id::text) % 97 as k
-                           from sensors where name like 'Long sensor %' and t.at is not null
-                           offset 0) s
-       cross join lateral (
-         select 18 + 4 * sin(extract(epoch from t.at) / 13751.0 + s.k) as air_c,
-                60 + 15 * sin(extract(epoch from t.at) / 21600.0 + s.k) as rh_pct,
-                9 + 5 * sin(extract(epoch from t.at) / 13751.0 + s.k + 0.7) as dew_c
-       ) w`,
-      [new Date(startMs + day * DAY_MS).toISOString()],
-    );
+    await pool.query(DAY_OF_READINGS, [new Date(startMs + day * DAY_MS).toISOString()]);
     if ((day + 1) % 10 === 0) progress(`  day ${day + 1} of ${days}`);
   }
   await pool.query('vacuum analyze readings');

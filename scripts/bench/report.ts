@@ -232,20 +232,6 @@ export function formatReport(r: BenchResult): string {
         `p99 ${ms(l.post.p99Ms)} ms; the clients' event-loop delay p99 ${ms(l.clientLoopDelayP99Ms)} ms`,
     );
   }
-  if (r.mqtt) {
-    row(
-      'MQTT publish → WS',
-      `${int(r.mqtt.ratePerS)} readings/s`,
-      r.mqtt.delivery.p50Ms,
-      r.mqtt.delivery.p99Ms,
-    );
-    row(
-      '  MQTT publish → PUBACK',
-      `${int(r.mqtt.published)} msgs`,
-      r.mqtt.puback.p50Ms,
-      r.mqtt.puback.p99Ms,
-    );
-  }
   if (r.liveLoaded) {
     const b = r.liveLoaded.background;
     out.push(

@@ -6,14 +6,10 @@
 // words, and a viewer sees the past imports but no upload. Screens are checked with axe-core and
 // photographed at 390 × 844 and 1440 × 900.
 import AxeBuilder from '@axe-core/playwright';
-import type PgBoss from 'pg-boss';
 import type { Page } from 'playwright-core';
 import { afterAll, beforeAll, describe, expect, it } from 'vitest';
 
 import { DEMO_PEOPLE } from '@/db/seed';
-import { createImportQueue, importJobs, startJobRunner, workImports } from '@/server/jobs';
-import { silentLogger } from '@/server/logger';
-import { createS3Storage } from '@/server/storage';
 
 import { verifiedPerson } from '../support/app';
 import {
@@ -23,37 +19,16 @@ import {
   watchPage,
   type BrowserSuite,
 } from '../support/browser';
-import { startS3Fake, type S3Fake } from '../support/s3';
 
-let s3: S3Fake;
-let boss: PgBoss;
 let suite: BrowserSuite;
 
 // The whole path as `npm start` runs it: the file in the S3 fake, the import queued in pg-boss
 // and worked by the same job the server runs.
 beforeAll(async () => {
-  s3 = await startS3Fake();
-  boss = await startJobRunner({
-    databaseUrl: process.env.DATABASE_URL!,
-    logger: silentLogger(),
-    cron: false,
-    schema: 'pgboss_e2e_imports',
-  });
-  await createImportQueue(boss);
-  suite = await startBrowserSuite({ storage: s3.config, imports: importJobs(boss) });
-  const { db, pool, logger } = suite.server.app;
-  await workImports(boss, {
-    db,
-    pool,
-    storage: createS3Storage(s3.config),
-    logger,
-    pollingIntervalSeconds: 0.5,
-  });
+  suite = await startBrowserSuite({ imports: { schema: 'pgboss_e2e_imports' } });
 });
 afterAll(async () => {
-  await boss?.stop({ graceful: false });
   await suite?.close();
-  await s3?.dispose();
 });
 
 /**

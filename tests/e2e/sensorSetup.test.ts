@@ -148,6 +148,20 @@ describe.each([
     await reveal.getByTestId('token-done').click();
     const card = page.getByTestId('sensor-card');
     await card.waitFor();
+    // The page's layout: on a wide screen the ways in stand beside the sensor list (a second
+    // column, not a narrow column with empty sides); on a phone, one column, after it.
+    const listBox = (await page.getByTestId('sensor-list').boundingBox())!;
+    const waysBox = (await page.getByTestId('sensor-ways-in').boundingBox())!;
+    if (label === 'wide') {
+      expect(waysBox.x).toBeGreaterThan(listBox.x + listBox.width);
+      expect(Math.abs(waysBox.y - listBox.y)).toBeLessThan(2);
+      // The two take the content width, well past the 640 px phone column the page had.
+      expect(waysBox.x + waysBox.width - listBox.x).toBeGreaterThan(900);
+    } else {
+      expect(waysBox.y).toBeGreaterThan(listBox.y + listBox.height);
+      expect(Math.abs(waysBox.x - listBox.x)).toBeLessThan(1);
+    }
+    await page.screenshot({ path: `${SHOTS}/sensors-${label}.png`, fullPage: true });
     expect(await page.getByRole('button', { name: 'New token for Saw-top probe' }).count()).toBe(1);
     expect(
       await page.getByRole('button', { name: 'Revoke the token of Saw-top probe' }).count(),

@@ -1,7 +1,7 @@
 // Hourly roll-ups (db/queries/readingRollups.ts) against the raw readings they summarise. The
 // reference is the rule itself: the week figures of ingest/reportWeek.ts
 // (weekFiguresFromReadings, which weekReportSql.test.ts holds the raw SQL to) computed in
-// JavaScript from the very rows stored, and the raw-reading chart query answered before any
+// JavaScript from the very rows stored (tests/support/weekFigures.ts), and the raw-reading chart query answered before any
 // roll-up existed. Min, max, counts, levels and gaps must match exactly; means and time sums to
 // 1e-9 (only the order of float additions differs). Then the raw rows of the middle are deleted
 // (as retention will) and the long ranges must still answer the same: they read the roll-ups.
@@ -22,11 +22,16 @@ import { insertSensor } from '@/db/queries/sensors';
 import { createShopWithOwner } from '@/db/queries/shops';
 import { insertUser } from '@/db/queries/users';
 import { insertZone } from '@/db/queries/zones';
-import type { Level } from '@/ingest/levels';
-import { weekFiguresFromReadings, type WeekFigures } from '@/ingest/reportWeek';
 import { TOW_MAX_GAP_MS } from '@/ingest/wetness';
 import { runReadingRollup } from '@/server/jobs';
 import { bucketPlan } from '@/server/readings/bucketPlan';
+
+import {
+  expectSameWeekFigures,
+  LEVELS,
+  referenceWeekFigures,
+  seededRandom,
+} from '../support/weekFigures';
 
 const MIN = 60_000;
 const HOUR = 60 * MIN;
@@ -45,25 +50,12 @@ beforeAll(async () => {
 }, 60_000);
 afterAll(() => d?.pool.end());
 
-/** mulberry32, seeded: a failure replays. */
-function random(seed: number) {
-  let a = seed >>> 0;
-  return () => {
-    a = (a + 0x6d2b79f5) >>> 0;
-    let x = Math.imul(a ^ (a >>> 15), 1 | a);
-    x = (x + Math.imul(x ^ (x >>> 7), 61 | x)) ^ x;
-    return ((x ^ (x >>> 14)) >>> 0) / 4294967296;
-  };
-}
-
-const LEVELS: Level[] = ['dry', 'close', 'wet', 'unknown'];
-
 /**
  * Two sensors of one zone over `days`: mostly 1–6 min apart, with ties at one instant, steps of
  * exactly the cap, just over it, and silences of hours (a gap running across hour boundaries).
  */
 function series(seed: number, ids: { shopId: string; zoneId: string; sensors: string[] }) {
-  const rand = random(seed);
+  const rand = seededRandom(seed);
   const rows: ReadingRow[] = [];
   const endMs = Math.floor(Date.now() / MIN) * MIN - 30 * MIN;
   const steps = [MIN, 3 * MIN, 6 * MIN, TOW_MAX_GAP_MS, TOW_MAX_GAP_MS + 1000, 50 * MIN, 5 * HOUR];
@@ -96,31 +88,9 @@ function series(seed: number, ids: { shopId: string; zoneId: string; sensors: st
   return rows;
 }
 
-function expectFigures(got: Omit<WeekFigures, 'periodMs' | 'annualWetHours'>, want: WeekFigures) {
-  const close = (a: number | null, b: number | null, what: string) => {
-    if (b === null) expect(a, what).toBeNull();
-    else expect(Math.abs(a! - b), `${what}: ${a} vs ${b}`).toBeLessThan(1e-9 * Math.max(1, b));
-  };
-  expect(got.readings).toBe(want.readings);
-  close(got.coveredMs, want.coveredMs, 'coveredMs');
-  for (const key of ['airC', 'rhPct', 'emcPct'] as const) {
-    expect(got[key].min, `${key}.min`).toBe(want[key].min);
-    expect(got[key].max, `${key}.max`).toBe(want[key].max);
-    close(got[key].mean, want[key].mean, `${key}.mean`);
-  }
-  expect(got.lowestMargin).toEqual(want.lowestMargin);
-  for (const level of ['dry', 'close', 'wet', 'unknown'] as const) {
-    close(got.levelMs[level], want.levelMs[level], `levelMs.${level}`);
-  }
-  close(got.wetnessMs, want.wetnessMs, 'wetnessMs');
-  expect(got.silentPeriods).toEqual(want.silentPeriods);
-}
-
-const reference = (rows: ReadingRow[], period: { fromMs: number; endMs: number }) =>
-  weekFiguresFromReadings(
-    rows.map((r) => ({ ...r, atMs: r.at.getTime() })),
-    { ...period, maxGapMs: TOW_MAX_GAP_MS },
-  );
+// Min and max are the stored values themselves; sums over 30 days are large, so within 1e-9 of
+// their size.
+const ROLLED = { within: (want: number) => 1e-9 * Math.max(1, want), exactMinMax: true };
 
 const countRolled = async (db: Database['db']) =>
   Number(
@@ -207,9 +177,17 @@ describe('hourly roll-ups', () => {
         }
       });
       // The zone (week report, trials) and one probe's own readings (a surface's exposure).
-      expectFigures(await figures(), reference(rows, { fromMs, endMs: toMs }));
+      expectSameWeekFigures(
+        await figures(),
+        referenceWeekFigures(rows, { fromMs, endMs: toMs }),
+        ROLLED,
+      );
       const own = rows.filter((r) => r.sensorId === sensorIds[0]);
-      expectFigures(await figures(sensorIds[0]), reference(own, { fromMs, endMs: toMs }));
+      expectSameWeekFigures(
+        await figures(sensorIds[0]),
+        referenceWeekFigures(own, { fromMs, endMs: toMs }),
+        ROLLED,
+      );
     };
     await check();
 

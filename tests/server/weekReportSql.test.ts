@@ -13,16 +13,16 @@ import { insertSensor } from '@/db/queries/sensors';
 import { createShopWithOwner } from '@/db/queries/shops';
 import { insertUser } from '@/db/queries/users';
 import { insertZone } from '@/db/queries/zones';
-import type { Level } from '@/ingest/levels';
-import {
-  weekBounds,
-  weekFiguresFromReadings,
-  type ReportReading,
-  type WeekFigures,
-} from '@/ingest/reportWeek';
+import { weekBounds } from '@/ingest/reportWeek';
 import { TOW_MAX_GAP_MS } from '@/ingest/wetness';
 
 import { makeTestApp, type TestApp } from '../support/app';
+import {
+  expectSameWeekFigures,
+  LEVELS,
+  referenceWeekFigures,
+  seededRandom,
+} from '../support/weekFigures';
 
 let t: TestApp;
 beforeAll(() => {
@@ -30,20 +30,7 @@ beforeAll(() => {
 });
 afterAll(() => t.pool.end());
 
-/** mulberry32: a small seeded generator, so a failure can be replayed. */
-function random(seed: number) {
-  let a = seed >>> 0;
-  return () => {
-    a = (a + 0x6d2b79f5) >>> 0;
-    let x = Math.imul(a ^ (a >>> 15), 1 | a);
-    x = (x + Math.imul(x ^ (x >>> 7), 61 | x)) ^ x;
-    return ((x ^ (x >>> 14)) >>> 0) / 4294967296;
-  };
-}
-
 const MIN = 60_000;
-const LEVELS: Level[] = ['dry', 'close', 'wet', 'unknown'];
-
 function messySeries(
   rand: () => number,
   sensors: string[],
@@ -88,38 +75,6 @@ function messySeries(
   return rows;
 }
 
-function toReportReading(r: ReadingRow): ReportReading {
-  return {
-    sensorId: r.sensorId,
-    atMs: r.at.getTime(),
-    airC: r.airC,
-    rhPct: r.rhPct,
-    marginK: r.marginK,
-    emcPct: r.emcPct,
-    level: r.level,
-  };
-}
-
-function expectSame(sqlFigures: Omit<WeekFigures, 'periodMs' | 'annualWetHours'>, js: WeekFigures) {
-  const close = (a: number | null, b: number | null, what: string) => {
-    if (b === null) expect(a, what).toBeNull();
-    else expect(Math.abs(a! - b), `${what}: ${a} vs ${b}`).toBeLessThan(1e-9);
-  };
-  expect(sqlFigures.readings).toBe(js.readings);
-  close(sqlFigures.coveredMs, js.coveredMs, 'coveredMs');
-  for (const key of ['airC', 'rhPct', 'emcPct'] as const) {
-    for (const m of ['min', 'mean', 'max'] as const) {
-      close(sqlFigures[key][m], js[key][m], `${key}.${m}`);
-    }
-  }
-  expect(sqlFigures.lowestMargin).toEqual(js.lowestMargin);
-  for (const level of ['dry', 'close', 'wet', 'unknown'] as const) {
-    close(sqlFigures.levelMs[level], js.levelMs[level], `levelMs.${level}`);
-  }
-  close(sqlFigures.wetnessMs, js.wetnessMs, 'wetnessMs');
-  expect(sqlFigures.silentPeriods).toEqual(js.silentPeriods);
-}
-
 describe('week figures: SQL and the JavaScript reference agree', () => {
   it.each([
     ['the whole week', 1, null],
@@ -151,7 +106,7 @@ describe('week figures: SQL and the JavaScript reference agree', () => {
 
     // The spring-change week in Berlin (167 h): the figures run over instants, not local hours.
     const week = weekBounds('2026-03-23', 'Europe/Berlin');
-    const rand = random(seed);
+    const rand = seededRandom(seed);
     const rows = messySeries(rand, sensors, zone.id, shop.id, week.fromMs, week.toMs);
     // A second zone with a handful of readings: one zone's readings must not leak into another's.
     const few = messySeries(
@@ -179,9 +134,9 @@ describe('week figures: SQL and the JavaScript reference agree', () => {
       maxGapMs: TOW_MAX_GAP_MS,
     };
     const fromSql = await zoneWeekFigures(t.db, [zone.id, quiet.id], period);
-    const js = weekFiguresFromReadings(rows.map(toReportReading), period);
+    const js = referenceWeekFigures(rows, period);
     expect(js.readings).toBeGreaterThan(400);
-    expectSame(fromSql.get(zone.id)!, js);
-    expectSame(fromSql.get(quiet.id)!, weekFiguresFromReadings(few.map(toReportReading), period));
+    expectSameWeekFigures(fromSql.get(zone.id)!, js);
+    expectSameWeekFigures(fromSql.get(quiet.id)!, referenceWeekFigures(few, period));
   });
 });

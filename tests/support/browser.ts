@@ -9,6 +9,7 @@ import { expect } from 'vitest';
 import { DEMO_PASSWORD } from '@/db/seed';
 
 import type { TestAppOptions } from './app';
+import { startImportJobRunner, type ImportJobRunner } from './imports';
 import { CHROMIUM_ARGS, startLiveServer } from './liveServer';
 
 export const SHOTS = 'test-results/screenshots';
@@ -16,14 +17,27 @@ export const SHOTS = 'test-results/screenshots';
 export interface BrowserSuite {
   server: Awaited<ReturnType<typeof startLiveServer>>;
   browser: Browser;
+  /** The import job runner behind the server, when the suite was asked for one. */
+  imports?: ImportJobRunner;
   close(): Promise<void>;
 }
 
-export async function startBrowserSuite(options: TestAppOptions = {}): Promise<BrowserSuite> {
+export interface BrowserSuiteOptions extends Omit<TestAppOptions, 'imports'> {
+  /**
+   * A real import job runner (tests/support/imports.ts) behind the server, its pg-boss in this
+   * schema: the files in an S3 fake, the jobs worked as `npm start` works them.
+   */
+  imports?: { schema: string };
+}
+
+export async function startBrowserSuite(options: BrowserSuiteOptions = {}): Promise<BrowserSuite> {
   if (!fs.existsSync('dist/index.html'))
     throw new Error('dist/ is missing: run scripts/build-web.sh');
   fs.mkdirSync(SHOTS, { recursive: true });
-  const server = await startLiveServer(options);
+  const { imports: importsOption, ...appOptions } = options;
+  const imports = importsOption && (await startImportJobRunner(importsOption.schema));
+  const server = await startLiveServer({ ...appOptions, ...imports?.appOptions });
+  await imports?.work(server.app);
   const browser = await chromium.launch({
     executablePath: '/usr/bin/chromium',
     args: CHROMIUM_ARGS,
@@ -31,9 +45,12 @@ export async function startBrowserSuite(options: TestAppOptions = {}): Promise<B
   return {
     server,
     browser,
+    imports,
     async close() {
       await browser.close();
+      await imports?.boss.stop({ graceful: false });
       await server.close();
+      await imports?.s3.dispose();
     },
   };
 }

@@ -7,14 +7,67 @@ import type { AddressInfo } from 'node:net';
 import type PgBoss from 'pg-boss';
 import type request from 'supertest';
 
-import { createImportQueue, importJobs, startJobRunner, workImports } from '@/server/jobs';
+import {
+  createImportQueue,
+  importJobs,
+  startJobRunner,
+  workImports,
+  type ImportJobs,
+  type ImportWorkerOptions,
+} from '@/server/jobs';
 import { startLiveHub } from '@/server/live/hub';
 import { silentLogger } from '@/server/logger';
-import { createS3Storage } from '@/server/storage';
+import { createS3Storage, type StorageConfig } from '@/server/storage';
 import type { Import, ImportMapping } from '@/ingest/wire/imports';
 
 import { makeTestApp, type TestApp } from './app';
 import { startS3Fake, type S3Fake } from './s3';
+
+/**
+ * The import jobs as `npm start` runs them: the files in an S3 fake, the jobs queued in pg-boss
+ * (its own schema, so test files running side by side do not take each other's jobs) and worked
+ * by the server's own job. `appOptions` go to the app; `work` starts the worker over its database.
+ */
+export interface ImportJobRunner {
+  s3: S3Fake;
+  boss: PgBoss;
+  appOptions: { storage: StorageConfig; imports: ImportJobs };
+  /** Starts working the queue once (some tests look at a queued import first). */
+  work(app: Pick<ImportWorkerOptions, 'db' | 'pool' | 'logger'>): Promise<void>;
+  close(): Promise<void>;
+}
+
+export async function startImportJobRunner(schema: string): Promise<ImportJobRunner> {
+  const s3 = await startS3Fake();
+  const boss = await startJobRunner({
+    databaseUrl: process.env.DATABASE_URL!,
+    logger: silentLogger(),
+    cron: false,
+    schema,
+  });
+  await createImportQueue(boss);
+  let working = false;
+  return {
+    s3,
+    boss,
+    appOptions: { storage: s3.config, imports: importJobs(boss) },
+    async work({ db, pool, logger }) {
+      if (working) return;
+      working = true;
+      await workImports(boss, {
+        db,
+        pool,
+        storage: createS3Storage(s3.config),
+        logger,
+        pollingIntervalSeconds: 0.5,
+      });
+    },
+    async close() {
+      await boss.stop({ graceful: false });
+      await s3.dispose();
+    },
+  };
+}
 
 export interface ImportWorld {
   t: TestApp;
@@ -26,19 +79,13 @@ export interface ImportWorld {
   close(): Promise<void>;
 }
 
+/** The import jobs behind an app listening on loopback with its live hub (API tests). */
 export async function startImportWorld(
   schema: string,
   options: { work?: boolean } = {},
 ): Promise<ImportWorld> {
-  const s3 = await startS3Fake();
-  const boss = await startJobRunner({
-    databaseUrl: process.env.DATABASE_URL!,
-    logger: silentLogger(),
-    cron: false,
-    schema,
-  });
-  await createImportQueue(boss);
-  const t = makeTestApp({ storage: s3.config, imports: importJobs(boss), listen: true });
+  const runner = await startImportJobRunner(schema);
+  const t = makeTestApp({ ...runner.appOptions, listen: true });
   const hub = startLiveHub({
     listener: t.listener!,
     db: t.db,
@@ -50,33 +97,22 @@ export async function startImportWorld(
   hub.attach(server);
   await new Promise<void>((resolve) => server.listen(0, '127.0.0.1', resolve));
   const baseUrl = `http://127.0.0.1:${(server.address() as AddressInfo).port}`;
-  let working = false;
-  const work = async () => {
-    if (working) return;
-    working = true;
-    await workImports(boss, {
-      db: t.db,
-      pool: t.pool,
-      storage: createS3Storage(s3.config),
-      logger: t.logger,
-      pollingIntervalSeconds: 0.5,
-    });
-  };
+  const work = () => runner.work(t);
   if (options.work ?? true) await work();
   return {
     t,
-    s3,
-    boss,
+    s3: runner.s3,
+    boss: runner.boss,
     baseUrl,
     work,
     async close() {
-      await boss.stop({ graceful: false });
+      await runner.boss.stop({ graceful: false });
       await hub.close();
       await t.listener!.close();
       server.closeAllConnections();
       await new Promise((resolve) => server.close(resolve));
       await t.pool.end();
-      await s3.dispose();
+      await runner.s3.dispose();
     },
   };
 }
