@@ -17,6 +17,7 @@ import { CHROMIUM_ARGS, CHROMIUM_PATH } from '@/tests/support/chromium';
 import { gzipSize } from './bundleSizes';
 import { call, signUp } from './fixtures';
 import { percentile } from './stats';
+import { FIRST_CARD_MARK, summarizeTrace } from './webTrace';
 
 export interface WebRun {
   firstRenderMs: number;
@@ -34,6 +35,8 @@ export interface WebResult {
   scripts: { file: string; bytes: number; gzBytes: number }[];
   bundleKbGz: number;
   bundleKbRaw: number;
+  /** What the first screen ran (the counting run); null if it could not count. */
+  work: WebWork | null;
 }
 
 export const PHONE = { width: 390, height: 844 };
@@ -68,12 +71,62 @@ const MARK_FIRST_CARD = `(() => {
   const seen = () => {
     if (document.querySelector('[data-testid="zone-card"]')) {
       window.__firstZoneCardMs = performance.now();
+      performance.mark('${FIRST_CARD_MARK}');
       observer.disconnect();
     }
   };
   const observer = new MutationObserver(seen);
   observer.observe(document, { childList: true, subtree: true });
 })();`;
+
+// Counted in one extra, untimed run (the wrapping costs a little on every module): how many
+// module bodies Metro ran and how many times React committed before the first card, and the
+// number of fibers in the tree then. Load-independent measures of the work the first screen does.
+// Metro's runtime assigns the global __d (define) once; a setter wraps each module's factory.
+const COUNT_WORK = `(() => {
+  const w = window;
+  const count = (w.__drybenchWork = { modules: 0, commits: 0, fibers: 0 });
+  let define;
+  Object.defineProperty(w, '__d', {
+    configurable: true,
+    get: () => define,
+    set: (d) => {
+      define = (factory, ...rest) =>
+        d(function () { if (!w.__firstZoneCardMs) count.modules++; return factory.apply(this, arguments); }, ...rest);
+    },
+  });
+  const fibersOf = (fiber) => {
+    let n = 0;
+    const stack = [fiber];
+    while (stack.length) {
+      const f = stack.pop();
+      for (let c = f; c; c = c.sibling) { n++; if (c.child) stack.push(c.child); }
+    }
+    return n;
+  };
+  w.__REACT_DEVTOOLS_GLOBAL_HOOK__ = {
+    supportsFiber: true,
+    renderers: new Map(),
+    inject: () => 1,
+    checkDCE: () => {},
+    onScheduleFiberRoot: () => {},
+    onCommitFiberUnmount: () => {},
+    onPostCommitFiberRoot: () => {},
+    onCommitFiberRoot: (_id, root) => {
+      if (w.__firstZoneCardMs) return;
+      count.commits++;
+      count.fibers = fibersOf(root.current);
+    },
+  };
+})();`;
+
+export interface WebWork {
+  /** Module bodies Metro ran before the first card. */
+  modules: number;
+  /** React commits before the first card, and the fibers in the tree at the last of them. */
+  commits: number;
+  fibers: number;
+}
 
 // What a trace records: the main thread's tasks, script parse/compile/run and V8's samples.
 const TRACE_CATEGORIES = [
@@ -94,7 +147,8 @@ async function oneRun(
   cookie: string,
   shopId: string,
   tracePath: string | null,
-): Promise<WebRun> {
+  countWork = false,
+): Promise<WebRun & { work?: WebWork }> {
   const [name, value] = [
     cookie.slice(0, cookie.indexOf('=')),
     cookie.slice(cookie.indexOf('=') + 1),
@@ -103,6 +157,7 @@ async function oneRun(
   try {
     await context.addCookies([{ name, value, url }]);
     await context.addInitScript(MARK_FIRST_CARD);
+    if (countWork) await context.addInitScript(COUNT_WORK);
     const page = await context.newPage();
     const scripts: string[] = [];
     page.on('request', (req) => {
@@ -146,7 +201,10 @@ async function oneRun(
           }),
       firstRenderMs,
     );
-    return { firstRenderMs, scripts: scripts.filter((s) => asked.includes(s)), timeline };
+    const work = countWork
+      ? await page.evaluate(() => (window as unknown as { __drybenchWork: WebWork }).__drybenchWork)
+      : undefined;
+    return { firstRenderMs, scripts: scripts.filter((s) => asked.includes(s)), timeline, work };
   } finally {
     await context.close();
   }
@@ -170,13 +228,48 @@ export async function measureWeb(opts: {
           ? path.join(opts.traceDir, `overview-${Date.now()}.json`)
           : null;
       if (trace) fs.mkdirSync(opts.traceDir!, { recursive: true });
-      runs.push(await oneRun(browser, opts.url, cookie, shopId, trace));
-      if (trace) opts.progress(`the last run's trace: ${trace}`);
+      const run = await oneRun(browser, opts.url, cookie, shopId, trace);
+      runs.push(run);
+      if (trace) {
+        opts.progress(`the last run's trace: ${trace}`);
+        // A trace that cannot be read costs its summary, not the run's figures.
+        const main = (() => {
+          try {
+            return summarizeTrace(trace, run.firstRenderMs, opts.distDir);
+          } catch (err) {
+            opts.progress(`its trace could not be summarized: ${String(err)}`);
+            return null;
+          }
+        })();
+        if (main) {
+          const list = (xs: { name: string; ms: number }[]) =>
+            xs.map((x) => `${x.name} ${x.ms}`).join('; ');
+          opts.progress(
+            `its main thread until the first card (${Math.round(run.firstRenderMs)} ms): busy ` +
+              `${main.busyMs} ms, CPU ${main.cpuMs} ms; by kind (self ms): ${list(main.byKind)}`,
+          );
+          opts.progress(`V8 samples by file (self ms): ${list(main.byFile)}`);
+          opts.progress(`V8 samples by function (self ms): ${list(main.byFunction)}`);
+          // Only an export with source maps beside its files (scripts/bundle-report.ts).
+          if (main.byPackage.length)
+            opts.progress(`V8 samples by package (self ms): ${list(main.byPackage)}`);
+        }
+      }
     } finally {
       await browser.close();
     }
   }
   opts.progress(`the last run's requests (ms): ${runs.at(-1)!.timeline.join(', ')}`);
+  const counting = await chromium.launch({ executablePath: CHROMIUM_PATH, args: CHROMIUM_ARGS });
+  const work = await oneRun(counting, opts.url, cookie, shopId, null, true)
+    .then((r) => r.work ?? null)
+    .finally(() => counting.close());
+  if (work) {
+    opts.progress(
+      `before the first card (an extra, untimed run): ${work.modules} module bodies run, ` +
+        `${work.commits} React commits, ${work.fibers} fibers in the tree`,
+    );
+  }
   opts.progress(
     `first render, ${RUNS} runs: ${runs.map((r) => Math.round(r.firstRenderMs)).join(', ')} ms`,
   );
@@ -195,5 +288,6 @@ export async function measureWeb(opts: {
     scripts,
     bundleKbGz: kb(scripts.reduce((s, f) => s + f.gzBytes, 0)),
     bundleKbRaw: kb(scripts.reduce((s, f) => s + f.bytes, 0)),
+    work,
   };
 }
