@@ -246,7 +246,8 @@ export async function measureWeb(opts: {
             xs.map((x) => `${x.name} ${x.ms}`).join('; ');
           opts.progress(
             `its main thread until the first card (${Math.round(run.firstRenderMs)} ms): busy ` +
-              `${main.busyMs} ms, CPU ${main.cpuMs} ms; by kind (self ms): ${list(main.byKind)}`,
+              `${main.busyMs} ms, CPU ${main.cpuMs} ms (the renderer's threads together: ` +
+              `${main.processCpuMs} ms CPU); by kind (self ms): ${list(main.byKind)}`,
           );
           opts.progress(`V8 samples by file (self ms): ${list(main.byFile)}`);
           opts.progress(`V8 samples by function (self ms): ${list(main.byFunction)}`);

@@ -31,6 +31,9 @@ const events = [
   { name: 'V8.CompileCode', ph: 'X', ts: 4_000, dur: 10_000, tdur: 10_000, ...PAGE },
   // A task cut by the first card: 6 of its 20 ms fall in the window, so 6 ms wall and CPU.
   { name: 'RunTask', ph: 'X', ts: 95_000, dur: 20_000, tdur: 20_000, ...PAGE },
+  // A V8 worker of the same renderer compiling while the script streams: 8 ms CPU, nested 2.
+  { name: 'V8.CompileTask', ph: 'X', ts: 20_000, dur: 9_000, tdur: 8_000, pid: PAGE.pid, tid: 8 },
+  { name: 'V8.Parse', ph: 'X', ts: 21_000, dur: 2_000, tdur: 2_000, pid: PAGE.pid, tid: 8 },
   // Another renderer's work: not the page's.
   { name: 'RunTask', ph: 'X', ts: 10_000, dur: 30_000, tdur: 30_000, ...OTHER },
   { name: 'Profile', ph: 'P', id: '0x1', ts: 1_000, args: { data: { startTime: 1_000 } }, ...PAGE },
@@ -99,6 +102,10 @@ describe('summarizeTrace', () => {
   it('counts only the page thread’s top-level tasks inside the window, wall and CPU', () => {
     expect(s.busyMs).toBe(50 + 6);
     expect(s.cpuMs).toBe(30 + 6);
+  });
+
+  it('adds the renderer’s other threads for the process figure, each top-level event once', () => {
+    expect(s.processCpuMs).toBe(30 + 6 + 8);
   });
 
   it('splits nested events into self time', () => {
