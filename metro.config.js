@@ -24,4 +24,17 @@ config.resolver.resolveRequest = (context, moduleName, platform) => {
   return (defaultResolve ?? context.resolveRequest)(context, moduleName, platform);
 };
 
+// Inline requires on the web: a module's body runs when one of its imports is first used, not
+// when the importing module runs, so the first screen does not run code only later screens
+// (or later interactions) need. With tree shaking Expo's reconcile step keeps the requires of
+// modules with side effects (per package.json "sideEffects") at the top, in order; the web
+// first render measured the difference (README "Web bundle and first render").
+// EXPO_INLINE_REQUIRES=0 turns it off to compare.
+const defaultTransformOptions = config.transformer.getTransformOptions;
+config.transformer.getTransformOptions = async (entryPoints, options, getDependencies) => {
+  const base = await defaultTransformOptions(entryPoints, options, getDependencies);
+  const inline = options.platform === 'web' && process.env.EXPO_INLINE_REQUIRES !== '0';
+  return { ...base, transform: { ...base.transform, inlineRequires: inline } };
+};
+
 module.exports = config;

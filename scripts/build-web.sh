@@ -3,7 +3,7 @@
 # page (scripts/webpage/) when the export or the finishing step changed.
 set -euo pipefail
 cd "$(dirname "$0")/.."
-hash_of() { (find "$@" -type f -print0 | LC_ALL=C sort -z | xargs -0 sha256sum; echo "shake=${EXPO_TREE_SHAKING:-1}") | sha256sum | cut -d' ' -f1; }
+hash_of() { (find "$@" -type f -print0 | LC_ALL=C sort -z | xargs -0 sha256sum; echo "shake=${EXPO_TREE_SHAKING:-1} inline=${EXPO_INLINE_REQUIRES:-1}") | sha256sum | cut -d' ' -f1; }
 sources=(app components ingest scripts/web app.json package-lock.json tsconfig.json)
 [ -f metro.config.js ] && sources+=(metro.config.js)
 hash=$(hash_of "${sources[@]}")
