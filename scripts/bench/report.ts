@@ -52,6 +52,9 @@ export function figuresOf(r: BenchResult): Figures {
     firstRenderMs: r.web ? round(r.web.firstRenderMs, 0) : null,
     bundleKbRaw: r.web ? r.web.bundleKbRaw : null,
     bundleFiles: r.web ? r.web.scripts.length : null,
+    // Load-independent: what the first screen ran before its first card (one untimed run).
+    firstRenderModules: r.web?.work?.modules ?? null,
+    firstRenderCommits: r.web?.work?.commits ?? null,
     importVsCopy: r.import ? round(r.import.importRowsPerS / r.import.copyRowsPerS, 3) : null,
     importRowsPerS: r.import ? round(r.import.importRowsPerS, 0) : null,
     importCopyRowsPerS: r.import ? round(r.import.copyRowsPerS, 0) : null,
@@ -295,7 +298,11 @@ export function formatReport(r: BenchResult): string {
         w.scripts
           .map((s) => `${s.file.split('/').pop()} ${(s.gzBytes / 1024).toFixed(1)}`)
           .join(', ') +
-        ')',
+        ')' +
+        (w.work
+          ? `; before the first card ${w.work.modules} module bodies ran and React committed ` +
+            `${w.work.commits} times (${w.work.fibers} fibers)`
+          : ''),
     );
   }
 
