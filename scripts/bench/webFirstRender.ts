@@ -85,7 +85,7 @@ const MARK_FIRST_CARD = `(() => {
 // Metro's runtime assigns the global __d (define) once; a setter wraps each module's factory.
 const COUNT_WORK = `(() => {
   const w = window;
-  const count = (w.__drybenchWork = { modules: 0, commits: 0, fibers: 0 });
+  const count = (w.__drybenchWork = { modules: 0, commits: 0, fibers: 0, commitMs: [] });
   let define;
   Object.defineProperty(w, '__d', {
     configurable: true,
@@ -116,6 +116,7 @@ const COUNT_WORK = `(() => {
       if (w.__firstZoneCardMs) return;
       count.commits++;
       count.fibers = fibersOf(root.current);
+      count.commitMs.push(Math.round(performance.now()));
     },
   };
 })();`;
@@ -126,6 +127,8 @@ export interface WebWork {
   /** React commits before the first card, and the fibers in the tree at the last of them. */
   commits: number;
   fibers: number;
+  /** When each commit happened (ms since navigation start; slowed by the counting). */
+  commitMs: number[];
 }
 
 // What a trace records: the main thread's tasks, script parse/compile/run and V8's samples.
@@ -268,7 +271,8 @@ export async function measureWeb(opts: {
   if (work) {
     opts.progress(
       `before the first card (an extra, untimed run): ${work.modules} module bodies run, ` +
-        `${work.commits} React commits, ${work.fibers} fibers in the tree`,
+        `${work.commits} React commits (at ${work.commitMs.join(', ')} ms), ` +
+        `${work.fibers} fibers in the tree`,
     );
   }
   opts.progress(
