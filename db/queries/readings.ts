@@ -4,6 +4,7 @@ import type pg from 'pg';
 import type { Level, MarginSample } from '@/ingest';
 import type { SurfaceSource } from '@/ingest/wire/levels';
 
+import { numberArray, plainArray } from '../arrayLiteral';
 import type { Db } from '../index';
 import { LIVE_CHANNEL } from '../notify';
 import {
@@ -46,15 +47,16 @@ export const readingKey = (sensorId: string, atMs: number) => `${sensorId}|${atM
  * its own for the rows that really were new (db/notify.ts). The (shop, sensor, at) key makes
  * retries harmless. The rows' months must have their partitions already (readingPartitions.ts:
  * the writer's guard), or they land in the default partition. Returns the keys (readingKey)
- * inserted; a row of a sensor that no longer exists is not stored and not among them.
+ * inserted, to be asked about `rows`' own keys only; a row of a sensor that no longer exists is
+ * not stored and not among them.
  */
 export async function insertReadingGroup(
   pool: pg.Pool,
   rows: ReadingRow[],
   notifyIfAllNew: readonly string[],
-): Promise<Set<string>> {
+): Promise<InsertedKeys> {
   const latest = summarizeSensors(rows);
-  const inserted = await pool.query<{ sensor_id: string; at: Date }>(
+  const inserted = await pool.query<{ sensor_id: string | null; at: Date | null; n: number }>(
     `with seen as (
        update sensors s
        set last_seen_at = greatest(coalesce(s.last_seen_at, u.at), u.at),
@@ -89,33 +91,52 @@ export async function insertReadingGroup(
      ), notified as (
        select pg_notify($18, p) from unnest($19::text[]) as p
        where (select count(*) from ins) = $20
+     ), counted as (
+       select count(*) as n from ins
      )
-     select sensor_id, at, (select count(*) from notified) as notes from ins`,
+     -- The usual case, every row new, answers one row with the count: no key is sent back and
+     -- parsed per row. Only when some were not stored do the stored ones' keys come back.
+     select i.sensor_id, i.at, c.n::int as n, (select count(*) from notified) as notes
+       from counted c
+       left join lateral (select sensor_id, at from ins where c.n < $20) i on true`,
     [
-      rows.map((r) => r.sensorId),
-      rows.map((r) => r.at.toISOString()),
-      rows.map((r) => r.shopId),
-      rows.map((r) => r.zoneId),
-      rows.map((r) => r.airC),
-      rows.map((r) => r.rhPct),
-      rows.map((r) => r.surfaceC),
-      rows.map((r) => r.surfaceSource),
-      rows.map((r) => r.batteryV),
-      rows.map((r) => r.dewPointC),
-      rows.map((r) => r.marginK),
-      rows.map((r) => r.emcPct),
-      rows.map((r) => r.level),
-      latest.map((r) => r.sensorId),
-      latest.map((r) => r.at.toISOString()),
-      latest.map((r) => r.batteryV),
-      latest.map((r) => r.batchIntervalS),
+      plainArray(rows.map((r) => r.sensorId)),
+      plainArray(rows.map((r) => r.at.toISOString())),
+      plainArray(rows.map((r) => r.shopId)),
+      plainArray(rows.map((r) => r.zoneId)),
+      numberArray(rows.map((r) => r.airC)),
+      numberArray(rows.map((r) => r.rhPct)),
+      numberArray(rows.map((r) => r.surfaceC)),
+      plainArray(rows.map((r) => r.surfaceSource)),
+      numberArray(rows.map((r) => r.batteryV)),
+      numberArray(rows.map((r) => r.dewPointC)),
+      numberArray(rows.map((r) => r.marginK)),
+      numberArray(rows.map((r) => r.emcPct)),
+      plainArray(rows.map((r) => r.level)),
+      plainArray(latest.map((r) => r.sensorId)),
+      plainArray(latest.map((r) => r.at.toISOString())),
+      numberArray(latest.map((r) => r.batteryV)),
+      numberArray(latest.map((r) => r.batchIntervalS)),
       LIVE_CHANNEL,
       notifyIfAllNew,
       rows.length,
     ],
   );
-  return new Set(inserted.rows.map((r) => readingKey(r.sensor_id, r.at.getTime())));
+  if (inserted.rows[0]?.n === rows.length) return allOf(rows.length);
+  return new Set(
+    inserted.rows
+      .filter((r) => r.at !== null)
+      .map((r) => readingKey(r.sensor_id!, r.at!.getTime())),
+  );
 }
+
+/** The stored keys when every row given was stored: asked only about those rows' keys. */
+export interface InsertedKeys {
+  size: number;
+  has(key: string): boolean;
+}
+
+const allOf = (size: number): InsertedKeys => ({ size, has: () => true });
 
 /**
  * Per sensor in a group: its newest reading (last seen, battery) and, when it sent several,

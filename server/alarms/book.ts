@@ -8,7 +8,7 @@ import { randomUUID } from 'node:crypto';
 import { alarmValuesOf, type AlarmRow, type NewAlarmEvent } from '@/db/queries/alarms';
 import type { AlarmChange } from '@/db/schema';
 
-import type { Signal } from './evaluate';
+import type { Signal, SignalSink } from './evaluate';
 import { isMaterialUpdate, mergeValues, NO_VALUES } from './rules';
 
 /** The values an event keeps: the non-empty ones, plus when the condition began. */
@@ -17,7 +17,7 @@ function snapshotOf(row: AlarmRow): Record<string, unknown> {
   return { sinceAt: row.sinceAt.toISOString(), ...Object.fromEntries(values) };
 }
 
-export interface AlarmBook {
+export interface AlarmBook extends SignalSink {
   apply(signal: Signal): void;
   changes(): { inserted: AlarmRow[]; updated: AlarmRow[]; events: NewAlarmEvent[] };
 }
@@ -68,6 +68,10 @@ export function createAlarmBook(
   }
 
   return {
+    // What apply ignores: an inactive signal about an alarm that is not open.
+    wants(subjectId, kind, active) {
+      return active || (openByKey.size > 0 && openByKey.has(key(subjectId, kind)));
+    },
     apply(signal) {
       const k = key(signal.subjectId, signal.kind);
       const row = openByKey.get(k);

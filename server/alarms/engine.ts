@@ -28,7 +28,7 @@ import { isDatabaseUnavailable } from '../errors';
 import { alarmMessageJson } from '../live/messages';
 import type { Logger } from '../logger';
 
-import { createAlarmBook } from './book';
+import { createAlarmBook, type AlarmBook } from './book';
 import { evaluateZone, readZoneState, type Signal } from './evaluate';
 import { silentAfterMs } from './rules';
 import { alarmOf } from './wire';
@@ -86,17 +86,13 @@ export function createAlarmEngine(deps: {
   const log = deps.logger.child({ component: 'alarms' });
 
   /**
-   * Turns each zone's signals into alarm changes against its open alarms and writes them all:
-   * one statement for the changed alarms, one for the new ones and the events, then the live
-   * messages and the opened hook. Returns the number of events per zone.
+   * Writes what each zone's alarm book gathered: one statement for the changed alarms, one for
+   * the new ones and the events, then the live messages and the opened hook. Returns the number
+   * of events per zone.
    */
-  async function applySignals(
+  async function saveBooks(
     client: pg.PoolClient,
-    zones: readonly {
-      where: { shopId: string; zoneId: string };
-      open: AlarmRow[];
-      signals: Signal[];
-    }[],
+    books: readonly { zoneId: string; book: AlarmBook }[],
   ): Promise<Map<string, number>> {
     const all = {
       inserted: [] as AlarmRow[],
@@ -104,14 +100,12 @@ export function createAlarmEngine(deps: {
       events: [] as NewAlarmEvent[],
     };
     const eventsOf = new Map<string, number>();
-    for (const { where, open, signals } of zones) {
-      const book = createAlarmBook(where, open);
-      signals.forEach((signal) => book.apply(signal));
+    for (const { zoneId, book } of books) {
       const changes = book.changes();
       all.inserted.push(...changes.inserted);
       all.updated.push(...changes.updated);
       all.events.push(...changes.events);
-      eventsOf.set(where.zoneId, changes.events.length);
+      eventsOf.set(zoneId, changes.events.length);
     }
     const changed = await saveAlarmChanges(client, all);
     if (changed.length > 0) {
@@ -150,10 +144,12 @@ export function createAlarmEngine(deps: {
       });
       const inputs = await zoneInputs(client, windows);
       const changedStates: { zoneId: string; state: object }[] = [];
-      const stepped = present.map(({ where, rows }) => {
+      const books = present.map(({ where, rows }) => {
         const zone = locked.get(where.zoneId)!;
         const { margins, open } = inputs.get(where.zoneId) ?? { margins: [], open: [] };
-        const { state, signals } = evaluateZone(
+        // The book takes each signal as it arises (server/alarms/evaluate.ts, SignalSink).
+        const book = createAlarmBook({ shopId: zone.shopId, zoneId: where.zoneId }, open);
+        const { state } = evaluateZone(
           readZoneState(zone.state),
           where.zoneId,
           rows.map((r) => ({
@@ -165,15 +161,16 @@ export function createAlarmEngine(deps: {
           })),
           margins,
           settingsOf(zone),
+          book,
         );
         // A step that changed nothing (the usual steady reading) writes nothing: no row
         // version, no WAL. Compared as values, since the stored jsonb has its own key order.
         if (!isDeepStrictEqual(state, zone.state))
           changedStates.push({ zoneId: where.zoneId, state });
-        return { where: { shopId: zone.shopId, zoneId: where.zoneId }, open, signals };
+        return { zoneId: where.zoneId, book };
       });
       await saveZoneStates(client, changedStates);
-      await applySignals(client, stepped);
+      await saveBooks(client, books);
     });
   }
 
@@ -229,7 +226,9 @@ export function createAlarmEngine(deps: {
             sinceMs: lastMs,
             sample: NO_SAMPLE,
           };
-          const events = await applySignals(client, [{ where, open, signals: [signal] }]);
+          const book = createAlarmBook(where, open);
+          book.apply(signal);
+          const events = await saveBooks(client, [{ zoneId: c.zoneId, book }]);
           return events.get(c.zoneId) ?? 0;
         });
         if (changed > 0) outcome[silent ? 'opened' : 'cleared'] += 1;

@@ -31,7 +31,12 @@ import {
   createReadingPartitionGuard,
   type ReadingPartitionGuard,
 } from '@/db/queries/readingPartitions';
-import { insertReadingGroup, readingKey, type ReadingRow } from '@/db/queries/readings';
+import {
+  insertReadingGroup,
+  readingKey,
+  type InsertedKeys,
+  type ReadingRow,
+} from '@/db/queries/readings';
 import { MIN_TIME_MS } from '@/ingest/readingFields';
 
 import { ApiError, isDatabaseUnavailable, RetryLaterError } from '../errors';
@@ -224,42 +229,48 @@ async function writeGroup(
   echo?: LiveEcho,
 ): Promise<WriteOutcome[]> {
   // The first request to name a (sensor, at) owns it; a later one in the same group is a duplicate.
-  const owner = new Map<string, number>();
+  // Each request's owned rows and their keys are kept, so the keys are built once per row.
+  const owner = new Set<string>();
+  const owned: ReadingRow[][] = [];
+  const ownedKeys: string[][] = [];
   const rows: ReadingRow[] = [];
   let minMs = Infinity;
   let maxMs = -Infinity;
-  group.forEach((p, i) => {
+  for (const p of group) {
+    const mine: ReadingRow[] = [];
+    const myKeys: string[] = [];
     for (const row of p.rows) {
       const atMs = row.at.getTime();
       const k = readingKey(row.sensorId, atMs);
       if (owner.has(k)) continue;
-      owner.set(k, i);
+      owner.add(k);
+      mine.push(row);
+      myKeys.push(k);
       rows.push(row);
       // A time before the contract's earliest never passes ingest's checks: it makes no
       // partition (a value PostgreSQL cannot store fails the statement, as it should).
       if (atMs < minMs && atMs >= MIN_TIME_MS) minMs = atMs;
       if (atMs > maxMs) maxMs = atMs;
     }
-  });
+    owned.push(mine);
+    ownedKeys.push(myKeys);
+  }
   // Null (no query) when every month already has its partition: the usual case.
   const making = maxMs >= minMs ? partitions.cover(minMs, maxMs) : null;
   if (making) await making;
 
   // The rows each request owns and that were new, given the keys the database inserted.
-  const freshOf = (insertedKeys: { has(key: string): boolean }) =>
-    group.map((p, i) =>
-      p.rows.filter((r) => {
-        const k = readingKey(r.sensorId, r.at.getTime());
-        return owner.get(k) === i && insertedKeys.has(k);
-      }),
-    );
+  const freshOf = (insertedKeys: InsertedKeys) =>
+    insertedKeys.size === rows.length
+      ? owned
+      : owned.map((mine, i) => mine.filter((_, j) => insertedKeys.has(ownedKeys[i]![j]!)));
   const liveMessages = (fresh: ReadingRow[][]) =>
     fresh.filter((f) => f.length > 0).map((f) => JSON.stringify(readingMessage(f)));
 
   const t0 = performance.now();
-  const messages = liveMessages(freshOf(owner));
+  const messages = liveMessages(owned);
   echo?.expect(messages);
-  let insertedKeys: Set<string>;
+  let insertedKeys: InsertedKeys;
   try {
     insertedKeys = await insertReadingGroup(pool, rows, messages);
   } catch (err) {

@@ -23,6 +23,40 @@ describe('Theil–Sen fit', () => {
   it('has no slope without two distinct times', () => {
     expect(theilSen([5, 5, 5], [1, 2, 3])).toBeNull();
   });
+
+  // The definition (Sen 1968): sort every pair slope (pairs with equal x skipped) and every
+  // offset yᵢ − slope·xᵢ, take the middle value or the mean of the middle two. The fit finds its
+  // medians by selection, not sorting; it must give exactly these values, ties, repeated times
+  // and odd and even counts included.
+  function bySorting(xs: number[], ys: number[]) {
+    const slopes: number[] = [];
+    for (let i = 0; i < xs.length; i++)
+      for (let j = i + 1; j < xs.length; j++)
+        if (xs[j] !== xs[i]) slopes.push((ys[j]! - ys[i]!) / (xs[j]! - xs[i]!));
+    const med = (v: number[]) => {
+      const s = [...v].sort((a, b) => a - b);
+      const m = s.length >> 1;
+      return s.length % 2 === 1 ? s[m]! : (s[m - 1]! + s[m]!) / 2;
+    };
+    const slope = med(slopes);
+    return { slope, intercept: med(xs.map((x, i) => ys[i]! - slope * x)) };
+  }
+
+  it('gives the sorted medians exactly, on 400 random series', () => {
+    let seed = 7;
+    const random = () => ((seed = (seed * 48271) % 2147483647), seed / 2147483647);
+    for (let run = 0; run < 400; run++) {
+      const n = 2 + Math.floor(random() * 120);
+      // Coarse values make ties in x, in the slopes and in the offsets common.
+      const xs = Array.from({ length: n }, () => Math.round(random() * 40) - 40);
+      const ys = Array.from({ length: n }, () => Math.round(random() * 20) / 4);
+      const expected = new Set(xs).size < 2 ? null : bySorting(xs, ys);
+      const fit = theilSen(xs, ys);
+      expect(fit === null ? null : { slope: fit.slope + 0, intercept: fit.intercept + 0 }).toEqual(
+        expected && { slope: expected.slope + 0, intercept: expected.intercept + 0 },
+      );
+    }
+  });
 });
 
 describe('minutes to the wet limit', () => {
