@@ -181,16 +181,18 @@ export async function stageFile(
   });
 
   function push() {
-    stage.push(chunk);
-    pushedBytes += chunk.length; // ASCII: characters are bytes
-    inFlight.push({ endByte: pushedBytes, rows: chunkRows });
-    // What has left for the COPY's socket is no longer held here.
+    // Held at this moment: the chunk about to go and those handed on that the COPY has not yet
+    // taken (what it took sits in its socket's buffer: at most about one chunk more, as
+    // pg-copy-streams waits for that socket to drain before it takes the next).
     const taken = pushedBytes - stage.readableLength - copy.writableLength;
     while (inFlight.length > 0 && inFlight[0]!.endByte <= taken) inFlight.shift();
-    let rows = 0;
+    let rows = chunkRows;
     for (const c of inFlight) rows += c.rows;
     result.peakRowsHeld = Math.max(result.peakRowsHeld, rows);
-    result.peakBytesHeld = Math.max(result.peakBytesHeld, pushedBytes - taken);
+    result.peakBytesHeld = Math.max(result.peakBytesHeld, pushedBytes - taken + chunk.length);
+    pushedBytes += chunk.length; // ASCII: characters are bytes
+    inFlight.push({ endByte: pushedBytes, rows: chunkRows });
+    stage.push(chunk);
     chunk = '';
     chunkRows = 0;
   }
