@@ -233,26 +233,35 @@ export async function stageFile(
       result.inOrder = false;
     }
     lastAcceptedMs = atMs;
-    const line = recordNo;
     const { airC, rhPct } = verdict.reading;
     const probeC = verdict.reading.surfaceC ?? null;
-    const add = (step: (sample: AirSample) => number) => {
-      // Stepped over every reading, probe or not, as `estimate` is over a live batch.
-      const estimateC = step({ atMs, airC });
-      chunk += `${line}\t${stageLine(atMs, airC, rhPct, probeC, estimateC, checked.air, o.limits)}`;
-      if (++chunkRows === o.chunkRows) {
-        push();
-        o.ticker.check();
-      }
-    };
     if (series) {
-      add(series);
+      addRow(series, recordNo, atMs, airC, rhPct, probeC, checked.air);
       return;
     }
+    const line = recordNo;
     return o.startSeries(atMs).then((step) => {
       series = step;
-      add(step);
+      addRow(step, line, atMs, airC, rhPct, probeC, checked.air);
     });
+  }
+
+  function addRow(
+    step: (sample: AirSample) => number,
+    line: number,
+    atMs: number,
+    airC: number,
+    rhPct: number,
+    probeC: number | null,
+    air: { dewPointC: number; emcPct: number | null },
+  ) {
+    // Stepped over every reading, probe or not, as `estimate` is over a live batch.
+    const estimateC = step({ atMs, airC });
+    chunk += `${line}\t${stageLine(atMs, airC, rhPct, probeC, estimateC, air, o.limits)}`;
+    if (++chunkRows === o.chunkRows) {
+      push();
+      o.ticker.check();
+    }
   }
 
   body.setEncoding('utf8');

@@ -8,14 +8,19 @@ import { Transform } from 'node:stream';
 
 import { afterAll, beforeAll, describe, expect, it } from 'vitest';
 
-import type { ImportMapping } from '@/ingest/wire/imports';
 import { runImport, type ImportRunDeps } from '@/server/imports/run';
 import { silentLogger } from '@/server/logger';
 import { createS3Storage, type Storage } from '@/server/storage';
 
 import { ownerWithSensor } from '../support/app';
 import { postIngest } from '../support/ingest';
-import { importsPath, startImportWorld, upload, type ImportWorld } from '../support/imports';
+import {
+  importsPath,
+  ISO_MAPPING as MAPPING,
+  startImportWorld,
+  upload,
+  type ImportWorld,
+} from '../support/imports';
 
 let w: ImportWorld;
 let storage: Storage;
@@ -24,16 +29,6 @@ beforeAll(async () => {
   storage = createS3Storage(w.s3.config);
 });
 afterAll(() => w.close());
-
-const MAPPING: ImportMapping = {
-  timeColumn: 'time',
-  airColumn: 'air',
-  rhColumn: 'rh',
-  surfaceColumn: 'surface',
-  temperatureUnit: 'C',
-  timeFormat: 'iso',
-  timeZone: 'UTC',
-};
 
 const deps = (extra: Partial<ImportRunDeps> = {}): ImportRunDeps => ({
   db: w.t.db,
