@@ -93,6 +93,16 @@ export interface StageResult {
   peakBytesHeld: number;
 }
 
+/** The file's line ending from its first text, as papaparse guesses it; null: not seen yet. */
+function lineEnding(text: string): '\n' | '\r\n' | '\r' | null {
+  const n = text.indexOf('\n');
+  const r = text.indexOf('\r');
+  if (n === -1 && r === -1) return null;
+  if (r === -1 || (n !== -1 && n < r)) return '\n';
+  if (r + 1 === text.length) return null; // a CR at the end: is an LF next?
+  return text[r + 1] === '\n' ? '\r\n' : '\r';
+}
+
 /** One staged line of COPY text, in STAGE_TABLE's order after `line`. */
 function stageLine(
   atMs: number,
@@ -159,26 +169,71 @@ export async function stageFile(
     });
   };
 
+  // Papa's low-level parser over each text chunk as it arrives: every complete row of the
+  // chunk at once, the rest kept for the next. (Papa's Node stream hands on one row at a time
+  // and, held by back-pressure, splits the rest of its chunk again on every resume: quadratic
+  // in the chunk behind a slow COPY.)
+  let parser: Papa.Parser | null = null;
+  let partial = '';
   const stage = new Transform({
-    writableObjectMode: true,
-    transform(cells: string[], _encoding, done) {
-      try {
-        const pending = readRow(cells);
-        if (pending) {
-          pending.then(() => done(), done);
+    decodeStrings: false,
+    transform(text: string, _encoding, done) {
+      const whole = partial + text;
+      if (!parser) {
+        const newline = lineEnding(whole);
+        if (newline === null) {
+          partial = whole;
+          done();
           return;
         }
-        done();
+        parser = new Papa.Parser({ delimiter: o.delimiter, newline });
+      }
+      let rows: string[][];
+      try {
+        const parsed = parser.parse(whole, 0, true) as {
+          data: string[][];
+          meta: { cursor: number };
+        };
+        rows = parsed.data;
+        partial = whole.substring(parsed.meta.cursor);
       } catch (err) {
         done(err as Error);
+        return;
       }
+      readRows(rows, 0, done);
     },
     flush(done) {
-      setSpan();
-      if (chunkRows > 0) push();
-      done();
+      const rest = partial;
+      partial = '';
+      const last = rest
+        ? ((
+            parser ?? new Papa.Parser({ delimiter: o.delimiter, newline: lineEnding(rest) ?? '\n' })
+          ).parse(rest, 0, false) as { data: string[][] })
+        : { data: [] };
+      readRows(last.data, 0, (err) => {
+        if (err) return done(err);
+        setSpan();
+        if (chunkRows > 0) push();
+        done();
+      });
     },
   });
+
+  /** Reads rows[from…], waiting where a row must (the estimate's start), then calls `done`. */
+  function readRows(rows: string[][], from: number, done: (err?: Error | null) => void) {
+    try {
+      for (let i = from; i < rows.length; i++) {
+        const pending = readRow(rows[i]!);
+        if (pending) {
+          pending.then(() => readRows(rows, i + 1, done), done);
+          return;
+        }
+      }
+      done();
+    } catch (err) {
+      done(err as Error);
+    }
+  }
 
   function push() {
     // Held at this moment: the chunk about to go and those handed on that the COPY has not yet
@@ -265,7 +320,7 @@ export async function stageFile(
   }
 
   body.setEncoding('utf8');
-  await pipeline(body, Papa.parse(Papa.NODE_STREAM_INPUT, { delimiter: o.delimiter }), stage, copy);
+  await pipeline(body, stage, copy);
   setSpan();
   return result;
 }
