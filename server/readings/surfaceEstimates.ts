@@ -33,13 +33,7 @@ export function createSurfaceEstimator(
     const first = samples[0]!;
     let state = states.get(sensorId) ?? null;
     if (!state || first.atMs <= state.atMs || first.atMs - state.atMs > options.maxGapMs) {
-      const history = await airSamplesOfSensor(
-        db,
-        sensorId,
-        new Date(first.atMs - 3 * options.tauS * 1000),
-        new Date(first.atMs),
-      );
-      state = estimateSurfaceSeries(history, options).at(-1) ?? null;
+      state = await stateBefore(db, sensorId, first.atMs, options);
     }
     const surfaces: number[] = [];
     for (const sample of samples) {
@@ -65,4 +59,39 @@ export function createSurfaceEstimator(
       return next;
     },
   };
+}
+
+/**
+ * One sensor's surface estimate stepped sample by sample in time order, started (as `estimate`
+ * starts a sensor it has no state for) from the stored air readings of the three time constants
+ * before `firstAtMs`. The import streams its rows through it rather than holding them for one
+ * `estimate` call; the surfaces are the same numbers.
+ */
+export async function startSurfaceSeries(
+  db: Db,
+  sensorId: string,
+  firstAtMs: number,
+  options: SurfaceEstimateOptions = DEFAULT_SURFACE_ESTIMATE,
+): Promise<(sample: AirSample) => number> {
+  let state = await stateBefore(db, sensorId, firstAtMs, options);
+  return (sample) => {
+    state = stepSurfaceEstimate(state, sample, options);
+    return state?.surfaceC ?? sample.airC;
+  };
+}
+
+/** The estimate's state just before `atMs`, rebuilt from the stored readings of 3τ before it. */
+async function stateBefore(
+  db: Db,
+  sensorId: string,
+  atMs: number,
+  options: SurfaceEstimateOptions,
+): Promise<SurfaceEstimateState | null> {
+  const history = await airSamplesOfSensor(
+    db,
+    sensorId,
+    new Date(atMs - 3 * options.tauS * 1000),
+    new Date(atMs),
+  );
+  return estimateSurfaceSeries(history, options).at(-1) ?? null;
 }

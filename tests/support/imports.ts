@@ -117,6 +117,17 @@ export async function startImportWorld(
   };
 }
 
+/** Time (ISO, UTC), air °C, RH % and a surface column, as most test files name them. */
+export const ISO_MAPPING: ImportMapping = {
+  timeColumn: 'time',
+  airColumn: 'air',
+  rhColumn: 'rh',
+  surfaceColumn: 'surface',
+  temperatureUnit: 'C',
+  timeFormat: 'iso',
+  timeZone: 'UTC',
+};
+
 export const importsPath = (shopId: string, sensorId: string) =>
   `/api/v1/shops/${shopId}/sensors/${sensorId}/imports`;
 
