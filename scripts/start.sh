@@ -60,7 +60,9 @@ MQTT_PORT=$MQTT_PORT "${run_ts[@]}" scripts/broker.ts &
 pids+=($!)
 export MQTT_URL=mqtt://127.0.0.1:$MQTT_PORT
 
-node --enable-source-maps .build/server.mjs &
+# The server's Node flags live in one file the bench reads too.
+mapfile -t server_flags < <(grep -v '^\s*\(#\|$\)' scripts/server-node-flags)
+node --enable-source-maps "${server_flags[@]}" .build/server.mjs &
 pids+=($!)
 for _ in $(seq 1 100); do
   node -e "fetch('http://127.0.0.1:$PORT/api/v1/health').then((r) => process.exit(r.ok ? 0 : 1), () => process.exit(1))" && break

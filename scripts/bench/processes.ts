@@ -16,6 +16,18 @@ export interface Child {
   stop(graceMs?: number): Promise<void>;
 }
 
+/**
+ * The Node flags npm start gives the server (scripts/server-node-flags: one per line, `#`
+ * comments), so the bench runs the server as npm start does.
+ */
+export function serverNodeFlags(file = 'scripts/server-node-flags'): string[] {
+  return fs
+    .readFileSync(file, 'utf8')
+    .split('\n')
+    .map((line) => line.trim())
+    .filter((line) => line !== '' && !line.startsWith('#'));
+}
+
 /** A free loopback port: listen on 0, read the port, close. */
 export async function freePort(): Promise<number> {
   const server = net.createServer();

@@ -25,7 +25,14 @@ import {
   type GroupSizes,
 } from './pgStats';
 import { startBenchDatabase } from './postgres';
-import { freePort, machineCpuSeconds, memoryOf, startNodeChild, type Child } from './processes';
+import {
+  freePort,
+  machineCpuSeconds,
+  memoryOf,
+  serverNodeFlags,
+  startNodeChild,
+  type Child,
+} from './processes';
 import { openRawInserter } from './rawInsert';
 import { createReadingSource, type ReadingSource } from './readings';
 import { coresOf, startCpuMeter, type CpuCores } from './usage';
@@ -170,7 +177,10 @@ export async function runBench(
     execFileSync('bash', ['scripts/build-server.sh'], { stdio: 'inherit' });
     const server = await startNodeChild({
       entry: '.build/server.mjs',
-      nodeArgs: options.cpuProfDir ? ['--cpu-prof', `--cpu-prof-dir=${options.cpuProfDir}`] : [],
+      nodeArgs: [
+        ...serverNodeFlags(),
+        ...(options.cpuProfDir ? ['--cpu-prof', `--cpu-prof-dir=${options.cpuProfDir}`] : []),
+      ],
       env: {
         ...serverEnv(database.url, serverPort, options.wsClients),
         ...mqttEnv,
@@ -346,6 +356,7 @@ export async function runBench(
       const webPort = await freePort();
       const webServer = await startNodeChild({
         entry: '.build/server.mjs',
+        nodeArgs: serverNodeFlags(),
         env: { ...serverEnv(database.url, webPort, options.wsClients), WEB_DIR: webDir },
         ready: /listening on/,
       });
