@@ -8,6 +8,8 @@ import type PgBoss from 'pg-boss';
 import type { AlarmEngine } from '../alarms';
 import type { Logger } from '../logger';
 
+import { scheduleSingletonJob } from './singletonJob';
+
 export const ALARM_SWEEP_QUEUE = 'alarm-silent-sweep';
 export const ALARM_SWEEP_CRON = '* * * * *';
 
@@ -25,24 +27,21 @@ export async function scheduleAlarmSweep(
 ): Promise<void> {
   const now = options.now ?? Date.now;
   const log = options.logger.child({ component: 'jobs' });
-  await boss.createQueue(ALARM_SWEEP_QUEUE, {
-    name: ALARM_SWEEP_QUEUE,
-    policy: 'singleton',
-    // A failed sweep is not retried: the next minute's sweep looks at everything again.
-    retryLimit: 0,
-    expireInSeconds: 120,
-  });
-  await boss.schedule(ALARM_SWEEP_QUEUE, ALARM_SWEEP_CRON, {});
-  await boss.work<{ shopId?: unknown }>(
-    ALARM_SWEEP_QUEUE,
-    { pollingIntervalSeconds: options.pollingIntervalSeconds ?? 2 },
-    async (jobs) => {
-      for (const job of jobs) {
-        const shopId = typeof job.data?.shopId === 'string' ? job.data.shopId : undefined;
-        const outcome = await engine.sweepSilent({ nowMs: now(), shopId });
-        if (outcome.opened + outcome.cleared > 0) {
-          log.info({ ...outcome, shopId }, 'alarm sweep: sensor-silent alarms changed');
-        }
+  await scheduleSingletonJob<{ shopId?: unknown }>(
+    boss,
+    {
+      queue: ALARM_SWEEP_QUEUE,
+      cron: ALARM_SWEEP_CRON,
+      // A failed sweep is not retried: the next minute's sweep looks at everything again.
+      retryLimit: 0,
+      expireInSeconds: 120,
+      pollingIntervalSeconds: options.pollingIntervalSeconds,
+    },
+    async (job) => {
+      const shopId = typeof job.data?.shopId === 'string' ? job.data.shopId : undefined;
+      const outcome = await engine.sweepSilent({ nowMs: now(), shopId });
+      if (outcome.opened + outcome.cleared > 0) {
+        log.info({ ...outcome, shopId }, 'alarm sweep: sensor-silent alarms changed');
       }
     },
   );

@@ -13,6 +13,7 @@ import { expireStaleUploads, type ExpireUploadsDeps } from '../imports/expire';
 import { runImport, type ImportRunDeps } from '../imports/run';
 
 import { transactionClient } from './alarmMailJob';
+import { scheduleSingletonJob } from './singletonJob';
 
 export const IMPORT_QUEUE = 'csv-import';
 
@@ -103,22 +104,19 @@ export async function scheduleUploadExpiry(
 ): Promise<void> {
   const now = options.now ?? Date.now;
   const log = options.logger.child({ component: 'jobs' });
-  await boss.createQueue(IMPORT_EXPIRY_QUEUE, {
-    name: IMPORT_EXPIRY_QUEUE,
-    policy: 'singleton',
-    // Not retried: the next hour's run finds the same rows.
-    retryLimit: 0,
-    expireInSeconds: 10 * 60,
-  });
-  await boss.schedule(IMPORT_EXPIRY_QUEUE, IMPORT_EXPIRY_CRON, {});
-  await boss.work(
-    IMPORT_EXPIRY_QUEUE,
-    { pollingIntervalSeconds: options.pollingIntervalSeconds ?? 2 },
-    async (jobs) => {
-      for (const _job of jobs) {
-        const count = await expireStaleUploads(options, now());
-        if (count > 0) log.info({ count }, 'import: uploads never started were let go');
-      }
+  await scheduleSingletonJob(
+    boss,
+    {
+      queue: IMPORT_EXPIRY_QUEUE,
+      cron: IMPORT_EXPIRY_CRON,
+      // Not retried: the next hour's run finds the same rows.
+      retryLimit: 0,
+      expireInSeconds: 10 * 60,
+      pollingIntervalSeconds: options.pollingIntervalSeconds,
+    },
+    async () => {
+      const count = await expireStaleUploads(options, now());
+      if (count > 0) log.info({ count }, 'import: uploads never started were let go');
     },
   );
 }

@@ -43,3 +43,4 @@ export {
   type ImportJobs,
   type ImportWorkerOptions,
 } from './importJob';
+export { createSingletonQueue, scheduleSingletonJob, type SingletonJobSpec } from './singletonJob';

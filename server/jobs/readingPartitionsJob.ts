@@ -13,6 +13,8 @@ import { runReadingPartitionMaintenance } from '@/db/queries/readingPartitions';
 
 import type { Logger } from '../logger';
 
+import { scheduleSingletonJob } from './singletonJob';
+
 export const READING_PARTITIONS_QUEUE = 'reading-partitions';
 // 03:23 UTC: a quiet hour for most shops, off the round minutes other schedules take.
 export const READING_PARTITIONS_CRON = '23 3 * * *';
@@ -40,32 +42,28 @@ export async function scheduleReadingPartitionMaintenance(
   options: ReadingPartitionsJobOptions,
 ): Promise<void> {
   const log = options.logger.child({ component: 'jobs' });
-  await boss.createQueue(READING_PARTITIONS_QUEUE, {
-    name: READING_PARTITIONS_QUEUE,
-    policy: 'singleton',
-    // A failure is retried within the hour; otherwise tomorrow's run does it all again.
-    retryLimit: 3,
-    retryDelay: 600,
-    // Dropping a partition waits for the queries reading it; a long one must not be cut short.
-    expireInSeconds: 30 * 60,
-  });
-  if (options.schedule ?? true) {
-    await boss.schedule(READING_PARTITIONS_QUEUE, READING_PARTITIONS_CRON, {});
-  }
-  await boss.work(
-    READING_PARTITIONS_QUEUE,
-    { pollingIntervalSeconds: options.pollingIntervalSeconds ?? 2 },
-    async (jobs) => {
-      for (const _job of jobs) {
-        if (options.before) await options.before();
-        const outcome = await runReadingPartitionMaintenance(options.db, {
-          keepMonths: options.keepMonths,
-        });
-        log.info(
-          { ...outcome, keepMonths: options.keepMonths },
-          'reading partitions: maintenance done',
-        );
-      }
+  await scheduleSingletonJob(
+    boss,
+    {
+      queue: READING_PARTITIONS_QUEUE,
+      cron: READING_PARTITIONS_CRON,
+      // A failure is retried within the hour; otherwise tomorrow's run does it all again.
+      retryLimit: 3,
+      retryDelay: 600,
+      // Dropping a partition waits for the queries reading it; a long one must not be cut short.
+      expireInSeconds: 30 * 60,
+      pollingIntervalSeconds: options.pollingIntervalSeconds,
+      schedule: options.schedule,
+    },
+    async () => {
+      if (options.before) await options.before();
+      const outcome = await runReadingPartitionMaintenance(options.db, {
+        keepMonths: options.keepMonths,
+      });
+      log.info(
+        { ...outcome, keepMonths: options.keepMonths },
+        'reading partitions: maintenance done',
+      );
     },
   );
 }

@@ -23,6 +23,8 @@ import { TOW_MAX_GAP_MS } from '@/ingest/wetness';
 
 import type { Logger } from '../logger';
 
+import { scheduleSingletonJob } from './singletonJob';
+
 export const READING_ROLLUP_QUEUE = 'reading-rollup';
 export const READING_ROLLUP_CRON = '*/5 * * * *';
 
@@ -88,23 +90,20 @@ export async function scheduleReadingRollups(
 ): Promise<void> {
   const now = options.now ?? Date.now;
   const log = options.logger.child({ component: 'jobs' });
-  await boss.createQueue(READING_ROLLUP_QUEUE, {
-    name: READING_ROLLUP_QUEUE,
-    policy: 'singleton',
-    // Not retried: the next run, 5 minutes on, starts from the same mark.
-    retryLimit: 0,
-    // A first run over years of history takes a while.
-    expireInSeconds: 60 * 60,
-  });
-  await boss.schedule(READING_ROLLUP_QUEUE, READING_ROLLUP_CRON, {});
-  await boss.work(
-    READING_ROLLUP_QUEUE,
-    { pollingIntervalSeconds: options.pollingIntervalSeconds ?? 2 },
-    async (jobs) => {
-      for (const _job of jobs) {
-        const outcome = await runReadingRollup(options.db, now());
-        if (outcome.rows > 0) log.info(outcome, 'reading roll-up: hours rolled');
-      }
+  await scheduleSingletonJob(
+    boss,
+    {
+      queue: READING_ROLLUP_QUEUE,
+      cron: READING_ROLLUP_CRON,
+      // Not retried: the next run, 5 minutes on, starts from the same mark.
+      retryLimit: 0,
+      // A first run over years of history takes a while.
+      expireInSeconds: 60 * 60,
+      pollingIntervalSeconds: options.pollingIntervalSeconds,
+    },
+    async () => {
+      const outcome = await runReadingRollup(options.db, now());
+      if (outcome.rows > 0) log.info(outcome, 'reading roll-up: hours rolled');
     },
   );
 }

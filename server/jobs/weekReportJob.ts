@@ -11,6 +11,8 @@ import type PgBoss from 'pg-boss';
 
 import { sweepWeekReportMails, type WeekReportMailDeps } from '@/server/reports/weekReportMail';
 
+import { createSingletonQueue, scheduleSingletonJob } from './singletonJob';
+
 export const WEEK_REPORT_QUEUE = 'week-report-mail';
 export const WEEK_REPORT_CRON = '*/5 * * * *';
 
@@ -21,15 +23,17 @@ export interface WeekReportJobOptions extends WeekReportMailDeps {
   schedule?: boolean;
 }
 
+const WEEK_REPORT_JOB = {
+  queue: WEEK_REPORT_QUEUE,
+  cron: WEEK_REPORT_CRON,
+  // A failed sweep is not retried: the next one, 5 minutes on, looks at everything again.
+  retryLimit: 0,
+  // A sweep mails every due shop of the hour; a slow relay may take minutes.
+  expireInSeconds: 15 * 60,
+} as const;
+
 export async function createWeekReportQueue(boss: PgBoss): Promise<void> {
-  await boss.createQueue(WEEK_REPORT_QUEUE, {
-    name: WEEK_REPORT_QUEUE,
-    policy: 'singleton',
-    // A failed sweep is not retried: the next one, 5 minutes on, looks at everything again.
-    retryLimit: 0,
-    // A sweep mails every due shop of the hour; a slow relay may take minutes.
-    expireInSeconds: 15 * 60,
-  });
+  await createSingletonQueue(boss, WEEK_REPORT_JOB);
 }
 
 /** Schedules the sweep and works it on this instance. */
@@ -39,16 +43,16 @@ export async function scheduleWeekReportMails(
 ): Promise<void> {
   const log = options.logger.child({ component: 'jobs' });
   const deps = { ...options, logger: log };
-  await createWeekReportQueue(boss);
-  if (options.schedule ?? true) await boss.schedule(WEEK_REPORT_QUEUE, WEEK_REPORT_CRON, {});
-  await boss.work(
-    WEEK_REPORT_QUEUE,
-    { pollingIntervalSeconds: options.pollingIntervalSeconds ?? 2 },
-    async (jobs) => {
-      for (const _job of jobs) {
-        const outcome = await sweepWeekReportMails(deps);
-        if (outcome.due > 0) log.info(outcome, 'week report mail: sweep');
-      }
+  await scheduleSingletonJob(
+    boss,
+    {
+      ...WEEK_REPORT_JOB,
+      pollingIntervalSeconds: options.pollingIntervalSeconds,
+      schedule: options.schedule,
+    },
+    async () => {
+      const outcome = await sweepWeekReportMails(deps);
+      if (outcome.due > 0) log.info(outcome, 'week report mail: sweep');
     },
   );
 }
