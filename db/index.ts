@@ -26,7 +26,25 @@ export interface DatabaseOptions {
   statementTimeoutMs?: number;
   /** node-postgres's query_timeout ("Query read timeout"); none when omitted. */
   queryTimeoutMs?: number;
+  /** How long a caller waits for a free connection (or a new one) before failing; 3 s. */
+  connectionTimeoutMs?: number;
+  /** PostgreSQL's application_name: tells this pool's sessions apart in pg_stat_activity. */
+  applicationName?: string;
 }
+
+/**
+ * Connections of the server's second pool, for long background work (roll-ups after an import
+ * and every 5 min, partition maintenance): those jobs wait for one of these instead of taking
+ * the request pool's, so however much of it runs, requests find their pool as they left it. Three:
+ * two import workers and one scheduled job can each roll at once, and partition maintenance
+ * (which holds one session while it asks for another) always finds a second.
+ */
+export const BACKGROUND_POOL_MAX = 3;
+/**
+ * Background work may queue for its pool: a roll-up statement lasts seconds at most (the
+ * statement timeout), so a minute's wait means PostgreSQL itself is in trouble.
+ */
+export const BACKGROUND_CONNECTION_TIMEOUT_MS = 60_000;
 
 // Migrations and the seed script call this without timeouts: a long migration is not a fault.
 export function createDatabase(url: string, options: DatabaseOptions = {}): Database {
@@ -34,9 +52,10 @@ export function createDatabase(url: string, options: DatabaseOptions = {}): Data
     connectionString: url,
     max: options.max ?? 10,
     // Fail fast when PostgreSQL is down, so requests answer 503 instead of hanging.
-    connectionTimeoutMillis: 3000,
+    connectionTimeoutMillis: options.connectionTimeoutMs ?? 3000,
     statement_timeout: options.statementTimeoutMs,
     query_timeout: options.queryTimeoutMs,
+    application_name: options.applicationName,
   });
   // A client losing its connection (database restart) must not crash the process: idle ones
   // report on the pool, checked-out ones on themselves. The query in flight still rejects.

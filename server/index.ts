@@ -4,7 +4,7 @@
  */
 import http from 'node:http';
 
-import { createDatabase } from '@/db';
+import { BACKGROUND_CONNECTION_TIMEOUT_MS, BACKGROUND_POOL_MAX, createDatabase } from '@/db';
 import { startNotificationListener } from '@/db/listener';
 
 import { createAlarmEngine } from './alarms';
@@ -50,6 +50,16 @@ async function main() {
   const { pool, db } = createDatabase(config.databaseUrl, {
     statementTimeoutMs: config.statementTimeoutMs,
     queryTimeoutMs: config.queryTimeoutMs,
+  });
+  // Long background work (roll-ups, partition maintenance) gets a small pool of its own, so it
+  // can never hold the connections requests wait for (a status poll answered 503 while a year
+  // of an import's roll-ups ran on the request pool).
+  const background = createDatabase(config.databaseUrl, {
+    max: BACKGROUND_POOL_MAX,
+    statementTimeoutMs: config.statementTimeoutMs,
+    queryTimeoutMs: config.queryTimeoutMs,
+    connectionTimeoutMs: BACKGROUND_CONNECTION_TIMEOUT_MS,
+    applicationName: 'drybench-background',
   });
   const sessions = createSessionSigner(config.sessionSecret, config.cookieSecure);
   const listener = startNotificationListener(config.databaseUrl, logger);
@@ -108,7 +118,7 @@ async function main() {
   await listener.ready;
   await scheduleAlarmSweep(jobs, alarms, { logger });
   // Hourly roll-ups of the readings, which the history, exposure and reports read past 7 days.
-  await scheduleReadingRollups(jobs, { db, logger });
+  await scheduleReadingRollups(jobs, { db: background.db, logger });
   await workAlarmMails(jobs, {
     db,
     pool,
@@ -118,16 +128,16 @@ async function main() {
   });
   // Daily: the coming months' partitions of readings, and raw readings past the keep window.
   await scheduleReadingPartitionMaintenance(jobs, {
-    db,
+    db: background.db,
     logger,
     keepMonths: config.rawReadingsKeepMonths,
     // Roll every finished hour up first, so no raw month goes before its hours are kept.
-    before: () => runReadingRollup(db, Date.now()),
+    before: () => runReadingRollup(background.db, Date.now()),
   });
   // CSV imports: two at a time on each instance (server/jobs/importJob.ts says why), and
   // hourly, uploads never started are let go; without storage there are no files to import.
   if (storage) {
-    await workImports(jobs, { db, pool, storage, logger });
+    await workImports(jobs, { db, pool, background: background.db, storage, logger });
     await scheduleUploadExpiry(jobs, { pool, storage, logger });
   }
   // Monday 07:00 shop time: last week's report to owners and members who keep it on.
@@ -202,6 +212,7 @@ async function main() {
     await mail.close();
     server.closeAllConnections();
     await pool.end();
+    await background.pool.end();
     process.exit(0);
   };
   process.on('SIGINT', () => void stop('SIGINT'));

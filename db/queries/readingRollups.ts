@@ -11,6 +11,7 @@ import type { Level } from '@/ingest';
 import { TOW_AIR_ABOVE_C, TOW_MAX_GAP_MS, TOW_RH_ABOVE_PCT } from '@/ingest/wetness';
 
 import type { Db } from '../index';
+import { transaction } from '../transaction';
 import type { FigureSqlRow, ReportPeriod } from './reports';
 
 export const HOUR_MS = 3_600_000;
@@ -29,12 +30,37 @@ export const ceilHourMs = (ms: number) => Math.ceil(ms / HOUR_MS) * HOUR_MS;
  * until the next one, and a next reading further away than the cap changes nothing but the end
  * of a gap, which a probe of the indexes finds. Hours whose raw readings are gone (dropped by
  * retention) keep their roll-ups: nothing is deleted. Returns the rows written.
+ *
+ * With `scope`, only the readings of those zones are read and only their sensors' hours
+ * written: what a zone's readings change never reaches another zone's roll-ups (a reading's
+ * zone share ends at its zone's next reading, its own share at its sensor's next), so a CSV
+ * import re-rolls its zone alone and never loads other shops' readings.
  */
-export async function rollUpHours(db: Db, fromHour: Date, toHour: Date): Promise<number> {
+export async function rollUpHours(
+  db: Db,
+  fromHour: Date,
+  toHour: Date,
+  scope?: RollupScope,
+): Promise<number> {
   const from = new Date(floorHourMs(fromHour.getTime()));
   const to = new Date(ceilHourMs(toHour.getTime()));
   if (to <= from) return 0;
+  if (scope && scope.zoneIds.length === 0) return 0;
   const cap = TOW_MAX_GAP_MS;
+  const inScope = scope ? sql`and r.zone_id in (${uuidList(scope.zoneIds)})` : sql``;
+  return transaction(db, async (tx) => {
+    // No JIT for this statement. Its correlated look-ups run over every month partition of
+    // readings, so the planner's cost estimate grows with the months stored (not the rows
+    // rolled) and passes jit_optimize_above_cost: measured here with 50 partitions, a day of 471
+    // readings took 41–62 s, nearly all of it compiling 6,193 functions with LLVM, against
+    // 0.5 s without JIT — the statement timeouts after a year's import. JIT only pays for long
+    // scans; this statement reads a day at most.
+    await tx.execute(sql`set local jit = off`);
+    return rollUpStatement(tx, from, to, cap, inScope);
+  });
+}
+
+async function rollUpStatement(db: Db, from: Date, to: Date, cap: number, inScope: SQL) {
   const result = await db.execute(sql`
     with src as (
       select r.*, round(date_part('epoch', r.at) * 1000) as at_ms,
@@ -43,10 +69,13 @@ export async function rollUpHours(db: Db, fromHour: Date, toHour: Date): Promise
       from readings r
       where r.at >= ${from}::timestamptz
         and r.at < ${to}::timestamptz + make_interval(secs => ${cap / 1000})
+        ${inScope}
       window z as (partition by r.zone_id order by r.at, r.sensor_id),
              s as (partition by r.sensor_id order by r.at)
-    ), nexts as (
+    ), nexts as materialized (
       -- The last reading of a zone or sensor in the window: its next may lie far beyond (a gap).
+      -- Materialized: inlined, each use of zone_next_ms / own_next_ms below copied its look-up
+      -- (24 subplans, each over every partition; planning 650 ms against 86 ms).
       select src.*,
              round(date_part('epoch', coalesce(zone_next_at, (
                select x.at from readings x
@@ -142,15 +171,92 @@ export async function rollUpHours(db: Db, fromHour: Date, toHour: Date): Promise
   return result.rowCount ?? 0;
 }
 
+/** Zones whose roll-ups a statement recomputes (db/queries/readingRollups.ts rollUpHours). */
+export interface RollupScope {
+  zoneIds: readonly string[];
+}
+
 /**
  * rollUpHours over a range of any length, a day per statement (each well inside the server's
- * statement timeout): for a CSV import of months, or the job's backfill. Returns rows written.
+ * statement timeout): the bench's backfill, or (scoped) a zone's months. Returns rows written.
  */
-export async function rollUpRange(db: Db, from: Date, to: Date): Promise<number> {
+export async function rollUpRange(
+  db: Db,
+  from: Date,
+  to: Date,
+  scope?: RollupScope,
+): Promise<number> {
   let rows = 0;
-  const endMs = ceilHourMs(to.getTime());
-  for (let h = floorHourMs(from.getTime()); h < endMs; h += DAY_HOURS * HOUR_MS) {
-    rows += await rollUpHours(db, new Date(h), new Date(Math.min(h + DAY_HOURS * HOUR_MS, endMs)));
+  for (const run of dayRuns(from.getTime(), to.getTime())) {
+    rows += await rollUpHours(db, new Date(run.fromMs), new Date(run.toMs), scope);
+  }
+  return rows;
+}
+
+/** [from, to) widened to whole hours, as runs of at most `hours` (a day). */
+function dayRuns(
+  fromMs: number,
+  toMs: number,
+  hours = DAY_HOURS,
+): { fromMs: number; toMs: number }[] {
+  const runs: { fromMs: number; toMs: number }[] = [];
+  const endMs = ceilHourMs(toMs);
+  for (let h = floorHourMs(fromMs); h < endMs; h += hours * HOUR_MS) {
+    runs.push({ fromMs: h, toMs: Math.min(h + hours * HOUR_MS, endMs) });
+  }
+  return runs;
+}
+
+/**
+ * One zone's roll-up statement covers a week: a zone of three sensors posting every minute is
+ * 30,000 readings, a second or so, far inside the 10 s statement timeout; a year is then 53
+ * statements, where a day each made 365, each paying ~90 ms of planning over the month
+ * partitions (measured with 50).
+ */
+const SPAN_CHUNK_HOURS = 7 * 24;
+
+/** What a bulk write (a CSV import) stored: one sensor's readings in [from, to]. */
+export interface StoredSpan {
+  zoneId: string;
+  sensorId: string;
+  from: Date;
+  to: Date;
+}
+
+/**
+ * The roll-ups a bulk write changed, scoped to its zone and in day-long statements: the hours
+ * from a gap cap before its first reading (a reading just before now stands only until it) to
+ * its last, and the hours of the zone's and the sensor's last readings before it (a gap that
+ * ran past the cap now ends at the first new reading). The same hours the roll-up job's
+ * hoursTouchedSince finds, for one zone. Each statement reads at most a week (and a cap) of one
+ * zone's readings, so a year of a logger's history is 53 small statements, none near the
+ * statement timeout. Returns the rows written.
+ */
+export async function rollUpStoredSpan(db: Db, span: StoredSpan): Promise<number> {
+  const prev = await db.execute<{
+    zone_prev: Date | string | null;
+    own_prev: Date | string | null;
+  }>(
+    sql`select
+      (select max(at) from readings where zone_id = ${span.zoneId} and at < ${span.from}) as zone_prev,
+      (select max(at) from readings where sensor_id = ${span.sensorId} and at < ${span.from}) as own_prev`,
+  );
+  const earlier = [prev.rows[0]?.zone_prev, prev.rows[0]?.own_prev]
+    .filter((at): at is Date | string => at !== null && at !== undefined)
+    .map((at) => floorHourMs(new Date(at).getTime()));
+  const fromMs = floorHourMs(span.from.getTime() - TOW_MAX_GAP_MS);
+  const runs = [
+    ...earlier.filter((h) => h < fromMs).map((h) => ({ fromMs: h, toMs: h + HOUR_MS })),
+    ...dayRuns(fromMs, span.to.getTime() + 1, SPAN_CHUNK_HOURS),
+  ];
+  const scope = { zoneIds: [span.zoneId] };
+  let rows = 0;
+  // Sorted and without repeats: the two earlier hours may be one, and the range's first.
+  const seen = new Set<number>();
+  for (const run of runs.sort((a, b) => a.fromMs - b.fromMs)) {
+    if (seen.has(run.fromMs)) continue;
+    seen.add(run.fromMs);
+    rows += await rollUpHours(db, new Date(run.fromMs), new Date(run.toMs), scope);
   }
   return rows;
 }

@@ -27,7 +27,7 @@ import { from as copyFrom } from 'pg-copy-streams';
 
 import type { Db } from '@/db';
 import { ensureReadingPartitionsWithin } from '@/db/queries/readingPartitions';
-import { rollUpRange } from '@/db/queries/readingRollups';
+import { rollUpStoredSpan } from '@/db/queries/readingRollups';
 import { drizzleOn } from '@/db/transaction';
 import {
   claimImport,
@@ -57,6 +57,12 @@ export interface ImportRunDeps {
   pool: pg.Pool;
   storage: Storage;
   logger: Logger;
+  /**
+   * The database for the roll-up after an import: the server's small pool for long background
+   * work (server/index.ts), so a year of roll-ups never takes a connection a request is waiting
+   * for. `db` when unset (tests).
+   */
+  background?: Db;
   now?: () => number;
   /** Rows per COPY chunk (tests make it small to see the bound with a small file). */
   copyChunkRows?: number;
@@ -70,6 +76,8 @@ export interface ImportOutcome {
   /** The most readings held at once as COPY text not yet taken by the COPY. */
   peakRowsHeld: number;
   peakBytesHeld: number;
+  /** The zone its readings were stored in (the sensor's at the time): what the roll-up scopes. */
+  zoneId: string;
 }
 
 /** At most one progress message in this many ms while an import runs (the contract's 250). */
@@ -139,13 +147,17 @@ export async function runImport(
     // The file is kept until the import ends, whichever way it ended.
     await deps.storage.delete(row.objectKey).catch(() => {});
   }
-  // Roll the imported hours up now, so long ranges show them at once; should this fail, the
-  // roll-up job finds them within 5 minutes by their arrival time.
+  // Roll the imported hours up now, so long ranges show them at once: the import's zone only,
+  // a week per statement. Should this fail, the roll-up job finds them within 5 minutes by
+  // their arrival time.
   const span = landed?.counts;
-  if (span?.firstAt && span.lastAt) {
-    await rollUpRange(deps.db, span.firstAt, span.lastAt).catch((err: unknown) =>
-      log.warn({ err }, 'import: roll-up deferred to the roll-up job'),
-    );
+  if (landed && span?.firstAt && span.lastAt) {
+    const stored = { zoneId: landed.zoneId, sensorId: row.sensorId };
+    await rollUpStoredSpan(deps.background ?? deps.db, {
+      ...stored,
+      from: span.firstAt,
+      to: span.lastAt,
+    }).catch((err: unknown) => log.warn({ err }, 'import: roll-up deferred to the roll-up job'));
   }
   return landed;
 }
@@ -277,6 +289,7 @@ async function importFile(
       inOrder: staged.inOrder,
       peakRowsHeld: staged.peakRowsHeld,
       peakBytesHeld: staged.peakBytesHeld,
+      zoneId: sensor.zoneId,
     };
   } catch (err) {
     object.body.destroy();
