@@ -30,6 +30,8 @@ export interface DatabaseOptions {
   connectionTimeoutMs?: number;
   /** PostgreSQL's application_name: tells this pool's sessions apart in pg_stat_activity. */
   applicationName?: string;
+  /** Settings for every session of the pool, as command-line options (`-c jit=off`). */
+  sessionOptions?: string;
 }
 
 /**
@@ -56,6 +58,7 @@ export function createDatabase(url: string, options: DatabaseOptions = {}): Data
     statement_timeout: options.statementTimeoutMs,
     query_timeout: options.queryTimeoutMs,
     application_name: options.applicationName,
+    options: options.sessionOptions,
   });
   // A client losing its connection (database restart) must not crash the process: idle ones
   // report on the pool, checked-out ones on themselves. The query in flight still rejects.

@@ -60,6 +60,10 @@ async function main() {
     queryTimeoutMs: config.queryTimeoutMs,
     connectionTimeoutMs: BACKGROUND_CONNECTION_TIMEOUT_MS,
     applicationName: 'drybench-background',
+    // The jobs' statements read readings across every month partition (the roll-up job's
+    // touched hours, partition maintenance); JIT compiling their plans cost far more than it
+    // saved on the roll-up statement (db/queries/readingRollups.ts), so none of them JIT.
+    sessionOptions: '-c jit=off',
   });
   const sessions = createSessionSigner(config.sessionSecret, config.cookieSecure);
   const listener = startNotificationListener(config.databaseUrl, logger);

@@ -47,6 +47,7 @@ beforeAll(async () => {
     statementTimeoutMs: 60_000,
     connectionTimeoutMs: BACKGROUND_CONNECTION_TIMEOUT_MS,
     applicationName: BACKGROUND_APP,
+    sessionOptions: '-c jit=off',
   });
 });
 afterAll(async () => {
