@@ -60,7 +60,7 @@ export async function storeReadings(
     duplicates: rows.length - insertedMs.size,
     rejected,
     results: rows.map((r) => ({
-      at: r.at.toISOString(),
+      at: r.atIso ?? r.at.toISOString(),
       dewPoint: r.dewPointC,
       margin: r.marginK,
       emc: r.emcPct,

@@ -53,11 +53,14 @@ export async function prepareReadings(
   const rows = accepted.map(({ reading, air }): ReadingRow => {
     const probe = reading.surfaceC !== null;
     const surfaceC = probe ? reading.surfaceC : (estimates.get(reading.atMs) ?? null);
+    const at = new Date(reading.atMs);
     return {
       sensorId: sensor.sensorId,
       shopId: sensor.shopId,
       zoneId: sensor.zoneId,
-      at: new Date(reading.atMs),
+      at,
+      // Once here: the insert's array and the answer both send it.
+      atIso: at.toISOString(),
       airC: reading.airC,
       rhPct: reading.rhPct,
       surfaceC,
