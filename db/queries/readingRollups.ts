@@ -224,38 +224,53 @@ export interface StoredSpan {
 }
 
 /**
- * The roll-ups a bulk write changed, scoped to its zone and in day-long statements: the hours
+ * The roll-ups a bulk write changed, scoped to its zone and in week-long statements: the hours
  * from a gap cap before its first reading (a reading just before now stands only until it) to
  * its last, and the hours of the zone's and the sensor's last readings before it (a gap that
  * ran past the cap now ends at the first new reading). The same hours the roll-up job's
- * hoursTouchedSince finds, for one zone. Each statement reads at most a week (and a cap) of one
- * zone's readings, so a year of a logger's history is 53 small statements, none near the
- * statement timeout. Returns the rows written.
+ * hoursTouchedSince finds, for one zone (and the sensor's previous reading's zone, should it
+ * have moved). Each statement reads at most a week (and a cap) of one zone's readings, so a year
+ * of a logger's history is 53 small statements, none near the statement timeout. The roll-up job
+ * still finds these readings by their arrival within 5 minutes and re-rolls their hours
+ * unscoped: what a moved sensor's other readings in the range change is caught there. Returns
+ * the rows written.
  */
 export async function rollUpStoredSpan(db: Db, span: StoredSpan): Promise<number> {
   const prev = await db.execute<{
     zone_prev: Date | string | null;
     own_prev: Date | string | null;
+    own_prev_zone: string | null;
   }>(
     sql`select
       (select max(at) from readings where zone_id = ${span.zoneId} and at < ${span.from}) as zone_prev,
-      (select max(at) from readings where sensor_id = ${span.sensorId} and at < ${span.from}) as own_prev`,
+      o.at as own_prev, o.zone_id as own_prev_zone
+    from (select 1) one
+    left join lateral (select at, zone_id from readings
+                       where sensor_id = ${span.sensorId} and at < ${span.from}
+                       order by at desc limit 1) o on true`,
   );
-  const earlier = [prev.rows[0]?.zone_prev, prev.rows[0]?.own_prev]
-    .filter((at): at is Date | string => at !== null && at !== undefined)
-    .map((at) => floorHourMs(new Date(at).getTime()));
+  const p = prev.rows[0];
   const fromMs = floorHourMs(span.from.getTime() - TOW_MAX_GAP_MS);
-  const runs = [
-    ...earlier.filter((h) => h < fromMs).map((h) => ({ fromMs: h, toMs: h + HOUR_MS })),
-    ...dayRuns(fromMs, span.to.getTime() + 1, SPAN_CHUNK_HOURS),
-  ];
-  const scope = { zoneIds: [span.zoneId] };
+  const runs: { fromMs: number; toMs: number; zoneId: string }[] = [];
+  const earlier = (at: Date | string | null | undefined, zoneId: string | null | undefined) => {
+    if (!at || !zoneId) return;
+    const h = floorHourMs(new Date(at).getTime());
+    // A sensor moved since keeps its earlier reading's roll-up in that reading's zone.
+    if (h < fromMs || zoneId !== span.zoneId) runs.push({ fromMs: h, toMs: h + HOUR_MS, zoneId });
+  };
+  earlier(p?.zone_prev, span.zoneId);
+  earlier(p?.own_prev, p?.own_prev_zone);
+  for (const run of dayRuns(fromMs, span.to.getTime() + 1, SPAN_CHUNK_HOURS)) {
+    runs.push({ ...run, zoneId: span.zoneId });
+  }
   let rows = 0;
-  // Sorted and without repeats: the two earlier hours may be one, and the range's first.
-  const seen = new Set<number>();
+  // In time order and without repeats: both earlier readings may share an hour.
+  const seen = new Set<string>();
   for (const run of runs.sort((a, b) => a.fromMs - b.fromMs)) {
-    if (seen.has(run.fromMs)) continue;
-    seen.add(run.fromMs);
+    const key = `${run.zoneId}|${run.fromMs}`;
+    if (seen.has(key)) continue;
+    seen.add(key);
+    const scope = { zoneIds: [run.zoneId] };
     rows += await rollUpHours(db, new Date(run.fromMs), new Date(run.toMs), scope);
   }
   return rows;
