@@ -183,7 +183,7 @@ describe("an import's roll-ups", () => {
     expect(await hourlyRowsOf(other.shopId)).toEqual(othersBefore);
   }, 240_000);
 
-  it('reaches the hour of a gap before it: the previous reading now stands until the import', async () => {
+  it('reaches the hour of a gap before it, in the old zone too when the sensor moved', async () => {
     const o = await ownerWithSensor({ app: w.baseUrl, outbox: w.t.outbox });
     // One reading a week before the file: its own share was a gap to nowhere; after the import
     // its gap ends at the file's first reading, whose hour lies far outside the file's range.
@@ -201,6 +201,27 @@ describe("an import's roll-ups", () => {
     const later = await queued(o, csv(fileStartMs, 20, 15));
     expect((await runImport(deps(), later))?.counts.rowsStored).toBe(20);
     expect((await gapOf())[0]!.t).toBe(fileStartMs);
+
+    // Moved to another zone, then a later file: the previous reading's roll-up (in the old
+    // zone) has its own gap end at the new file, though the new readings are in the new zone.
+    const zone = await o.agent
+      .post(`/api/v1/shops/${o.shopId}/zones`)
+      .send({ name: 'Lumber rack' })
+      .expect(201);
+    await o.agent
+      .patch(`/api/v1/shops/${o.shopId}/sensors/${o.sensorId}`)
+      .send({ zoneId: zone.body.id })
+      .expect(200);
+    const lastOfOld = Date.UTC(2023, 2, 8) + 19 * 15 * 60_000;
+    const movedStartMs = Date.UTC(2023, 3, 1);
+    const moved = await queued(o, csv(movedStartMs, 4, 15));
+    expect((await runImport(deps(), moved))?.counts.rowsStored).toBe(4);
+    const { rows } = await w.t.pool.query(
+      `select own_gaps, zone_id from readings_hourly where sensor_id = $1 and hour = $2`,
+      [o.sensorId, new Date(Math.floor(lastOfOld / HOUR_MS) * HOUR_MS)],
+    );
+    expect(rows[0].zone_id).toBe(o.zoneId);
+    expect(rows[0].own_gaps.at(-1).t).toBe(movedStartMs);
   }, 60_000);
 });
 
