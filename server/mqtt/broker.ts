@@ -218,6 +218,8 @@ export async function startBroker(options: BrokerOptions): Promise<RunningBroker
     }
     if (!chosen) return Promise.reject(new Error('the server is not connected'));
     const service = chosen;
+    // How many forwards the least busy connection already had open: 0 unless every one is busy.
+    stageMs('broker.chosenOpen', fewest);
     const counter = ++forwardCounter;
     services.set(service, fewest + 1);
     return new Promise<void>((resolve, reject) => {
@@ -282,7 +284,10 @@ export async function startBroker(options: BrokerOptions): Promise<RunningBroker
     for (const [client, who] of sensors) if (who.tokenHash === tokenHash) client.close();
   });
 
-  const server = net.createServer(broker.handle);
+  // Without noDelay a small packet written while the previous one is still unacknowledged waits
+  // for the peer's delayed ACK (Nagle's algorithm; Linux delays an ACK up to 40 ms): a forward
+  // to an idle server connection took p50 48 ms against the server's 10 ms store.
+  const server = net.createServer({ noDelay: true }, broker.handle);
   await new Promise<void>((resolve, reject) => {
     server.once('error', reject);
     server.listen(options.port, options.host, () => resolve());
