@@ -279,9 +279,22 @@ export async function startBroker(options: BrokerOptions): Promise<RunningBroker
     log.debug({ clientId: client.id, err: err.message }, 'client dropped');
   });
 
-  // A revoked token's open connections close at once, on every broker that hears of it.
+  // A revoked token's open connections close at once, on every broker that hears of it. The
+  // routes announce a token on creation, rename and zone move too (so no cache keeps an old
+  // answer), so the token is checked again first: closing on every notice dropped a sensor
+  // that had just connected with its new token, or was renamed, mid-session. The cache forgot
+  // the hash on this same notice (its listener was added first), so the check reads the row.
   options.listener?.on(TOKEN_CHANNEL, (tokenHash) => {
-    for (const [client, who] of sensors) if (who.tokenHash === tokenHash) client.close();
+    for (const [client, who] of sensors) {
+      if (who.tokenHash !== tokenHash) continue;
+      tokens.resolve(who.token).then(
+        (sensor) => {
+          if (sensor?.sensorId !== who.sensorId) client.close();
+        },
+        // Storage away: its next message's token check decides.
+        (err: unknown) => log.warn({ err }, 'token re-check failed; the next message decides'),
+      );
+    }
   });
 
   // Without noDelay a small packet written while the previous one is still unacknowledged waits
