@@ -6,9 +6,9 @@
  * (which has its own config) gets it too. Off, each call is one comparison.
  *
  * Stages: broker.token (token check), broker.forward (hand-over to the server until its
- * PUBACK), mqtt.identity, mqtt.answer (a message's whole store on the server), writer.queue,
- * writer.statement, writer.groupRows, notify.lag (statement returned → notification heard),
- * hub.fanout.
+ * PUBACK), broker.chosenOpen (forwards already open on the connection chosen), mqtt.identity,
+ * mqtt.answer (a message's whole store on the server), writer.queue, writer.statement,
+ * writer.groupRows, notify.lag (statement returned → notification heard), hub.fanout.
  */
 import { monitorEventLoopDelay } from 'node:perf_hooks';
 

@@ -208,6 +208,37 @@ describe('MQTT access', () => {
     expect(await storedAts(b.sensorId)).toEqual([]);
   });
 
+  it('keeps a sensor connected through a rename, which announces its token as a revocation does', async () => {
+    // server/routes/sensors.ts announces the token on creation, rename and move so that no
+    // cache keeps an old answer; the broker used to close the connection on any such notice,
+    // which also dropped a sensor that connected right after being created.
+    const owner = await ownerWithSensor(t);
+    const sensor = sensorClient(broker.port, owner);
+    await connected(sensor);
+    let closed = false;
+    sensor.once('close', () => (closed = true));
+    await owner.agent
+      .patch(`/api/v1/shops/${owner.shopId}/sensors/${owner.sensorId}`)
+      .send({ name: 'Jointer probe' })
+      .expect(200);
+    // Another sensor's revocation, announced after the rename on the same channel: once its
+    // connection has closed, the rename's notice has been heard and its re-check started.
+    const other = await ownerWithSensor(t);
+    const otherClient = sensorClient(broker.port, other);
+    await connected(otherClient);
+    const otherClosed = new Promise<void>((r) => otherClient.once('close', () => r()));
+    await other.agent
+      .delete(`/api/v1/shops/${other.shopId}/sensors/${other.sensorId}/token`)
+      .expect(204);
+    await otherClosed;
+    await new Promise((r) => setTimeout(r, 300));
+    expect(closed).toBe(false);
+    await sensor.publishAsync(readingsTopic(owner.sensorId), JSON.stringify({ air: 20, rh: 50 }), {
+      qos: 1,
+    });
+    expect(await storedAts(owner.sensorId)).toHaveLength(1);
+  });
+
   it('refuses a revoked token within a second: the open connection is dropped, a new one refused, nothing stored', async () => {
     const owner = await ownerWithSensor(t);
     const sensor = sensorClient(broker.port, owner);
