@@ -13,7 +13,8 @@ import { createFixtures, type BenchFixtures } from './fixtures';
 import { loggerCsv, measureImportSpeed, type ImportSpeedResult } from './importSpeed';
 import { runHttpSlice } from './httpLoad';
 import { interleave, type Contender, type Measured } from './interleave';
-import { connectLiveClients, measureLiveLatency, type LiveLatencyResult } from './liveLatency';
+import { measureLiveLatency, type LiveLatencyResult } from './liveLatency';
+import { connectLiveClients, type LiveClients } from './liveSockets';
 import { createMqttShop, measureMqttLatency, type MqttLatencyResult } from './mqttLatency';
 import type { BenchOptions, Phase } from './options';
 import { startPacedLoad, type PacedLoadResult } from './pacedLoad';
@@ -325,13 +326,16 @@ export async function runBench(
     }
 
     if (has('live')) {
-      progress(`connecting ${options.wsClients} signed-in WebSocket clients…`);
+      progress(
+        `connecting ${options.wsClients} signed-in WebSocket clients (${options.liveClients} thread)…`,
+      );
       const clients = await connectLiveClients({
         url,
         cookie: fixtures.cookie,
         count: options.wsClients,
+        where: options.liveClients,
       });
-      closers.push(async () => clients.close());
+      closers.push(() => clients.close());
       Object.assign(
         result,
         await measureLive(
@@ -413,7 +417,7 @@ async function measureLive(
   serverPid: number,
   fixtures: BenchFixtures,
   readings: ReadingSource,
-  clients: Awaited<ReturnType<typeof connectLiveClients>>,
+  clients: LiveClients,
   progress: (line: string) => void,
 ): Promise<Pick<BenchResult, 'liveIdle' | 'liveLoaded'>> {
   const live = {
