@@ -41,8 +41,9 @@ export interface BenchOptions {
   probeSensors: number;
   wsClients: number;
   /**
-   * Where the live phase's watching sockets run: a worker thread of their own (the default), or
-   * the probe's thread as before 2026-12-03, to compare (scripts/bench/liveSockets.ts).
+   * Where the live phase's watching sockets and the loaded phase's background load run: each on
+   * a worker thread of its own (the default), or the probe's thread as before 2026-12-03, to
+   * compare (scripts/bench/liveSockets.ts, pacedLoadWorker.ts).
    */
   liveClients: LiveClientsWhere;
   probeIntervalMs: number;
@@ -95,8 +96,8 @@ export const USAGE = `npm run bench [-- options]
   --pg-port N        the bench's own PostgreSQL port (default ${DEFAULT_OPTIONS.pgPort}; a free one if taken)
   --import-rows N    lines of the import phase's logger file (default ${DEFAULT_OPTIONS.importRows})
   --import-rounds N  COPY-then-import rounds of the import phase (default ${DEFAULT_OPTIONS.importRounds})
-  --live-clients W   where the live phase's 200 sockets run: worker (their own thread, default)
-                     or inline (the probe's thread, as before), to compare
+  --live-clients W   where the live phase's 200 sockets and background load run: worker (each
+                     on a thread of its own, default) or inline (the probe's thread, as before)
   --cpu-prof DIR     write the server's (and the MQTT broker's) CPU profile to DIR when it exits
   --pg-stats FILE    write PostgreSQL's top statements (pg_stat_statements) to FILE
   --web-dir DIR      web phase: serve this export instead of building dist/ (to compare builds)
