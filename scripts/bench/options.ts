@@ -1,6 +1,8 @@
 /** What one bench run does; `npm run bench -- --help` lists the flags. */
 import { parseArgs } from 'node:util';
 
+import type { LiveClientsWhere } from './liveSockets';
+
 // `chart` runs last: it stores 10 M readings, which would slow every insert phase after it.
 // `web` exports the web app if its sources changed, then opens the overview in Chromium.
 export const PHASES = [
@@ -38,6 +40,12 @@ export interface BenchOptions {
   /** The probe rotates over these, so 20 probes a second stay inside the per-sensor limit. */
   probeSensors: number;
   wsClients: number;
+  /**
+   * Where the live phase's watching sockets and the loaded phase's background load run: each on
+   * a worker thread of its own (the default), or the probe's thread as before 2026-12-03, to
+   * compare (scripts/bench/liveSockets.ts, pacedLoadWorker.ts).
+   */
+  liveClients: LiveClientsWhere;
   probeIntervalMs: number;
   backgroundReadingsPerS: number;
   /** Readings per background request: 1, as real sensors post one reading at a time. */
@@ -68,6 +76,7 @@ export const DEFAULT_OPTIONS: BenchOptions = {
   fleetSensors: 500,
   probeSensors: 5,
   wsClients: 200,
+  liveClients: 'worker',
   probeIntervalMs: 50,
   backgroundReadingsPerS: 1000,
   backgroundBatch: 1,
@@ -87,6 +96,8 @@ export const USAGE = `npm run bench [-- options]
   --pg-port N        the bench's own PostgreSQL port (default ${DEFAULT_OPTIONS.pgPort}; a free one if taken)
   --import-rows N    lines of the import phase's logger file (default ${DEFAULT_OPTIONS.importRows})
   --import-rounds N  COPY-then-import rounds of the import phase (default ${DEFAULT_OPTIONS.importRounds})
+  --live-clients W   where the live phase's 200 sockets and background load run: worker (each
+                     on a thread of its own, default) or inline (the probe's thread, as before)
   --cpu-prof DIR     write the server's (and the MQTT broker's) CPU profile to DIR when it exits
   --pg-stats FILE    write PostgreSQL's top statements (pg_stat_statements) to FILE
   --web-dir DIR      web phase: serve this export instead of building dist/ (to compare builds)
@@ -104,6 +115,7 @@ export function readBenchOptions(argv: string[]): BenchOptions | 'help' {
       'import-rows': { type: 'string' },
       'import-rounds': { type: 'string' },
       'cpu-prof': { type: 'string' },
+      'live-clients': { type: 'string' },
       'pg-stats': { type: 'string' },
       'web-dir': { type: 'string' },
       'web-trace': { type: 'string' },
@@ -120,6 +132,10 @@ export function readBenchOptions(argv: string[]): BenchOptions | 'help' {
   const phases = values.phases?.split(',').map((p) => p.trim()) ?? [...PHASES];
   const unknown = phases.filter((p) => !(PHASES as readonly string[]).includes(p));
   if (unknown.length > 0) throw new Error(`unknown phase ${unknown.join(', ')}`);
+  const liveClients = values['live-clients'] ?? DEFAULT_OPTIONS.liveClients;
+  if (liveClients !== 'worker' && liveClients !== 'inline') {
+    throw new Error('--live-clients must be worker or inline');
+  }
   return {
     ...DEFAULT_OPTIONS,
     pgPort: positive('pg-port', values['pg-port'], DEFAULT_OPTIONS.pgPort),
@@ -129,6 +145,7 @@ export function readBenchOptions(argv: string[]): BenchOptions | 'help' {
     phases: phases as Phase[],
     importRows: positive('import-rows', values['import-rows'], DEFAULT_OPTIONS.importRows),
     importRounds: positive('import-rounds', values['import-rounds'], DEFAULT_OPTIONS.importRounds),
+    liveClients,
     cpuProfDir: values['cpu-prof'] ?? null,
     pgStatsFile: values['pg-stats'] ?? null,
     webDir: values['web-dir'] ?? null,

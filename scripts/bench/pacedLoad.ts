@@ -4,6 +4,10 @@
  * would post. A closed loop would slow down with the server and hide the load it cannot take.
  */
 import http from 'node:http';
+import path from 'node:path';
+import { Worker } from 'node:worker_threads';
+
+import type { PacedLoadWorkerSpec } from './pacedLoadWorker';
 
 import { summarize, type LatencySummary } from './stats';
 
@@ -109,6 +113,32 @@ export function startPacedLoad(spec: PacedLoadSpec): PacedLoad {
         skipped,
         request: summarize(latenciesMs),
       };
+    },
+  };
+}
+
+/**
+ * The same load from a worker thread of its own (pacedLoadWorker.ts), its bodies from its own
+ * reading source starting at `readingsStartMs`.
+ */
+export function startPacedLoadInWorker(spec: PacedLoadWorkerSpec): PacedLoad {
+  // As in liveSockets.ts: a worker refuses a .ts entry, so it registers tsx's hook first.
+  const entry = path.join(__dirname, 'pacedLoadWorker.ts');
+  const worker = new Worker(`require('tsx/cjs'); require(${JSON.stringify(entry)});`, {
+    eval: true,
+    workerData: spec,
+  });
+  const failed = new Promise<never>((_, reject) => worker.once('error', reject));
+  failed.catch(() => {});
+  return {
+    async stop() {
+      const result = new Promise<PacedLoadResult>((resolve) => worker.once('message', resolve));
+      worker.postMessage('stop');
+      try {
+        return await Promise.race([result, failed]);
+      } finally {
+        await worker.terminate();
+      }
     },
   };
 }

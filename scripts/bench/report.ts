@@ -81,6 +81,10 @@ export function figuresOf(r: BenchResult): Figures {
     ingestBatch50ReadingsPerS: ingest50ReadingsPerS ? round(ingest50ReadingsPerS, 0) : null,
     wsP50IdleMs: r.liveIdle ? round(r.liveIdle.delivery.p50Ms) : null,
     wsP50LoadedMs: r.liveLoaded ? round(r.liveLoaded.delivery.p50Ms) : null,
+    // The probe's POST → 202, whose tail the delivery carries, and where the sockets ran.
+    wsPostP99IdleMs: r.liveIdle ? round(r.liveIdle.post.p99Ms) : null,
+    wsPostP99LoadedMs: r.liveLoaded ? round(r.liveLoaded.post.p99Ms) : null,
+    wsClientsThread: r.liveIdle?.clientsWhere ?? r.liveLoaded?.clientsWhere ?? null,
     backgroundReadingsPerS: bg ? round(bg.readingsPerS, 0) : null,
     chartQueryP50Ms: r.chart ? round(r.chart.p50Ms) : null,
     chartQueryVsTarget: r.chart ? round(r.chart.p95Ms / TARGETS.chartQueryP95Ms.atMost, 3) : null,
@@ -232,7 +236,8 @@ export function formatReport(r: BenchResult): string {
     out.push(
       `POST → WS ${name}: ${o.wsClients} clients, ${l.probes} probes every ${o.probeIntervalMs} ms, ` +
         `${l.missing} deliveries missing; the probe's POST → 202 p50 ${ms(l.post.p50Ms)} / ` +
-        `p99 ${ms(l.post.p99Ms)} ms; the clients' event-loop delay p99 ${ms(l.clientLoopDelayP99Ms)} ms`,
+        `p99 ${ms(l.post.p99Ms)} ms; event-loop delay p99 of the clients' thread (${l.clientsWhere}) ` +
+        `${ms(l.clientLoopDelayP99Ms)} ms, of the probe's ${ms(l.probeLoopDelayP99Ms)} ms`,
     );
   }
   if (r.liveLoaded) {

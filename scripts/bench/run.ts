@@ -13,10 +13,11 @@ import { createFixtures, type BenchFixtures } from './fixtures';
 import { loggerCsv, measureImportSpeed, type ImportSpeedResult } from './importSpeed';
 import { runHttpSlice } from './httpLoad';
 import { interleave, type Contender, type Measured } from './interleave';
-import { connectLiveClients, measureLiveLatency, type LiveLatencyResult } from './liveLatency';
+import { measureLiveLatency, type LiveLatencyResult } from './liveLatency';
+import { connectLiveClients, type LiveClients } from './liveSockets';
 import { createMqttShop, measureMqttLatency, type MqttLatencyResult } from './mqttLatency';
 import type { BenchOptions, Phase } from './options';
-import { startPacedLoad, type PacedLoadResult } from './pacedLoad';
+import { startPacedLoad, startPacedLoadInWorker, type PacedLoadResult } from './pacedLoad';
 import {
   PG_STATS_SERVER_OPTS,
   readGroupSizes,
@@ -325,13 +326,16 @@ export async function runBench(
     }
 
     if (has('live')) {
-      progress(`connecting ${options.wsClients} signed-in WebSocket clients…`);
+      progress(
+        `connecting ${options.wsClients} signed-in WebSocket clients (${options.liveClients} thread)…`,
+      );
       const clients = await connectLiveClients({
         url,
         cookie: fixtures.cookie,
         count: options.wsClients,
+        where: options.liveClients,
       });
-      closers.push(async () => clients.close());
+      closers.push(() => clients.close());
       Object.assign(
         result,
         await measureLive(
@@ -413,7 +417,7 @@ async function measureLive(
   serverPid: number,
   fixtures: BenchFixtures,
   readings: ReadingSource,
-  clients: Awaited<ReturnType<typeof connectLiveClients>>,
+  clients: LiveClients,
   progress: (line: string) => void,
 ): Promise<Pick<BenchResult, 'liveIdle' | 'liveLoaded'>> {
   const live = {
@@ -432,13 +436,22 @@ async function measureLive(
   progress(
     `POST → WebSocket latency under ${options.backgroundReadingsPerS} readings/s of background ingest…`,
   );
-  const background = startPacedLoad({
+  const load = {
     url,
     tokens: fixtures.fleet.map((s) => s.token),
     readingsPerS: options.backgroundReadingsPerS,
     batch: options.backgroundBatch,
-    body: (n) => (n === 1 ? readings.singleBody() : readings.batchBody(n)),
-  });
+  };
+  // With the sockets on their own thread, the load gets one too: the probe's thread then only
+  // probes. Its readings start 30 days back, clear of the main source's (60 days back, under
+  // 12 days of seconds per run), so none is a duplicate.
+  const background =
+    options.liveClients === 'worker'
+      ? startPacedLoadInWorker({ ...load, readingsStartMs: Date.now() - 30 * 24 * 3600 * 1000 })
+      : startPacedLoad({
+          ...load,
+          body: (n) => (n === 1 ? readings.singleBody() : readings.batchBody(n)),
+        });
   // Let the background load settle before the first probe.
   await new Promise((resolve) => setTimeout(resolve, 1000));
   meter = startCpuMeter(serverPid, options.pgPort);

@@ -9,6 +9,7 @@ import type { Level, Rejection, SensorReading } from '@/ingest';
 import type { SurfaceSource } from '@/ingest/wire/levels';
 
 import type { AlarmQueue } from '../alarms/queue';
+import { stageMs, stageTraceOn } from '../stageTrace';
 
 import { prepareReadings } from './prepare';
 import type { SurfaceEstimator } from './surfaceEstimates';
@@ -45,7 +46,9 @@ export async function storeReadings(
   readings: SensorReading[],
   receivedAtMs: number,
 ): Promise<StoreReadingsOutcome> {
+  const t0 = stageTraceOn ? performance.now() : 0;
   const { rows, rejected } = await prepareReadings(sensor, readings, receivedAtMs, deps.estimator);
+  if (stageTraceOn) stageMs('ingest.prepare', performance.now() - t0);
   const { insertedMs } = await deps.writer.write(rows);
   // The rows are committed, so the answer need not wait for the alarms: the queue judges them
   // next, logs its own failures and never undoes the answer.

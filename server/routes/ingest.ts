@@ -18,6 +18,7 @@ import type { SensorTokenCache } from '../auth/sensorTokens';
 import { ApiError } from '../errors';
 import { readingsOfBody } from '../readings/ingestBody';
 import { storeReadings, type StoreReadingsDeps } from '../readings/ingestReadings';
+import { stageMs, stageTraceOn } from '../stageTrace';
 
 const BEARER = /^Bearer\s+(\S+)$/i;
 
@@ -35,6 +36,10 @@ export function ingestRouter(deps: IngestDeps): Router {
   router.post(
     '/',
     async (req, res, next) => {
+      if (stageTraceOn) {
+        const t0 = performance.now();
+        res.once('finish', () => stageMs('ingest.http', performance.now() - t0));
+      }
       // Authenticate before reading the body: an unknown sender should cost us nothing.
       const match = BEARER.exec(req.headers.authorization ?? '');
       if (!match) {
