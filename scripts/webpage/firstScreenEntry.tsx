@@ -9,6 +9,7 @@ import { QueryClientProvider } from '@tanstack/react-query';
 import * as ReactDomServer from 'react-dom/server';
 import { AppRegistry } from 'react-native';
 
+import { FixedLiveStatus } from '@/components/live';
 import { createQueryClient, meKeys } from '@/components/queries';
 import { FirstScreen } from '@/components/shop/FirstScreen';
 import type { FirstScreenInput, FirstScreenMarkup } from '@/ingest/wire/firstScreen';
@@ -32,7 +33,9 @@ function Root({ input }: { input: FirstScreenInput }) {
   queryClient.setQueryData(meKeys.all, input.me);
   return (
     <QueryClientProvider client={queryClient}>
-      <FirstScreen {...input} />
+      <FixedLiveStatus status="connecting">
+        <FirstScreen {...input} />
+      </FixedLiveStatus>
     </QueryClientProvider>
   );
 }
