@@ -25,6 +25,8 @@ export interface FirstScreenMarkup {
 /** What the built renderer module exports. */
 export interface FirstScreenRenderer {
   renderFirstScreen(input: FirstScreenInput): FirstScreenMarkup;
+  /** Renders invented data `times` times, so real requests find the code compiled. */
+  warmUp?(times: number, nowMs: number): void;
 }
 
 /** The element id of the server's first screen; the boot script removes it once the app shows. */
