@@ -18,6 +18,7 @@ import { makeTestApp, ownerWithSensor, verifiedPerson, type TestApp } from '../s
 import { errorShape } from '../support/errorShape';
 import { postIngest } from '../support/ingest';
 import { captureLogs } from '../support/logs';
+import { ACTORS, makeWorld, secretsOf, type Actor, type World } from '../support/tenants';
 
 // The export's page as finishExport leaves it, shortened: an inline boot script, the root.
 const BOOT = 'window.booted = true;';
@@ -165,6 +166,34 @@ describe("the overview's first screen", () => {
   it('keeps the renderer to itself', async () => {
     const res = await request(t.app).get(`/${RENDERER_PATH}`).expect(404);
     expect(res.body).toEqual(errorShape);
+  });
+});
+
+// The tenant matrix's actors (tests/support/tenants.ts) at shop A's overview: its three roles get
+// its cards, a member of another shop and someone signed out the plain page; no page carries the
+// other shop's ids, names or people.
+describe("the first screen across the tenant matrix's actors", () => {
+  let world: World;
+  beforeAll(async () => {
+    world = await makeWorld(t);
+  });
+
+  const cookieOf = (actor: Actor) => (actor === 'anonymous' ? undefined : world[actor].cookie);
+
+  it.each(ACTORS)('%s at shop A', async (actor) => {
+    const req = request(t.app).get(`/shops/${world.a.id}`);
+    const cookie = cookieOf(actor);
+    const res = await (cookie ? req.set('cookie', cookie) : req).expect(200);
+    const { a, b } = secretsOf(world);
+    const member = actor === 'owner' || actor === 'member' || actor === 'viewer';
+    if (member) {
+      expect(firstScreenOf(res.text)).toContain(world.a.zone.name);
+      expect(res.headers['cache-control']).toBe('private, no-store');
+    } else {
+      expect(res.text).toBe(PAGE);
+      for (const secret of a) expect(res.text).not.toContain(secret);
+    }
+    for (const secret of b) expect(res.text).not.toContain(secret);
   });
 });
 
