@@ -22,7 +22,7 @@ export function FirstScreen({ me, shopId, zones }: FirstScreenInput) {
   return (
     <View style={styles.page}>
       <ShopHeader shopName={shop.name} />
-      <View style={styles.main}>
+      <View style={styles.main} role="main">
         <Content>
           <View style={styles.stack}>
             <ScreenTitle>{ZONES_HEADING}</ScreenTitle>
