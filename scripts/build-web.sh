@@ -33,5 +33,7 @@ fi
 finish=$(hash_of scripts/webpage dist/.source-hash)
 if [ "$(cat dist/.finish-hash 2>/dev/null)" != "$finish" ]; then
   npx tsx scripts/webpage/finishExport.ts dist
+  # The server's renderer of the overview's first screen (server/firstScreen.ts).
+  npx tsx scripts/webpage/firstScreenBuild.ts dist
   echo "$finish" > dist/.finish-hash
 fi

@@ -100,7 +100,13 @@ export function createApp(deps: AppDeps): express.Express {
   // after the token check and with its own limit.
   const alarmQueue = deps.alarms && createAlarmQueue(deps.alarms, deps.logger, deps.alarmQueue);
   app.use('/api/v1/ingest', ingestRouter({ ...deps, alarms: alarmQueue, now }));
-  const web = deps.webDir ? webApp(path.resolve(deps.webDir)) : null;
+  const web = deps.webDir
+    ? webApp(path.resolve(deps.webDir), {
+        db: deps.db,
+        sessions: deps.sessions,
+        logger: deps.logger,
+      })
+    : null;
   app.use(
     helmet({
       // The exported Expo app uses inline styles; scripts stay same-origin, but for the page's

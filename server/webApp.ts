@@ -2,7 +2,8 @@
  * Serves the exported web app (dist/): hashed scripts and assets cached for good, the page
  * revalidated every visit, and what scripts/webpage/finishExport.ts pre-compressed sent as it
  * is (brotli, else gzip) to a browser that accepts it. Also says which inline scripts the page
- * may run (the boot script), for the Content-Security-Policy.
+ * may run (the boot script), for the Content-Security-Policy. A shop's overview carries the
+ * server's first screen (firstScreen.ts) for its signed-in members.
  */
 import crypto from 'node:crypto';
 import fs from 'node:fs';
@@ -11,6 +12,8 @@ import path from 'node:path';
 import express, { type RequestHandler, type Router } from 'express';
 
 import { notFound } from './errors';
+import { firstScreen, overviewShopId, type FirstScreenDeps } from './firstScreen';
+import { FIRST_SCREEN_ID, type FirstScreenMarkup } from '@/ingest/wire/firstScreen';
 
 export interface WebApp {
   /** CSP script-src entries ('sha256-…') for the page's inline scripts. */
@@ -81,9 +84,25 @@ function sendCompressed(
   };
 }
 
-export function webApp(webDir: string): WebApp | null {
+/**
+ * The page with the first screen in it: its style element closes the head, its markup comes
+ * before the app's root, above which it stays (fixed, covering the page) until the boot script
+ * hands over to the app. Only markup and a style element are added: the page's inline scripts,
+ * and so the CSP's hashes, stay those of index.html.
+ */
+export function pageWithFirstScreen(page: string, markup: FirstScreenMarkup): string {
+  const cover =
+    `<div id="${FIRST_SCREEN_ID}" style="position:fixed;inset:0;z-index:1;overflow-y:auto;` +
+    `display:flex;flex-direction:column">${markup.html}</div>`;
+  return page
+    .replace('</head>', () => `${markup.css}</head>`)
+    .replace('<div id="root">', (root) => `${cover}${root}`);
+}
+
+export function webApp(webDir: string, deps?: FirstScreenDeps): WebApp | null {
   const indexHtml = path.join(webDir, 'index.html');
   if (!fs.existsSync(indexHtml)) return null;
+  const page = fs.readFileSync(indexHtml, 'utf8');
   const compressed = compressedFilesOf(webDir);
   const router = express.Router();
   // Scripts and assets under /_expo and /assets carry a content hash in their name: a new
@@ -100,17 +119,42 @@ export function webApp(webDir: string): WebApp | null {
   // A missing script (an old chunk after a deploy) must fail as a script: answered with the
   // page, the browser would run HTML as JavaScript.
   router.use(['/_expo', '/assets'], notFound);
+  // The server's own renderer is part of the export but no file to serve.
+  router.use('/_ssr', notFound);
   router.use(express.static(webDir, { index: false, maxAge: '1h' }));
   // Client-side routes (/shops/…) all load the single-page app. The export may sit under a
   // dot folder (a build kept aside to compare), which send refuses unless told.
-  const page = { 'cache-control': 'no-cache' };
-  router.get(
-    '/{*splat}',
-    sendCompressed(webDir, compressed, page, {}, () => '/index.html'),
-    (_req, res) => res.sendFile(indexHtml, { dotfiles: 'allow', headers: page }),
+  const screen = deps ? firstScreen(webDir, deps) : null;
+  if (screen && deps) {
+    // Not a route with a :shopId parameter: Express would answer a malformed %-escape in it with
+    // an error; overviewShopId reads the address itself.
+    router.use(async (req, res, next) => {
+      if ((req.method !== 'GET' && req.method !== 'HEAD') || !overviewShopId(req.path)) {
+        return next();
+      }
+      // The same address answers each person differently: no cache may hand one to another.
+      res.vary('Cookie');
+      let markup: FirstScreenMarkup | null = null;
+      try {
+        markup = await screen(req);
+      } catch (err) {
+        // The plain page still works: the app asks for the same data itself.
+        deps.logger.error({ err, path: req.path }, 'first screen failed; the plain page is sent');
+      }
+      if (!markup) return next();
+      res.setHeader('Cache-Control', 'private, no-store');
+      res.type('html').send(pageWithFirstScreen(page, markup));
+    });
+  }
+  const plain = { 'cache-control': 'no-cache' };
+  // Middleware rather than a '/{*splat}' route: the route decodes its parameter and answers a
+  // malformed %-escape (/shops/%E0%A4%A) with a 500; the page needs no parameter.
+  const pageOnly: RequestHandler = (req, _res, next) =>
+    next(req.method === 'GET' || req.method === 'HEAD' ? undefined : 'router');
+  router.use(
+    pageOnly,
+    sendCompressed(webDir, compressed, plain, {}, () => '/index.html'),
+    (_req, res) => res.sendFile(indexHtml, { dotfiles: 'allow', headers: plain }),
   );
-  return {
-    inlineScriptSources: inlineScriptSources(fs.readFileSync(indexHtml, 'utf8')),
-    router,
-  };
+  return { inlineScriptSources: inlineScriptSources(page), router };
 }

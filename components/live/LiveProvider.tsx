@@ -23,6 +23,14 @@ export function useLiveStatus(): LiveStatus {
   return useContext(LiveStatusContext);
 }
 
+/**
+ * A status without a connection, for the server's render of a page (components/shop/FirstScreen):
+ * the app connects as soon as it starts, so the page says it is connecting, not offline.
+ */
+export function FixedLiveStatus({ status, children }: { status: LiveStatus; children: ReactNode }) {
+  return <LiveStatusContext.Provider value={status}>{children}</LiveStatusContext.Provider>;
+}
+
 /** Holds the live connection open while someone is signed in; patches the query cache. */
 export function LiveProvider({ children }: { children: ReactNode }) {
   const queryClient = useQueryClient();

@@ -1,6 +1,6 @@
 export { applyLiveMessage } from './applyLiveMessage';
 export { BACKOFF_BASE_MS, BACKOFF_MAX_MS, backoffDelayMs, liveUrl } from './backoff';
-export { LiveProvider, useLiveStatus } from './LiveProvider';
+export { FixedLiveStatus, LiveProvider, useLiveStatus } from './LiveProvider';
 export { openLiveSocket, type LiveStatus } from './liveSocket';
 export {
   parseLiveMessage,

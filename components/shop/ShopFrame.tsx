@@ -27,6 +27,7 @@ import { colors, space, type } from '@/components/theme';
 import { Notice, Splash, useDocumentTitle } from '@/components/ui';
 
 import { ShopHeader } from './ShopHeader';
+import { ZONES_HEADING } from './zonesHeading';
 
 /** How the frame dresses one page of a shop. */
 export interface ShopFramePage {
@@ -42,7 +43,12 @@ export interface ShopFramePage {
   banner: boolean;
 }
 
-const ZONES_PAGE: ShopFramePage = { active: 'zones', heading: 'Zones', wide: true, banner: true };
+const ZONES_PAGE: ShopFramePage = {
+  active: 'zones',
+  heading: ZONES_HEADING,
+  wide: true,
+  banner: true,
+};
 
 /** The pages under app/shops/[shopId]/, by their first path segment after the shop id. */
 const SHOP_PAGES: Record<string, ShopFramePage> = {

@@ -15,6 +15,7 @@ import { ZoneCard } from './ZoneCard';
 import type { RangeKey } from './chartRange';
 import { ZoneHistory } from './ZoneHistory';
 import { ZoneList } from './ZoneList';
+import { ZoneOverview } from './ZoneOverview';
 import { ZoneSurfaces } from './ZoneSurfaces';
 import { countByLevel, orderByRisk } from './zoneOrder';
 
@@ -131,12 +132,7 @@ export function ZonesScreen({ zoneId, range, onRangeChange }: ZonesScreenProps) 
     );
   } else {
     const list = ordered ?? zoneList;
-    body = (
-      <View style={styles.stack}>
-        <LevelStrip counts={countByLevel(list)} />
-        <ZoneList shopId={shopId} zones={list} timeZone={timeZone} />
-      </View>
-    );
+    body = <ZoneOverview shopId={shopId} zones={list} timeZone={timeZone} />;
   }
 
   return <SetupChecklist shop={shop}>{body}</SetupChecklist>;

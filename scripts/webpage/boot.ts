@@ -5,10 +5,14 @@
  *   open alarms (the banner, the tab count) and, for the overview and a zone, the zones —
  *   components/queries/early.ts hands those answers to the app's first GET of each path;
  * - preloads the route chunks the page's address will need (its layouts and its screen), which
- *   expo-router would otherwise fetch one step at a time, each after the one before has run.
+ *   expo-router would otherwise fetch one step at a time, each after the one before has run;
+ * - takes away the overview the server rendered into the page once the app shows its own
+ *   (firstScreenHandover.ts).
  * It must stay small and dependency-free: it runs on every page load, before anything else.
  */
 import { EARLY_GLOBAL, type EarlyAnswers } from '@/components/queries/early';
+
+import { watchFirstScreen, type HandoverWindow } from './firstScreenHandover';
 
 /** Route file (as Metro's route context names it, "./shops/[shopId]/index.tsx") → chunk URL. */
 export type RouteChunks = Record<string, string>;
@@ -76,11 +80,10 @@ export function routeFilesFor(pathname: string, files: string[]): string[] {
   return [...layouts, screen];
 }
 
-interface BootWindow {
-  location: { pathname: string };
+interface BootWindow extends HandoverWindow {
   performance: { now(): number };
   fetch: typeof fetch;
-  document: Pick<Document, 'createElement' | 'head'>;
+  document: HandoverWindow['document'] & Pick<Document, 'createElement' | 'head'>;
 }
 
 export function boot(win: BootWindow, routeChunks: RouteChunks): void {
@@ -105,4 +108,5 @@ export function boot(win: BootWindow, routeChunks: RouteChunks): void {
     link.href = routeChunks[file]!;
     win.document.head.appendChild(link);
   }
+  watchFirstScreen(win);
 }

@@ -9,6 +9,7 @@ import type { BrowserContext, Page } from 'playwright-core';
 import { afterAll, beforeAll, describe, expect, it } from 'vitest';
 
 import { DEMO_PEOPLE } from '@/db/seed';
+import { FIRST_SCREEN_ID } from '@/ingest/wire/firstScreen';
 
 import {
   SHOTS,
@@ -65,7 +66,9 @@ describe.each([
     await page.goto(`${suite.server.baseUrl}/shops/${suite.server.demo.shopId}`, {
       waitUntil: 'commit',
     });
-    await page.getByTestId('zone-card').first().waitFor({ timeout: 60_000 });
+    // The app's own cards, and the server's first screen (tests/e2e/firstScreen.test.ts) gone.
+    await page.locator('#root').getByTestId('zone-card').first().waitFor({ timeout: 60_000 });
+    await page.locator(`#${FIRST_SCREEN_ID}`).waitFor({ state: 'detached' });
     await page.evaluate(() => document.fonts.ready.then(() => undefined));
   });
   afterAll(() => context?.close());

@@ -164,6 +164,11 @@ describe('boot (the page before the app)', () => {
         createElement: () => ({ rel: '', as: '', href: '' }),
         head: { appendChild: (link: { rel: string; as: string; href: string }) => head.push(link) },
       },
+      // The first screen's handover watches the page (tested in tests/e2e/firstScreen.test.ts).
+      MutationObserver: class {
+        observe() {}
+        disconnect() {}
+      },
     };
     return { win, requested, head };
   }
