@@ -50,6 +50,7 @@ export function figuresOf(r: BenchResult): Figures {
     weekReportPdfNote: r.weekReport?.pdfNote ?? null,
     bundleKbGz: r.web ? r.web.bundleKbGz : null,
     firstRenderMs: r.web ? round(r.web.firstRenderMs, 0) : null,
+    firstAppCardMs: r.web ? round(r.web.appCardMs, 0) : null,
     bundleKbRaw: r.web ? r.web.bundleKbRaw : null,
     bundleFiles: r.web ? r.web.scripts.length : null,
     // Load-independent: what the first screen ran before its first card (one untimed run).
