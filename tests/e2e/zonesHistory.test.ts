@@ -349,7 +349,7 @@ describe.each([
       const summary = await detail.getByTestId('zone-chart-summary').textContent();
       expect(summary).toMatch(
         new RegExp(
-          `^Lowest margin \\${formatMargin(lowest, 'F')} since the first reading, at \\d\\d:\\d\\d$`,
+          `^Lowest margin \\${formatMargin(lowest, 'F')} since the first reading, at (?:(?:Mon|Tue|Wed|Thu|Fri|Sat|Sun) )?\\d\\d:\\d\\d$`,
         ),
       );
       // ... which is also the chart's accessible name.
