@@ -375,7 +375,7 @@ describe.each([
       await expect
         .poll(() => readout.textContent())
         .toMatch(
-          /^\d\d:\d\d · air \d+\.\d °F · surface \d+\.\d °F · dew point \d+\.\d °F · margin \+\d+\.\d °F · RH 55 % · EMC \d+\.\d %$/,
+          /^(?:(?:Mon|Tue|Wed|Thu|Fri|Sat|Sun) )?\d\d:\d\d · air \d+\.\d °F · surface \d+\.\d °F · dew point \d+\.\d °F · margin \+\d+\.\d °F · RH 55 % · EMC \d+\.\d %$/,
         );
       // Every temperature on the zone's page follows the reader's unit.
       expect(await detail.textContent()).not.toContain('°C');
