@@ -15,6 +15,7 @@ import { afterAll, beforeAll, describe, expect, it } from 'vitest';
 import { VERIFICATION_SUBJECT } from '@/server/mail';
 
 import {
+  openInApp,
   postReading,
   SHOTS,
   startBrowserSuite,
@@ -233,7 +234,7 @@ describe.each([
     const other = await context.newPage();
     const otherErrors = watchPage(other);
     try {
-      await other.goto(shopUrl);
+      await openInApp(other, shopUrl);
       await other.getByTestId('zone-card').first().waitFor();
       await expect.poll(() => other.getByTestId('live-status').textContent()).toContain('live');
       const cards = other.getByTestId('zone-card').filter({ hasText: 'Lumber rack' });

@@ -9,6 +9,7 @@ import type { Level } from '@/ingest/wire/levels';
 import { LEVEL_WORDS } from '@/ingest/words';
 
 import {
+  openInApp,
   postReading,
   SHOTS,
   signInAs,
@@ -80,7 +81,7 @@ describe.each([
     await expect.poll(countOf, { timeout: 2000, interval: 50 }).toBe(pointsBefore + 1);
 
     await page.screenshot({ path: `${SHOTS}/zone-${label}.png`, fullPage: true });
-    await page.goto(page.url().replace(/\/zones\/.*$/, ''));
+    await openInApp(page, page.url().replace(/\/zones\/.*$/, ''));
     await page.getByTestId('zone-card').first().waitFor();
     await page.screenshot({ path: `${SHOTS}/overview-${label}.png`, fullPage: true });
     expect(errors).toEqual([]);

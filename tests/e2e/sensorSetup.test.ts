@@ -8,7 +8,13 @@ import { afterAll, beforeAll, describe, expect, it } from 'vitest';
 
 import { DEFAULT_LIMITS, deriveReading, fToC } from '@/ingest';
 
-import { SHOTS, startBrowserSuite, watchPage, type BrowserSuite } from '../support/browser';
+import {
+  openInApp,
+  SHOTS,
+  startBrowserSuite,
+  watchPage,
+  type BrowserSuite,
+} from '../support/browser';
 import { verifiedPerson } from '../support/app';
 
 let suite: BrowserSuite;
@@ -208,7 +214,7 @@ describe.each([
     const page = await suite.browser.newPage({ viewport: { width, height } });
     const errors = watchPage(page);
     await signIn(page, owner.email, owner.password);
-    await page.goto(`${server.baseUrl}/shops/${owner.shopId}`);
+    await openInApp(page, `${server.baseUrl}/shops/${owner.shopId}`);
     const cardOf = (name: string) =>
       page
         .getByTestId('zone-card')

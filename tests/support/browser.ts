@@ -7,6 +7,7 @@ import { chromium, type Browser, type Page } from 'playwright-core';
 import { expect } from 'vitest';
 
 import { DEMO_PASSWORD } from '@/db/seed';
+import { FIRST_SCREEN_ID } from '@/ingest/wire/firstScreen';
 
 import type { TestAppOptions } from './app';
 import { startImportJobRunner, type ImportJobRunner } from './imports';
@@ -61,6 +62,17 @@ export function watchPage(page: Page): string[] {
   const errors: string[] = [];
   page.on('pageerror', (err) => errors.push(err.message));
   return errors;
+}
+
+/**
+ * Opens a page and waits until the app, not the server's first screen, is in charge. A shop's
+ * overview opened by address comes with the server's cards placed before the app's root
+ * (server/firstScreen.ts); a locator that finds one of them loses it when the app takes over,
+ * so a test that acts on the overview's cards opens it this way.
+ */
+export async function openInApp(page: Page, url: string): Promise<void> {
+  await page.goto(url);
+  await page.locator(`#${FIRST_SCREEN_ID}`).waitFor({ state: 'detached' });
 }
 
 /** What the ingest route answers about each reading it took. */
