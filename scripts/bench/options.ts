@@ -96,6 +96,8 @@ export const USAGE = `npm run bench [-- options]
   --pg-port N        the bench's own PostgreSQL port (default ${DEFAULT_OPTIONS.pgPort}; a free one if taken)
   --import-rows N    lines of the import phase's logger file (default ${DEFAULT_OPTIONS.importRows})
   --import-rounds N  COPY-then-import rounds of the import phase (default ${DEFAULT_OPTIONS.importRounds})
+  --background-rate N  loaded phase: background readings/s, one per request (default ${DEFAULT_OPTIONS.backgroundReadingsPerS});
+                     the target is judged at the default; other rates draw the latency-by-load curve
   --live-clients W   where the live phase's 200 sockets and background load run: worker (each
                      on a thread of its own, default) or inline (the probe's thread, as before)
   --cpu-prof DIR     write the server's (and the MQTT broker's) CPU profile to DIR when it exits
@@ -116,6 +118,7 @@ export function readBenchOptions(argv: string[]): BenchOptions | 'help' {
       'import-rounds': { type: 'string' },
       'cpu-prof': { type: 'string' },
       'live-clients': { type: 'string' },
+      'background-rate': { type: 'string' },
       'pg-stats': { type: 'string' },
       'web-dir': { type: 'string' },
       'web-trace': { type: 'string' },
@@ -146,6 +149,11 @@ export function readBenchOptions(argv: string[]): BenchOptions | 'help' {
     importRows: positive('import-rows', values['import-rows'], DEFAULT_OPTIONS.importRows),
     importRounds: positive('import-rounds', values['import-rounds'], DEFAULT_OPTIONS.importRounds),
     liveClients,
+    backgroundReadingsPerS: positive(
+      'background-rate',
+      values['background-rate'],
+      DEFAULT_OPTIONS.backgroundReadingsPerS,
+    ),
     cpuProfDir: values['cpu-prof'] ?? null,
     pgStatsFile: values['pg-stats'] ?? null,
     webDir: values['web-dir'] ?? null,

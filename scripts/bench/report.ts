@@ -87,6 +87,8 @@ export function figuresOf(r: BenchResult): Figures {
     wsPostP99LoadedMs: r.liveLoaded ? round(r.liveLoaded.post.p99Ms) : null,
     wsClientsThread: r.liveIdle?.clientsWhere ?? r.liveLoaded?.clientsWhere ?? null,
     backgroundReadingsPerS: bg ? round(bg.readingsPerS, 0) : null,
+    // wsP99LoadedMs is judged at the default 1,000/s; --background-rate draws the curve.
+    backgroundAskedPerS: bg ? bg.askedPerS : null,
     chartQueryP50Ms: r.chart ? round(r.chart.p50Ms) : null,
     chartQueryVsTarget: r.chart ? round(r.chart.p95Ms / TARGETS.chartQueryP95Ms.atMost, 3) : null,
     chartQueryBaselineP95Ms: r.chart ? round(r.chart.baselineP95Ms) : null,

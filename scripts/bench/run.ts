@@ -58,7 +58,7 @@ export interface BenchResult {
   ingest50?: Measured;
   liveIdle?: LivePhase;
   mqtt?: MqttLatencyResult;
-  liveLoaded?: LivePhase & { background: PacedLoadResult };
+  liveLoaded?: LivePhase & { background: PacedLoadResult & { askedPerS: number } };
   /** One zone's 7-day history with 10 M readings stored (scripts/bench/chartHistory.ts). */
   chart?: ChartQueryResult;
   /** One zone's 30- and 90-day history, raw and from roll-ups (scripts/bench/chartLongRange.ts). */
@@ -457,7 +457,8 @@ async function measureLive(
   meter = startCpuMeter(serverPid, options.pgPort);
   const loaded = await measureLiveLatency(live);
   const cpu = coresOf(meter.stop());
-  return { liveIdle, liveLoaded: { ...loaded, cpu, background: await background.stop() } };
+  const backgroundResult = { ...(await background.stop()), askedPerS: load.readingsPerS };
+  return { liveIdle, liveLoaded: { ...loaded, cpu, background: backgroundResult } };
 }
 
 /**
