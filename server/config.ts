@@ -120,7 +120,8 @@ const envSchema = z.object({
     .optional(),
   // Connections to the broker: mqtt handles one message per connection at a time, so these
   // bound the messages being stored at once. 16: at 200 messages/s 4 were saturated whenever a
-  // store took over 20 ms (a busy machine) and messages queued for seconds (README, MQTT).
+  // store took over 20 ms (a busy machine) and messages queued for seconds
+  // (scripts/bench/FINDINGS.md, MQTT).
   MQTT_CONNECTIONS: z.coerce.number().int().min(1).max(32).default(16),
 });
 

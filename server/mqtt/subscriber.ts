@@ -9,7 +9,8 @@
  * `connections` connections give that many stores in flight for the group writer to combine.
  * Letting one connection store several at once (PUBACKs sent later, in arrival order) was
  * tried and measured: with Nagle's delay gone the least busy of 16 connections held at most one
- * message at the p99 at 200 messages/s, and interleaved runs showed no gain (README, "MQTT").
+ * message at the p99 at 200 messages/s, and interleaved runs showed no gain
+ * (scripts/bench/FINDINGS.md, "MQTT").
  */
 import type { Socket } from 'node:net';
 import { hostname } from 'node:os';

@@ -4,9 +4,9 @@
 // one is unacknowledged waits for that ACK, and the receiver may delay its ACK (RFC 1122
 // 4.2.3.2: up to 500 ms; Linux's minimum is 40 ms, from memory of tcp(7)'s quickack notes).
 // In the bench's stage trace the hand-over (broker.forward) outlasted the server's own store
-// (mqtt.answer) by 32–38 ms at the p50 before, 2–14 ms after, in the calmest runs (README,
-// "MQTT hand-over and Nagle's delay"). Node offers no getter for the option, so the calls that
-// set it are watched.
+// (mqtt.answer) by 32–38 ms at the p50 before, 2–14 ms after, in the calmest runs
+// (scripts/bench/FINDINGS.md, "MQTT hand-over and Nagle's delay"). Node offers no getter for the
+// option, so the calls that set it are watched.
 import net from 'node:net';
 
 import { afterAll, beforeAll, expect, it, vi } from 'vitest';
