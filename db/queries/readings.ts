@@ -62,9 +62,10 @@ export async function insertReadingGroup(
 ): Promise<InsertedKeys> {
   const latest = summarizeSensors(rows);
   const inserted = await pool.query<{ sensor_id: string | null; at: Date | null; n: number }>({
-    // Named, so each connection parses it once and PostgreSQL keeps its plan: planning this
-    // statement afresh cost ~0.4-0.6 ms of PostgreSQL CPU per group, the most of a one-row
-    // group's (scripts/bench/groupCost.ts, README "The loaded live latency").
+    // Named, so each connection parses it once and PostgreSQL keeps its plan: parsing and
+    // planning it afresh cost ~0.4 ms of PostgreSQL CPU per one-row group and ~0.7 ms per
+    // ten-row group, a third of their cost (scripts/bench/groupCost.ts, README "The loaded
+    // live latency").
     name: 'insert-reading-group',
     text: `with seen as (
        update sensors s
