@@ -61,8 +61,13 @@ export async function insertReadingGroup(
   notifyIfAllNew: readonly string[],
 ): Promise<InsertedKeys> {
   const latest = summarizeSensors(rows);
-  const inserted = await pool.query<{ sensor_id: string | null; at: Date | null; n: number }>(
-    `with seen as (
+  const inserted = await pool.query<{ sensor_id: string | null; at: Date | null; n: number }>({
+    // Named, so each connection parses it once and PostgreSQL keeps its plan: parsing and
+    // planning it afresh cost ~0.4 ms of PostgreSQL CPU per one-row group and ~0.7 ms per
+    // ten-row group, a third of their cost (scripts/bench/groupCost.ts, README "The loaded
+    // live latency").
+    name: 'insert-reading-group',
+    text: `with seen as (
        update sensors s
        set last_seen_at = greatest(coalesce(s.last_seen_at, u.at), u.at),
            battery_v = coalesce(u.battery_v, s.battery_v),
@@ -104,7 +109,7 @@ export async function insertReadingGroup(
      select i.sensor_id, i.at, c.n::int as n, (select count(*) from notified) as notes
        from counted c
        left join lateral (select sensor_id, at from ins where c.n < $20) i on true`,
-    [
+    values: [
       plainArray(rows.map((r) => r.sensorId)),
       plainArray(rows.map((r) => r.atIso ?? r.at.toISOString())),
       plainArray(rows.map((r) => r.shopId)),
@@ -126,7 +131,7 @@ export async function insertReadingGroup(
       notifyIfAllNew,
       rows.length,
     ],
-  );
+  });
   if (inserted.rows[0]?.n === rows.length) return allOf(rows.length);
   return new Set(
     inserted.rows

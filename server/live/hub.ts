@@ -31,6 +31,7 @@ import { markHeard, stageMs, stageTraceOn } from '../stageTrace';
 
 import type { LiveEcho } from './localEcho';
 import { missedMessages } from './replay';
+import { createShopIndex } from './shopIndex';
 
 const HEARTBEAT_MS = 30_000;
 /** setTimeout's longest delay (~24.8 days); sessions last 7 days, so it never cuts one short. */
@@ -96,6 +97,13 @@ export function startLiveHub(deps: {
   echo?: LiveEcho;
 }): LiveHub {
   const clients = new Set<Client>();
+  const byShop = createShopIndex<Client>();
+  /** The only way a client's shops change, so the index never disagrees with `shopIds`. */
+  function watch(client: Client, shopIds: Set<string>) {
+    client.shopIds = shopIds;
+    // A re-check that ends after its socket closed must not put the socket back.
+    if (clients.has(client)) byShop.set(client, shopIds);
+  }
   const socketsPerUser = new Map<string, number>();
   const trusted = deps.trustedOrigins ?? new Set<string>();
   const limits: LiveLimits = { ...DEFAULT_LIVE_LIMITS, ...deps.limits };
@@ -152,12 +160,11 @@ export function startLiveHub(deps: {
       return;
     }
     if (message.type === 'access') return void recheck(message.userIds);
-    // Encoded once for the whole shop, on the first socket that wants it.
-    let frame: Buffer | undefined;
-    for (const client of clients) {
-      if (!client.shopIds.has(message.shopId)) continue;
-      frame ??= Buffer.from(payload);
-      send(client, frame);
+    const watchers = byShop.watching(message.shopId);
+    if (watchers) {
+      // Encoded once for the whole shop.
+      const frame = Buffer.from(payload);
+      for (const client of watchers) send(client, frame);
     }
     if (stageTraceOn) stageMs('hub.fanout', performance.now() - t0);
   }
@@ -179,7 +186,7 @@ export function startLiveHub(deps: {
             endSession(client);
             continue;
           }
-          client.shopIds = shopIds;
+          watch(client, shopIds);
           const access: AccessMessage = { type: 'access', shopIds: [...shopIds] };
           send(client, JSON.stringify(access));
         }
@@ -191,7 +198,7 @@ export function startLiveHub(deps: {
   }
 
   function endSession(client: Client) {
-    client.shopIds = new Set();
+    watch(client, new Set());
     client.socket.close(SESSION_ENDED, 'session ended');
   }
 
@@ -268,11 +275,13 @@ export function startLiveHub(deps: {
         expiry: setTimeout(() => endSession(client), expiresInMs),
       };
       clients.add(client);
+      watch(client, shopIds);
       socketsPerUser.set(userId, (socketsPerUser.get(userId) ?? 0) + 1);
       ws.on('pong', () => (client.alive = true));
       ws.on('close', () => {
         clearTimeout(client.expiry);
         clients.delete(client);
+        byShop.remove(client);
         const left = (socketsPerUser.get(userId) ?? 1) - 1;
         if (left > 0) socketsPerUser.set(userId, left);
         else socketsPerUser.delete(userId);

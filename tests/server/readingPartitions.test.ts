@@ -315,6 +315,32 @@ describe('partitions for old readings, the writer, and retention', () => {
     expect(contiguous(parts)).toBe(true);
   });
 
+  it("routes rows to a month made after the group statement's plan was kept", async () => {
+    // The group statement is named (db/queries/readings.ts): each connection prepares it once
+    // and keeps its plan. A month's partition attached since must still get that month's rows
+    // through the same connection; PostgreSQL's partition bounds (tableoid) are the check.
+    const one = createDatabase(urlOf(FRESH_DB), { max: 1 });
+    try {
+      const sensorId = place.sensorIds[0]!;
+      const now = rowAt(place, sensorId, new Date(nowMs - 3_600_000));
+      expect((await insertReadingGroup(one.pool, [now], [])).size).toBe(1);
+      const prepared = await one.pool.query<{ name: string }>(
+        'select name from pg_prepared_statements',
+      );
+      expect(prepared.rows.map((r) => r.name)).toContain('insert-reading-group');
+
+      const ahead = new Date(monthsFrom(nowMs, 9) + 86_400_000);
+      await ensureReadingPartitions(db.db, ahead, ahead);
+      expect((await insertReadingGroup(one.pool, [rowAt(place, sensorId, ahead)], [])).size).toBe(
+        1,
+      );
+      expect(await readingsInDefaultPartition(db.db)).toBe(0);
+      expect(await misplaced(db.pool)).toBe(0);
+    } finally {
+      await one.pool.end();
+    }
+  });
+
   it('has the writer make the months of an old backlog, and ask nothing inside its span', async () => {
     let statements = 0;
     const counted = new Proxy(db.pool, {
