@@ -82,7 +82,8 @@ function sensorIdOf(res: ServerResponse): string | undefined {
  * wrote, without the two child loggers pino-http makes for every request to carry `req` (one
  * serialises and redacts the request's fields up front, for a `req.log` nothing here uses).
  * Under `npm run bench`'s loaded phase (1,000 one-reading requests a second) pino-http's own
- * functions took ~4.9 % of the server's thread; README "The loaded live latency".
+ * functions took ~4.9 % of the server's thread (scripts/bench/FINDINGS.md, "The loaded live
+ * latency").
  */
 export function requestLogger(logger: Logger): RequestHandler {
   const log = logger.child({ component: 'http' });

@@ -64,7 +64,7 @@ export async function insertReadingGroup(
   const inserted = await pool.query<{ sensor_id: string | null; at: Date | null; n: number }>({
     // Named, so each connection parses it once and PostgreSQL keeps its plan: parsing and
     // planning it afresh cost ~0.4 ms of PostgreSQL CPU per one-row group and ~0.7 ms per
-    // ten-row group, a third of their cost (scripts/bench/groupCost.ts, README "The loaded
+    // ten-row group, a third of their cost (scripts/bench/groupCost.ts, FINDINGS.md "The loaded
     // live latency").
     name: 'insert-reading-group',
     text: `with seen as (
