@@ -15,6 +15,7 @@ import type { Request } from 'express';
 import type { Db } from '@/db';
 import { listAlarms } from '@/db/queries/alarms';
 import { listShopsOfUser } from '@/db/queries/memberships';
+import { listSensors } from '@/db/queries/sensors';
 import { findUserById } from '@/db/queries/users';
 import { listZonesWithLatest } from '@/db/queries/zones';
 import {
@@ -31,6 +32,7 @@ import type { SessionSigner } from './auth/session';
 import { resolveSession } from './auth/sessionState';
 import type { Logger } from './logger';
 import { toShopSummary, toUser } from './wire/people';
+import { toSensor } from './wire/sensors';
 import { toZone } from './wire/zones';
 
 /** Where build-web.sh puts the renderer, inside the export it was built with. */
@@ -55,6 +57,8 @@ export interface FirstScreenDeps {
   db: Db;
   sessions: SessionSigner;
   logger: Logger;
+  /** What the sensors route tells clients about the MQTT broker (server/app.ts's option). */
+  mqttPublicUrl: string | null;
 }
 
 /** The shop id of an overview address (/shops/:shopId), or null for every other page. */
@@ -76,20 +80,21 @@ export function overviewShopId(pathname: string): string | null {
  * functions.
  */
 export async function firstScreenInput(
-  db: Db,
-  sessions: SessionSigner,
+  deps: Pick<FirstScreenDeps, 'db' | 'sessions' | 'mqttPublicUrl'>,
   cookie: string | undefined,
   shopId: string,
 ): Promise<FirstScreenInput | null> {
+  const { db, sessions } = deps;
   if (cookie === undefined) return null;
   const session = await resolveSession(db, sessions, cookie, shopId);
   if (session === null || session === 'expired' || session.role === null) return null;
   const userId = session.claims.userId;
-  const [user, shops, zoneRows, alarmRows] = await Promise.all([
+  const [user, shops, zoneRows, alarmRows, sensorRows] = await Promise.all([
     findUserById(db, userId),
     listShopsOfUser(db, userId),
     listZonesWithLatest(db, shopId),
     listAlarms(db, shopId, 'open'),
+    listSensors(db, shopId),
   ]);
   if (!user || zoneRows.length === 0) return null;
   const zones = zoneRows.map(toZone);
@@ -98,6 +103,10 @@ export async function firstScreenInput(
     shopId,
     zones,
     alarms: alarmRows.map(alarmOf),
+    sensors: {
+      sensors: sensorRows.map(toSensor),
+      mqtt: deps.mqttPublicUrl ? { url: deps.mqttPublicUrl } : null,
+    },
   };
 }
 
@@ -108,6 +117,7 @@ export function firstScreenAnswers(input: FirstScreenInput): FirstScreenAnswers 
     [paths.me]: input.me,
     [paths.zones]: { zones: input.zones },
     [paths.alarms]: { alarms: input.alarms },
+    [paths.sensors]: input.sensors,
   };
 }
 
@@ -140,7 +150,7 @@ export function firstScreen(webDir: string, deps: FirstScreenDeps): FirstScreen 
   return async (req) => {
     const shopId = overviewShopId(req.path);
     if (!shopId) return null;
-    const input = await firstScreenInput(deps.db, deps.sessions, req.headers.cookie, shopId);
+    const input = await firstScreenInput(deps, req.headers.cookie, shopId);
     if (!input) return null;
     return { markup: renderer.renderFirstScreen(input), answers: firstScreenAnswers(input) };
   };

@@ -8,6 +8,7 @@ import { orderByRisk } from '@/components/zones/zoneOrder';
 import { ZoneOverview } from '@/components/zones/ZoneOverview';
 import type { FirstScreenInput } from '@/ingest/wire/firstScreen';
 
+import { SetupChecklist } from './SetupChecklist';
 import { ShopFrameLayout, shopFramePageOf } from './ShopFrame';
 
 /**
@@ -15,9 +16,10 @@ import { ShopFrameLayout, shopFramePageOf } from './ShopFrame';
  * has its cards (scripts/webpage/firstScreenHandover.ts removes it then): the app's shop frame
  * (header, alarm banner, bar or rail) around the overview ZonesScreen shows at this width — the
  * phone list, or on a wide screen the list beside the riskiest zone's column, which holds only
- * its name until the app brings the chart. Rendered once to a string per breakpoint
+ * its name until the app brings the chart — under the setup checklist while a new shop's owner has
+ * steps left, as in the app. Rendered once to a string per breakpoint
  * (scripts/webpage/firstScreenEntry.tsx), so nothing here may depend on effects; the queries it
- * reads (/me, zones, open alarms) are filled in before the render.
+ * reads (/me, zones, open alarms, sensors) are filled in before the render.
  */
 export function FirstScreen({ me, shopId, zones }: FirstScreenInput) {
   const { isWide } = useBreakpoints();
@@ -27,20 +29,22 @@ export function FirstScreen({ me, shopId, zones }: FirstScreenInput) {
   const shown = ordered[0]!;
   return (
     <ShopFrameLayout shop={shop} page={shopFramePageOf(undefined)} path={`/shops/${shop.id}`}>
-      {isWide ? (
-        <ZoneColumns
-          shopId={shop.id}
-          zones={ordered}
-          timeZone={shop.timeZone}
-          selectedZoneId={shown.id}
-        >
-          <Text style={type.title} role="heading" aria-level={2}>
-            {shown.name}
-          </Text>
-        </ZoneColumns>
-      ) : (
-        <ZoneOverview shopId={shop.id} zones={ordered} timeZone={shop.timeZone} />
-      )}
+      <SetupChecklist shop={shop}>
+        {isWide ? (
+          <ZoneColumns
+            shopId={shop.id}
+            zones={ordered}
+            timeZone={shop.timeZone}
+            selectedZoneId={shown.id}
+          >
+            <Text style={type.title} role="heading" aria-level={2}>
+              {shown.name}
+            </Text>
+          </ZoneColumns>
+        ) : (
+          <ZoneOverview shopId={shop.id} zones={ordered} timeZone={shop.timeZone} />
+        )}
+      </SetupChecklist>
     </ShopFrameLayout>
   );
 }

@@ -5,6 +5,7 @@
  */
 import type { Alarm } from './alarms';
 import type { Me } from './people';
+import type { SensorsResponse } from './sensors';
 import type { Zone } from './zones';
 
 export interface FirstScreenInput {
@@ -16,6 +17,8 @@ export interface FirstScreenInput {
   zones: Zone[];
   /** GET /shops/:shopId/alarms?state=open's alarms (the banner, the count on Alarms). */
   alarms: Alarm[];
+  /** GET /shops/:shopId/sensors's answer (the setup checklist above the overview reads it). */
+  sensors: SensorsResponse;
 }
 
 export interface FirstScreenMarkup {
@@ -49,9 +52,15 @@ export function firstScreenAnswerPaths(shopId: string): {
   me: string;
   alarms: string;
   zones: string;
+  sensors: string;
 } {
   const shop = `${API_PREFIX}/shops/${encodeURIComponent(shopId)}`;
-  return { me: `${API_PREFIX}/me`, alarms: `${shop}/alarms?state=open`, zones: `${shop}/zones` };
+  return {
+    me: `${API_PREFIX}/me`,
+    alarms: `${shop}/alarms?state=open`,
+    zones: `${shop}/zones`,
+    sensors: `${shop}/sensors`,
+  };
 }
 
 /** API path → the JSON body its GET answers (200), as embedded in the page. */

@@ -41,9 +41,10 @@ export function earlyApiPaths(pathname: string): string[] {
   const shopPath = `${API}/shops/${encodeURIComponent(shopId)}`;
   paths.push(`${shopPath}/alarms?state=open`);
   const rest = shop[2] ?? '';
-  // The overview and a zone's page list the zones; other shop pages do not.
+  // The overview and a zone's page list the zones, and the sensors for the setup checklist
+  // above them (ZonesScreen); other shop pages do not.
   if (rest === '' || rest === '/' || /^\/zones\/[^/]+\/?$/.test(rest))
-    paths.push(`${shopPath}/zones`);
+    paths.push(`${shopPath}/zones`, `${shopPath}/sensors`);
   return paths;
 }
 

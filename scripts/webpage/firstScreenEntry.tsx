@@ -12,7 +12,7 @@ import { SafeAreaProvider } from 'react-native-safe-area-context';
 
 import { BREAKPOINTS } from '@/components/layout';
 import { FixedLiveStatus } from '@/components/live';
-import { alarmKeys, createQueryClient, meKeys, zoneKeys } from '@/components/queries';
+import { alarmKeys, createQueryClient, meKeys, sensorKeys, zoneKeys } from '@/components/queries';
 import { FirstScreen } from '@/components/shop/FirstScreen';
 import { LIST_MIN_HEIGHT_PX, WIDE_CHROME_PX } from '@/components/zones/ZoneColumns';
 import {
@@ -46,6 +46,7 @@ function Root({ input }: { input: FirstScreenInput }) {
   queryClient.setQueryData(meKeys.all, input.me);
   queryClient.setQueryData(zoneKeys.list(input.shopId), { zones: input.zones });
   queryClient.setQueryData(alarmKeys.list(input.shopId, 'open'), { alarms: input.alarms });
+  queryClient.setQueryData(sensorKeys.list(input.shopId), input.sensors);
   return (
     <SafeAreaProvider initialMetrics={NO_INSETS}>
       <QueryClientProvider client={queryClient}>
@@ -76,14 +77,15 @@ const layoutClass = (i: number) => `${FIRST_SCREEN_ID}-layout-${i}`;
  * shop switcher stays as the shop's name.
  */
 const LAYOUT_CSS = [
-  `.${layoutClass(0)},.${layoutClass(1)},.${layoutClass(2)}{flex:1;flex-direction:column;display:none}`,
+  // min-height 0, as react-native-web gives every View: the page's own scroller scrolls, not this.
+  `.${layoutClass(0)},.${layoutClass(1)},.${layoutClass(2)}{flex:1;min-height:0;flex-direction:column;display:none}`,
   `.${layoutClass(0)}{display:flex}`,
   ...LAYOUT_MIN_WIDTHS.slice(1).map(
     (width, i) =>
       `@media (min-width:${width}px){.${layoutClass(i)}{display:none}.${layoutClass(i + 1)}{display:flex}}`,
   ),
   `#${FIRST_SCREEN_ID} [data-testid="zone-list-scroll"]{max-height:max(${LIST_MIN_HEIGHT_PX}px,calc(100vh - ${WIDE_CHROME_PX}px))!important}`,
-  `#${FIRST_SCREEN_ID} button,#${FIRST_SCREEN_ID} [role="button"]:not([data-testid="shop-switcher"]){visibility:hidden}`,
+  `#${FIRST_SCREEN_ID} :is(button,[role="button"]):not([data-testid="shop-switcher"]){visibility:hidden}`,
   `#${FIRST_SCREEN_ID} [data-testid="shop-switcher"]{pointer-events:none}`,
   `#${FIRST_SCREEN_ID} [data-testid="shop-switcher"]>[aria-hidden="true"]{visibility:hidden}`,
 ].join('');
@@ -144,6 +146,7 @@ function sampleInput(nowMs: number): FirstScreenInput {
     shopId: shop.id,
     zones,
     alarms: [],
+    sensors: { sensors: [], mqtt: null },
   };
 }
 

@@ -203,8 +203,9 @@ describe("the overview's first screen", () => {
 
     const res = await mine.agent.get(`/shops/${mine.shopId}`).expect(200);
     const answers = answersOf(res.text);
-    expect(Object.keys(answers).sort()).toEqual([paths.alarms, paths.me, paths.zones].sort());
-    for (const path of [paths.me, paths.zones, paths.alarms]) {
+    const all = [paths.me, paths.zones, paths.alarms, paths.sensors];
+    expect(Object.keys(answers).sort()).toEqual([...all].sort());
+    for (const path of all) {
       const api = await mine.agent.get(path).expect(200);
       expect(answers[path], path).toEqual(api.body);
     }
