@@ -258,6 +258,31 @@ describe("the overview's first screen", () => {
     }
   });
 
+  it('sends the rendered page compressed to a browser that takes it, brotli first', async () => {
+    const mine = await shopWithReading('Mortiser stand');
+    // supertest decodes what it gets; Content-Length is what was sent.
+    const get = (encoding: string) =>
+      mine.agent.get(`/shops/${mine.shopId}`).set('Accept-Encoding', encoding).expect(200);
+    const plain = await get('identity');
+    expect(plain.headers['content-encoding']).toBeUndefined();
+    expect(firstScreenOf(plain.text)).toContain('Mortiser stand');
+    const sent = Number(plain.headers['content-length']);
+    expect(sent).toBe(Buffer.byteLength(plain.text));
+    // RFC 9110 §12.5.3: the browser's list ("gzip, deflate, br"); we prefer brotli (RFC 7932).
+    for (const [accept, coding] of [
+      ['gzip, deflate, br', 'br'],
+      ['gzip', 'gzip'],
+    ] as const) {
+      const res = await get(accept);
+      expect(res.headers['content-encoding']).toBe(coding);
+      expect(res.headers['vary']).toMatch(/Accept-Encoding/i);
+      expect(res.headers['vary']).toMatch(/Cookie/i);
+      expect(firstScreenOf(res.text)).toContain('Mortiser stand');
+      // Markup repeats itself (three layouts of the same cards): a quarter is a loose bound.
+      expect(Number(res.headers['content-length'])).toBeLessThan(sent / 4);
+    }
+  });
+
   it('keeps the renderer to itself', async () => {
     const res = await request(t.app).get(`/${RENDERER_PATH}`).expect(404);
     expect(res.body).toEqual(errorShape);
