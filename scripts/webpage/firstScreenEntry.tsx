@@ -92,6 +92,14 @@ const LAYOUT_CSS = [
 
 AppRegistry.registerComponent(APP_KEY, () => Root);
 
+/**
+ * React's hoistable style elements (`<style href precedence>`, e.g. FocusRingStyle), which
+ * renderToString leaves where they were rendered. The app's React finds one already in the
+ * document by its href and keeps it instead of adding its own, so it must not go with the
+ * first screen at the handover: it moves to the head, once.
+ */
+const HOISTED_STYLE = /<style data-precedence="[^"]*" data-href="[^"]*">[\s\S]*?<\/style>/g;
+
 /** react-native-web's window size, which useWindowDimensions (and so useBreakpoints) reads. */
 function setWindowWidth(width: number): void {
   const size = { width, height: RENDER_HEIGHT_PX, scale: 1, fontScale: 1 };
@@ -105,11 +113,18 @@ export function renderFirstScreen(input: FirstScreenInput): FirstScreenMarkup {
     }
   ).getApplication(APP_KEY, { initialProps: { input } });
   // The markup first: rendering it is what fills the style sheet the element then holds.
+  const hoisted = new Set<string>();
   const html = LAYOUT_MIN_WIDTHS.map((width, i) => {
     setWindowWidth(width);
-    return `<div class="${layoutClass(i)}">${renderToString(app.element)}</div>`;
+    const markup = renderToString(app.element).replace(HOISTED_STYLE, (style) => {
+      hoisted.add(style);
+      return '';
+    });
+    return `<div class="${layoutClass(i)}">${markup}</div>`;
   }).join('');
-  const css = `${renderToString(app.getStyleElement())}<style>${LAYOUT_CSS}</style>`;
+  const css =
+    `${renderToString(app.getStyleElement())}${[...hoisted].join('')}` +
+    `<style>${LAYOUT_CSS}</style>`;
   return { html, css };
 }
 

@@ -252,6 +252,11 @@ describe("the overview's first screen", () => {
     expect(layouts[2]).toContain('data-testid="shop-nav-rail"');
     expect(layouts[2]).toContain('data-testid="zone-list-scroll"');
     expect(layouts[2]).toContain('data-testid="zone-detail"');
+    // React's hoisted styles (the focus ring) go to the head, once, so they stay after the
+    // handover: the app's React keeps the one it finds instead of adding its own.
+    expect(screen).not.toContain('<style');
+    const head = res.text.slice(0, res.text.indexOf('</head>'));
+    expect(head.match(/<style [^>]*data-href="drybench-focus-ring"/g)).toHaveLength(1);
     for (const layout of layouts) {
       expect(layout.match(/data-testid="zone-card"/g)).toHaveLength(1);
       expect(layout.match(/aria-level="1"/g)).toHaveLength(1);
