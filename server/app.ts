@@ -105,6 +105,7 @@ export function createApp(deps: AppDeps): express.Express {
         db: deps.db,
         sessions: deps.sessions,
         logger: deps.logger,
+        mqttPublicUrl: deps.mqttPublicUrl ?? null,
       })
     : null;
   app.use(

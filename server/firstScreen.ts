@@ -13,20 +13,26 @@ import path from 'node:path';
 import type { Request } from 'express';
 
 import type { Db } from '@/db';
+import { listAlarms } from '@/db/queries/alarms';
 import { listShopsOfUser } from '@/db/queries/memberships';
+import { listSensors } from '@/db/queries/sensors';
 import { findUserById } from '@/db/queries/users';
 import { listZonesWithLatest } from '@/db/queries/zones';
-import type {
-  FirstScreenInput,
-  FirstScreenMarkup,
-  FirstScreenRenderer,
+import {
+  firstScreenAnswerPaths,
+  type FirstScreenAnswers,
+  type FirstScreenInput,
+  type FirstScreenMarkup,
+  type FirstScreenRenderer,
 } from '@/ingest/wire/firstScreen';
 
+import { alarmOf } from './alarms/wire';
 import { isUuid } from './auth/middleware';
 import type { SessionSigner } from './auth/session';
 import { resolveSession } from './auth/sessionState';
 import type { Logger } from './logger';
 import { toShopSummary, toUser } from './wire/people';
+import { toSensor } from './wire/sensors';
 import { toZone } from './wire/zones';
 
 /** Where build-web.sh puts the renderer, inside the export it was built with. */
@@ -38,13 +44,21 @@ export const FIRST_SCREEN_RENDERER = path.join('_ssr', 'first-screen.cjs'); // f
  */
 const WARM_UP_RENDERS = 15;
 
+/** A rendered first screen and the API answers it was rendered from, by the app's GET paths. */
+export interface RenderedFirstScreen {
+  markup: FirstScreenMarkup;
+  answers: FirstScreenAnswers;
+}
+
 /** The first screen for this request, or null when the plain page is the answer. */
-export type FirstScreen = (req: Request) => Promise<FirstScreenMarkup | null>;
+export type FirstScreen = (req: Request) => Promise<RenderedFirstScreen | null>;
 
 export interface FirstScreenDeps {
   db: Db;
   sessions: SessionSigner;
   logger: Logger;
+  /** What the sensors route tells clients about the MQTT broker (server/app.ts's option). */
+  mqttPublicUrl: string | null;
 }
 
 /** The shop id of an overview address (/shops/:shopId), or null for every other page. */
@@ -62,28 +76,48 @@ export function overviewShopId(pathname: string): string | null {
 /**
  * What the first screen shows this person at this address: null unless the session is live and
  * its person a member of the shop, and the shop has zones (without any, the app's own notice is
- * the page). One query per answer, as the API's routes make them.
+ * the page). One query per answer, as the API's routes make them, mapped by the routes' own wire
+ * functions.
  */
 export async function firstScreenInput(
-  db: Db,
-  sessions: SessionSigner,
+  deps: Pick<FirstScreenDeps, 'db' | 'sessions' | 'mqttPublicUrl'>,
   cookie: string | undefined,
   shopId: string,
 ): Promise<FirstScreenInput | null> {
+  const { db, sessions } = deps;
   if (cookie === undefined) return null;
   const session = await resolveSession(db, sessions, cookie, shopId);
   if (session === null || session === 'expired' || session.role === null) return null;
   const userId = session.claims.userId;
-  const [user, shops, zones] = await Promise.all([
+  const [user, shops, zoneRows, alarmRows, sensorRows] = await Promise.all([
     findUserById(db, userId),
     listShopsOfUser(db, userId),
     listZonesWithLatest(db, shopId),
+    listAlarms(db, shopId, 'open'),
+    listSensors(db, shopId),
   ]);
-  if (!user || zones.length === 0) return null;
+  if (!user || zoneRows.length === 0) return null;
+  const zones = zoneRows.map(toZone);
   return {
     me: { user: toUser(user), shops: shops.map(toShopSummary) },
     shopId,
-    zones: zones.map(toZone),
+    zones,
+    alarms: alarmRows.map(alarmOf),
+    sensors: {
+      sensors: sensorRows.map(toSensor),
+      mqtt: deps.mqttPublicUrl ? { url: deps.mqttPublicUrl } : null,
+    },
+  };
+}
+
+/** The answers the rendered page holds: each GET's body exactly as its route sends it. */
+export function firstScreenAnswers(input: FirstScreenInput): FirstScreenAnswers {
+  const paths = firstScreenAnswerPaths(input.shopId);
+  return {
+    [paths.me]: input.me,
+    [paths.zones]: { zones: input.zones },
+    [paths.alarms]: { alarms: input.alarms },
+    [paths.sensors]: input.sensors,
   };
 }
 
@@ -116,7 +150,8 @@ export function firstScreen(webDir: string, deps: FirstScreenDeps): FirstScreen 
   return async (req) => {
     const shopId = overviewShopId(req.path);
     if (!shopId) return null;
-    const input = await firstScreenInput(deps.db, deps.sessions, req.headers.cookie, shopId);
-    return input && renderer.renderFirstScreen(input);
+    const input = await firstScreenInput(deps, req.headers.cookie, shopId);
+    if (!input) return null;
+    return { markup: renderer.renderFirstScreen(input), answers: firstScreenAnswers(input) };
   };
 }

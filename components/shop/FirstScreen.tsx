@@ -1,42 +1,50 @@
-import { StyleSheet, View } from 'react-native';
+import { Text } from 'react-native';
 
-import { Content, ScreenTitle } from '@/components/layout';
+import { useBreakpoints } from '@/components/layout';
 import { findShop } from '@/components/queries';
-import { colors, space } from '@/components/theme';
+import { type } from '@/components/theme';
+import { ZoneColumns } from '@/components/zones/ZoneColumns';
 import { orderByRisk } from '@/components/zones/zoneOrder';
 import { ZoneOverview } from '@/components/zones/ZoneOverview';
 import type { FirstScreenInput } from '@/ingest/wire/firstScreen';
 
-import { ZONES_HEADING } from './zonesHeading';
-import { ShopHeader } from './ShopHeader';
+import { SetupChecklist } from './SetupChecklist';
+import { ShopFrameLayout, shopFramePageOf } from './ShopFrame';
 
 /**
  * A shop's overview as the server renders it into the page, shown until the app's own overview
- * has its cards (scripts/webpage/boot.ts removes it then): the shop's header, the page heading
- * and the same ZoneOverview the app shows on a phone, laid out as ShopFrame and Screen lay it.
- * Rendered once to a string, so nothing here may depend on effects or the window's size.
+ * has its cards (scripts/webpage/firstScreenHandover.ts removes it then): the app's shop frame
+ * (header, alarm banner, bar or rail) around the overview ZonesScreen shows at this width — the
+ * phone list, or on a wide screen the list beside the riskiest zone's column, which holds only
+ * its name until the app brings the chart — under the setup checklist while a new shop's owner has
+ * steps left, as in the app. Rendered once to a string per breakpoint
+ * (scripts/webpage/firstScreenEntry.tsx), so nothing here may depend on effects; the queries it
+ * reads (/me, zones, open alarms, sensors) are filled in before the render.
  */
 export function FirstScreen({ me, shopId, zones }: FirstScreenInput) {
+  const { isWide } = useBreakpoints();
   const shop = findShop(me, shopId);
-  if (!shop) return null;
+  if (!shop || zones.length === 0) return null;
+  const ordered = orderByRisk(zones);
+  const shown = ordered[0]!;
   return (
-    <View style={styles.page}>
-      <ShopHeader shopName={shop.name} />
-      <View style={styles.main} role="main">
-        <Content>
-          <View style={styles.stack}>
-            <ScreenTitle>{ZONES_HEADING}</ScreenTitle>
-            <ZoneOverview shopId={shop.id} zones={orderByRisk(zones)} timeZone={shop.timeZone} />
-          </View>
-        </Content>
-      </View>
-    </View>
+    <ShopFrameLayout shop={shop} page={shopFramePageOf(undefined)} path={`/shops/${shop.id}`}>
+      <SetupChecklist shop={shop}>
+        {isWide ? (
+          <ZoneColumns
+            shopId={shop.id}
+            zones={ordered}
+            timeZone={shop.timeZone}
+            selectedZoneId={shown.id}
+          >
+            <Text style={type.title} role="heading" aria-level={2}>
+              {shown.name}
+            </Text>
+          </ZoneColumns>
+        ) : (
+          <ZoneOverview shopId={shop.id} zones={ordered} timeZone={shop.timeZone} />
+        )}
+      </SetupChecklist>
+    </ShopFrameLayout>
   );
 }
-
-// Screen's page, scroll padding and ShopFrame's stack, so the cards sit where the app's will.
-const styles = StyleSheet.create({
-  page: { flexGrow: 1, backgroundColor: colors.paper },
-  main: { paddingTop: space.lg, paddingBottom: space.xxl },
-  stack: { gap: space.lg },
-});

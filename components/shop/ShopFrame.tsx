@@ -126,12 +126,6 @@ interface ShopFrameProps {
 export function ShopFrame({ shopId, page, path, children }: ShopFrameProps) {
   const me = useMeQuery();
   const shop = findShop(me.data, shopId);
-  const maxWidth = useShopColumnWidth(page);
-  const { isWide } = useBreakpoints();
-  // The same query the banner reads (patched live), so the count and the banner agree.
-  const openAlarms =
-    useQuery({ ...alarmsQueryOptions(shopId, 'open'), enabled: shop !== undefined }).data?.alarms
-      .length ?? 0;
 
   if (me.isPending) return <Unready title={page.title} body={<Splash />} />;
   if (isSignedOut(me.error)) return <Redirect href="/sign-in" />;
@@ -164,6 +158,30 @@ export function ShopFrame({ shopId, page, path, children }: ShopFrameProps) {
     );
   }
 
+  return (
+    <ShopFrameLayout shop={shop} page={page} path={path}>
+      {children}
+    </ShopFrameLayout>
+  );
+}
+
+interface ShopFrameLayoutProps {
+  shop: ShopSummary;
+  page: ShopFramePage;
+  path: string;
+  children: ReactNode;
+}
+
+/**
+ * The frame once its shop is known: header, alarm banner, navigation (bar or rail) and the page's
+ * column. The app's frame (ShopFrame) and the server's first screen (FirstScreen.tsx) both render
+ * it, so the server's page has the app's frame and its cards stand where the app's will.
+ */
+export function ShopFrameLayout({ shop, page, path, children }: ShopFrameLayoutProps) {
+  const maxWidth = useShopColumnWidth(page);
+  const { isWide } = useBreakpoints();
+  // The same query the banner reads (patched live), so the count and the banner agree.
+  const openAlarms = useQuery(alarmsQueryOptions(shop.id, 'open')).data?.alarms.length ?? 0;
   return (
     <ShopContext.Provider value={shop}>
       <AlarmNotifier shopId={shop.id} shopName={shop.name} timeZone={shop.timeZone} />

@@ -1,23 +1,22 @@
 import { Link, Redirect } from 'expo-router';
 import { useMemo, type ReactNode } from 'react';
-import { ScrollView, StyleSheet, Text, View, useWindowDimensions } from 'react-native';
+import { StyleSheet, Text, View } from 'react-native';
 
 import { shopHref } from '@/components/hrefs';
-import { LIST_COLUMN_WIDTH, useBreakpoints } from '@/components/layout';
+import { useBreakpoints } from '@/components/layout';
 import { isSignedOut, useZonesQuery, type Zone } from '@/components/queries';
 import { SetupChecklist } from '@/components/shop/SetupChecklist';
 import { useFrameShop } from '@/components/shop/ShopFrame';
 import { colors, space, TAP_TARGET_PX, type } from '@/components/theme';
 import { Notice, useDocumentTitle } from '@/components/ui';
 
-import { LevelStrip } from './LevelStrip';
 import { ZoneCard } from './ZoneCard';
+import { ZoneColumns } from './ZoneColumns';
 import type { RangeKey } from './chartRange';
 import { ZoneHistory } from './ZoneHistory';
-import { ZoneList } from './ZoneList';
 import { ZoneOverview } from './ZoneOverview';
 import { ZoneSurfaces } from './ZoneSurfaces';
-import { countByLevel, orderByRisk } from './zoneOrder';
+import { orderByRisk } from './zoneOrder';
 
 interface ZonesScreenProps {
   /** The zone to show; without it a phone shows the list and a wide screen the first zone. */
@@ -38,7 +37,6 @@ export function ZonesScreen({ zoneId, range, onRangeChange }: ZonesScreenProps) 
   const shopId = shop.id;
   const zones = useZonesQuery(shopId);
   const { isWide } = useBreakpoints();
-  const { height: windowHeight } = useWindowDimensions();
   const zoneList = zones.data?.zones;
   // A new order on every live reading: the zone that just turned wet moves to the top.
   const ordered = useMemo(() => (zoneList ? orderByRisk(zoneList) : undefined), [zoneList]);
@@ -79,39 +77,20 @@ export function ZonesScreen({ zoneId, range, onRangeChange }: ZonesScreenProps) 
     // Without a zone in the address, the riskiest zone is the one shown.
     const shown: Zone = selected ?? ordered[0]!;
     body = (
-      <View style={styles.columns}>
-        <View style={styles.listColumn}>
-          <LevelStrip counts={countByLevel(ordered)} />
-          {/* The list scrolls on its own beside the chart, so bringing the selected card into
-              view never scrolls the chart out of it. */}
-          <ScrollView
-            style={{ maxHeight: Math.max(320, windowHeight - WIDE_CHROME_PX) }}
-            contentContainerStyle={styles.listScroll}
-            testID="zone-list-scroll"
-          >
-            <ZoneList
-              shopId={shopId}
-              zones={ordered}
-              timeZone={timeZone}
-              selectedZoneId={shown.id}
-            />
-          </ScrollView>
-        </View>
-        <View style={styles.detailColumn} testID="zone-detail">
-          <Text style={type.title} role="heading" aria-level={2}>
-            {shown.name}
-          </Text>
-          <ZoneHistory
-            shopId={shopId}
-            zone={shown}
-            timeZone={timeZone}
-            chartHeight={360}
-            range={range}
-            onRangeChange={onRangeChange}
-          />
-          <ZoneSurfaces shopId={shopId} zoneId={shown.id} />
-        </View>
-      </View>
+      <ZoneColumns shopId={shopId} zones={ordered} timeZone={timeZone} selectedZoneId={shown.id}>
+        <Text style={type.title} role="heading" aria-level={2}>
+          {shown.name}
+        </Text>
+        <ZoneHistory
+          shopId={shopId}
+          zone={shown}
+          timeZone={timeZone}
+          chartHeight={360}
+          range={range}
+          onRangeChange={onRangeChange}
+        />
+        <ZoneSurfaces shopId={shopId} zoneId={shown.id} />
+      </ZoneColumns>
     );
   } else if (selected) {
     body = (
@@ -138,16 +117,8 @@ export function ZonesScreen({ zoneId, range, onRangeChange }: ZonesScreenProps) 
   return <SetupChecklist shop={shop}>{body}</SetupChecklist>;
 }
 
-// The shop header, the page's top and bottom padding and the level strip above the list.
-const WIDE_CHROME_PX = 160;
-
 const styles = StyleSheet.create({
-  columns: { flexDirection: 'row', alignItems: 'flex-start', gap: space.xl },
-  listColumn: { width: LIST_COLUMN_WIDTH, flexShrink: 0, gap: space.md },
-  detailColumn: { flex: 1, minWidth: 0, gap: space.md },
   stack: { gap: space.md },
-  // Room for the selected card's border inside the scrolling box.
-  listScroll: { padding: 2 },
   back: {
     ...type.body,
     color: colors.air,

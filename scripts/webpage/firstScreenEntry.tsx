@@ -7,12 +7,19 @@
  */
 import { QueryClientProvider } from '@tanstack/react-query';
 import * as ReactDomServer from 'react-dom/server';
-import { AppRegistry } from 'react-native';
+import { AppRegistry, Dimensions } from 'react-native';
+import { SafeAreaProvider } from 'react-native-safe-area-context';
 
+import { BREAKPOINTS } from '@/components/layout';
 import { FixedLiveStatus } from '@/components/live';
-import { createQueryClient, meKeys } from '@/components/queries';
+import { alarmKeys, createQueryClient, meKeys, sensorKeys, zoneKeys } from '@/components/queries';
 import { FirstScreen } from '@/components/shop/FirstScreen';
-import type { FirstScreenInput, FirstScreenMarkup } from '@/ingest/wire/firstScreen';
+import { LIST_MIN_HEIGHT_PX, WIDE_CHROME_PX } from '@/components/zones/ZoneColumns';
+import {
+  FIRST_SCREEN_ID,
+  type FirstScreenInput,
+  type FirstScreenMarkup,
+} from '@/ingest/wire/firstScreen';
 
 const APP_KEY = 'FirstScreen';
 
@@ -27,20 +34,77 @@ interface WebApplication {
   getStyleElement: () => React.ReactElement;
 }
 
+/** No notch or home bar is known on the server; the app pads by the real insets. */
+const NO_INSETS = {
+  frame: { x: 0, y: 0, width: 0, height: 0 },
+  insets: { top: 0, left: 0, right: 0, bottom: 0 },
+};
+
 function Root({ input }: { input: FirstScreenInput }) {
-  // useUnitPref and the shop come from /me's answer, as in the app.
+  // The queries the frame and the overview read, filled with the answers their GETs get.
   const queryClient = createQueryClient();
   queryClient.setQueryData(meKeys.all, input.me);
+  queryClient.setQueryData(zoneKeys.list(input.shopId), { zones: input.zones });
+  queryClient.setQueryData(alarmKeys.list(input.shopId, 'open'), { alarms: input.alarms });
+  queryClient.setQueryData(sensorKeys.list(input.shopId), input.sensors);
   return (
-    <QueryClientProvider client={queryClient}>
-      <FixedLiveStatus status="connecting">
-        <FirstScreen {...input} />
-      </FixedLiveStatus>
-    </QueryClientProvider>
+    <SafeAreaProvider initialMetrics={NO_INSETS}>
+      <QueryClientProvider client={queryClient}>
+        <FixedLiveStatus status="connecting">
+          <FirstScreen {...input} />
+        </FixedLiveStatus>
+      </QueryClientProvider>
+    </SafeAreaProvider>
   );
 }
 
+/**
+ * The widths from which the app lays a shop's page out anew (getBreakpoints: phone, medium,
+ * wide). The server does not know the window's: it renders each layout once, at its narrowest
+ * width, and the page's CSS shows the one whose range holds the window, so the cards stand where
+ * the app's will at any width.
+ */
+const LAYOUT_MIN_WIDTHS = [0, BREAKPOINTS.medium, BREAKPOINTS.wide];
+/** Only the wide list's scrolling box reads the height; LAYOUT_CSS sets it from the window's. */
+const RENDER_HEIGHT_PX = 900;
+
+const layoutClass = (i: number) => `${FIRST_SCREEN_ID}-layout-${i}`;
+
+/**
+ * Which layout shows at which width (min-width only: `width >= BREAKPOINTS.x`, as the app's
+ * test), the wide list's height from the window's as ZoneColumns computes it, and no control
+ * that would do nothing before the app runs: buttons keep their place but are not shown; the
+ * shop switcher stays as the shop's name.
+ */
+const LAYOUT_CSS = [
+  // min-height 0, as react-native-web gives every View: the page's own scroller scrolls, not this.
+  `.${layoutClass(0)},.${layoutClass(1)},.${layoutClass(2)}{flex:1;min-height:0;flex-direction:column;display:none}`,
+  `.${layoutClass(0)}{display:flex}`,
+  ...LAYOUT_MIN_WIDTHS.slice(1).map(
+    (width, i) =>
+      `@media (min-width:${width}px){.${layoutClass(i)}{display:none}.${layoutClass(i + 1)}{display:flex}}`,
+  ),
+  `#${FIRST_SCREEN_ID} [data-testid="zone-list-scroll"]{max-height:max(${LIST_MIN_HEIGHT_PX}px,calc(100vh - ${WIDE_CHROME_PX}px))!important}`,
+  `#${FIRST_SCREEN_ID} :is(button,[role="button"]):not([data-testid="shop-switcher"]){visibility:hidden}`,
+  `#${FIRST_SCREEN_ID} [data-testid="shop-switcher"]{pointer-events:none}`,
+  `#${FIRST_SCREEN_ID} [data-testid="shop-switcher"]>[aria-hidden="true"]{visibility:hidden}`,
+].join('');
+
 AppRegistry.registerComponent(APP_KEY, () => Root);
+
+/**
+ * React's hoistable style elements (`<style href precedence>`, e.g. FocusRingStyle), which
+ * renderToString leaves where they were rendered. The app's React finds one already in the
+ * document by its href and keeps it instead of adding its own, so it must not go with the
+ * first screen at the handover: it moves to the head, once.
+ */
+const HOISTED_STYLE = /<style data-precedence="[^"]*" data-href="[^"]*">[\s\S]*?<\/style>/g;
+
+/** react-native-web's window size, which useWindowDimensions (and so useBreakpoints) reads. */
+function setWindowWidth(width: number): void {
+  const size = { width, height: RENDER_HEIGHT_PX, scale: 1, fontScale: 1 };
+  (Dimensions as unknown as { set: (d: object) => void }).set({ window: size, screen: size });
+}
 
 export function renderFirstScreen(input: FirstScreenInput): FirstScreenMarkup {
   const app = (
@@ -49,8 +113,18 @@ export function renderFirstScreen(input: FirstScreenInput): FirstScreenMarkup {
     }
   ).getApplication(APP_KEY, { initialProps: { input } });
   // The markup first: rendering it is what fills the style sheet the element then holds.
-  const html = renderToString(app.element);
-  const css = renderToString(app.getStyleElement());
+  const hoisted = new Set<string>();
+  const html = LAYOUT_MIN_WIDTHS.map((width, i) => {
+    setWindowWidth(width);
+    const markup = renderToString(app.element).replace(HOISTED_STYLE, (style) => {
+      hoisted.add(style);
+      return '';
+    });
+    return `<div class="${layoutClass(i)}">${markup}</div>`;
+  }).join('');
+  const css =
+    `${renderToString(app.getStyleElement())}${[...hoisted].join('')}` +
+    `<style>${LAYOUT_CSS}</style>`;
   return { html, css };
 }
 
@@ -86,6 +160,8 @@ function sampleInput(nowMs: number): FirstScreenInput {
     },
     shopId: shop.id,
     zones,
+    alarms: [],
+    sensors: { sensors: [], mqtt: null },
   };
 }
 

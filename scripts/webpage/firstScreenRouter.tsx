@@ -31,3 +31,8 @@ export function useRouter(): Record<string, never> {
 export function usePathname(): string {
   return '';
 }
+
+/** The shop frame's redirect of the signed-out: never rendered, the server renders members only. */
+export function Redirect(): null {
+  return null;
+}

@@ -33,8 +33,8 @@ describe('the shop frame (390×844)', () => {
     shopUrl = `${suite.server.baseUrl}/shops/${suite.server.demo.shopId}`;
   });
   afterAll(() => page?.close());
-  // A failed case must not leave /me failing for the next one.
-  afterEach(() => page.unroute('**/api/v1/me'));
+  // A failed case must not leave /me failing, or the page plain, for the next one.
+  afterEach(() => page.unrouteAll());
 
   it.each(ERROR_PAGES)('shows the error with a retry when /me fails on %s', async (path) => {
     // The server is up but answers /me with a 503, as when PostgreSQL is away.
@@ -46,6 +46,12 @@ describe('the shop frame (390×844)', () => {
           error: { code: 'unavailable', message: 'The database is not answering.', details: [] },
         }),
       }),
+    );
+    // The overview the server renders holds /me's answer (server/firstScreen.ts), and a server
+    // whose database fails renders none: the page comes plain, as it would then.
+    const plainPage = await (await fetch(`${suite.server.baseUrl}/`)).text();
+    await page.route(`${shopUrl}${path}`, (route) =>
+      route.fulfill({ status: 200, contentType: 'text/html', body: plainPage }),
     );
     await page.goto(`${shopUrl}${path}`);
     const notice = page.getByTestId('shop-error');

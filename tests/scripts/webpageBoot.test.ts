@@ -13,7 +13,9 @@ import { afterEach, describe, expect, it, vi } from 'vitest';
 import { alarmsQueryOptions } from '@/components/queries/alarms';
 import { EARLY_GLOBAL, type EarlyAnswers } from '@/components/queries/early';
 import { meQueryOptions } from '@/components/queries/me';
+import { sensorsQueryOptions } from '@/components/queries/sensors';
 import { zonesQueryOptions } from '@/components/queries/zones';
+import { FIRST_SCREEN_ANSWERS_ID, firstScreenAnswerPaths } from '@/ingest/wire/firstScreen';
 import { boot, earlyApiPaths, routeFilesFor } from '@/scripts/webpage/boot';
 import {
   bootScript,
@@ -50,11 +52,13 @@ describe('earlyApiPaths', () => {
     expect(earlyApiPaths('/sign-in')).toEqual([me]);
   });
 
-  it('asks the overview for exactly the paths the app requests: /me, open alarms, zones', async () => {
+  it('asks the overview for exactly the paths the app requests: /me, open alarms, zones, sensors', async () => {
     const expected = [
       await pathFetchedBy(meQueryOptions().queryFn),
       await pathFetchedBy(alarmsQueryOptions(SHOP, 'open').queryFn),
       await pathFetchedBy(zonesQueryOptions(SHOP).queryFn),
+      // The setup checklist above the zones (SetupChecklist) lists the sensors.
+      await pathFetchedBy(sensorsQueryOptions(SHOP).queryFn),
     ];
     expect(earlyApiPaths(shopAddress)).toEqual(expected);
     expect(earlyApiPaths(`${shopAddress}/`)).toEqual(expected);
@@ -150,7 +154,8 @@ describe('routeChunksOf', () => {
 describe('boot (the page before the app)', () => {
   const chunks = routeChunksOf(ENTRY_SAMPLE);
 
-  function fakeWindow(pathname: string, nowMs: number) {
+  /** `embedded`: the text of the server's answers element, when the page has one. */
+  function fakeWindow(pathname: string, nowMs: number, embedded?: string) {
     const requested: { path: string; init: RequestInit }[] = [];
     const head: { rel: string; as: string; href: string }[] = [];
     const win = {
@@ -160,7 +165,12 @@ describe('boot (the page before the app)', () => {
         requested.push({ path: p, init });
         return Promise.resolve(new Response('{}'));
       },
+      Response,
       document: {
+        getElementById: (id: string) =>
+          id === FIRST_SCREEN_ANSWERS_ID && embedded !== undefined
+            ? { textContent: embedded }
+            : null,
         createElement: () => ({ rel: '', as: '', href: '' }),
         head: { appendChild: (link: { rel: string; as: string; href: string }) => head.push(link) },
       },
@@ -183,6 +193,28 @@ describe('boot (the page before the app)', () => {
     const early = (win as unknown as Record<string, EarlyAnswers>)[EARLY_GLOBAL]!;
     expect(early.startedMs).toBe(42);
     expect(Object.keys(early.answers)).toEqual(earlyApiPaths('/shops/s1'));
+  });
+
+  it('takes the answers the server rendered the page from instead of asking again', async () => {
+    const paths = firstScreenAnswerPaths('s1');
+    const zones = { zones: [{ id: 'z1', name: '</script> bench' }] };
+    const embedded = JSON.stringify({ [paths.me]: { user: { id: 'u1' } }, [paths.zones]: zones });
+    const { win, requested } = fakeWindow('/shops/s1', 7, embedded);
+    boot(win as never, chunks);
+    // Only the paths the page did not hold are asked for.
+    expect(requested.map((r) => r.path)).toEqual([paths.alarms, paths.sensors]);
+    const early = (win as unknown as Record<string, EarlyAnswers>)[EARLY_GLOBAL]!;
+    expect(Object.keys(early.answers)).toEqual(earlyApiPaths('/shops/s1'));
+    const answer = await early.answers[paths.zones]!;
+    expect(answer.status).toBe(200);
+    expect(answer.headers.get('content-type')).toBe('application/json');
+    expect(await answer.json()).toEqual(zones);
+  });
+
+  it('asks for everything when the embedded answers do not read as JSON', () => {
+    const { win, requested } = fakeWindow('/shops/s1', 7, '{"/api/v1/me": ');
+    boot(win as never, chunks);
+    expect(requested.map((r) => r.path)).toEqual(earlyApiPaths('/shops/s1'));
   });
 
   it("preloads the address's layouts and screen as scripts, and nothing else", () => {

@@ -10,7 +10,11 @@ import path from 'node:path';
 import request from 'supertest';
 import { afterAll, beforeAll, describe, expect, it } from 'vitest';
 
-import { FIRST_SCREEN_ID } from '@/ingest/wire/firstScreen';
+import {
+  FIRST_SCREEN_ANSWERS_ID,
+  FIRST_SCREEN_ID,
+  firstScreenAnswerPaths,
+} from '@/ingest/wire/firstScreen';
 import { buildFirstScreenRenderer, RENDERER_PATH } from '@/scripts/webpage/firstScreenBuild';
 import { FIRST_SCREEN_RENDERER } from '@/server/firstScreen';
 
@@ -40,6 +44,14 @@ function firstScreenOf(html: string): string | null {
   const start = html.indexOf(`<div id="${FIRST_SCREEN_ID}"`);
   if (start < 0) return null;
   return html.slice(start, html.indexOf('<div id="root">'));
+}
+
+/** The page's embedded API answers by path; none in a plain page. */
+function answersOf(html: string): Record<string, unknown> {
+  const found = new RegExp(
+    `<script type="application/json" id="${FIRST_SCREEN_ANSWERS_ID}">([\\s\\S]*?)</script>`,
+  ).exec(html);
+  return found ? (JSON.parse(found[1]!) as Record<string, unknown>) : {};
 }
 
 type Owner = Awaited<ReturnType<typeof ownerWithSensor>>;
@@ -110,7 +122,13 @@ describe("the overview's first screen", () => {
     const res = await mine.agent.get(`/shops/${mine.shopId}`).expect(200);
     expect(firstScreenOf(res.text)).not.toBeNull();
     const scripts = (html: string) => [...html.matchAll(/<script[^>]*>[\s\S]*?<\/script>/g)];
-    expect(scripts(res.text).map((m) => m[0])).toEqual(scripts(plain.text).map((m) => m[0]));
+    // Every script the plain page has, and one more that is data, never run (HTML § 4.12.1:
+    // a type that is not a JavaScript MIME type makes a data block).
+    const [data, ...run] = scripts(res.text).map((m) => m[0]);
+    expect(data).toMatch(
+      new RegExp(`^<script type="application/json" id="${FIRST_SCREEN_ANSWERS_ID}">`),
+    );
+    expect(run).toEqual(scripts(plain.text).map((m) => m[0]));
     expect(res.headers['content-security-policy']).toBe(plain.headers['content-security-policy']);
   });
 
@@ -161,6 +179,113 @@ describe("the overview's first screen", () => {
     const mine = await shopWithReading('Spindle sander');
     const res = await mine.agent.get(url).expect(200);
     expect(res.text).toBe(PAGE);
+  });
+
+  it('holds the API answers it was rendered from, equal to what the routes answer', async () => {
+    const mine = await ownerWithSensor(t);
+    // Surface 2 K under the dew point of 20 °C / 50 % RH (9.3 °C, as above): wet for five
+    // minutes, which opens a wet-surface alarm (tests/server/ingestState.test.ts).
+    const start = Date.now() - 5 * 60_000;
+    const readings = [0, 1, 2, 3, 4].map((m) => ({
+      at: new Date(start + m * 60_000).toISOString(),
+      air: 20,
+      rh: 50,
+      surface: 7.3,
+    }));
+    await postIngest(t.app, mine.token, { readings }).expect(202);
+    const paths = firstScreenAnswerPaths(mine.shopId);
+    let alarms: { alarms: unknown[] } = { alarms: [] };
+    for (let i = 0; i < 100 && alarms.alarms.length === 0; i++) {
+      alarms = (await mine.agent.get(paths.alarms).expect(200)).body;
+      if (alarms.alarms.length === 0) await new Promise((r) => setTimeout(r, 50));
+    }
+    expect(alarms.alarms.length).toBeGreaterThan(0);
+
+    const res = await mine.agent.get(`/shops/${mine.shopId}`).expect(200);
+    const answers = answersOf(res.text);
+    const all = [paths.me, paths.zones, paths.alarms, paths.sensors];
+    expect(Object.keys(answers).sort()).toEqual([...all].sort());
+    for (const path of all) {
+      const api = await mine.agent.get(path).expect(200);
+      expect(answers[path], path).toEqual(api.body);
+    }
+    // The frame the app shows around the cards: the open alarm's banner, above them.
+    const screen = firstScreenOf(res.text)!;
+    expect(screen).toContain('data-testid="alarm-banner"');
+    expect(screen.indexOf('data-testid="alarm-banner"')).toBeLessThan(
+      screen.indexOf('data-testid="zone-card"'),
+    );
+  });
+
+  it("escapes a zone's name so it cannot end the answers' element", async () => {
+    const name = '</script><script>alert(1)</script><!--';
+    const mine = await shopWithReading(name);
+    const plain = await request(t.app).get('/').expect(200);
+    const res = await mine.agent.get(`/shops/${mine.shopId}`).expect(200);
+    // The name reads back whole from the JSON, and no script element is added but the data.
+    const answers = answersOf(res.text);
+    const zones = answers[firstScreenAnswerPaths(mine.shopId).zones] as {
+      zones: { name: string }[];
+    };
+    expect(zones.zones.map((z) => z.name)).toEqual([name]);
+    expect(res.text).not.toContain('<script>alert(1)');
+    const count = (html: string) => html.match(/<script/g)?.length ?? 0;
+    expect(count(res.text)).toBe(count(plain.text) + 1);
+    // In the markup React escapes it as text (&lt;/script&gt;…).
+    expect(firstScreenOf(res.text)).toContain('&lt;/script&gt;&lt;script&gt;alert(1)');
+  });
+
+  it("renders the app's three layouts, one shown per width from the app's breakpoints", async () => {
+    const mine = await shopWithReading('Bandsaw nook');
+    const res = await mine.agent.get(`/shops/${mine.shopId}`).expect(200);
+    const screen = firstScreenOf(res.text)!;
+    const layouts = screen.split(/<div class="first-screen-layout-\d">/).slice(1);
+    expect(layouts).toHaveLength(3);
+    // components/layout/breakpoints.ts: medium from 640 px, wide from 1024 px.
+    expect(res.text).toContain('@media (min-width:640px)');
+    expect(res.text).toContain('@media (min-width:1024px)');
+    // Phone and medium: the bottom bar and the list; wide: the rail and the list beside the zone.
+    for (const phone of layouts.slice(0, 2)) {
+      expect(phone).toContain('data-testid="shop-nav-bar"');
+      expect(phone).not.toContain('data-testid="zone-list-scroll"');
+    }
+    expect(layouts[2]).toContain('data-testid="shop-nav-rail"');
+    expect(layouts[2]).toContain('data-testid="zone-list-scroll"');
+    expect(layouts[2]).toContain('data-testid="zone-detail"');
+    // React's hoisted styles (the focus ring) go to the head, once, so they stay after the
+    // handover: the app's React keeps the one it finds instead of adding its own.
+    expect(screen).not.toContain('<style');
+    const head = res.text.slice(0, res.text.indexOf('</head>'));
+    expect(head.match(/<style [^>]*data-href="drybench-focus-ring"/g)).toHaveLength(1);
+    for (const layout of layouts) {
+      expect(layout.match(/data-testid="zone-card"/g)).toHaveLength(1);
+      expect(layout.match(/aria-level="1"/g)).toHaveLength(1);
+    }
+  });
+
+  it('sends the rendered page compressed to a browser that takes it, brotli first', async () => {
+    const mine = await shopWithReading('Mortiser stand');
+    // supertest decodes what it gets; Content-Length is what was sent.
+    const get = (encoding: string) =>
+      mine.agent.get(`/shops/${mine.shopId}`).set('Accept-Encoding', encoding).expect(200);
+    const plain = await get('identity');
+    expect(plain.headers['content-encoding']).toBeUndefined();
+    expect(firstScreenOf(plain.text)).toContain('Mortiser stand');
+    const sent = Number(plain.headers['content-length']);
+    expect(sent).toBe(Buffer.byteLength(plain.text));
+    // RFC 9110 §12.5.3: the browser's list ("gzip, deflate, br"); we prefer brotli (RFC 7932).
+    for (const [accept, coding] of [
+      ['gzip, deflate, br', 'br'],
+      ['gzip', 'gzip'],
+    ] as const) {
+      const res = await get(accept);
+      expect(res.headers['content-encoding']).toBe(coding);
+      expect(res.headers['vary']).toMatch(/Accept-Encoding/i);
+      expect(res.headers['vary']).toMatch(/Cookie/i);
+      expect(firstScreenOf(res.text)).toContain('Mortiser stand');
+      // Markup repeats itself (three layouts of the same cards): a quarter is a loose bound.
+      expect(Number(res.headers['content-length'])).toBeLessThan(sent / 4);
+    }
   });
 
   it('keeps the renderer to itself', async () => {
