@@ -141,7 +141,7 @@ const gzip = promisify(zlib.gzip);
  * A rendered page, compressed for a browser that takes it (brotli first, as for the stored
  * files). Made per request, so on the thread pool, not the request thread, and at a fast
  * brotli quality: measured on a demo overview (~125 KB of HTML), quality 5 sends ~14 KB
- * where 11 would save under a tenth more at many times the CPU (README, "The overview
+ * where 11 would save under a tenth more at many times the CPU (FINDINGS.md, "The overview
  * rendered by the server").
  */
 async function compressedPage(
