@@ -99,6 +99,8 @@ export function HumidityChart({
             containerComponent={
               <VictoryVoronoiContainer
                 responsive={false}
+                // The chart's own svg is an image too: without a title it has no name.
+                title={HISTORY_WORDS.humidityHeading}
                 voronoiDimension="x"
                 voronoiBlacklist={['cross']}
                 onActivated={(found: { x?: Date | number }[]) => {

@@ -10,6 +10,7 @@ import request from 'supertest';
 import { afterAll, beforeAll, describe, expect, it } from 'vitest';
 
 import { DEMO_PASSWORD, DEMO_PEOPLE } from '@/db/seed';
+import type { AlarmsResponse } from '@/ingest/wire/alarms';
 
 import { MINUTE_MS, withMargin } from '../support/alarms';
 import {
@@ -97,6 +98,36 @@ async function demoSurface(
   return surface.id;
 }
 
+// An open alarm in a zone of its own, so every screen is checked with the frame a wet shop shows:
+// the alarm banner and the count on the Alarms entry (a rerun finds it open).
+async function openAlarm(agent: Awaited<ReturnType<typeof ownerAgent>>, base: string) {
+  const zones = (await agent.get(`${base}/zones`).expect(200)).body.zones as { name: string }[];
+  if (zones.some((z) => z.name === WET_ZONE)) return;
+  const zone = await agent.post(`${base}/zones`).send({ name: WET_ZONE }).expect(201);
+  const sensor = await agent
+    .post(`${base}/sensors`)
+    .send({ name: `${WET_ZONE} probe`, zoneId: zone.body.id })
+    .expect(201);
+  // Three readings under the dew point confirm the level (ingest/hysteresis.ts).
+  const nowMs = Date.now();
+  for (const back of [2, 1, 0])
+    await postReading(
+      suite.server.baseUrl,
+      sensor.body.token as string,
+      withMargin(nowMs - back * MINUTE_MS, -1.2),
+    );
+  // The alarm engine judges the readings just after they are stored (within a second).
+  const openHere = async () =>
+    ((await agent.get(`${base}/alarms`).expect(200)).body as AlarmsResponse).alarms.filter(
+      (a) => a.zone.id === zone.body.id,
+    ).length;
+  const untilMs = Date.now() + 5000;
+  while ((await openHere()) === 0 && Date.now() < untilMs)
+    await new Promise((resolve) => setTimeout(resolve, 100));
+  expect(await openHere()).toBeGreaterThan(0);
+}
+const WET_ZONE = 'Outfeed bench';
+
 beforeAll(async () => {
   suite = await startBrowserSuite();
   const agent = await ownerAgent();
@@ -108,6 +139,7 @@ beforeAll(async () => {
   expect([201, 409]).toContain(res.status);
   trialId = await demoTrial(agent, base);
   surfaceId = await demoSurface(agent, base, zoneId);
+  await openAlarm(agent, base);
   sensorId = ((await agent.get(`${base}/sensors`).expect(200)).body.sensors as { id: string }[])[0]!
     .id;
 });
