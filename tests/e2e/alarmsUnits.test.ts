@@ -116,7 +116,7 @@ describe.each([
         (await agent.get(`${base()}/alarms?state=open`).expect(200)).body.alarms.length as number;
       await expect
         .poll(async () =>
-          page.getByRole('link', { name: `Alarms, ${await openCount()} open` }).count(),
+          page.getByRole('link', { name: `Alarms ${await openCount()} open` }).count(),
         )
         .toBe(1);
       expect(await notifications(page)).toEqual([]);

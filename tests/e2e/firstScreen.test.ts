@@ -12,6 +12,7 @@ import { DEMO_PEOPLE } from '@/db/seed';
 import { FIRST_SCREEN_ID } from '@/ingest/wire/firstScreen';
 
 import {
+  openInApp,
   SHOTS,
   signInAs,
   startBrowserSuite,
@@ -245,6 +246,20 @@ describe.each([
   it("says in the first card what the app's first card says", () => {
     expect(server[0]!.text).toBe(app[0]!.text);
   });
+
+  // The wide overview's history column: the app loads its chart (a lazy chunk) after taking over.
+  if (name === 'wide')
+    it("draws the first zone's chart once the app has taken over", async () => {
+      const live = await suite.browser.newContext({ viewport });
+      await live.addCookies(cookies);
+      const page = await live.newPage();
+      const errors = watchPage(page);
+      await openInApp(page, overviewUrl());
+      await page.locator('#root [data-testid="zone-chart-plot"] svg').first().waitFor();
+      expect(await page.getByText('Loading the chart…').count()).toBe(0);
+      expect(errors).toEqual([]);
+      await live.close();
+    }, 60_000);
 });
 
 // Asked once: a page the server rendered holds the answers of GET /me, the zones, the open
