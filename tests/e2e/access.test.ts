@@ -38,10 +38,11 @@ async function ownerAgent() {
     .expect(200);
   return agent;
 }
+type Agent = Awaited<ReturnType<typeof ownerAgent>>;
 
 // A trial with one ranked test, so its screen shows the standings and a rank form (a rerun
 // finds it there).
-async function demoTrial(agent: Awaited<ReturnType<typeof ownerAgent>>, base: string) {
+async function demoTrial(agent: Agent, base: string) {
   const trials = (await agent.get(`${base}/trials`).expect(200)).body.trials as { id: string }[];
   if (trials[0]) return trials[0].id;
   const trial = (
@@ -71,11 +72,7 @@ async function demoTrial(agent: Awaited<ReturnType<typeof ownerAgent>>, base: st
 
 // A surface with a coat and an inspection, so the care pages show a state, the chart's marks and
 // the log (a rerun finds it there).
-async function demoSurface(
-  agent: Awaited<ReturnType<typeof ownerAgent>>,
-  base: string,
-  zoneId: string,
-) {
+async function demoSurface(agent: Agent, base: string, zoneId: string) {
   const surfaces = (await agent.get(`${base}/surfaces`).expect(200)).body.surfaces as {
     id: string;
   }[];
@@ -98,17 +95,16 @@ async function demoSurface(
   return surface.id;
 }
 
-// An open alarm in a zone of its own, so every screen is checked with the frame a wet shop shows:
-// the alarm banner and the count on the Alarms entry (a rerun finds it open).
-async function openAlarm(agent: Awaited<ReturnType<typeof ownerAgent>>, base: string) {
-  const zones = (await agent.get(`${base}/zones`).expect(200)).body.zones as { name: string }[];
-  if (zones.some((z) => z.name === WET_ZONE)) return;
-  const zone = await agent.post(`${base}/zones`).send({ name: WET_ZONE }).expect(201);
+/**
+ * A zone of its own whose surface is wet: three readings under the dew point confirm the level
+ * (ingest/hysteresis.ts), and the alarm engine opens its alarm just after they are stored.
+ */
+async function wetZone(agent: Agent, base: string, name: string): Promise<string> {
+  const zone = await agent.post(`${base}/zones`).send({ name }).expect(201);
   const sensor = await agent
     .post(`${base}/sensors`)
-    .send({ name: `${WET_ZONE} probe`, zoneId: zone.body.id })
+    .send({ name: `${name} probe`, zoneId: zone.body.id })
     .expect(201);
-  // Three readings under the dew point confirm the level (ingest/hysteresis.ts).
   const nowMs = Date.now();
   for (const back of [2, 1, 0])
     await postReading(
@@ -116,10 +112,19 @@ async function openAlarm(agent: Awaited<ReturnType<typeof ownerAgent>>, base: st
       sensor.body.token as string,
       withMargin(nowMs - back * MINUTE_MS, -1.2),
     );
+  return zone.body.id as string;
+}
+
+// An open alarm, so every screen is checked with the frame a wet shop shows: the alarm banner and
+// the count on the Alarms entry (a rerun finds it open).
+async function openAlarm(agent: Agent, base: string) {
+  const zones = (await agent.get(`${base}/zones`).expect(200)).body.zones as { name: string }[];
+  if (zones.some((z) => z.name === WET_ZONE)) return;
+  const zoneId = await wetZone(agent, base, WET_ZONE);
   // The alarm engine judges the readings just after they are stored (within a second).
   const openHere = async () =>
     ((await agent.get(`${base}/alarms`).expect(200)).body as AlarmsResponse).alarms.filter(
-      (a) => a.zone.id === zone.body.id,
+      (a) => a.zone.id === zoneId,
     ).length;
   const untilMs = Date.now() + 5000;
   while ((await openHere()) === 0 && Date.now() < untilMs)
@@ -459,22 +464,8 @@ const focusedTestId = (page: Page) =>
 
 describe('with the keyboard alone (390×844)', () => {
   it('signs in, goes to Alarms and acknowledges an alarm without a mouse', async () => {
-    // A zone of its own with a wet surface: three readings confirm the level (ingest/hysteresis.ts).
-    const agent = await ownerAgent();
-    const base = `/api/v1/shops/${suite.server.demo.shopId}`;
     const name = `Keyboard bench ${Date.now() % 100000}`;
-    const zone = await agent.post(`${base}/zones`).send({ name }).expect(201);
-    const sensor = await agent
-      .post(`${base}/sensors`)
-      .send({ name: `${name} probe`, zoneId: zone.body.id })
-      .expect(201);
-    const nowMs = Date.now();
-    for (const back of [2, 1, 0])
-      await postReading(
-        suite.server.baseUrl,
-        sensor.body.token as string,
-        withMargin(nowMs - back * MINUTE_MS, -1.2),
-      );
+    await wetZone(await ownerAgent(), `/api/v1/shops/${suite.server.demo.shopId}`, name);
 
     const context = await suite.browser.newContext({ viewport: { width: 390, height: 844 } });
     const page = await context.newPage();
